@@ -1,0 +1,45 @@
+/**
+ * The one error type for user mistakes: a bad config key, a wrong image size, NaN pixels,
+ * inverted prior bounds, an unreadable file. The CLI prints its message without a stack
+ * trace and exits with status 2. Anything else is an internal fault (exit status 1).
+ */
+export interface InputErrorPlace {
+  /** File the problem was found in, when there is one. */
+  readonly file?: string;
+  /** Dotted key path inside a config, e.g. `source.light[0].sersicIndex`. */
+  readonly key?: string;
+  /** Pixel as [column, row], 0-based, when the problem is one pixel. */
+  readonly pixel?: readonly [number, number];
+}
+
+export class InputError extends Error {
+  readonly place: InputErrorPlace;
+
+  constructor(message: string, place: InputErrorPlace = {}) {
+    super(InputError.compose(message, place));
+    this.name = 'InputError';
+    this.place = place;
+  }
+
+  private static compose(message: string, place: InputErrorPlace): string {
+    const where: string[] = [];
+    if (place.file !== undefined) where.push(place.file);
+    if (place.key !== undefined) where.push(`key ${place.key}`);
+    if (place.pixel !== undefined) where.push(`pixel (${place.pixel[0]}, ${place.pixel[1]})`);
+    return where.length > 0 ? `${where.join(', ')}: ${message}` : message;
+  }
+}
+
+/** Builds the "expected ..., found ..." phrase used by every validation message. */
+export function expectedFound(expected: string, found: unknown): string {
+  return `expected ${expected}, found ${describeValue(found)}`;
+}
+
+export function describeValue(value: unknown): string {
+  if (value === undefined) return 'nothing';
+  if (value === null) return 'null';
+  if (typeof value === 'string') return JSON.stringify(value);
+  if (typeof value === 'number' || typeof value === 'boolean') return String(value);
+  if (Array.isArray(value)) return `a list of ${value.length}`;
+  return 'a mapping';
+}

@@ -1,0 +1,1 @@
+export { InputError } from "./errors.js";

@@ -1,0 +1,29 @@
+/**
+ * The contract every lensing mass profile meets. Parameters travel as a flat Float64Array
+ * `p` read from index `offset` in the order of `parameterNames`, so the hot path allocates
+ * nothing. Positions are image-plane arcsec in arcsift's convention (see README); deflections
+ * are arcsec, convergence is dimensionless, the potential is arcsec^2.
+ * Every method ADDS its contribution to the output arrays (so components superpose).
+ */
+export interface MassProfile {
+  /** Config name of the profile, e.g. `isothermalEllipsoid`. */
+  readonly kind: string;
+  /** Names (with units in the name where needed) of the entries of p this profile reads. */
+  readonly parameterNames: readonly string[];
+  addDeflection(
+    p: Float64Array, offset: number,
+    x: Float64Array, y: Float64Array, n: number,
+    alphaX: Float64Array, alphaY: Float64Array,
+  ): void;
+  addConvergence(
+    p: Float64Array, offset: number,
+    x: Float64Array, y: Float64Array, n: number,
+    kappa: Float64Array,
+  ): void;
+  /** Present only where the potential is analytic. */
+  addPotential?(
+    p: Float64Array, offset: number,
+    x: Float64Array, y: Float64Array, n: number,
+    psi: Float64Array,
+  ): void;
+}

@@ -1,0 +1,24 @@
+/**
+ * The contract every surface-brightness profile meets. The model image is linear in each
+ * component's amplitudes, so a profile writes its basis images at unit amplitude and the
+ * caller (simulation or the marginalised likelihood) weights them.
+ * Positions are arcsec (source plane for source light, image plane for lens light);
+ * brightness is image units per arcsec^2.
+ */
+export interface LightProfile {
+  /** Config name, e.g. `sersic`. */
+  readonly kind: string;
+  /** Nonlinear parameters read from p at offset, in this order (amplitudes excluded). */
+  readonly parameterNames: readonly string[];
+  /** How many linear amplitudes (basis functions) this component has. */
+  readonly basisCount: number;
+  /**
+   * Writes basis function k at unit amplitude at the n positions into
+   * out[outOffset + k * stride + i], for k < basisCount and i < n.
+   */
+  writeBasis(
+    p: Float64Array, offset: number,
+    x: Float64Array, y: Float64Array, n: number,
+    out: Float64Array, outOffset: number, stride: number,
+  ): void;
+}
