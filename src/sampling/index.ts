@@ -1,0 +1,5 @@
+export * from './priors/index.js';
+export { ParameterSpace } from './parameterSpace.js';
+export type { ParameterEntry, PriorDescription } from './parameterSpace.js';
+export { Random } from './random.js';
+export type { RandomState } from './random.js';
