@@ -1,0 +1,15 @@
+import { flatLambdaCdm, type FlatLambdaCdm, type FlatLambdaCdmParameters } from './flatLambdaCdm.js';
+
+/**
+ * Planck 2018 TT,TE,EE+lowE+lensing+BAO (Planck Collaboration 2020, A&A 641, A6, Table 2,
+ * last column): H0 = 67.66 km/s/Mpc, Omega_m = 0.3111 (values from memory). Omega_m here is the
+ * total matter density, massive neutrinos included; radiation is neglected.
+ */
+export const defaultCosmologyParameters: FlatLambdaCdmParameters = Object.freeze({
+  name: 'Planck 2018 TT,TE,EE+lowE+lensing+BAO (Planck Collaboration 2020, A&A 641, A6, Table 2)',
+  hubbleConstantKmPerSecPerMpc: 67.66,
+  matterDensity: 0.3111,
+});
+
+/** The cosmology arcsift uses when a config names none. */
+export const defaultCosmology: FlatLambdaCdm = flatLambdaCdm(defaultCosmologyParameters);
