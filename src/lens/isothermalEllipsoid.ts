@@ -1,3 +1,4 @@
+import { zeroedDeflectionScratch } from './deflectionScratch.js';
 import type { MassProfile } from './massProfile.js';
 
 /**
@@ -79,9 +80,7 @@ export const isothermalEllipsoid: MassProfile = {
     const g = readGeometry(p, offset);
     const { cos, sin, cx, cy, q, sK, qs2 } = g;
     const e2 = (1 - q) * (1 + q);
-    const alphaX = scratch(n, 0), alphaY = scratch(n, 1);
-    alphaX.fill(0, 0, n);
-    alphaY.fill(0, 0, n);
+    const { alphaX, alphaY } = zeroedDeflectionScratch(n);
     isothermalEllipsoid.addDeflection(p, offset, x, y, n, alphaX, alphaY);
     const bsK = g.b * sK;
     const constant = sK > 0 ? bsK * Math.log((1 + q) * sK) : 0;
@@ -128,11 +127,4 @@ function readGeometry(p: Float64Array, offset: number): typeof geometry {
   g.qqsK = g.q * g.q * g.sK;
   g.qs2 = g.q * g.s * g.s;
   return g;
-}
-
-/** Reused deflection buffers for the potential, grown when a call needs more room. */
-const buffers: Float64Array[] = [new Float64Array(0), new Float64Array(0)];
-function scratch(n: number, which: 0 | 1): Float64Array {
-  if (buffers[which].length < n) buffers[which] = new Float64Array(n);
-  return buffers[which];
 }

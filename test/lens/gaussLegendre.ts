@@ -29,20 +29,24 @@ export function gaussLegendre(n: number): GaussRule {
 }
 
 /**
- * Composite Gauss-Legendre integral of f over [0, 1] on geometrically graded panels
- * [0, r^-k], ..., [r^-2, r^-1], [r^-1, 1] (ratio r = 4, `levels` panels), so that integrands
- * with a steep but integrable feature at 0 are resolved.
+ * Composite Gauss-Legendre integral of f over [0, 1] on panels graded geometrically (ratio 4,
+ * `levels` panels on each side) towards both ends, [0, 1/2] towards 0 and [1/2, 1] towards 1,
+ * so that integrands with a steep but integrable feature at either end are resolved.
  */
 export function integrateGraded(f: (w: number) => number, rule: GaussRule, levels = 24): number {
   let total = 0;
-  let upper = 1;
+  let width = 0.5;
   for (let level = 0; level <= levels; level++) {
-    const lower = level === levels ? 0 : upper / 4;
-    const half = 0.5 * (upper - lower), middle = 0.5 * (upper + lower);
-    for (let i = 0; i < rule.nodes.length; i++) {
-      total += rule.weights[i] * half * f(middle + half * rule.nodes[i]);
-    }
-    upper = lower;
+    const inner = level === levels ? 0 : width / 4;
+    total += panel(f, rule, inner, width) + panel(f, rule, 1 - width, 1 - inner);
+    width = inner;
   }
   return total;
+}
+
+function panel(f: (w: number) => number, rule: GaussRule, lower: number, upper: number): number {
+  const half = 0.5 * (upper - lower), middle = 0.5 * (upper + lower);
+  let sum = 0;
+  for (let i = 0; i < rule.nodes.length; i++) sum += rule.weights[i] * f(middle + half * rule.nodes[i]);
+  return half * sum;
 }
