@@ -73,10 +73,11 @@ describe('marginalised-amplitude likelihood', () => {
     const analytic = new MarginalisedAmplitudes(data, sigma, k, s).logLikelihood(basis);
     const cov = new Matrix(n, n);
     for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
+      for (let j = 0; j <= i; j++) {
         let v = i === j ? sigma[i] ** 2 : 0;
         for (let p = 0; p < k; p++) v += s * s * basis[p * n + i] * basis[p * n + j];
         cov.set(i, j, v);
+        cov.set(j, i, v);
       }
     }
     const factor = new CholeskyDecomposition(cov);
