@@ -3,3 +3,4 @@ export { ParameterSpace } from './parameterSpace.js';
 export type { ParameterEntry, PriorDescription } from './parameterSpace.js';
 export { Random } from './random.js';
 export type { RandomState } from './random.js';
+export * from './diagnostics/index.js';

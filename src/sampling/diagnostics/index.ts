@@ -1,0 +1,14 @@
+export { AutocovariancePlan } from './autocovariance.js';
+export { parameterDraws } from './chainLayout.js';
+export type { ChainLayout } from './chainLayout.js';
+export { averagedAutocorrelation } from './averagedAutocorrelation.js';
+export { integratedAutocorrelationTime, ensembleAutocorrelationTimes } from './integratedAutocorrelationTime.js';
+export type { AutocorrelationTimeEstimate, EnsembleAutocorrelationTimes } from './integratedAutocorrelationTime.js';
+export { splitChains } from './splitChains.js';
+export type { Draws } from './splitChains.js';
+export { rankNormalize } from './rankNormalize.js';
+export { chainMoments } from './chainMoments.js';
+export type { ChainMoments } from './chainMoments.js';
+export { potentialScaleReduction, splitRHat } from './rHat.js';
+export { effectiveSampleSize, bulkEffectiveSampleSize, tailEffectiveSampleSize } from './effectiveSampleSize.js';
+export { quantileOfSorted } from './sampleQuantile.js';
