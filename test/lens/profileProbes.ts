@@ -65,3 +65,20 @@ export function annulusPoints(count: number, rMin: number, rMax: number, cx = 0,
 export function relativeVectorError(a: readonly number[], b: readonly number[]): number {
   return Math.hypot(a[0] - b[0], a[1] - b[1]) / Math.hypot(b[0], b[1]);
 }
+
+/**
+ * Largest relative errors over the points of kappa against half the numerical divergence of
+ * alpha, and of alpha against the numerical gradient of psi (Poisson equation of lensing,
+ * div alpha = 2 kappa, alpha = grad psi), central differences with step h.
+ */
+export function poissonErrors(
+  profile: MassProfile, p: Float64Array, points: ReadonlyArray<readonly [number, number]>, h: number,
+): { kappa: number; gradient: number } {
+  let kappaError = 0, gradientError = 0;
+  for (const [x, y] of points) {
+    const kappa = convergenceAt(profile, p, x, y);
+    kappaError = Math.max(kappaError, Math.abs(halfDivergence(profile, p, x, y, h) - kappa) / Math.abs(kappa));
+    gradientError = Math.max(gradientError, relativeVectorError(potentialGradient(profile, p, x, y, h), deflectionAt(profile, p, x, y)));
+  }
+  return { kappa: kappaError, gradient: gradientError };
+}
