@@ -12,7 +12,8 @@ import type { MassProfile } from './massProfile.js';
  * With q = 1 and s = 0 this is the SIS, |alpha| = thetaE everywhere. The core radius is added to
  * xi in quadrature, so s is measured in the same geometric-mean sense as thetaE.
  * The major axis lies at positionAngleDeg, counter-clockwise from +x. axisRatio > 1 is invalid
- * (checked at config loading). At the centre of a coreless profile the deflection is set to 0.
+ * (checked at config loading). At the centre of a coreless profile the deflection is set to 0
+ * and kappa is +Infinity.
  *
  * Written as kappa = (b/2) / sqrt(q^2 (sK^2 + x'^2) + y'^2) with b = thetaE sqrt(q) and
  * sK = s / sqrt(q), the deflection in the major-axis frame is

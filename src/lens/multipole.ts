@@ -24,7 +24,7 @@ export const multipoleOrders: readonly MultipoleOrder[] = [1, 3, 4];
  * k/(k^2 - 1) rho (zero convergence, a uniform deflection -a thetaE k/(k^2 - 1) (cos phiM, sin phiM)),
  * so that psi stays finite through the resonance k = m = 1 (gamma = 2), where it becomes
  * (a thetaE / 2) r ln(r / thetaE) cos(phi - phiM). (rho^u - 1)/u is evaluated as expm1(u ln rho)/u,
- * exact in floating point for every u != 0 and ln rho at u = 0, so slopes near 2 are stable.
+ * accurate to rounding for every u != 0, and is ln rho at u = 0, so slopes near 2 are stable.
  * The deflection is the gradient of psi; at the centre nothing is added (deflection and
  * potential are 0 or divergent there, kappa has no limit).
  */

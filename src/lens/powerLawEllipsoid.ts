@@ -11,7 +11,7 @@ import type { MassProfile } from './massProfile.js';
  * valid 1 < gamma < 3) and 0 < q <= 1. The ellipse xi = thetaE (area pi thetaE^2) encloses mean
  * convergence 1 for every slope and axis ratio; at gamma = 2 the profile is the coreless
  * isothermalEllipsoid. The major axis lies at positionAngleDeg, counter-clockwise from +x.
- * At the centre the deflection is set to 0 (it is 0 or divergent there).
+ * At the centre the deflection is set to 0 (it is 0 or divergent there) and kappa is +Infinity.
  *
  * Deflection (Tessore & Metcalf 2015, A&A 580, A79), with t = gamma - 1,
  * b = thetaE sqrt(q), R = sqrt(q^2 x'^2 + y'^2) and the elliptical angle e^(i phi) = (q x' + i y')/R:

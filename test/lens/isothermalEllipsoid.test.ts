@@ -83,6 +83,26 @@ describe('isothermalEllipsoid', () => {
     });
   }
 
+  it('without a core, the critical curve is the ellipse xi = thetaE', () => {
+    // For the SIE |shear| = kappa, so det A = 1 - 2 kappa vanishes where kappa = 1/2, the
+    // isodensity ellipse xi = thetaE (Kormann, Schneider & Bartelmann 1994; from memory).
+    // Numerical Jacobian, h = 1e-4 arcsec: det error ~ h^2 / xi^2 ~ 1e-8, hence 1e-6.
+    const thetaE = 1.2, q = 0.6, angleDeg = 35, cx = 0.1, cy = -0.2;
+    const p = sieParameters(thetaE, q, angleDeg, cx, cy, 0);
+    const c = Math.cos(angleDeg * Math.PI / 180), s = Math.sin(angleDeg * Math.PI / 180);
+    const determinantAt = (scale: number, u: number) => {
+      const xr = scale * thetaE * Math.cos(u) / Math.sqrt(q), yr = scale * thetaE * Math.sqrt(q) * Math.sin(u);
+      const [a, b, cc, d] = lensJacobian(isothermalEllipsoid, p, cx + c * xr - s * yr, cy + s * xr + c * yr, STEP_ARCSEC);
+      return a * d - b * cc;
+    };
+    for (let k = 0; k < 36; k++) {
+      const u = 2 * Math.PI * (k + 0.3) / 36;
+      expect(Math.abs(determinantAt(1, u))).toBeLessThan(1e-6);
+      expect(determinantAt(0.9, u)).toBeLessThan(-0.05);
+      expect(determinantAt(1.1, u)).toBeGreaterThan(0.05);
+    }
+  });
+
   it('SIS images at beta +- thetaE with magnifications 1 +- thetaE/beta', () => {
     // Schneider, Ehlers & Falco 1992, ch. 8 (from memory): for beta < thetaE an SIS forms images at
     // x = beta + thetaE and x = beta - thetaE with signed magnifications 1 + thetaE/beta and
