@@ -1,0 +1,196 @@
+import { ConfigNode } from './configNode.js';
+import { readConfigFile } from './readConfigFile.js';
+import { readParameterEntry, type ParameterEntry } from './parameterEntry.js';
+import { expectedFound } from '../errors.js';
+
+/** A mass or light component as written: its kind and its parameter entries by name. */
+export interface ComponentConfig {
+  readonly kind: string;
+  /** Dotted key of the component, e.g. `source.light[0]`. */
+  readonly key: string;
+  /** Whole-number settings that are not parameters (shapelet or multipole order). */
+  readonly order: number | undefined;
+  /** Fixed coefficient list (shapelet amplitudes for simulation), when given. */
+  readonly coefficients: readonly number[] | undefined;
+  readonly entries: Readonly<Record<string, ParameterEntry>>;
+}
+
+export type PsfConfig =
+  | { readonly shape: 'gaussian'; readonly fwhmArcsec: number; readonly sizePixels: number }
+  | { readonly shape: 'moffat'; readonly fwhmArcsec: number; readonly moffatBeta: number; readonly sizePixels: number }
+  | { readonly shape: 'file'; readonly path: string };
+
+export type MaskConfig =
+  | { readonly shape: 'all' }
+  | { readonly shape: 'disc'; readonly outerRadiusArcsec: number; readonly centerXArcsec: number; readonly centerYArcsec: number }
+  | { readonly shape: 'annulus'; readonly innerRadiusArcsec: number; readonly outerRadiusArcsec: number; readonly centerXArcsec: number; readonly centerYArcsec: number };
+
+export interface ObservationConfig {
+  readonly columns: number;
+  readonly rows: number;
+  readonly pixelScaleArcsec: number;
+  readonly supersampling: number;
+  readonly psf: PsfConfig;
+  readonly backgroundRms: number;
+  readonly exposureSeconds: number;
+  readonly mask: MaskConfig;
+}
+
+export interface CosmologyConfig {
+  readonly hubbleConstantKmPerSecPerMpc: number;
+  readonly matterDensity: number;
+}
+
+export interface ArcsiftConfig {
+  /** The file the config came from (for messages). */
+  readonly file: string;
+  readonly title: string;
+  readonly observation: ObservationConfig;
+  /** Undefined means the default cosmology. */
+  readonly cosmology: CosmologyConfig | undefined;
+  readonly lensRedshift: number;
+  readonly sourceRedshift: number;
+  readonly lensMass: readonly ComponentConfig[];
+  readonly shear: ComponentConfig | undefined;
+  readonly multipoles: readonly ComponentConfig[];
+  readonly lensLight: readonly ComponentConfig[];
+  readonly sourceLight: readonly ComponentConfig[];
+  readonly perturbers: readonly ComponentConfig[];
+  /** Width (1 sigma) of the Gaussian prior on every linear light amplitude, image units. */
+  readonly amplitudePriorSigma: number;
+}
+
+function readComponent(node: ConfigNode, kindRequired = true): ComponentConfig {
+  if (!node.isMapping()) node.fail(expectedFound('a mapping describing one component', node.value));
+  const kind = kindRequired ? node.get('kind').string() : '';
+  const entries: Record<string, ParameterEntry> = {};
+  let order: number | undefined;
+  let coefficients: number[] | undefined;
+  for (const name of node.keys()) {
+    if (name === 'kind') continue;
+    const child = node.get(name);
+    if (name === 'order') {
+      order = child.number({ integer: true, min: 0 });
+    } else if (name === 'coefficients') {
+      coefficients = child.list().map((c) => c.number());
+    } else {
+      entries[name] = readParameterEntry(child);
+    }
+  }
+  return { kind, key: node.key, order, coefficients, entries };
+}
+
+function readComponentList(node: ConfigNode): ComponentConfig[] {
+  if (node.value === undefined) return [];
+  return node.list().map((item) => readComponent(item));
+}
+
+function readPsf(node: ConfigNode): PsfConfig {
+  const shape = node.get('shape').oneOf(['gaussian', 'moffat', 'file'] as const);
+  let psf: PsfConfig;
+  if (shape === 'file') {
+    psf = { shape, path: node.get('path').string() };
+  } else {
+    const fwhmArcsec = node.get('fwhmArcsec').number({ min: 0, exclusiveMin: true });
+    const sizeNode = node.get('sizePixels');
+    const sizePixels = sizeNode.optionalNumber(21, { integer: true, min: 1 });
+    if (sizePixels % 2 === 0) sizeNode.fail(expectedFound('an odd whole number (the PSF needs a centre pixel)', sizePixels));
+    psf = shape === 'gaussian'
+      ? { shape, fwhmArcsec, sizePixels }
+      : { shape, fwhmArcsec, sizePixels, moffatBeta: node.get('moffatBeta').optionalNumber(3, { min: 1, exclusiveMin: true }) };
+  }
+  node.finish();
+  return psf;
+}
+
+function readMask(node: ConfigNode): MaskConfig {
+  if (node.value === undefined) return { shape: 'all' };
+  const shape = node.get('shape').oneOf(['all', 'disc', 'annulus'] as const);
+  let mask: MaskConfig;
+  if (shape === 'all') {
+    mask = { shape };
+  } else {
+    const outerRadiusArcsec = node.get('outerRadiusArcsec').number({ min: 0, exclusiveMin: true });
+    const centerXArcsec = node.get('centerXArcsec').optionalNumber(0);
+    const centerYArcsec = node.get('centerYArcsec').optionalNumber(0);
+    if (shape === 'disc') {
+      mask = { shape, outerRadiusArcsec, centerXArcsec, centerYArcsec };
+    } else {
+      const innerNode = node.get('innerRadiusArcsec');
+      const innerRadiusArcsec = innerNode.number({ min: 0 });
+      if (innerRadiusArcsec >= outerRadiusArcsec) {
+        innerNode.fail(expectedFound(`a radius below outerRadiusArcsec (${outerRadiusArcsec})`, innerRadiusArcsec));
+      }
+      mask = { shape, innerRadiusArcsec, outerRadiusArcsec, centerXArcsec, centerYArcsec };
+    }
+  }
+  node.finish();
+  return mask;
+}
+
+function readObservation(node: ConfigNode): ObservationConfig {
+  const columns = node.get('columns').number({ integer: true, min: 4 });
+  const rows = node.get('rows').number({ integer: true, min: 4 });
+  const pixelScaleArcsec = node.get('pixelScaleArcsec').number({ min: 0, exclusiveMin: true });
+  const supersampling = node.get('supersampling').optionalNumber(2, { integer: true, min: 1, max: 16 });
+  const psf = readPsf(node.get('psf'));
+  const noise = node.get('noise');
+  const backgroundRms = noise.get('backgroundRms').number({ min: 0, exclusiveMin: true });
+  const exposureSeconds = noise.get('exposureSeconds').number({ min: 0, exclusiveMin: true });
+  noise.finish();
+  const mask = readMask(node.get('mask'));
+  node.finish();
+  return { columns, rows, pixelScaleArcsec, supersampling, psf, backgroundRms, exposureSeconds, mask };
+}
+
+function readCosmology(node: ConfigNode): CosmologyConfig | undefined {
+  if (node.value === undefined) return undefined;
+  const hubbleConstantKmPerSecPerMpc = node.get('hubbleConstant').number({ min: 0, exclusiveMin: true });
+  const matterDensity = node.get('matterDensity').number({ min: 0, exclusiveMin: true, max: 1 });
+  node.finish();
+  return { hubbleConstantKmPerSecPerMpc, matterDensity };
+}
+
+/** Validates parsed config data (from any source) into an ArcsiftConfig. */
+export function parseConfig(data: unknown, file: string): ArcsiftConfig {
+  const root = new ConfigNode(data, file, '');
+  if (!root.isMapping()) root.fail(expectedFound('a mapping at the top of the config', data));
+  const title = root.has('title') ? root.get('title').string() : '';
+  const observation = readObservation(root.get('observation'));
+  const cosmology = readCosmology(root.get('cosmology'));
+  const redshifts = root.get('redshifts');
+  const lensRedshift = redshifts.get('lens').number({ min: 0, exclusiveMin: true });
+  const sourceNode = redshifts.get('source');
+  const sourceRedshift = sourceNode.number({ min: 0, exclusiveMin: true });
+  if (sourceRedshift <= lensRedshift) sourceNode.fail(expectedFound(`a redshift above the lens redshift (${lensRedshift})`, sourceRedshift));
+  redshifts.finish();
+
+  const lens = root.get('lens');
+  const lensMass = readComponentList(lens.get('mass'));
+  if (lensMass.length === 0) lens.fail('the lens needs at least one mass component under lens.mass');
+  const shearNode = lens.get('shear');
+  const shear = shearNode.value === undefined ? undefined : { ...readComponent(shearNode, false), kind: 'externalShear' };
+  const multipoles = lens.has('multipoles')
+    ? lens.get('multipoles').list().map((item) => ({ ...readComponent(item, false), kind: 'multipole' }))
+    : [];
+  const lensLight = readComponentList(lens.get('light'));
+  lens.finish();
+
+  const source = root.get('source');
+  const sourceLight = readComponentList(source.get('light'));
+  if (sourceLight.length === 0) source.fail('the source needs at least one light component under source.light');
+  source.finish();
+
+  const perturbers = readComponentList(root.get('perturbers'));
+  const amplitudePriorSigma = root.get('amplitudePriorSigma').optionalNumber(100, { min: 0, exclusiveMin: true });
+  root.finish();
+  return {
+    file, title, observation, cosmology, lensRedshift, sourceRedshift,
+    lensMass, shear, multipoles, lensLight, sourceLight, perturbers, amplitudePriorSigma,
+  };
+}
+
+/** Reads and validates a YAML or JSON config file. */
+export function loadConfig(path: string): ArcsiftConfig {
+  return parseConfig(readConfigFile(path), path);
+}

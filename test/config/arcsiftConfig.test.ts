@@ -1,0 +1,61 @@
+import { describe, expect, it } from 'vitest';
+import { fileURLToPath } from 'node:url';
+import { parse } from 'yaml';
+import { readFileSync } from 'node:fs';
+import { loadConfig, parseConfig } from '../../src/config/arcsiftConfig.js';
+import { InputError } from '../../src/errors.js';
+
+// These tests check arcsift's own validation contract (common practice: every message names the
+// file and the key path, says what was expected and what was found).
+const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.url));
+const demo = (): any => parse(readFileSync(demoPath, 'utf8'));
+
+function messageOf(data: unknown): string {
+  try {
+    parseConfig(data, 'broken.yaml');
+  } catch (error) {
+    expect(error).toBeInstanceOf(InputError);
+    return (error as Error).message;
+  }
+  throw new Error('expected the config to be rejected');
+}
+
+describe('config loading', () => {
+  it('reads the demo scenario', () => {
+    const config = loadConfig(demoPath);
+    expect(config.observation.columns).toBe(100);
+    expect(config.observation.psf).toEqual({ shape: 'gaussian', fwhmArcsec: 0.1, sizePixels: 21 });
+    expect(config.lensMass[0].entries.einsteinRadiusArcsec).toEqual({
+      key: 'lens.mass[0].einsteinRadiusArcsec', value: 1.18, prior: { kind: 'uniform', lower: 1.0, upper: 1.4 },
+    });
+    expect(config.perturbers).toHaveLength(1);
+  });
+
+  it('rejects an unknown key and names its path', () => {
+    const data = demo();
+    data.observation.pixelScale = 0.05;
+    expect(messageOf(data)).toMatch(/^broken\.yaml, key observation\.pixelScale: unknown key/);
+  });
+
+  it('names the key, the expectation and the finding for a wrong type', () => {
+    const data = demo();
+    data.observation.columns = 'one hundred';
+    expect(messageOf(data)).toBe('broken.yaml, key observation.columns: expected a whole number, found "one hundred"');
+  });
+
+  it('rejects an even PSF size, a source below the lens and a bad prior form', () => {
+    let data = demo();
+    data.observation.psf.sizePixels = 20;
+    expect(messageOf(data)).toMatch(/observation\.psf\.sizePixels: expected an odd whole number/);
+    data = demo();
+    data.redshifts.source = 0.4;
+    expect(messageOf(data)).toMatch(/redshifts\.source: expected a redshift above the lens redshift \(0\.5\), found 0\.4/);
+    data = demo();
+    data.lens.mass[0].axisRatio.prior = { uniform: [0.6] };
+    expect(messageOf(data)).toMatch(/lens\.mass\[0\]\.axisRatio\.prior\.uniform: expected a list of 2 numbers \[lower, upper\]/);
+  });
+
+  it('reports unreadable and malformed files by name', () => {
+    expect(() => loadConfig('/nonexistent/arcsift.yaml')).toThrow(/\/nonexistent\/arcsift\.yaml: cannot read the config file \(ENOENT\)/);
+  });
+});
