@@ -1,0 +1,6 @@
+import type { CommandModule } from 'yargs';
+import { simulateCommand } from './simulateCommand.js';
+import { demoCommand } from './demoCommand.js';
+
+/** Every `arcsift` command, in the order `--help` lists them. */
+export const commands: CommandModule<object, any>[] = [simulateCommand, demoCommand];

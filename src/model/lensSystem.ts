@@ -1,0 +1,201 @@
+import { InputError } from '../errors.js';
+import type { ArcsiftConfig, ComponentConfig } from '../config/arcsiftConfig.js';
+import type { MassProfile } from '../lens/massProfile.js';
+import type { LightProfile } from '../light/lightProfile.js';
+import { mainLensProfiles, multipole } from '../lens/index.js';
+import { lightProfiles, shapeletsOfOrder } from '../light/index.js';
+import { ParameterCollector, copyWriter } from './componentBinding.js';
+import type { ModelParameter } from './modelParameter.js';
+import { bindPerturber, type PerturberBinding } from './perturberBinding.js';
+import { buildLensingContext } from './buildLensingContext.js';
+import type { LensingContext } from '../cosmology/index.js';
+
+type VectorWriter = (model: Float64Array, profile: Float64Array) => void;
+
+export interface MassTerm {
+  readonly profile: MassProfile;
+  /** Offset of this term's parameters in the profile vector. */
+  readonly offset: number;
+}
+
+export interface LightTerm {
+  readonly profile: LightProfile;
+  readonly offset: number;
+  /** Index of this component's first amplitude among all amplitudes. */
+  readonly amplitudeOffset: number;
+  readonly key: string;
+}
+
+/**
+ * A config assembled for computation: the model parameter vector (what samplers move and
+ * reports print), and the profile vector the mass and light profiles read, filled from it.
+ */
+export interface LensSystem {
+  readonly file: string;
+  readonly parameters: readonly ModelParameter[];
+  readonly massTerms: readonly MassTerm[];
+  readonly sourceTerms: readonly LightTerm[];
+  readonly lensLightTerms: readonly LightTerm[];
+  readonly perturbers: readonly PerturberBinding[];
+  readonly profileVectorLength: number;
+  /** Number of linear amplitudes: source components first, then lens light. */
+  readonly amplitudeCount: number;
+  /** Names of the amplitudes, e.g. `source.light[0].amplitude`. */
+  readonly amplitudeNames: readonly string[];
+  /** Amplitudes given in the config (all of them, or undefined if any is missing). */
+  readonly configuredAmplitudes: Float64Array | undefined;
+  readonly lensing: LensingContext;
+  /** Fills the profile vector from a model vector (allocates nothing). */
+  writeProfileVector(model: Float64Array, profile: Float64Array): void;
+  /** The model vector holding every configured value (undefined entries become NaN). */
+  configuredValues(): Float64Array;
+}
+
+export interface LensSystemOptions {
+  /** How many of the config's perturbers to include (default: all). 0 gives the smooth model. */
+  readonly perturberCount?: number;
+}
+
+function lightProfileOf(component: ComponentConfig, file: string): LightProfile {
+  if (component.kind === 'shapelets') {
+    if (component.order === undefined) {
+      throw new InputError('a shapelets component needs `order` (the maximum n1 + n2), e.g. order: 6', { file, key: component.key });
+    }
+    return shapeletsOfOrder(component.order);
+  }
+  const profile = (lightProfiles as Record<string, LightProfile>)[component.kind];
+  if (profile === undefined) {
+    throw new InputError(
+      `unknown light kind ${JSON.stringify(component.kind)} (known: ${[...Object.keys(lightProfiles), 'shapelets'].join(', ')})`,
+      { file, key: `${component.key}.kind` },
+    );
+  }
+  return profile;
+}
+
+export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOptions = {}): LensSystem {
+  const file = config.file;
+  const collector = new ParameterCollector(file);
+  const writers: VectorWriter[] = [];
+  const massTerms: MassTerm[] = [];
+  let profileLength = 0;
+
+  const mainIndices: number[][] = [];
+  config.lensMass.forEach((component) => {
+    const profile = (mainLensProfiles as Record<string, MassProfile>)[component.kind];
+    if (profile === undefined || component.kind === 'externalShear') {
+      throw new InputError(
+        `unknown main-lens mass kind ${JSON.stringify(component.kind)} (known: isothermalEllipsoid, powerLawEllipsoid)`,
+        { file, key: `${component.key}.kind` },
+      );
+    }
+    const defaults: Record<string, number> = component.kind === 'isothermalEllipsoid' ? { coreRadiusArcsec: 0 } : {};
+    const indices = collector.bind(component, profile.parameterNames, defaults);
+    mainIndices.push(indices);
+    writers.push(copyWriter(indices, profileLength));
+    massTerms.push({ profile, offset: profileLength });
+    profileLength += profile.parameterNames.length;
+  });
+
+  if (config.shear !== undefined) {
+    const profile = mainLensProfiles.externalShear;
+    const indices = collector.bind(config.shear, profile.parameterNames);
+    writers.push(copyWriter(indices, profileLength));
+    massTerms.push({ profile, offset: profileLength });
+    profileLength += profile.parameterNames.length;
+  }
+
+  // Multipoles ride on the first main-lens component: its centre, Einstein radius and slope.
+  const first = config.lensMass[0];
+  const firstProfile = massTerms[0].profile;
+  const linkedIndex = (name: string): number => mainIndices[0][firstProfile.parameterNames.indexOf(name)];
+  for (const component of config.multipoles) {
+    if (component.order === undefined || ![1, 3, 4].includes(component.order)) {
+      throw new InputError(`a multipole needs order: 1, 3 or 4`, { file, key: `${component.key}.order` });
+    }
+    const profile = multipole(component.order as 1 | 3 | 4);
+    const own = collector.bind(component, ['multipoleStrength', 'multipoleAngleDeg']);
+    const slopeIndex = first.kind === 'powerLawEllipsoid' ? linkedIndex('slope') : -1;
+    const links = [linkedIndex('centerXArcsec'), linkedIndex('centerYArcsec'), linkedIndex('einsteinRadiusArcsec')];
+    const offset = profileLength;
+    writers.push((model, p) => {
+      p[offset] = model[own[0]];
+      p[offset + 1] = model[own[1]];
+      p[offset + 2] = model[links[0]];
+      p[offset + 3] = model[links[1]];
+      p[offset + 4] = model[links[2]];
+      p[offset + 5] = slopeIndex >= 0 ? model[slopeIndex] : 2;
+    });
+    massTerms.push({ profile, offset });
+    profileLength += profile.parameterNames.length;
+  }
+
+  const lensing = buildLensingContext(config);
+  const perturbers: PerturberBinding[] = [];
+  const perturberCount = Math.min(options.perturberCount ?? config.perturbers.length, config.perturbers.length);
+  for (let k = 0; k < perturberCount; k++) {
+    const binding = bindPerturber(config.perturbers[k], collector, lensing, profileLength, file);
+    perturbers.push(binding);
+    writers.push(binding.write);
+    massTerms.push({ profile: binding.profile, offset: profileLength });
+    profileLength += binding.profile.parameterNames.length;
+  }
+
+  const amplitudeNames: string[] = [];
+  const amplitudeValues: (number | undefined)[] = [];
+  const bindLight = (components: readonly ComponentConfig[]): LightTerm[] => components.map((component) => {
+    const profile = lightProfileOf(component, file);
+    const indices = collector.bind(component, profile.parameterNames, {}, ['amplitude']);
+    const term: LightTerm = { profile, offset: profileLength, amplitudeOffset: amplitudeNames.length, key: component.key };
+    writers.push(copyWriter(indices, profileLength));
+    profileLength += profile.parameterNames.length;
+    if (profile.basisCount === 1) {
+      if (component.coefficients !== undefined) {
+        throw new InputError('coefficients are for shapelets; use amplitude', { file, key: `${component.key}.coefficients` });
+      }
+      amplitudeNames.push(`${component.key}.amplitude`);
+      amplitudeValues.push(component.entries.amplitude?.value);
+    } else {
+      if (component.entries.amplitude !== undefined) {
+        throw new InputError('a shapelets component takes a list `coefficients`, not amplitude', { file, key: `${component.key}.amplitude` });
+      }
+      if (component.coefficients !== undefined && component.coefficients.length !== profile.basisCount) {
+        throw new InputError(
+          `expected ${profile.basisCount} coefficients for order ${component.order}, found ${component.coefficients.length}`,
+          { file, key: `${component.key}.coefficients` },
+        );
+      }
+      for (let b = 0; b < profile.basisCount; b++) {
+        amplitudeNames.push(`${component.key}.coefficient[${b}]`);
+        amplitudeValues.push(component.coefficients?.[b]);
+      }
+    }
+    return term;
+  });
+  const sourceTerms = bindLight(config.sourceLight);
+  const lensLightTerms = bindLight(config.lensLight);
+  const configuredAmplitudes = amplitudeValues.every((v) => v !== undefined)
+    ? Float64Array.from(amplitudeValues as number[])
+    : undefined;
+
+  const parameters = collector.parameters;
+  return {
+    file,
+    parameters,
+    massTerms,
+    sourceTerms,
+    lensLightTerms,
+    perturbers,
+    profileVectorLength: profileLength,
+    amplitudeCount: amplitudeNames.length,
+    amplitudeNames,
+    configuredAmplitudes,
+    lensing,
+    writeProfileVector(model, profile) {
+      for (let w = 0; w < writers.length; w++) writers[w](model, profile);
+    },
+    configuredValues() {
+      return Float64Array.from(parameters, (p) => (p.value === undefined ? Number.NaN : p.value));
+    },
+  };
+}

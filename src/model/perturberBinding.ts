@@ -1,0 +1,142 @@
+import { InputError } from '../errors.js';
+import type { ComponentConfig } from '../config/arcsiftConfig.js';
+import type { LensingContext } from '../cosmology/index.js';
+import type { MassProfile } from '../lens/massProfile.js';
+import {
+  duffy2008Concentration, nfwEnclosedMassFactor, perturberProfiles, pointMassEinsteinRadiusArcsec,
+  pseudoJaffeStrengthArcsec, subhaloFromMass, nfwFromMass,
+} from '../perturber/index.js';
+import type { ParameterCollector } from './componentBinding.js';
+
+/** Masses and sizes of one perturber derived from the model vector, for reports and truth files. */
+export interface PerturberDerived {
+  readonly kind: string;
+  readonly massM200Solar?: number;
+  readonly totalMassSolar: number;
+  readonly concentration?: number;
+  readonly r200Kpc?: number;
+  readonly scaleRadiusKpc?: number;
+  readonly scaleRadiusArcsec?: number;
+  readonly truncationRadiusKpc?: number;
+  readonly convergenceScale?: number;
+  readonly einsteinRadiusArcsec?: number;
+}
+
+/** A perturber of the config bound to model-vector indices. */
+export interface PerturberBinding {
+  readonly kind: string;
+  readonly key: string;
+  readonly profile: MassProfile;
+  /** Model indices of log10 mass, centre x and centre y. */
+  readonly massIndex: number;
+  readonly centerXIndex: number;
+  readonly centerYIndex: number;
+  /** Fills this perturber's lensing parameters in the profile vector (allocates nothing). */
+  readonly write: (model: Float64Array, profile: Float64Array) => void;
+  derived(model: Float64Array): PerturberDerived;
+}
+
+const massNames = ['log10MassSolar', 'centerXArcsec', 'centerYArcsec'];
+
+/**
+ * Binds a perturber: its sampled mass is log10 of M200 in solar masses for NFW and truncated
+ * NFW (concentration from Duffy et al. 2008 unless the config gives `concentration`), and log10
+ * of the total mass for the point mass and the pseudo-Jaffe. The mass-to-lensing conversion runs
+ * inline through Sigma_crit of the lensing context.
+ */
+export function bindPerturber(
+  component: ComponentConfig, collector: ParameterCollector, lensing: LensingContext, offset: number, file: string,
+): PerturberBinding {
+  const kind = component.kind;
+  const profile = (perturberProfiles as Record<string, MassProfile>)[kind];
+  if (profile === undefined) {
+    throw new InputError(
+      `unknown perturber kind ${JSON.stringify(kind)} (known: ${Object.keys(perturberProfiles).join(', ')})`,
+      { file, key: `${component.key}.kind` },
+    );
+  }
+  const hasConcentration = component.entries.concentration !== undefined;
+  const names = kind === 'truncatedNfw'
+    ? [...massNames, 'truncationRatio', ...(hasConcentration ? ['concentration'] : [])]
+    : kind === 'nfw'
+      ? [...massNames, ...(hasConcentration ? ['concentration'] : [])]
+      : kind === 'pseudoJaffe'
+        ? [...massNames, 'coreRadiusArcsec', 'truncationRadiusArcsec']
+        : massNames;
+  const indices = collector.bind(component, names, { truncationRatio: 10 });
+  const [massIndex, centerXIndex, centerYIndex] = indices;
+  const base = { kind, key: component.key, profile, massIndex, centerXIndex, centerYIndex };
+  const z = lensing.lensRedshift;
+  const littleH = lensing.littleH;
+  // r200 = (3 M / (800 pi rho_crit))^(1/3) (Navarro, Frenk & White 1996 with Delta = 200).
+  const r200Factor = 3 / (800 * Math.PI * lensing.criticalDensitySolarPerMpc3);
+  const concentrationIndex = hasConcentration ? indices[names.indexOf('concentration')] : -1;
+
+  if (kind === 'truncatedNfw' || kind === 'nfw') {
+    const tauIndex = kind === 'truncatedNfw' ? indices[3] : -1;
+    const write = (model: Float64Array, p: Float64Array): void => {
+      const mass = Math.pow(10, model[massIndex]);
+      const c = concentrationIndex >= 0 ? model[concentrationIndex] : duffy2008Concentration(mass, z, littleH);
+      const rsMpc = Math.cbrt(mass * r200Factor) / c;
+      const rhoS = mass / (4 * Math.PI * rsMpc * rsMpc * rsMpc * nfwEnclosedMassFactor(c));
+      p[offset] = (rhoS * rsMpc) / lensing.criticalSurfaceDensitySolarPerMpc2;
+      p[offset + 1] = rsMpc / lensing.mpcPerArcsec;
+      if (tauIndex >= 0) {
+        p[offset + 2] = model[tauIndex];
+        p[offset + 3] = model[centerXIndex];
+        p[offset + 4] = model[centerYIndex];
+      } else {
+        p[offset + 2] = model[centerXIndex];
+        p[offset + 3] = model[centerYIndex];
+      }
+    };
+    const derived = (model: Float64Array): PerturberDerived => {
+      const input = {
+        massM200Solar: Math.pow(10, model[massIndex]),
+        concentration: concentrationIndex >= 0 ? model[concentrationIndex] : undefined,
+      };
+      if (tauIndex < 0) {
+        const h = nfwFromMass(input, lensing);
+        return { kind, massM200Solar: input.massM200Solar, totalMassSolar: Number.POSITIVE_INFINITY, ...pick(h) };
+      }
+      const h = subhaloFromMass({ ...input, truncationRatio: model[tauIndex] }, lensing);
+      return {
+        kind, massM200Solar: input.massM200Solar, totalMassSolar: h.totalMassSolar, ...pick(h),
+        truncationRadiusKpc: h.truncationRadiusKpc,
+      };
+    };
+    return { ...base, write, derived };
+  }
+  if (kind === 'pointMass') {
+    const write = (model: Float64Array, p: Float64Array): void => {
+      p[offset] = pointMassEinsteinRadiusArcsec(Math.pow(10, model[massIndex]), lensing);
+      p[offset + 1] = model[centerXIndex];
+      p[offset + 2] = model[centerYIndex];
+    };
+    const derived = (model: Float64Array): PerturberDerived => {
+      const totalMassSolar = Math.pow(10, model[massIndex]);
+      return { kind, totalMassSolar, einsteinRadiusArcsec: pointMassEinsteinRadiusArcsec(totalMassSolar, lensing) };
+    };
+    return { ...base, write, derived };
+  }
+  const [, , , coreIndex, truncationIndex] = indices;
+  const write = (model: Float64Array, p: Float64Array): void => {
+    p[offset] = pseudoJaffeStrengthArcsec(Math.pow(10, model[massIndex]), model[coreIndex], model[truncationIndex], lensing);
+    p[offset + 1] = model[coreIndex];
+    p[offset + 2] = model[truncationIndex];
+    p[offset + 3] = model[centerXIndex];
+    p[offset + 4] = model[centerYIndex];
+  };
+  const derived = (model: Float64Array): PerturberDerived => ({
+    kind, totalMassSolar: Math.pow(10, model[massIndex]),
+    einsteinRadiusArcsec: pseudoJaffeStrengthArcsec(Math.pow(10, model[massIndex]), model[coreIndex], model[truncationIndex], lensing),
+  });
+  return { ...base, write, derived };
+}
+
+function pick(h: ReturnType<typeof nfwFromMass>): Partial<PerturberDerived> {
+  return {
+    concentration: h.concentration, r200Kpc: h.r200Kpc, scaleRadiusKpc: h.scaleRadiusKpc,
+    scaleRadiusArcsec: h.scaleRadiusArcsec, convergenceScale: h.convergenceScale,
+  };
+}
