@@ -1,0 +1,42 @@
+import { createRequire } from 'node:module';
+import type normalType from '@stdlib/random/base/normal';
+import { InputError, expectedFound } from '../errors.js';
+
+const require = createRequire(import.meta.url);
+const normal = require('@stdlib/random/base/normal') as typeof normalType;
+
+/**
+ * Per-pixel 1-sigma noise of an image in counts (electrons) per second:
+ * sigma = sqrt(backgroundRms^2 + max(model, 0) / exposureTimeSeconds).
+ * The source's Poisson variance is model * t electrons^2, i.e. model / t in (electrons / s)^2
+ * (Poisson statistics of photo-electrons, common practice); backgroundRms (electrons / s)
+ * carries sky and read noise. Negative model values add no Poisson term.
+ */
+export function noiseSigmaMap(
+  model: Float64Array, backgroundRms: number, exposureTimeSeconds: number, sigma: Float64Array,
+): void {
+  if (!(backgroundRms >= 0) || !Number.isFinite(backgroundRms)) {
+    throw new InputError(expectedFound('a background rms >= 0', backgroundRms), { key: 'noise.backgroundRms' });
+  }
+  if (!(exposureTimeSeconds > 0)) {
+    throw new InputError(expectedFound('an exposure time in seconds > 0', exposureTimeSeconds), {
+      key: 'noise.exposureTimeSeconds',
+    });
+  }
+  const background2 = backgroundRms * backgroundRms;
+  const inverseTime = 1 / exposureTimeSeconds;
+  for (let k = 0; k < model.length; k++) sigma[k] = Math.sqrt(background2 + Math.max(model[k], 0) * inverseTime);
+}
+
+/**
+ * Writes image + sigma * N(0, 1) into out (out may be image), with the normal deviates of
+ * @stdlib/random/base/normal on its MT19937 generator seeded by `seed`: the same seed gives
+ * the same noise on every run and platform.
+ */
+export function addGaussianNoise(image: Float64Array, sigma: Float64Array, seed: number, out: Float64Array): void {
+  if (!Number.isInteger(seed) || seed < 1 || seed > 0xffffffff) {
+    throw new InputError(expectedFound('a whole-number seed from 1 to 4294967295', seed), { key: 'seed' });
+  }
+  const draw = normal.factory(0, 1, { seed });
+  for (let k = 0; k < image.length; k++) out[k] = image[k] + sigma[k] * draw();
+}
