@@ -15,10 +15,11 @@ const probe: RadialProbe = {
 };
 const transverseTolerance = transverseToleranceFor(probe);
 
-// Radii in units of r_s: the centre region, both sides of the series switch at |x^2 - 1| = 0.02,
+// Radii in units of r_s: the centre region, both sides of the change of form for h at x = 1/2
+// and of the series switch at |x^2 - 1| = 0.02,
 // x = 1 itself and its neighbours, and the outskirts.
 const radiiOverScale = [
-  1e-6, 1e-3, 0.05, 0.3, 0.5, 0.9, Math.sqrt(0.98) - 1e-9, Math.sqrt(0.98) + 1e-9, 1 - 1e-7, 1,
+  1e-6, 1e-3, 0.05, 0.3, 0.5 - 1e-9, 0.5, 0.9, Math.sqrt(0.98) - 1e-9, Math.sqrt(0.98) + 1e-9, 1 - 1e-7, 1,
   1 + 1e-7, Math.sqrt(1.02) - 1e-9, Math.sqrt(1.02) + 1e-9, 1.5, 4, 30, 300,
 ];
 

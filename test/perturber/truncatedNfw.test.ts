@@ -15,11 +15,11 @@ const kappaS = 0.31, thetaS = 0.45, cx = -0.37, cy = 0.08;
 const truncatedDensity = (u: number, tau: number): number =>
   (1 / (u * (1 + u) * (1 + u))) * ((tau * tau) / (tau * tau + u * u));
 
-// Radii in units of r_s: the centre, the series switch around x = 1, x = 1, x = tau and its
-// neighbours, and the outskirts.
+// Radii in units of r_s: the centre, both sides of the change of form at x = 1/2, the series
+// switch around x = 1, x = 1, x = tau and its neighbours, and the outskirts.
 function radiiFor(tau: number): number[] {
   return [
-    1e-6, 1e-3, 0.05, 0.4, 0.9, Math.sqrt(0.98) + 1e-9, 1 - 1e-7, 1, 1 + 1e-7, Math.sqrt(1.02) - 1e-9,
+    1e-6, 1e-3, 0.05, 0.4, 0.5 - 1e-9, 0.5, 0.9, Math.sqrt(0.98) + 1e-9, 1 - 1e-7, 1, 1 + 1e-7, Math.sqrt(1.02) - 1e-9,
     1.7, tau * (1 - 1e-7), tau, tau * (1 + 1e-7), 3 * tau, 40,
   ];
 }
