@@ -38,6 +38,7 @@ export { readFileBytes } from './readFileBytes.js';
 export { decodeFitsImage, readFitsImage, type FitsImage, type FitsImageSelection } from './readFits.js';
 export {
   encodeFits,
+  isImageHdu,
   isStructuralKeyword,
   writeFits,
   writeFitsImage,

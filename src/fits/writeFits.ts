@@ -46,7 +46,8 @@ export function isStructuralKeyword(keyword: string): boolean {
   return STRUCTURAL_PATTERN.test(keyword.toUpperCase());
 }
 
-function isImage(hdu: FitsImageHdu | FitsHeaderOnlyHdu): hdu is FitsImageHdu {
+/** True for an HDU with an image, false for a header alone. */
+export function isImageHdu(hdu: FitsImageHdu | FitsHeaderOnlyHdu): hdu is FitsImageHdu {
   return 'data' in hdu;
 }
 
@@ -98,11 +99,11 @@ function checkCards(cards: readonly HeaderCard[] | undefined, where: string, sou
 /** Header cards in the order of FITS Standard 4.0 sec. 4.4.1.1 (primary) and 7.1.1 (IMAGE extension). */
 function structuralCards(hdu: FitsImageHdu | FitsHeaderOnlyHdu, bitpix: Bitpix, primary: boolean, hasExtensions: boolean): HeaderCard[] {
   const cards: HeaderCard[] = [primary ? logicalCard('SIMPLE', true) : stringCard('XTENSION', 'IMAGE'), integerCard('BITPIX', bitpix)];
-  if (isImage(hdu)) cards.push(integerCard('NAXIS', 2), integerCard('NAXIS1', hdu.nx), integerCard('NAXIS2', hdu.ny));
+  if (isImageHdu(hdu)) cards.push(integerCard('NAXIS', 2), integerCard('NAXIS1', hdu.nx), integerCard('NAXIS2', hdu.ny));
   else cards.push(integerCard('NAXIS', 0));
   if (primary && hasExtensions) cards.push(logicalCard('EXTEND', true));
   if (!primary) cards.push(integerCard('PCOUNT', 0), integerCard('GCOUNT', 1));
-  if (isImage(hdu)) {
+  if (isImageHdu(hdu)) {
     if (hdu.bscale !== undefined) cards.push(numberCard('BSCALE', hdu.bscale));
     if (hdu.bzero !== undefined) cards.push(numberCard('BZERO', hdu.bzero));
     if (hdu.blank !== undefined) cards.push(integerCard('BLANK', hdu.blank));
@@ -113,7 +114,7 @@ function structuralCards(hdu: FitsImageHdu | FitsHeaderOnlyHdu, bitpix: Bitpix, 
 
 function encodeHdu(hdu: FitsImageHdu | FitsHeaderOnlyHdu, index: number, hasExtensions: boolean, source: string | undefined): Uint8Array[] {
   const where = index === 0 ? 'the primary HDU' : `extension ${index}`;
-  if (!isImage(hdu)) {
+  if (!isImageHdu(hdu)) {
     checkCards(hdu.cards, where, source);
     return [formatHeader([...structuralCards(hdu, 8, true, hasExtensions), ...(hdu.cards ?? [])], source)];
   }
