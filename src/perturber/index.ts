@@ -10,7 +10,7 @@ export {
 } from './nfwProjection.js';
 export { duffy2008Concentration, duffy2008FullSampleM200 } from './concentrationMass.js';
 export {
-  nfwEnclosedMassFactor, truncatedNfwTotalMassFactor, nfwFromMass, subhaloFromMass,
+  nfwEnclosedMassFactor, truncatedNfwTotalMassFactor, nfwFromMass, writeNfwLensingParameters, subhaloFromMass,
   truncatedNfwTotalMassSolar, nfwMassFromLensing, pointMassEinsteinRadiusArcsec,
   pointMassFromEinsteinRadiusSolar, pseudoJaffeTotalMassSolar, pseudoJaffeStrengthArcsec,
   type NfwFromMass, type SubhaloFromMass, type NfwMassInput, type SubhaloMassInput,

@@ -56,16 +56,26 @@ export function truncatedNfwTotalMassFactor(truncationRatio: number): number {
     ((tau - 1) * (tau + 1) * Math.log(tau) + Math.PI * tau - (tau2 + 1));
 }
 
-// r200 from M200 = (4/3) pi r200^3 200 rho_crit(z_d), r_s = r200/c, rho_s = M200 / (4 pi r_s^3 m(c))
-// (Navarro, Frenk & White 1996), kappa_s = rho_s r_s / Sigma_crit, theta_s = r_s / D_d.
+// r200 from M200 = (4/3) pi r200^3 200 rho_crit(z_d) (Navarro, Frenk & White 1996 with Delta = 200).
+function r200MpcOf(massM200Solar: number, context: LensingContext): number {
+  return Math.cbrt((3 * massM200Solar) / (800 * Math.PI * context.criticalDensitySolarPerMpc3));
+}
+
+// rho_s = M200 / (4 pi r_s^3 m(c)) (Navarro, Frenk & White 1996).
+function densityScaleOf(massM200Solar: number, concentration: number, scaleRadiusMpc: number): number {
+  return massM200Solar /
+    (4 * Math.PI * scaleRadiusMpc * scaleRadiusMpc * scaleRadiusMpc * nfwEnclosedMassFactor(concentration));
+}
+
+// r_s = r200/c, rho_s = M200 / (4 pi r_s^3 m(c)) (Navarro, Frenk & White 1996),
+// kappa_s = rho_s r_s / Sigma_crit, theta_s = r_s / D_d.
 export function nfwFromMass(input: NfwMassInput, context: LensingContext): NfwFromMass {
   const mass = input.massM200Solar;
   const concentration = input.concentration ??
     duffy2008Concentration(mass, context.lensRedshift, context.littleH);
-  const r200Mpc = Math.cbrt((3 * mass) / (800 * Math.PI * context.criticalDensitySolarPerMpc3));
+  const r200Mpc = r200MpcOf(mass, context);
   const scaleRadiusMpc = r200Mpc / concentration;
-  const densityScale = mass /
-    (4 * Math.PI * scaleRadiusMpc * scaleRadiusMpc * scaleRadiusMpc * nfwEnclosedMassFactor(concentration));
+  const densityScale = densityScaleOf(mass, concentration, scaleRadiusMpc);
   return {
     concentration,
     r200Kpc: 1000 * r200Mpc,
@@ -74,6 +84,17 @@ export function nfwFromMass(input: NfwMassInput, context: LensingContext): NfwFr
     densityScaleSolarPerMpc3: densityScale,
     convergenceScale: (densityScale * scaleRadiusMpc) / context.criticalSurfaceDensitySolarPerMpc2,
   };
+}
+
+// The same conversion as nfwFromMass without allocating, for the likelihood loop: writes
+// kappa_s to p[offset] and theta_s to p[offset + 1], the first two parameters of nfw and truncatedNfw.
+export function writeNfwLensingParameters(
+  massM200Solar: number, concentration: number, context: LensingContext, p: Float64Array, offset: number,
+): void {
+  const scaleRadiusMpc = r200MpcOf(massM200Solar, context) / concentration;
+  p[offset] = (densityScaleOf(massM200Solar, concentration, scaleRadiusMpc) * scaleRadiusMpc) /
+    context.criticalSurfaceDensitySolarPerMpc2;
+  p[offset + 1] = scaleRadiusMpc / context.mpcPerArcsec;
 }
 
 // nfwFromMass followed by the Baltz, Marshall & Oguri 2009 truncation r_t = tau r_s and total mass

@@ -5,7 +5,7 @@ import { lensingContext } from '../../src/cosmology/lensingContext.js';
 import { duffy2008Concentration } from '../../src/perturber/concentrationMass.js';
 import {
   nfwFromMass, nfwMassFromLensing, pointMassEinsteinRadiusArcsec, pointMassFromEinsteinRadiusSolar,
-  subhaloFromMass, truncatedNfwTotalMassSolar,
+  subhaloFromMass, truncatedNfwTotalMassSolar, writeNfwLensingParameters,
 } from '../../src/perturber/subhaloLensing.js';
 import { integrateExpSinh, integrateTanhSinh } from './doubleExponential.js';
 
@@ -36,6 +36,12 @@ describe('M200 to NFW lensing parameters and back', () => {
       // The definition of r200: mean density inside it is 200 rho_crit(z_d); rounding only.
       const meanDensity = massM200Solar / ((4 / 3) * Math.PI * r200Mpc ** 3);
       expect(relative(meanDensity, 200 * cosmology.criticalDensitySolarPerMpc3(lensRedshift))).toBeLessThan(1e-13);
+      // The allocation-free writer gives the same two numbers (same arithmetic: rounding only).
+      const written = Float64Array.of(-1, -1, -1, -1);
+      writeNfwLensingParameters(massM200Solar, halo.concentration, context, written, 1);
+      expect([written[0], written[3]]).toEqual([-1, -1]);
+      expect(relative(written[1], halo.convergenceScale)).toBeLessThan(1e-15);
+      expect(relative(written[2], halo.scaleRadiusArcsec)).toBeLessThan(1e-15);
       // The reporting inverse recovers M200 and c (bisection to 1e-15 in ln c; 1e-12 relative).
       const back = nfwMassFromLensing(halo.convergenceScale, halo.scaleRadiusArcsec, context);
       expect(relative(back.massM200Solar, massM200Solar)).toBeLessThan(1e-12);
