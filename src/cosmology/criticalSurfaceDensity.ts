@@ -10,7 +10,7 @@ const surfaceDensityScaleSolarPerMpc =
   (4 * Math.PI * solarMassParameterSi);
 
 // Critical surface density Sigma_crit = c^2/(4 pi G) D_s/(D_d D_ds) from the three
-// angular-diameter distances in Mpc (Schneider, Ehlers & Falco 1992, eq. 5.5), M_sun / Mpc^2.
+// angular-diameter distances in Mpc, in M_sun / Mpc^2 (Schneider, Ehlers & Falco 1992, Gravitational Lenses).
 export function criticalSurfaceDensityFromDistances(
   lensDistanceMpc: number, sourceDistanceMpc: number, lensToSourceDistanceMpc: number,
 ): number {
@@ -29,7 +29,8 @@ function requireLensBeforeSource(lensRedshift: number, sourceRedshift: number): 
   }
 }
 
-// Sigma_crit in solar masses per Mpc^2 for a lens at z_d and a source at z_s (Schneider, Ehlers & Falco 1992, eq. 5.5).
+// Sigma_crit in solar masses per Mpc^2 for a lens at z_d and a source at z_s
+// (Schneider, Ehlers & Falco 1992, Gravitational Lenses).
 export function criticalSurfaceDensitySolarPerMpc2(
   cosmology: FlatLambdaCdm, lensRedshift: number, sourceRedshift: number,
 ): number {

@@ -47,7 +47,8 @@ function requireRedshift(redshift: number, key: string): void {
 }
 
 // Flat LambdaCDM without radiation: E(z) = sqrt(Omega_m (1+z)^3 + 1 - Omega_m), D_C = (c/H0)
-// int_0^z dz'/E(z'), D_A = D_C/(1+z), D_A(z1,z2) = (D_C(z2) - D_C(z1))/(1+z2) (Hogg 1999, eqs. 14-16, 18-19).
+// int_0^z dz'/E(z'), D_A = D_C/(1+z), D_A(z1,z2) = (D_C(z2) - D_C(z1))/(1+z2) (Hogg 1999,
+// astro-ph/9905116, eqs. 14-16, 18-19; equation numbers from memory).
 export function flatLambdaCdm(parameters: FlatLambdaCdmParameters): FlatLambdaCdm {
   const hubbleConstant = parameters.hubbleConstantKmPerSecPerMpc;
   const matter = parameters.matterDensity;

@@ -25,7 +25,7 @@ export interface LensingContext {
   readonly kpcPerArcsec: number;
 }
 
-// Distances, Sigma_crit (Schneider, Ehlers & Falco 1992, eq. 5.5) and rho_crit(z_d) for one lens system.
+// Distances, Sigma_crit (Schneider, Ehlers & Falco 1992, Gravitational Lenses) and rho_crit(z_d) for one lens system.
 export function lensingContext(
   cosmology: FlatLambdaCdm, lensRedshift: number, sourceRedshift: number,
 ): LensingContext {

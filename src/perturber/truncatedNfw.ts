@@ -19,7 +19,7 @@ import {
  * where nothing cancels, h - log1p(d/2) is replaced by the equal F + L + ln tau (since
  * 1 + d/2 = (R + tau)/(2 tau)), which saves two logarithms per point. Nothing is
  * singular at x = tau. A point exactly at the centre is evaluated at x = 1e-20 (finite kappa,
- * zero deflection), as for the NFW. No potential: it has no closed form in BMO09.
+ * zero deflection), as for the NFW. No potential is provided (image fitting needs none).
  */
 export const truncatedNfw: MassProfile = {
   kind: 'truncatedNfw',
