@@ -156,7 +156,8 @@ export function formatHeaderCard(card: HeaderCard, source?: string): string[] {
   } else {
     const single = `${head}${valueText(card, source).padStart(20)}${tail}`;
     if (single.length > FITS_CARD_BYTES) {
-      throw cardError(card, source, `the comment is ${single.length - FITS_CARD_BYTES} characters too long to fit the 80-byte card`);
+      const what = card.comment === undefined ? 'the value' : 'the value and comment';
+      throw cardError(card, source, `${what} need ${single.length} bytes, more than the 80 of a card`);
     }
     records = [single];
   }
