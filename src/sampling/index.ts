@@ -4,3 +4,4 @@ export type { ParameterEntry, PriorDescription } from './parameterSpace.js';
 export { Random } from './random.js';
 export type { RandomState } from './random.js';
 export * from './diagnostics/index.js';
+export * from './ensemble/index.js';

@@ -1,5 +1,10 @@
-import improvedZiggurat from '@stdlib/random/base/improved-ziggurat';
+import { createRequire } from 'node:module';
+import type improvedZigguratType from '@stdlib/random/base/improved-ziggurat';
 import { InputError, expectedFound } from '../errors.js';
+
+// @stdlib packages are CommonJS folders without an exports map: Node's ESM loader needs require.
+const require = createRequire(import.meta.url);
+const improvedZiggurat = require('@stdlib/random/base/improved-ziggurat') as typeof improvedZigguratType;
 
 /** JSON form of a generator's exact state (the Mersenne Twister state words). */
 export interface RandomState {

@@ -9,6 +9,7 @@ export class AutocovariancePlan {
   private readonly fft: FFT;
   private readonly padded: Float64Array;
   private readonly spectrum: Float64Array;
+  private readonly power: Float64Array;
   private readonly back: Float64Array;
 
   constructor(length: number) {
@@ -18,12 +19,14 @@ export class AutocovariancePlan {
     this.fft = new FFT(size);
     this.padded = new Float64Array(size);
     this.spectrum = new Float64Array(2 * size);
+    this.power = new Float64Array(size);
     this.back = new Float64Array(2 * size);
   }
 
   // Biased sample autocovariance c(t) = (1/n) sum_{i<n-t} (x_i - mean)(x_{i+t} - mean) through the
   // Wiener-Khinchin theorem: the inverse FFT of |FFT(x - mean)|^2, zero-padded to >= 2n so the
-  // circular correlation equals the linear one (Press et al., Numerical Recipes, sec. 13.2).
+  // circular correlation equals the linear one (Press et al., Numerical Recipes, sec. 13.2). The
+  // power spectrum is real and even, so its inverse transform is a forward real transform / size.
   // Reads x[offset + i * stride], i < length; writes c(0..length-1) into out.
   compute(x: ArrayLike<number>, offset: number, stride: number, out: Float64Array): void {
     const n = this.length;
@@ -34,15 +37,17 @@ export class AutocovariancePlan {
     for (let i = 0; i < n; i++) padded[i] = x[offset + i * stride] - mean;
     padded.fill(0, n);
     const spectrum = this.spectrum;
+    const power = this.power;
+    const size = power.length;
     this.fft.realTransform(spectrum, padded);
-    this.fft.completeSpectrum(spectrum);
-    for (let k = 0; k < spectrum.length; k += 2) {
-      const re = spectrum[k];
-      const im = spectrum[k + 1];
-      spectrum[k] = re * re + im * im;
-      spectrum[k + 1] = 0;
+    for (let k = 0; k <= size / 2; k++) {
+      const re = spectrum[2 * k];
+      const im = spectrum[2 * k + 1];
+      power[k] = re * re + im * im;
+      if (k > 0) power[size - k] = power[k];
     }
-    this.fft.inverseTransform(this.back, spectrum);
-    for (let t = 0; t < n; t++) out[t] = this.back[2 * t] / n;
+    this.fft.realTransform(this.back, power);
+    const scale = 1 / (size * n);
+    for (let t = 0; t < n; t++) out[t] = this.back[2 * t] * scale;
   }
 }

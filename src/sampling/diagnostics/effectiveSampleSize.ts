@@ -46,7 +46,7 @@ export function bulkEffectiveSampleSize(draws: Draws): number {
 // (Vehtari et al. 2021, sec. 4.3).
 export function tailEffectiveSampleSize(draws: Draws): number {
   const split = splitChains(draws);
-  const sorted = Float64Array.from(split.values).sort();
+  const sorted = split.values.slice().sort();
   let smallest = Infinity;
   for (const probability of [0.05, 0.95]) {
     const q = quantileOfSorted(sorted, probability);

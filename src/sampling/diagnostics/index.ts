@@ -12,3 +12,5 @@ export type { ChainMoments } from './chainMoments.js';
 export { potentialScaleReduction, splitRHat } from './rHat.js';
 export { effectiveSampleSize, bulkEffectiveSampleSize, tailEffectiveSampleSize } from './effectiveSampleSize.js';
 export { quantileOfSorted } from './sampleQuantile.js';
+export { convergenceSummary } from './convergenceSummary.js';
+export type { ConvergenceSummary } from './convergenceSummary.js';

@@ -16,7 +16,7 @@ export function potentialScaleReduction(draws: Draws): number {
 export function splitRHat(draws: Draws): number {
   const split = splitChains(draws);
   const bulk = potentialScaleReduction(rankNormalize(split));
-  const median = quantileOfSorted(Float64Array.from(split.values).sort(), 0.5);
+  const median = quantileOfSorted(split.values.slice().sort(), 0.5);
   const folded = new Float64Array(split.values.length);
   for (let i = 0; i < folded.length; i++) folded[i] = Math.abs(split.values[i] - median);
   const tail = potentialScaleReduction(rankNormalize({ ...split, values: folded }));

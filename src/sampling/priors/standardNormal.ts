@@ -1,6 +1,4 @@
-import erfc from '@stdlib/math/base/special/erfc';
-import erfcinv from '@stdlib/math/base/special/erfcinv';
-import erfcx from '@stdlib/math/base/special/erfcx';
+import { erfc, erfcinv, erfcx } from './stdlibSpecial.js';
 
 const SQRT2 = Math.SQRT2;
 const SQRT_2_OVER_PI = Math.sqrt(2 / Math.PI);

@@ -1,0 +1,12 @@
+export { runEnsemble } from './runEnsemble.js';
+export type { BatchLogDensity, EnsembleProblem, PeriodicRange } from './ensembleProblem.js';
+export type { EnsembleOptions, EnsembleProgress, EnsembleStart } from './ensembleOptions.js';
+export type { EnsembleResult } from './ensembleResult.js';
+export { chainDiagnostics } from './ensembleResult.js';
+export type { EnsembleMoveKind, EnsembleMoveOption, WeightedMove } from './ensembleMoves.js';
+export { proposeStretch, stretchFactor } from './stretchMove.js';
+export { proposeDifferentialEvolution, defaultDifferentialEvolutionGamma } from './differentialEvolutionMove.js';
+export { posteriorOnSpace } from './posteriorOnSpace.js';
+export type { BatchLogLikelihood } from './posteriorOnSpace.js';
+export { encodeFloat64, decodeFloat64 } from './float64Encoding.js';
+export type { EncodedFloat64 } from './float64Encoding.js';

@@ -1,0 +1,98 @@
+import { InputError, expectedFound } from '../../errors.js';
+import type { Random } from '../random.js';
+import type { EnsembleProblem } from './ensembleProblem.js';
+import type { EnsembleStart } from './ensembleOptions.js';
+import { evaluateBatch } from './evaluateBatch.js';
+
+const BALL_ROUNDS = 100;
+
+export interface StartingEnsemble {
+  readonly positions: Float64Array;
+  readonly logDensities: Float64Array;
+  readonly evaluations: number;
+}
+
+/**
+ * Places the walkers: a Gaussian ball center + scale * N(0, 1) per coordinate (walkers with a
+ * non-finite log density are redrawn, up to 100 rounds), or a random pick without replacement of
+ * the given points (a non-finite one is replaced by another unused point).
+ */
+export async function startingEnsemble(
+  problem: EnsembleProblem, walkers: number, start: EnsembleStart, random: Random,
+): Promise<StartingEnsemble> {
+  const dim = problem.dim;
+  const positions = new Float64Array(walkers * dim);
+  const logDensities = new Float64Array(walkers);
+  const candidates = new Float64Array(walkers * dim);
+  let evaluations = 0;
+  let pending = Array.from({ length: walkers }, (_, w) => w);
+
+  let fill: (slot: number) => boolean;
+  if ('ball' in start) {
+    const { center, scale } = start.ball;
+    checkVector('start.ball.center', center, dim, (x) => Number.isFinite(x), 'finite numbers');
+    checkVector('start.ball.scale', scale, dim, (x) => x > 0 && Number.isFinite(x), 'finite numbers > 0');
+    let rounds = 0;
+    fill = (slot) => {
+      if (slot === 0 && ++rounds > BALL_ROUNDS) return false;
+      for (let d = 0; d < dim; d++) candidates[slot * dim + d] = center[d] + scale[d] * random.normal();
+      return true;
+    };
+  } else if ('points' in start) {
+    const points = start.points;
+    const count = points instanceof Float64Array ? points.length / dim : Number.NaN;
+    if (!Number.isInteger(count) || count < walkers) {
+      throw new InputError(
+        `ensemble start.points: ${expectedFound(`at least ${walkers} points of ${dim} values (a Float64Array)`,
+          points instanceof Float64Array ? `${points.length} values` : points)}`,
+      );
+    }
+    // Partial Fisher-Yates shuffle: each call takes the next point uniformly from those unused.
+    const order = Int32Array.from({ length: count }, (_, i) => i);
+    let used = 0;
+    fill = (slot) => {
+      if (used >= count) return false;
+      const pick = used + random.integer(count - used);
+      const chosen = order[pick];
+      order[pick] = order[used];
+      order[used] = chosen;
+      used++;
+      candidates.set(points.subarray(chosen * dim, (chosen + 1) * dim), slot * dim);
+      return true;
+    };
+  } else {
+    throw new InputError(`ensemble start: ${expectedFound('{ ball: { center, scale } } or { points }', start)}`);
+  }
+
+  while (pending.length > 0) {
+    for (let slot = 0; slot < pending.length; slot++) {
+      if (!fill(slot)) {
+        throw new InputError(
+          `ensemble start: expected a finite log posterior for every walker, found ${pending.length} of ${walkers} ` +
+            `walkers without one after ${'ball' in start ? `${BALL_ROUNDS} rounds of redrawing` : 'using every point'}`,
+        );
+      }
+    }
+    const values = await evaluateBatch(problem.logPosterior, candidates, pending.length);
+    evaluations += pending.length;
+    const still: number[] = [];
+    pending.forEach((walker, slot) => {
+      if (Number.isFinite(values[slot])) {
+        positions.set(candidates.subarray(slot * dim, (slot + 1) * dim), walker * dim);
+        logDensities[walker] = values[slot];
+      } else {
+        still.push(walker);
+      }
+    });
+    pending = still;
+  }
+  return { positions, logDensities, evaluations };
+}
+
+function checkVector(
+  what: string, vector: unknown, dim: number, ok: (x: number) => boolean, expected: string,
+): void {
+  if (!(vector instanceof Float64Array) || vector.length !== dim || !vector.every(ok)) {
+    throw new InputError(`ensemble ${what}: ${expectedFound(`${dim} ${expected} (a Float64Array)`, vector)}`);
+  }
+}
