@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  AutocovariancePlan, bulkEffectiveSampleSize, effectiveSampleSize, ensembleAutocorrelationTimes,
+  AutocovariancePlan, bulkEffectiveSampleSize, chainEffectiveSampleSize, ensembleAutocorrelationTimes,
   integratedAutocorrelationTime, splitRHat, tailEffectiveSampleSize, type Draws,
 } from '../../src/sampling/diagnostics/index.js';
 import { Random } from '../../src/sampling/random.js';
@@ -102,7 +102,7 @@ describe('effective sample size (Vehtari et al. 2021, Geyer 1992)', () => {
   const total = 40000;
 
   it('bulk and tail ESS of independent normal draws are close to the draw count', () => {
-    expect(Math.abs(effectiveSampleSize(draws) / total - 1)).toBeLessThan(0.1);
+    expect(Math.abs(chainEffectiveSampleSize(draws) / total - 1)).toBeLessThan(0.1);
     expect(Math.abs(bulkEffectiveSampleSize(draws) / total - 1)).toBeLessThan(0.1);
     expect(Math.abs(tailEffectiveSampleSize(draws) / total - 1)).toBeLessThan(0.1);
   });

@@ -1,4 +1,4 @@
-import { effectiveSampleSize } from './effectiveSampleSize.js';
+import { chainEffectiveSampleSize } from './chainEffectiveSampleSize.js';
 import { firstAtLeast, rankNormalize } from './rankNormalize.js';
 import { potentialScaleReduction } from './rHat.js';
 import { quantileOfSorted } from './sampleQuantile.js';
@@ -30,9 +30,9 @@ export function convergenceSummary(draws: Draws): ConvergenceSummary {
   for (const probability of [0.05, 0.95]) {
     const q = quantileOfSorted(sorted, probability);
     for (let i = 0; i < indicator.length; i++) indicator[i] = split.values[i] <= q ? 1 : 0;
-    tail = Math.min(tail, effectiveSampleSize({ ...split, values: indicator }));
+    tail = Math.min(tail, chainEffectiveSampleSize({ ...split, values: indicator }));
   }
-  return { rHat, bulkEffectiveSampleSize: effectiveSampleSize(ranked), tailEffectiveSampleSize: tail };
+  return { rHat, bulkEffectiveSampleSize: chainEffectiveSampleSize(ranked), tailEffectiveSampleSize: tail };
 }
 
 /** |x - median| of ascending values, in ascending order, by merging the two sides (no sort). */

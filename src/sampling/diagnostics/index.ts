@@ -10,7 +10,7 @@ export { rankNormalize } from './rankNormalize.js';
 export { chainMoments } from './chainMoments.js';
 export type { ChainMoments } from './chainMoments.js';
 export { potentialScaleReduction, splitRHat } from './rHat.js';
-export { effectiveSampleSize, bulkEffectiveSampleSize, tailEffectiveSampleSize } from './effectiveSampleSize.js';
+export { chainEffectiveSampleSize, bulkEffectiveSampleSize, tailEffectiveSampleSize } from './chainEffectiveSampleSize.js';
 export { quantileOfSorted } from './sampleQuantile.js';
 export { convergenceSummary } from './convergenceSummary.js';
 export type { ConvergenceSummary } from './convergenceSummary.js';

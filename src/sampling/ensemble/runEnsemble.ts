@@ -1,5 +1,4 @@
 import { ensembleAutocorrelationTimes } from '../diagnostics/integratedAutocorrelationTime.js';
-import { wrapIntoPeriod } from '../priors/periodic.js';
 import { Random } from '../random.js';
 import { proposeDifferentialEvolution } from './differentialEvolutionMove.js';
 import { loadEnsembleCheckpoint, saveEnsembleCheckpoint } from './ensembleCheckpoint.js';
@@ -9,6 +8,7 @@ import { chainDiagnostics, type EnsembleResult } from './ensembleResult.js';
 import type { EnsembleState } from './ensembleState.js';
 import { evaluateBatch } from './evaluateBatch.js';
 import { GrowableChain } from './growableChain.js';
+import { periodicTable, wrapRows } from './periodicWrap.js';
 import { startingEnsemble } from './startingEnsemble.js';
 import { proposeStretch } from './stretchMove.js';
 
@@ -53,7 +53,7 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
         proposeDifferentialEvolution(state.positions, dim, first, half, other, half, state.random,
           settled.gamma, settled.jitter, proposals, logCorrection, jitterScale);
       }
-      if (periodic !== null) wrapRows(proposals, half, dim, periodic);
+      wrapRows(proposals, half, dim, periodic);
       const values = await evaluateBatch(problem.logPosterior, proposals, half);
       state.evaluations += half;
       acceptOrReject(state, first, half, dim, proposals, values, logCorrection);
@@ -85,7 +85,7 @@ async function freshState(
   problem: EnsembleProblem, options: EnsembleOptions, settled: SettledEnsembleOptions,
 ): Promise<EnsembleState> {
   const random = new Random(settled.seed);
-  const start = await startingEnsemble(problem, settled.walkers, options.start, random);
+  const start = await startingEnsemble(problem, settled.walkers, options.start, random, periodicTable(problem));
   return {
     iteration: 0,
     positions: start.positions,
@@ -129,36 +129,6 @@ function acceptOrReject(
       positions.set(proposals.subarray(i * dim, (i + 1) * dim), walker * dim);
       logDensities[walker] = value;
       accepted[walker]++;
-    }
-  }
-}
-
-interface PeriodicTable {
-  readonly indices: Int32Array;
-  readonly lower: Float64Array;
-  readonly period: Float64Array;
-}
-
-function periodicTable(problem: EnsembleProblem): PeriodicTable | null {
-  const ranges = problem.periodic;
-  if (ranges === undefined) return null;
-  const indices: number[] = [];
-  ranges.forEach((range, d) => {
-    if (range) indices.push(d);
-  });
-  if (indices.length === 0) return null;
-  return {
-    indices: Int32Array.from(indices),
-    lower: Float64Array.from(indices, (d) => ranges[d]!.lower),
-    period: Float64Array.from(indices, (d) => ranges[d]!.upper - ranges[d]!.lower),
-  };
-}
-
-function wrapRows(points: Float64Array, count: number, dim: number, table: PeriodicTable): void {
-  for (let i = 0; i < count; i++) {
-    for (let k = 0; k < table.indices.length; k++) {
-      const at = i * dim + table.indices[k];
-      points[at] = wrapIntoPeriod(points[at], table.lower[k], table.period[k]);
     }
   }
 }

@@ -3,6 +3,7 @@ import type { Random } from '../random.js';
 import type { EnsembleProblem } from './ensembleProblem.js';
 import type { EnsembleStart } from './ensembleOptions.js';
 import { evaluateBatch } from './evaluateBatch.js';
+import { wrapRows, type PeriodicTable } from './periodicWrap.js';
 
 const BALL_ROUNDS = 100;
 
@@ -15,10 +16,12 @@ export interface StartingEnsemble {
 /**
  * Places the walkers: a Gaussian ball center + scale * N(0, 1) per coordinate (walkers with a
  * non-finite log density are redrawn, up to 100 rounds), or a random pick without replacement of
- * the given points (a non-finite one is replaced by another unused point).
+ * the given points (a non-finite one is replaced by another unused point). Periodic coordinates
+ * are wrapped into their periods.
  */
 export async function startingEnsemble(
   problem: EnsembleProblem, walkers: number, start: EnsembleStart, random: Random,
+  periodic: PeriodicTable | null,
 ): Promise<StartingEnsemble> {
   const dim = problem.dim;
   const positions = new Float64Array(walkers * dim);
@@ -73,6 +76,7 @@ export async function startingEnsemble(
         );
       }
     }
+    wrapRows(candidates, pending.length, dim, periodic);
     const values = await evaluateBatch(problem.logPosterior, candidates, pending.length);
     evaluations += pending.length;
     const still: number[] = [];

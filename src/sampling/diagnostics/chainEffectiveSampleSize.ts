@@ -10,7 +10,7 @@ import { splitChains, type Draws } from './splitChains.js';
 // kept while positive and made non-increasing; tau = -1 + 2 sum_k P_k, ESS = m n / tau. tau is
 // floored at 1 / log10(m n), capping ESS at m n log10(m n) as the paper does for antithetic chains
 // (from memory).
-export function effectiveSampleSize(draws: Draws): number {
+export function chainEffectiveSampleSize(draws: Draws): number {
   const { values, chains, drawsPerChain: n } = draws;
   const total = chains * n;
   if (n < 4) return Number.NaN;
@@ -39,7 +39,7 @@ export function effectiveSampleSize(draws: Draws): number {
 
 // Bulk ESS: ESS of the rank-normalised split chains (Vehtari et al. 2021, sec. 4.1).
 export function bulkEffectiveSampleSize(draws: Draws): number {
-  return effectiveSampleSize(rankNormalize(splitChains(draws)));
+  return chainEffectiveSampleSize(rankNormalize(splitChains(draws)));
 }
 
 // Tail ESS: the smaller ESS of the split-chain indicators I(theta <= q05) and I(theta <= q95)
@@ -52,7 +52,7 @@ export function tailEffectiveSampleSize(draws: Draws): number {
     const q = quantileOfSorted(sorted, probability);
     const indicator = new Float64Array(split.values.length);
     for (let i = 0; i < indicator.length; i++) indicator[i] = split.values[i] <= q ? 1 : 0;
-    smallest = Math.min(smallest, effectiveSampleSize({ ...split, values: indicator }));
+    smallest = Math.min(smallest, chainEffectiveSampleSize({ ...split, values: indicator }));
   }
   return smallest;
 }
