@@ -1,7 +1,10 @@
+export { cornerData } from './cornerData.js';
+export type { CornerData, CornerOptions, CornerPair, CornerParameter } from './cornerData.js';
 export { credibleInterval } from './credibleInterval.js';
 export type { CredibleInterval } from './credibleInterval.js';
 export { densityLevels, MASS_ONE_SIGMA_2D, MASS_TWO_SIGMA_2D } from './densityLevels.js';
 export type { DensityLevelOptions } from './densityLevels.js';
+export { kishEffectiveSampleSize } from './kishEffectiveSampleSize.js';
 export { parameterColumn } from './parameterColumn.js';
 export { CREDIBLE_MASS_68, CREDIBLE_MASS_95, parameterSummary } from './parameterSummary.js';
 export type { ParameterSummary } from './parameterSummary.js';
