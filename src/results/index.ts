@@ -1,3 +1,5 @@
+export { bayesFactorReading, evidenceGrade, KASS_RAFTERY_LN_EDGES } from './bayesFactorReading.js';
+export type { BayesFactorReading, EvidenceGrade } from './bayesFactorReading.js';
 export { cornerData } from './cornerData.js';
 export type { CornerData, CornerOptions, CornerPair, CornerParameter } from './cornerData.js';
 export { credibleInterval } from './credibleInterval.js';
@@ -8,6 +10,8 @@ export { kishEffectiveSampleSize } from './kishEffectiveSampleSize.js';
 export { parameterColumn } from './parameterColumn.js';
 export { CREDIBLE_MASS_68, CREDIBLE_MASS_95, parameterSummary } from './parameterSummary.js';
 export type { ParameterSummary } from './parameterSummary.js';
+export { bayesFactorBoundFromPValue, lnPValueBound, significanceBound, twoSidedSigmaFromLnP } from './significanceBound.js';
+export type { SignificanceBound } from './significanceBound.js';
 export { smoothHistogram2d } from './smoothHistogram2d.js';
 export { upperLimit } from './upperLimit.js';
 export { weightedHistogram1d, weightedHistogram2d } from './weightedHistogram.js';
