@@ -1,0 +1,30 @@
+// Nested sampling on the unit hypercube: the public surface of src/sampling/nested/.
+export { runNested, autoEllipsoidMaxDim, defaultEnlargement, shrinkageSimulations } from './runNested.js';
+export type {
+  NestedProblem,
+  NestedOptions,
+  NestedResult,
+  NestedProgress,
+  NestedMethod,
+  NestedStopReason,
+  NestedCheckpointOptions,
+} from './nestedProblem.js';
+export { equalWeightSamples, effectiveSampleSize } from './equalWeightSamples.js';
+export { insertionRankTest, insertionRankThreshold } from './insertionRank.js';
+export type { InsertionRankCheck } from './insertionRank.js';
+export { kolmogorovSmirnovUniform, kolmogorovSmirnovPValue } from './kolmogorovSmirnov.js';
+export { simulatedLnZSpread } from './evidenceError.js';
+export type { ShrinkageRecord } from './evidenceError.js';
+export { batchLnVolumes, lnVolumeSlice, lnInitialVolume } from './shrinkage.js';
+export { boundingEllipsoid, lnUnitBallVolume, sampleInEllipsoid, mahalanobisSquared } from './ellipsoid.js';
+export type { Ellipsoid } from './ellipsoid.js';
+export { buildEllipsoidUnion, sampleFromUnion } from './multiEllipsoid.js';
+export type { EllipsoidUnion, EllipsoidUnionSettings } from './multiEllipsoid.js';
+export { sliceChains } from './sliceSampler.js';
+export type { SliceSettings, UnitBatchEvaluator } from './sliceSampler.js';
+export { checkpointFormat, checkpointVersion } from './checkpoint.js';
+export { gaussLegendre } from './gaussLegendre.js';
+export { logAddExp, logSumExp } from './logSumExp.js';
+export { SeededStream } from './seededStream.js';
+export { gaussianShellsProblem, gaussianShellsLnEvidence } from './problems/gaussianShells.js';
+export { eggBoxProblem, eggBoxLnEvidence } from './problems/eggBox.js';

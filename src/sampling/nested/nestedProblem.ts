@@ -1,0 +1,117 @@
+import type { InsertionRankCheck } from './insertionRank.js';
+
+/**
+ * A problem for the nested sampler, posed on the unit hypercube [0, 1]^dim: `transform` maps a
+ * unit-cube point to the physical point handed to the likelihood (the prior is uniform on the cube
+ * before the transform).
+ */
+export interface NestedProblem {
+  /** dimensions of the unit cube (free parameters). */
+  readonly dim: number;
+  /** length of a physical point handed to the likelihood. */
+  readonly physicalDim: number;
+  /** unit-cube point -> physical point; must not keep references to either buffer. */
+  transform(unit: Float64Array, out: Float64Array): void;
+  /** unit coordinates that wrap (angles); used by slice sampling, ignored by ellipsoids. */
+  readonly periodic?: readonly boolean[];
+  /**
+   * ln L of `count` physical points stored row-major in `points` (row length physicalDim). May
+   * be asynchronous (a worker pool). NaN and +-Infinity mark impossible points.
+   */
+  logLikelihood(points: Float64Array, count: number): Promise<Float64Array> | Float64Array;
+}
+
+/** How constrained draws are made. 'auto': ellipsoids for dim <= autoEllipsoidMaxDim, slice above. */
+export type NestedMethod = 'auto' | 'ellipsoids' | 'slice';
+
+/** Why the run stopped. */
+export type NestedStopReason = 'converged' | 'maxIterations' | 'maxEvaluations' | 'interrupted';
+
+export interface NestedProgress {
+  /** dead points so far. */
+  readonly iteration: number;
+  /** ln of the evidence accumulated from dead points. */
+  readonly lnZ: number;
+  /** ln(X_i * max live L), the estimate of what the live points can still add. */
+  readonly lnZRemaining: number;
+  /** accepted replacements per likelihood evaluation so far (initial draws excluded). */
+  readonly efficiency: number;
+  readonly evaluations: number;
+  readonly elapsedSeconds: number;
+}
+
+export interface NestedCheckpointOptions {
+  /** JSON file written atomically at step boundaries. */
+  readonly path: string;
+  readonly everySeconds?: number;
+  readonly everyIterations?: number;
+}
+
+export interface NestedOptions {
+  /** number of live points N; default 25 * dim within [100, 1000]. */
+  readonly livePoints?: number;
+  /** integer in [1, 2^32 - 1]; default 1. */
+  readonly seed?: number;
+  readonly method?: NestedMethod;
+  /**
+   * k live points replaced per step in one batch, default 1. Set it to the likelihood's number of
+   * worker threads: results depend on (seed, k), never on timing.
+   */
+  readonly replacementsPerStep?: number;
+  /** stop when ln(Z + Z_live) - ln Z < this; default 0.1. */
+  readonly lnZTolerance?: number;
+  readonly maxEvaluations?: number;
+  /** maximum number of dead points. */
+  readonly maxIterations?: number;
+  /** ellipsoid volume enlargement factor, >= 1; default defaultEnlargement. */
+  readonly enlargement?: number;
+  /** slice sampling: `steps` slice moves per new point, default 5 * dim. */
+  readonly slice?: { readonly steps?: number };
+  readonly checkpoint?: NestedCheckpointOptions;
+  /** continue from checkpoint.path when the file exists. */
+  readonly resume?: boolean;
+  /** called once every livePoints dead points and at the end. */
+  readonly onProgress?: (progress: NestedProgress) => void;
+  /** cooperative interruption: checked at every step boundary. */
+  readonly signal?: { stopRequested: boolean };
+  /**
+   * Test hook only: multiply every bounding ellipsoid's volume by this factor (< 1 gives a
+   * deliberately biased sampler, for checking the insertion-rank test). Default 1.
+   */
+  readonly boundVolumeFactorForTesting?: number;
+}
+
+export interface NestedResult {
+  /** ln of the evidence, dead points plus the final live points. */
+  readonly lnZ: number;
+  /**
+   * Skilling's sqrt(H / N); when initial draws hit impossible points, the relative error
+   * sqrt((1 - f) / N) of the finite prior fraction f is added in quadrature.
+   */
+  readonly lnZError: number;
+  /** standard deviation of ln Z over 200 simulated shrinkage sequences (Higson et al. 2018). */
+  readonly lnZErrorSimulated: number;
+  /** information H (nats), the posterior's KL divergence from the prior. */
+  readonly information: number;
+  /** dead points (final live points not included). */
+  readonly iterations: number;
+  readonly evaluations: number;
+  readonly efficiency: number;
+  readonly nonFiniteCount: number;
+  /** physical points, rows of physicalDim: all dead points, then the final live points by ascending ln L. */
+  readonly points: Float64Array;
+  /** the same points on the unit cube, rows of dim. */
+  readonly unitPoints: Float64Array;
+  readonly count: number;
+  readonly lnL: Float64Array;
+  /** ln of the prior volume enclosed by each point's contour. */
+  readonly lnX: Float64Array;
+  /** normalised posterior log weights (sum of exp = 1). */
+  readonly lnWeight: Float64Array;
+  readonly insertionRank: InsertionRankCheck;
+  readonly method: 'ellipsoids' | 'slice';
+  readonly stopReason: NestedStopReason;
+  readonly livePoints: number;
+  /** equal-weight posterior samples (physical rows); count defaults to the effective sample size. */
+  equalWeight(count?: number, seed?: number): Float64Array;
+}

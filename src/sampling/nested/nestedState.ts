@@ -1,0 +1,173 @@
+import { GrowableRows } from './growableRows.js';
+import { recordEllipsoidUnion, restoreEllipsoidUnion } from './multiEllipsoid.js';
+import type { EllipsoidUnion, EllipsoidUnionRecord } from './multiEllipsoid.js';
+import { SeededStream } from './seededStream.js';
+
+/** Settings that fix a run's random sequence; a checkpoint resumes only with the same ones. */
+export interface NestedSettings {
+  readonly dim: number;
+  readonly physicalDim: number;
+  readonly livePoints: number;
+  readonly seed: number;
+  readonly method: 'ellipsoids' | 'slice';
+  readonly replacementsPerStep: number;
+  readonly enlargement: number;
+  readonly minimumClusterSize: number;
+  readonly bootstraps: number;
+  readonly boundUpdateInterval: number;
+  readonly sliceSteps: number;
+  readonly sliceWidthScale: number;
+  readonly periodic: readonly boolean[];
+  readonly boundVolumeFactorForTesting: number;
+}
+
+/** Everything a run carries from one step to the next, so that a resumed run continues bit for bit. */
+export interface NestedState {
+  readonly settings: NestedSettings;
+  readonly liveUnit: Float64Array;
+  readonly livePhysical: Float64Array;
+  readonly liveLnL: Float64Array;
+  readonly deadUnit: GrowableRows;
+  readonly deadPhysical: GrowableRows;
+  readonly deadLnL: GrowableRows;
+  readonly deadLnX: GrowableRows;
+  readonly deadLiveCount: GrowableRows;
+  /** insertion rank of each new live point, and how many live points it was ranked among. */
+  readonly rankValue: GrowableRows;
+  readonly rankOthers: GrowableRows;
+  /** valid ellipsoid-method candidates left over from earlier batches, in draw order. */
+  readonly spareUnit: GrowableRows;
+  readonly sparePhysical: GrowableRows;
+  readonly spareLnL: GrowableRows;
+  stream: SeededStream;
+  lnXInitial: number;
+  lnX: number;
+  lnZDead: number;
+  steps: number;
+  evaluations: number;
+  nonFiniteCount: number;
+  initialFinite: number;
+  initialDrawn: number;
+  replacementsAccepted: number;
+  replacementEvaluations: number;
+  /** decaying counts of valid and evaluated candidates, for sizing ellipsoid batches. */
+  recentValid: number;
+  recentEvaluated: number;
+  /** current bound (null: draw from the whole cube). */
+  bound: EllipsoidUnion | null;
+  boundBuiltAt: number;
+  /** slice sampling: Cholesky factor of the live covariance and when it was computed. */
+  whitening: Float64Array | null;
+  whiteningBuiltAt: number;
+  elapsedSeconds: number;
+}
+
+export function emptyState(settings: NestedSettings): NestedState {
+  const { dim, physicalDim, livePoints } = settings;
+  return {
+    settings,
+    liveUnit: new Float64Array(livePoints * dim),
+    livePhysical: new Float64Array(livePoints * physicalDim),
+    liveLnL: new Float64Array(livePoints),
+    deadUnit: new GrowableRows(dim),
+    deadPhysical: new GrowableRows(physicalDim),
+    deadLnL: new GrowableRows(1),
+    deadLnX: new GrowableRows(1),
+    deadLiveCount: new GrowableRows(1),
+    rankValue: new GrowableRows(1),
+    rankOthers: new GrowableRows(1),
+    spareUnit: new GrowableRows(dim, 16),
+    sparePhysical: new GrowableRows(physicalDim, 16),
+    spareLnL: new GrowableRows(1, 16),
+    stream: SeededStream.fromSeed(settings.seed),
+    lnXInitial: 0,
+    lnX: 0,
+    lnZDead: -Infinity,
+    steps: 0,
+    evaluations: 0,
+    nonFiniteCount: 0,
+    initialFinite: 0,
+    initialDrawn: 0,
+    replacementsAccepted: 0,
+    replacementEvaluations: 0,
+    recentValid: 1,
+    recentEvaluated: 1,
+    bound: null,
+    boundBuiltAt: -Infinity,
+    whitening: null,
+    whiteningBuiltAt: -Infinity,
+    elapsedSeconds: 0,
+  };
+}
+
+/** Plain-JSON form of a state (non-finite numbers are encoded by the checkpoint writer). */
+export interface NestedStateRecord {
+  readonly settings: NestedSettings;
+  readonly arrays: Record<string, number[]>;
+  readonly scalars: Record<string, number>;
+  readonly streamState: number[];
+  readonly bound: EllipsoidUnionRecord | null;
+  readonly whitening: number[] | null;
+}
+
+const rowTables = [
+  'deadUnit',
+  'deadPhysical',
+  'deadLnL',
+  'deadLnX',
+  'deadLiveCount',
+  'rankValue',
+  'rankOthers',
+  'spareUnit',
+  'sparePhysical',
+  'spareLnL',
+] as const;
+const liveArrays = ['liveUnit', 'livePhysical', 'liveLnL'] as const;
+const scalarNames = [
+  'lnXInitial',
+  'lnX',
+  'lnZDead',
+  'steps',
+  'evaluations',
+  'nonFiniteCount',
+  'initialFinite',
+  'initialDrawn',
+  'replacementsAccepted',
+  'replacementEvaluations',
+  'recentValid',
+  'recentEvaluated',
+  'boundBuiltAt',
+  'whiteningBuiltAt',
+  'elapsedSeconds',
+] as const;
+
+export function recordState(state: NestedState): NestedStateRecord {
+  const arrays: Record<string, number[]> = {};
+  for (const name of liveArrays) arrays[name] = Array.from(state[name]);
+  for (const name of rowTables) arrays[name] = Array.from(state[name].view());
+  const scalars: Record<string, number> = {};
+  for (const name of scalarNames) scalars[name] = state[name];
+  return {
+    settings: state.settings,
+    arrays,
+    scalars,
+    streamState: state.stream.stateWords(),
+    bound: state.bound === null ? null : recordEllipsoidUnion(state.bound),
+    whitening: state.whitening === null ? null : Array.from(state.whitening),
+  };
+}
+
+export function restoreState(record: NestedStateRecord): NestedState {
+  const state = emptyState(record.settings);
+  for (const name of liveArrays) state[name].set(record.arrays[name]);
+  for (const name of rowTables) {
+    const table = state[name];
+    const values = record.arrays[name];
+    for (let offset = 0; offset + table.width <= values.length; offset += table.width) table.push(values, offset);
+  }
+  for (const name of scalarNames) state[name] = record.scalars[name];
+  state.stream = SeededStream.fromState(record.streamState);
+  state.bound = record.bound === null ? null : restoreEllipsoidUnion(record.bound);
+  state.whitening = record.whitening === null ? null : Float64Array.from(record.whitening);
+  return state;
+}
