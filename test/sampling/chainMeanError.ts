@@ -6,11 +6,11 @@ import type { EnsembleResult } from '../../src/sampling/ensemble/index.js';
  * Mean of f over the retained part of an ensemble chain and its Monte-Carlo standard error
  * sqrt(tau_f var_f / (walkers x steps)), with tau_f the measured integrated autocorrelation time
  * of f itself (Sokal 1997; walkers treated as independent chains, the usual ensemble practice).
- * f reads one walker position at chain[offset .. offset + dim).
+ * f reads one walker position at chain[offset .. offset + dim). tau is in stored steps.
  */
 export function retainedMeanWithError(
   result: EnsembleResult, f: (chain: Float64Array, offset: number) => number,
-): { mean: number; error: number } {
+): { mean: number; error: number; tau: number } {
   const { walkers, retainedFrom, dim } = result;
   const steps = result.steps - retainedFrom;
   const values = new Float64Array(steps * walkers);
@@ -23,5 +23,5 @@ export function retainedMeanWithError(
   variance /= values.length - 1;
   const { tau, reliable } = ensembleAutocorrelationTimes(values, { steps, walkers, dim: 1 });
   expect(reliable).toBe(true);
-  return { mean, error: Math.sqrt((tau[0] * variance) / values.length) };
+  return { mean, error: Math.sqrt((tau[0] * variance) / values.length), tau: tau[0] };
 }

@@ -19,23 +19,29 @@ function logRosenbrock(points: Float64Array, count: number): Float64Array {
 
 describe('ensemble MCMC on the Rosenbrock density', () => {
   it('recovers E[x] = 1, var(x) = 10 and E[y] = 11 within 4 Monte-Carlo sigma', async () => {
+    // The stretch move mixes slowly in the thin far arms of this density: its autocorrelation time
+    // keeps growing with run length until each walker's chain is long (we measured tau ~ 1500
+    // iterations from 100 walkers x 60000 iterations, but ~13000 from 8 walkers x 2e6), and a short
+    // run understates the error and under-visits the arms (var(x) came out 2-5 sigma low in such
+    // runs). So: few walkers, long chains, and the usual reliability rule (common practice) that the
+    // retained chain spans at least 50 autocorrelation times of each quantity checked.
     const result = await runEnsemble({ dim: 2, logPosterior: logRosenbrock }, {
-      walkers: 100,
+      walkers: 8,
       seed: 31,
       start: { ball: { center: Float64Array.of(1, 1), scale: Float64Array.of(0.1, 0.1) } },
-      maxSteps: 60000,
-      thin: 10,
+      maxSteps: 2_000_000,
+      thin: 100,
     });
-    // Each check: the function, its exact mean, and the largest Monte-Carlo error at which the check
-    // still says something (the autocorrelation time here is ~1000 iterations, so a short or
-    // badly mixing run fails on that bound rather than passing on a huge error bar).
+    // Each check: the function, its exact mean, and the largest Monte-Carlo error at which the
+    // check still says something: 0.2 in E[x] (6 % of sd(x)), 1 in var(x) and in E[y] (about 10 %).
     const checks: Array<[(x: number, y: number) => number, number, number]> = [
-      [(x) => x, 1, 0.1],
-      [(x) => (x - 1) ** 2, 10, 0.6],
-      [(_x, y) => y, 11, 0.6],
+      [(x) => x, 1, 0.2],
+      [(x) => (x - 1) ** 2, 10, 1],
+      [(_x, y) => y, 11, 1],
     ];
     for (const [f, expected, largestError] of checks) {
-      const { mean, error } = retainedMeanWithError(result, (chain, at) => f(chain[at], chain[at + 1]));
+      const { mean, error, tau } = retainedMeanWithError(result, (chain, at) => f(chain[at], chain[at + 1]));
+      expect(result.steps - result.retainedFrom).toBeGreaterThan(50 * tau);
       expect(error).toBeLessThan(largestError);
       expect(Math.abs(mean - expected)).toBeLessThan(4 * error);
     }

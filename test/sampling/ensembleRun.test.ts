@@ -113,6 +113,20 @@ describe('runEnsemble', () => {
     expect(saved.chain.encoding).toBe('float64-le-base64');
   });
 
+  it('stops when the retained chain is longer than N autocorrelation times and tau is stable', async () => {
+    const result = await runEnsemble({ dim: DIM, logPosterior: logStandardNormal }, {
+      walkers: 12, seed: 21, maxSteps: 50000, targetAutocorrelationTimes: 50, checkEvery: 100,
+      start: { ball: { center: new Float64Array(DIM), scale: new Float64Array(DIM).fill(1) } },
+    });
+    expect(result.converged).toBe(true);
+    expect(result.iterations).toBeLessThan(50000);
+    expect(result.iterations % 100).toBe(0);
+    // The rule as stated, re-checked on the returned diagnostics (the final check's chain).
+    const tauMax = Math.max(...result.autocorrelationTime);
+    expect(result.autocorrelationReliable).toBe(true);
+    expect((result.steps - result.retainedFrom) * result.thin).toBeGreaterThan(50 * tauMax);
+  });
+
   it('refuses a checkpoint written by a run with other settings', async () => {
     const path = join(folder, 'other.json');
     const problem = { dim: DIM, logPosterior: logStandardNormal };

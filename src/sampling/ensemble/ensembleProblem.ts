@@ -1,7 +1,8 @@
 /**
  * Batch log density: `points` holds `count` free-parameter vectors row-major (count x dim);
  * returns at least `count` log densities (unnormalised is fine). May return a Promise, so the
- * caller can spread the batch over worker threads. Non-finite values mean "reject".
+ * caller can spread the batch over worker threads. Non-finite values mean "reject". The sampler
+ * reuses `points` for the next batch once the call has returned (or its Promise has settled).
  */
 export type BatchLogDensity = (
   points: Float64Array, count: number,
