@@ -5,3 +5,4 @@ export { Random } from './random.js';
 export type { RandomState } from './random.js';
 export * from './diagnostics/index.js';
 export * from './ensemble/index.js';
+export * from './nested/index.js';
