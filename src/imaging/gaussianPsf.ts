@@ -1,7 +1,7 @@
 import { createRequire } from 'node:module';
 import type erfType from '@stdlib/math/base/special/erf';
 import { InputError, expectedFound } from '../errors.js';
-import { checkKernelSize, normaliseInPlace, type PsfKernel } from './psfKernel.js';
+import { checkKernelSize, normaliseInPlace, type PsfKernel, type PsfSampling } from './psfKernel.js';
 
 const require = createRequire(import.meta.url);
 const erf = require('@stdlib/math/base/special/erf') as typeof erfType;
@@ -13,12 +13,16 @@ export const GAUSSIAN_FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
 export const GAUSSIAN_PSF_HALF_WIDTH_FWHM = 2.5;
 
 /**
- * Circular Gaussian PSF integrated exactly over each pixel: the Gaussian is separable, and the
- * integral of a 1-D Gaussian over [x - s/2, x + s/2] is (erf((x + s/2) / (sigma sqrt 2)) -
- * erf((x - s/2) / (sigma sqrt 2))) / 2 (Abramowitz & Stegun 1964, 7.1.1). Normalised to sum 1
- * after truncation to sizePixels x sizePixels (default: odd, half-width 2.5 FWHM).
+ * Circular Gaussian PSF, separable into two 1-D factors. 'pixelIntegrated' (default): integrated
+ * exactly over each pixel, the integral of a 1-D Gaussian over [x - s/2, x + s/2] being
+ * (erf((x + s/2) / (sigma sqrt 2)) - erf((x - s/2) / (sigma sqrt 2))) / 2 (Abramowitz & Stegun
+ * 1964, 7.1.1). 'pixelCentre': exp(-x^2 / (2 sigma^2)) at the pixel centres (see PsfSampling).
+ * Normalised to sum 1 after truncation to sizePixels x sizePixels (default: odd, half-width
+ * 2.5 FWHM).
  */
-export function gaussianPsfKernel(fwhmArcsec: number, pixelScaleArcsec: number, sizePixels?: number): PsfKernel {
+export function gaussianPsfKernel(
+  fwhmArcsec: number, pixelScaleArcsec: number, sizePixels?: number, sampling: PsfSampling = 'pixelIntegrated',
+): PsfKernel {
   if (!(fwhmArcsec > 0) || !Number.isFinite(fwhmArcsec)) {
     throw new InputError(expectedFound('a FWHM in arcsec > 0', fwhmArcsec), { key: 'psf.fwhmArcsec' });
   }
@@ -31,7 +35,9 @@ export function gaussianPsfKernel(fwhmArcsec: number, pixelScaleArcsec: number, 
   const alongAxis = new Float64Array(size);
   for (let a = 0; a < size; a++) {
     const x = (a - centre) * pixelScaleArcsec;
-    alongAxis[a] = 0.5 * (erf((x + 0.5 * pixelScaleArcsec) * scale) - erf((x - 0.5 * pixelScaleArcsec) * scale));
+    alongAxis[a] = sampling === 'pixelCentre'
+      ? Math.exp(-(x * scale) * (x * scale))
+      : 0.5 * (erf((x + 0.5 * pixelScaleArcsec) * scale) - erf((x - 0.5 * pixelScaleArcsec) * scale));
   }
   const values = new Float64Array(size * size);
   for (let b = 0; b < size; b++) {

@@ -3,7 +3,7 @@ export {
   fillPixelCentres, fillSupersampledCentres, fillSubsetCentres, binSupersampled,
 } from './pixelGrid.js';
 export {
-  type PsfKernel, type CheckedPsfKernel, PSF_SUM_TOLERANCE, checkPsfKernel, checkKernelSize, normaliseInPlace,
+  type PsfKernel, type PsfSampling, type CheckedPsfKernel, PSF_SUM_TOLERANCE, checkPsfKernel, checkKernelSize, normaliseInPlace,
 } from './psfKernel.js';
 export { gaussianPsfKernel, GAUSSIAN_FWHM_PER_SIGMA, GAUSSIAN_PSF_HALF_WIDTH_FWHM } from './gaussianPsf.js';
 export {

@@ -1,5 +1,5 @@
 import { InputError, expectedFound } from '../errors.js';
-import { checkKernelSize, normaliseInPlace, type PsfKernel } from './psfKernel.js';
+import { checkKernelSize, normaliseInPlace, type PsfKernel, type PsfSampling } from './psfKernel.js';
 
 /** Moffat 1969 (A&A 3, 455): FWHM = 2 alpha sqrt(2^(1/beta) - 1), so alpha from the FWHM. */
 export function moffatAlpha(fwhmArcsec: number, beta: number): number {
@@ -12,14 +12,16 @@ export const MOFFAT_PSF_OUTSIDE_FRACTION = 1e-3;
 export const MOFFAT_PSF_MAX_HALF_WIDTH_FWHM = 10;
 
 /**
- * Circular Moffat PSF I(r) = [1 + (r / alpha)^2]^(-beta) (Moffat 1969), beta > 1, integrated
- * over each pixel by the midpoint rule on subsampling x subsampling sub-pixels, normalised to
- * sum 1 after truncation. Default size: odd, half-width the radius outside which a fraction
- * (1 + r^2/alpha^2)^(1 - beta) = 1e-3 of the flux lies (the closed-form enclosed flux of the
- * Moffat profile), at most 10 FWHM.
+ * Circular Moffat PSF I(r) = [1 + (r / alpha)^2]^(-beta) (Moffat 1969), beta > 1. With
+ * 'pixelIntegrated' (default) integrated over each pixel by the midpoint rule on subsampling x
+ * subsampling sub-pixels; with 'pixelCentre' sampled at the pixel centres (see PsfSampling;
+ * subsampling is then not used). Normalised to sum 1 after truncation. Default size: odd,
+ * half-width the radius outside which a fraction (1 + r^2/alpha^2)^(1 - beta) = 1e-3 of the
+ * flux lies (the closed-form enclosed flux of the Moffat profile), at most 10 FWHM.
  */
 export function moffatPsfKernel(
   fwhmArcsec: number, beta: number, pixelScaleArcsec: number, sizePixels?: number, subsampling = 11,
+  sampling: PsfSampling = 'pixelIntegrated',
 ): PsfKernel {
   if (!(fwhmArcsec > 0) || !Number.isFinite(fwhmArcsec)) {
     throw new InputError(expectedFound('a FWHM in arcsec > 0', fwhmArcsec), { key: 'psf.fwhmArcsec' });
@@ -40,6 +42,7 @@ export function moffatPsfKernel(
     size = checkKernelSize(sizePixels, 'psf.sizePixels');
   }
   const centre = (size - 1) / 2;
+  if (sampling === 'pixelCentre') subsampling = 1;
   const subStep = pixelScaleArcsec / subsampling;
   const firstOffset = -((subsampling - 1) / 2) * subStep;
   const inverseAlpha2 = 1 / (alpha * alpha);

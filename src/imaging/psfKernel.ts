@@ -10,6 +10,15 @@ export interface PsfKernel {
   readonly values: Float64Array;
 }
 
+/**
+ * How an analytic PSF becomes pixel values. 'pixelCentre': the PSF sampled at the pixel centres
+ * (then normalised), the right kernel for an image that is already the mean of the light over
+ * each pixel, as arcsift's forward model makes (the pixel box must not be applied twice).
+ * 'pixelIntegrated': the PSF integrated over each pixel, the kernel for point sources or
+ * images sampled at pixel centres.
+ */
+export type PsfSampling = 'pixelCentre' | 'pixelIntegrated';
+
 export interface CheckedPsfKernel {
   readonly kernel: PsfKernel;
   /** True when the input did not sum to 1 (within 1e-9) and was divided by its sum. */

@@ -13,12 +13,20 @@ export function gridOfObservation(observation: ObservationConfig): PixelGrid {
   return pixelGrid(observation.columns, observation.rows, observation.pixelScaleArcsec, 'observation');
 }
 
-/** The PSF kernel an observation config describes; a file path is relative to the config. */
+/**
+ * The PSF kernel an observation config describes; a file path is relative to the config.
+ * The forward model averages the light over each pixel before the PSF, so an analytic PSF is
+ * sampled at the pixel centres ('pixelCentre'): integrating it over the pixel as well would
+ * apply the pixel box twice (the effective PSF variance too large by pixel^2 / 12). A PSF read
+ * from a FITS file is used as given and taken to be sampled at pixel centres in the same sense.
+ */
 export function psfOfObservation(observation: ObservationConfig, configFile: string): PsfKernel {
   const psf = observation.psf;
   const scale = observation.pixelScaleArcsec;
-  if (psf.shape === 'gaussian') return gaussianPsfKernel(psf.fwhmArcsec, scale, psf.sizePixels);
-  if (psf.shape === 'moffat') return moffatPsfKernel(psf.fwhmArcsec, psf.moffatBeta, scale, psf.sizePixels);
+  if (psf.shape === 'gaussian') return gaussianPsfKernel(psf.fwhmArcsec, scale, psf.sizePixels, 'pixelCentre');
+  if (psf.shape === 'moffat') {
+    return moffatPsfKernel(psf.fwhmArcsec, psf.moffatBeta, scale, psf.sizePixels, undefined, 'pixelCentre');
+  }
   const path = resolve(dirname(configFile), psf.path);
   const image = readFitsImage(path);
   return checkPsfKernel(image.data, image.nx, image.ny, { file: path }).kernel;
