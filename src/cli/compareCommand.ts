@@ -1,0 +1,40 @@
+import type { CommandModule } from 'yargs';
+import { basename, extname, join } from 'node:path';
+import { loadConfig } from '../config/arcsiftConfig.js';
+import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
+import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
+import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { formatComparison } from './formatComparison.js';
+
+interface CompareArguments extends DataArguments, SamplerArguments {
+  config: string;
+  out?: string;
+  perturbers: number;
+}
+
+export const compareCommand: CommandModule<object, CompareArguments> = {
+  command: 'compare',
+  describe: 'Weigh a smooth lens model against one with a perturber by their Bayesian evidence',
+  builder: (y) => withSamplerOptions(withDataOptions(y
+    .option('config', { type: 'string', demandOption: true, describe: 'model config (YAML or JSON) with priors; its perturbers make the perturbed model' })
+    .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-compare]' })
+    .option('perturbers', { type: 'number', default: 1, describe: 'how many of the config\'s perturbers the perturbed model holds' })), { livePoints: 200 })
+    .example('$0 compare --config configs/demo.yaml --data chains/mock --out chains/mock-compare', 'smooth versus one subhalo'),
+  handler: async (args) => {
+    const config = loadConfig(args.config);
+    const out = args.out ?? join('chains', `${basename(args.config, extname(args.config))}-compare`);
+    const perturberCount = wholeNumberOption('perturbers', args.perturbers, 1);
+    checkOutputFolder(out, args.resume, ['smooth', 'perturbed']);
+    const data = loadDataOf(args, config);
+    const smooth = evidenceSettingsOf(args, 'smooth');
+    const perturbed = evidenceSettingsOf(args, 'perturbed');
+    const { summary } = await runComparisonToFolder(config, data, out, {
+      smooth: smooth.settings,
+      perturbed: perturbed.settings,
+      perturberCount,
+      onModelStart: (label) => { if (label === 'perturbed') smooth.finish(); },
+    });
+    perturbed.finish();
+    process.stdout.write(`${formatComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
+  },
+};

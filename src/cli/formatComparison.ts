@@ -1,0 +1,62 @@
+import type { ComparisonSummary } from '../inference/runComparisonToFolder.js';
+import type { PriorDescription } from '../sampling/parameterSpace.js';
+
+const fixed = (v: number, digits = 2): string => (Number.isFinite(v) ? v.toFixed(digits) : String(v));
+
+function describePrior(p: PriorDescription): string {
+  switch (p.kind) {
+    case 'uniform': return `uniform [${p.lower}, ${p.upper}]`;
+    case 'logUniform': return `log-uniform [${p.lower}, ${p.upper}]`;
+    case 'periodic': return `periodic [${p.lower}, ${p.upper})`;
+    case 'normal': return `normal (mean ${p.mean}, sigma ${p.sigma})`;
+    case 'truncatedNormal': return `normal (mean ${p.mean}, sigma ${p.sigma}) on [${p.lower}, ${p.upper}]`;
+    default: return `fixed at ${p.value}`;
+  }
+}
+
+/** The priors as text lines, free parameters first. */
+export function formatPriors(priors: readonly PriorDescription[]): string[] {
+  const free = priors.filter((p) => !p.fixed).map((p) => `    ${p.name}: ${describePrior(p)}`);
+  const held = priors.filter((p) => p.fixed).map((p) => `${p.name.split('.').pop()}=${p.value}`);
+  return [...free, `    held fixed: ${held.length === 0 ? 'none' : held.join(', ')}`];
+}
+
+/** The plain-text verdict of a comparison, as printed at the end of `compare` and `demo`. */
+export function formatComparison(summary: ComparisonSummary): string {
+  const { smooth, perturbed } = summary.models;
+  const b = summary.bayesFactor;
+  const lines: string[] = [];
+  lines.push('Evidence');
+  lines.push(`  smooth model     ln Z = ${fixed(smooth.lnEvidence)} +- ${fixed(smooth.lnEvidenceError)}   (${smooth.evaluations} likelihood evaluations, ${fixed(smooth.seconds, 0)} s)`);
+  lines.push(`  perturbed model  ln Z = ${fixed(perturbed.lnEvidence)} +- ${fixed(perturbed.lnEvidenceError)}   (${perturbed.evaluations} likelihood evaluations, ${fixed(perturbed.seconds, 0)} s)`);
+  lines.push(`  ln Bayes factor (perturbed / smooth) = ${fixed(b.lnBayesFactor)} +- ${fixed(b.lnBayesFactorError)}`);
+  lines.push(`  reading (Kass & Raftery 1995): ${b.reading}`);
+  lines.push(`  frequentist bound (Sellke, Bayarri & Berger 2001): ${b.significance}`);
+  for (const [label, record] of [['smooth', smooth], ['perturbed', perturbed]] as const) {
+    if (record.insertionRankWarning) {
+      lines.push(`  warning: the insertion-rank check of the ${label} run gives p = ${record.insertionRankPValue.toExponential(1)}: its constrained draws may be biased, so its ln Z is suspect (Fowlie, Handley & Su 2020)`);
+    }
+  }
+  lines.push('');
+  for (const p of summary.perturbers) {
+    const m = p.log10Mass;
+    const massName = p.kind === 'nfw' || p.kind === 'truncatedNfw' ? 'log10 M200/Msun' : 'log10 M/Msun';
+    lines.push(`Perturber ${p.key} (${p.kind})`);
+    lines.push(`  ${massName}: median ${fixed(m.median)}, 68% [${fixed(m.interval68.lower)}, ${fixed(m.interval68.upper)}], 95% [${fixed(m.interval95.lower)}, ${fixed(m.interval95.upper)}]`);
+    if (p.log10TotalMass !== null && p.kind === 'truncatedNfw') {
+      const t = p.log10TotalMass;
+      lines.push(`  log10 total (truncated) mass/Msun: median ${fixed(t.median)}, 95% [${fixed(t.interval95.lower)}, ${fixed(t.interval95.upper)}]`);
+    }
+    lines.push(`  x: ${fixed(p.centerXArcsec.median, 3)}" (68% ${fixed(p.centerXArcsec.interval68.lower, 3)} to ${fixed(p.centerXArcsec.interval68.upper, 3)}), y: ${fixed(p.centerYArcsec.median, 3)}" (68% ${fixed(p.centerYArcsec.interval68.lower, 3)} to ${fixed(p.centerYArcsec.interval68.upper, 3)})`);
+    if (!b.perturberFavoured) {
+      lines.push(`  the evidence does not favour a perturber (ln B <= ${b.favouredAbove}): 95% upper limit ${massName} < ${fixed(p.log10MassUpperLimit95)}`);
+    }
+  }
+  lines.push('');
+  lines.push('Priors behind this Bayes factor (perturbed model; the smooth model has the same without the perturber):');
+  lines.push(...formatPriors(summary.priors.perturbed));
+  lines.push(`    amplitudes: ${summary.amplitudePrior}`);
+  lines.push('');
+  lines.push(`Caution: ${summary.caution}`);
+  return lines.join('\n');
+}

@@ -1,0 +1,65 @@
+import type { Argv } from 'yargs';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { InputError } from '../errors.js';
+import { defaultThreadCount } from '../parallel/likelihoodPool.js';
+import type { EvidenceSettings } from '../inference/runModelEvidence.js';
+import type { NestedMethod } from '../sampling/nested/index.js';
+import { wholeNumberOption } from './dataOptions.js';
+import { progressPrinter } from './progressPrinter.js';
+
+export interface SamplerArguments {
+  threads?: number;
+  seed: number;
+  'live-points': number;
+  method: string;
+  tolerance: number;
+  'max-evaluations'?: number;
+  resume: boolean;
+  quiet: boolean;
+}
+
+/** Options shared by every command that runs nested sampling. */
+export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number }): Argv<T & SamplerArguments> {
+  return y
+    .option('threads', { type: 'number', describe: 'worker threads evaluating the likelihood [default: all cores]' })
+    .option('seed', { type: 'number', default: 1, describe: 'seed of the sampler (results do not depend on --threads)' })
+    .option('live-points', { type: 'number', default: defaults.livePoints, describe: 'live points of each nested-sampling run' })
+    .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: 'ellipsoids', describe: 'constrained draws: multi-ellipsoid bounds or slice sampling' })
+    .option('tolerance', { type: 'number', default: 0.1, describe: 'stop when the live points could add less than this to ln Z' })
+    .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
+    .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
+    .option('quiet', { type: 'boolean', default: false, describe: 'print no progress' }) as Argv<T & SamplerArguments>;
+}
+
+/** Evidence settings from the options, with a progress printer; checks the options first. */
+export function evidenceSettingsOf(args: SamplerArguments, label: string): { settings: EvidenceSettings; finish: () => void } {
+  const threads = args.threads === undefined ? defaultThreadCount() : wholeNumberOption('threads', args.threads, 1);
+  const seed = wholeNumberOption('seed', args.seed, 1);
+  const livePoints = wholeNumberOption('live-points', args['live-points'], 10);
+  if (!(args.tolerance > 0)) throw new InputError(`--tolerance: expected a number > 0, found ${args.tolerance}`);
+  const maxEvaluations = args['max-evaluations'] === undefined ? undefined : wholeNumberOption('max-evaluations', args['max-evaluations'], 1);
+  const printer = progressPrinter(label, { quiet: args.quiet, tolerance: args.tolerance });
+  return {
+    settings: {
+      livePoints, seed, threads, maxEvaluations,
+      method: args.method as NestedMethod,
+      replacementsPerStep: 2,
+      lnZTolerance: args.tolerance,
+      resume: args.resume,
+      onProgress: printer.onProgress,
+    },
+    finish: printer.finish,
+  };
+}
+
+/** Refuses to overwrite an unfinished run unless resuming, and a finished one in any case. */
+export function checkOutputFolder(folder: string, resume: boolean, checkpointFolders: readonly string[]): void {
+  if (existsSync(join(folder, 'summary.json')) && !resume) {
+    throw new InputError(`${folder} already holds a finished run (summary.json); choose another --out or remove it`);
+  }
+  const unfinished = checkpointFolders.some((f) => existsSync(join(folder, f, 'checkpoint.json')));
+  if (unfinished && !resume) {
+    throw new InputError(`${folder} holds an interrupted run; pass --resume to continue it, or choose another --out`);
+  }
+}

@@ -1,0 +1,65 @@
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import type { ObservedData } from '../data/observedData.js';
+import { InputError } from '../errors.js';
+import { bayesFactorReading, significanceBound, type BayesFactorReading, type SignificanceBound } from '../results/index.js';
+import type { PriorDescription } from '../sampling/parameterSpace.js';
+import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
+import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
+
+/** ln B above which the perturbed model is called favoured (Kass & Raftery 1995: 2 ln B > 2). */
+export const favouredLnBayesFactor = 1;
+
+/** The smooth-versus-perturbed comparison and its reading. */
+export interface Comparison {
+  readonly smooth: ModelEvidence;
+  readonly perturbed: ModelEvidence;
+  /** ln Z_perturbed - ln Z_smooth. */
+  readonly lnBayesFactor: number;
+  /** Errors of the two ln Z added in quadrature (Skilling's estimate). */
+  readonly lnBayesFactorError: number;
+  readonly reading: BayesFactorReading;
+  readonly significance: SignificanceBound;
+  readonly perturberFavoured: boolean;
+  readonly perturbers: readonly PerturberSummary[];
+  /** The priors behind each evidence: a Bayes factor means nothing without them. */
+  readonly priors: { readonly smooth: readonly PriorDescription[]; readonly perturbed: readonly PriorDescription[] };
+  readonly amplitudePriorSigma: number;
+}
+
+export interface ComparisonSettings {
+  readonly smooth: EvidenceSettings;
+  readonly perturbed: EvidenceSettings;
+  /** How many of the config's perturbers the perturbed model holds (default 1). */
+  readonly perturberCount?: number;
+  /** Called between the two runs, e.g. to print a heading. */
+  readonly onModelStart?: (label: string) => void;
+}
+
+/** Nested sampling of the smooth and the perturbed model, and the Bayes factor between them. */
+export async function compareModels(config: ArcsiftConfig, data: ObservedData, settings: ComparisonSettings): Promise<Comparison> {
+  const perturberCount = settings.perturberCount ?? 1;
+  if (config.perturbers.length < perturberCount) {
+    throw new InputError(
+      `comparing needs ${perturberCount} perturber(s) under perturbers, found ${config.perturbers.length}`,
+      { file: config.file, key: 'perturbers' },
+    );
+  }
+  settings.onModelStart?.('smooth');
+  const smooth = await runModelEvidence(config, data, 0, settings.smooth);
+  settings.onModelStart?.('perturbed');
+  const perturbed = await runModelEvidence(config, data, perturberCount, settings.perturbed);
+  const lnBayesFactor = perturbed.result.lnZ - smooth.result.lnZ;
+  const lnBayesFactorError = Math.hypot(perturbed.result.lnZError, smooth.result.lnZError);
+  return {
+    smooth,
+    perturbed,
+    lnBayesFactor,
+    lnBayesFactorError,
+    reading: bayesFactorReading(lnBayesFactor),
+    significance: significanceBound(lnBayesFactor),
+    perturberFavoured: lnBayesFactor > favouredLnBayesFactor,
+    perturbers: summarisePerturbers(perturbed),
+    priors: { smooth: smooth.space.describe(), perturbed: perturbed.space.describe() },
+    amplitudePriorSigma: config.amplitudePriorSigma,
+  };
+}

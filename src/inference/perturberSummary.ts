@@ -1,0 +1,52 @@
+import type { ModelEvidence } from './runModelEvidence.js';
+import { parameterColumn, parameterSummary, upperLimit, weightsFromLogWeights, type ParameterSummary } from '../results/index.js';
+
+/** Posterior summary of one perturber: mass, position and derived masses. */
+export interface PerturberSummary {
+  readonly key: string;
+  readonly kind: string;
+  /** log10 of the sampled mass (M200 for NFW-type perturbers, total mass otherwise). */
+  readonly log10Mass: ParameterSummary;
+  readonly log10MassUpperLimit95: number;
+  readonly centerXArcsec: ParameterSummary;
+  readonly centerYArcsec: ParameterSummary;
+  /** log10 of M200 and of the total (truncated) mass, where the profile defines them. */
+  readonly log10M200: ParameterSummary | null;
+  readonly log10TotalMass: ParameterSummary | null;
+  readonly massPriorRange: readonly [number, number] | null;
+}
+
+/** Summarises every perturber of a perturbed model's weighted posterior. */
+export function summarisePerturbers(evidence: ModelEvidence): PerturberSummary[] {
+  const { result, system, space } = evidence;
+  const weights = weightsFromLogWeights(result.lnWeight);
+  const width = space.physicalDim;
+  return system.perturbers.map((binding) => {
+    const mass = parameterColumn(result.points, width, binding.massIndex);
+    const x = parameterColumn(result.points, width, binding.centerXIndex);
+    const y = parameterColumn(result.points, width, binding.centerYIndex);
+    const m200 = new Float64Array(result.count);
+    const total = new Float64Array(result.count);
+    const row = new Float64Array(width);
+    for (let r = 0; r < result.count; r++) {
+      if (weights[r] === 0) continue;
+      for (let c = 0; c < width; c++) row[c] = result.points[r * width + c];
+      const derived = binding.derived(row);
+      m200[r] = Math.log10(derived.massM200Solar ?? Number.NaN);
+      total[r] = Math.log10(derived.totalMassSolar);
+    }
+    const usable = (values: Float64Array): boolean => values.every((v, r) => weights[r] === 0 || Number.isFinite(v));
+    const prior = space.priors[binding.massIndex];
+    return {
+      key: binding.key,
+      kind: binding.kind,
+      log10Mass: parameterSummary(mass, weights),
+      log10MassUpperLimit95: upperLimit(mass, weights, 0.95),
+      centerXArcsec: parameterSummary(x, weights),
+      centerYArcsec: parameterSummary(y, weights),
+      log10M200: usable(m200) ? parameterSummary(m200, weights) : null,
+      log10TotalMass: usable(total) ? parameterSummary(total, weights) : null,
+      massPriorRange: prior.isFixed ? null : [prior.lower, prior.upper],
+    };
+  });
+}

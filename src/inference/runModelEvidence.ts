@@ -1,0 +1,88 @@
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import type { ObservedData } from '../data/observedData.js';
+import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
+import { LikelihoodPool } from '../parallel/likelihoodPool.js';
+import { runNested, type NestedMethod, type NestedProgress, type NestedResult } from '../sampling/nested/index.js';
+import type { ParameterSpace } from '../sampling/parameterSpace.js';
+import { modelParameterSpace } from './modelParameterSpace.js';
+
+/** Settings of one nested-sampling run of a lens model. */
+export interface EvidenceSettings {
+  readonly livePoints: number;
+  readonly seed: number;
+  readonly method: NestedMethod;
+  /** Live points replaced per step; fixed, never tied to the thread count, so results do not depend on it. */
+  readonly replacementsPerStep: number;
+  readonly lnZTolerance: number;
+  readonly maxEvaluations?: number;
+  readonly threads: number;
+  /** Checkpoint file; with `resume`, an existing one is continued. */
+  readonly checkpointPath?: string;
+  readonly resume?: boolean;
+  readonly onProgress?: (progress: NestedProgress) => void;
+  readonly signal?: { stopRequested: boolean };
+}
+
+/** One model's nested-sampling run and what is needed to read it. */
+export interface ModelEvidence {
+  /** `smooth` (no perturber) or `perturbed` (the config's first perturberCount perturbers). */
+  readonly label: string;
+  readonly perturberCount: number;
+  readonly system: LensSystem;
+  readonly space: ParameterSpace;
+  readonly result: NestedResult;
+  readonly seconds: number;
+  readonly threads: number;
+}
+
+export const defaultEvidenceSettings = {
+  livePoints: 400,
+  seed: 1,
+  method: 'auto' as NestedMethod,
+  replacementsPerStep: 2,
+  lnZTolerance: 0.1,
+};
+
+/** Nested sampling of one lens model (smooth when perturberCount = 0) on observed data. */
+export async function runModelEvidence(
+  config: ArcsiftConfig, data: ObservedData, perturberCount: number, settings: EvidenceSettings,
+): Promise<ModelEvidence> {
+  const system = buildLensSystem(config, { perturberCount });
+  const space = modelParameterSpace(system);
+  const started = performance.now();
+  const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads);
+  try {
+    const result = await runNested(
+      {
+        dim: space.dim,
+        physicalDim: space.physicalDim,
+        transform: (unit, out) => space.fromUnitCube(unit, out),
+        periodic: space.periodic,
+        logLikelihood: (points, count) => pool.evaluate(points, count),
+      },
+      {
+        livePoints: settings.livePoints,
+        seed: settings.seed,
+        method: settings.method,
+        replacementsPerStep: settings.replacementsPerStep,
+        lnZTolerance: settings.lnZTolerance,
+        maxEvaluations: settings.maxEvaluations,
+        checkpoint: settings.checkpointPath === undefined ? undefined : { path: settings.checkpointPath, everySeconds: 30 },
+        resume: settings.resume,
+        onProgress: settings.onProgress,
+        signal: settings.signal,
+      },
+    );
+    return {
+      label: perturberCount === 0 ? 'smooth' : 'perturbed',
+      perturberCount,
+      system,
+      space,
+      result,
+      seconds: (performance.now() - started) / 1000,
+      threads: pool.threads,
+    };
+  } finally {
+    await pool.close();
+  }
+}

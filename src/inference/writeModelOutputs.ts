@@ -1,0 +1,132 @@
+import { join } from 'node:path';
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import type { ObservedData } from '../data/observedData.js';
+import { writeFits } from '../fits/index.js';
+import { writeJsonAtomic } from '../io/writeFileAtomic.js';
+import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
+import { gridCards } from '../model/simulateToFolder.js';
+import {
+  cornerData, equalWeightResample, parameterColumn, parameterSummary, weightsFromLogWeights,
+  writeEqualWeightSamplesCsv, writeWeightedSamplesCsv,
+} from '../results/index.js';
+import type { ModelEvidence } from './runModelEvidence.js';
+
+/** What a summary says of one model's run. */
+export interface ModelRecord {
+  readonly label: string;
+  readonly lnEvidence: number;
+  readonly lnEvidenceError: number;
+  readonly lnEvidenceErrorSimulated: number;
+  readonly informationNats: number;
+  readonly livePoints: number;
+  readonly method: string;
+  readonly iterations: number;
+  readonly evaluations: number;
+  readonly efficiency: number;
+  readonly nonFiniteLikelihoods: number;
+  readonly insertionRankPValue: number;
+  readonly insertionRankWarning: boolean;
+  readonly stopReason: string;
+  readonly bestLnLikelihood: number;
+  readonly bestFit: Record<string, number>;
+  readonly bestFitAmplitudes: Record<string, number>;
+  readonly seconds: number;
+  readonly threads: number;
+  readonly parameters: readonly {
+    name: string; unit: string; median: number;
+    interval68: readonly [number, number]; interval95: readonly [number, number];
+  }[];
+  readonly files: Record<string, string>;
+}
+
+/**
+ * Writes one model's samples (weighted and equal-weight CSV), corner-plot data, and the best-fit
+ * model image, residual and normalised residual as FITS into `folder`; returns its record.
+ */
+export function writeModelOutputs(
+  evidence: ModelEvidence, config: ArcsiftConfig, data: ObservedData, folder: string, seed: number,
+): ModelRecord {
+  const { result, space, system } = evidence;
+  const names = space.names;
+  const units = system.parameters.map((p) => p.unit);
+  const width = space.physicalDim;
+  const weights = weightsFromLogWeights(result.lnWeight);
+  const files: Record<string, string> = {};
+
+  files.weightedSamples = join(folder, 'samples.csv');
+  writeWeightedSamplesCsv(files.weightedSamples, {
+    names, units, points: result.points, lnWeight: result.lnWeight, lnLikelihood: result.lnL,
+    lnEvidence: result.lnZ, lnEvidenceError: result.lnZError,
+  });
+  const equal = equalWeightResample(result.points, width, weights, seed);
+  files.equalWeightSamples = join(folder, 'equal-weight-samples.csv');
+  writeEqualWeightSamplesCsv(files.equalWeightSamples, {
+    names, units, points: equal.points,
+    lnLikelihood: Float64Array.from(equal.sourceRows, (row) => result.lnL[row]),
+  });
+
+  const freeNames = space.freeNames;
+  const freeIndices = Array.from(space.freeIndices);
+  const freePoints = new Float64Array(result.count * freeIndices.length);
+  for (let r = 0; r < result.count; r++) {
+    freeIndices.forEach((index, k) => { freePoints[r * freeIndices.length + k] = result.points[r * width + index]; });
+  }
+  files.cornerData = join(folder, 'corner.json');
+  writeJsonAtomic(files.cornerData, cornerData(freeNames, freeIndices.map((i) => units[i]), freePoints, weights));
+
+  let best = 0;
+  for (let r = 1; r < result.count; r++) if (result.lnL[r] > result.lnL[best]) best = r;
+  const bestVector = result.points.slice(best * width, (best + 1) * width);
+  const likelihood = new PixelLikelihood(config, data, evidence.perturberCount);
+  const fit = likelihood.modelImage(bestVector);
+  const residual = new Float64Array(fit.image.length);
+  const normalised = new Float64Array(fit.image.length);
+  for (let p = 0; p < residual.length; p++) {
+    residual[p] = data.mask[p] ? data.image[p] - fit.image[p] : 0;
+    normalised[p] = data.mask[p] ? residual[p] / data.noise[p] : 0;
+  }
+  const grid = { columns: data.columns, rows: data.rows, pixelScaleArcsec: data.pixelScaleArcsec };
+  for (const [key, name, values, unit, what] of [
+    ['bestFitModel', 'best-fit-model.fits', fit.image, 'counts/s', `best-fit ${evidence.label} model (highest ln L sample)`],
+    ['residual', 'residual.fits', residual, 'counts/s', 'data minus best-fit model inside the mask, 0 outside'],
+    ['normalisedResidual', 'normalised-residual.fits', normalised, '', '(data - model) / noise inside the mask, 0 outside'],
+  ] as const) {
+    files[key] = join(folder, name);
+    writeFits(files[key], { primary: { data: values, nx: data.columns, ny: data.rows, cards: gridCards(grid, unit, what) } });
+  }
+
+  const bestFit: Record<string, number> = {};
+  names.forEach((name, i) => { bestFit[name] = bestVector[i]; });
+  const bestFitAmplitudes: Record<string, number> = {};
+  system.amplitudeNames.forEach((name, i) => { bestFitAmplitudes[name] = fit.amplitudes[i]; });
+  return {
+    label: evidence.label,
+    lnEvidence: result.lnZ,
+    lnEvidenceError: result.lnZError,
+    lnEvidenceErrorSimulated: result.lnZErrorSimulated,
+    informationNats: result.information,
+    livePoints: result.livePoints,
+    method: result.method,
+    iterations: result.iterations,
+    evaluations: result.evaluations,
+    efficiency: result.efficiency,
+    nonFiniteLikelihoods: result.nonFiniteCount,
+    insertionRankPValue: result.insertionRank.pValue,
+    insertionRankWarning: result.insertionRank.biased,
+    stopReason: result.stopReason,
+    bestLnLikelihood: result.lnL[best],
+    bestFit,
+    bestFitAmplitudes,
+    seconds: evidence.seconds,
+    threads: evidence.threads,
+    parameters: freeIndices.map((index) => {
+      const s = parameterSummary(parameterColumn(result.points, width, index), weights);
+      return {
+        name: names[index], unit: units[index], median: s.median,
+        interval68: [s.interval68.lower, s.interval68.upper] as const,
+        interval95: [s.interval95.lower, s.interval95.upper] as const,
+      };
+    }),
+    files,
+  };
+}

@@ -1,0 +1,109 @@
+import { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
+import type { LikelihoodTask } from './likelihoodTask.js';
+import { workerScriptUrl } from './workerScriptUrl.js';
+
+interface PendingBatch {
+  readonly resolve: (values: Float64Array) => void;
+  readonly reject: (error: Error) => void;
+}
+
+/** The default thread count: every available core. */
+export function defaultThreadCount(): number {
+  return availableParallelism();
+}
+
+/**
+ * Evaluates batches of model vectors (row-major, one row per point, in the model's parameter
+ * order) across worker threads. A batch is cut into contiguous runs, one per worker, and the
+ * answers are put back in order, so results never depend on the thread count or on timing.
+ * With one thread everything runs in the calling thread.
+ */
+export class LikelihoodPool {
+  readonly threads: number;
+  readonly width: number;
+  private readonly workers: Worker[];
+  private readonly local: PixelLikelihood | undefined;
+  private readonly pending = new Map<number, PendingBatch>();
+  private nextId = 0;
+  private failure: Error | undefined;
+  /** Number of likelihood evaluations made so far. */
+  evaluations = 0;
+
+  private constructor(threads: number, width: number, workers: Worker[], local: PixelLikelihood | undefined) {
+    this.threads = threads;
+    this.width = width;
+    this.workers = workers;
+    this.local = local;
+    for (const worker of workers) {
+      worker.on('message', (message: { id?: number; values?: Float64Array }) => {
+        if (message.id === undefined) return;
+        const batch = this.pending.get(message.id);
+        this.pending.delete(message.id);
+        batch?.resolve(message.values!);
+      });
+      worker.on('error', (error) => this.fail(error));
+    }
+  }
+
+  private fail(error: Error): void {
+    this.failure = error;
+    for (const batch of this.pending.values()) batch.reject(error);
+    this.pending.clear();
+  }
+
+  static async start(task: LikelihoodTask, threads = defaultThreadCount()): Promise<LikelihoodPool> {
+    const count = Math.max(1, Math.floor(threads));
+    const probe = new PixelLikelihood(task.config, task.data, task.perturberCount);
+    const width = probe.system.parameters.length;
+    if (count === 1) return new LikelihoodPool(1, width, [], probe);
+    const url = workerScriptUrl(import.meta.url, './likelihoodWorker.js');
+    const workers = await Promise.all(Array.from({ length: count }, () => new Promise<Worker>((resolve, reject) => {
+      const worker = new Worker(url, { workerData: task });
+      worker.once('error', reject);
+      worker.once('message', () => {
+        worker.off('error', reject);
+        resolve(worker);
+      });
+    })));
+    return new LikelihoodPool(count, width, workers, undefined);
+  }
+
+  /** ln L of `count` model vectors stored row-major in `points`. */
+  async evaluate(points: Float64Array, count: number): Promise<Float64Array> {
+    if (this.failure !== undefined) throw this.failure;
+    this.evaluations += count;
+    const width = this.width;
+    if (this.local !== undefined) {
+      const out = new Float64Array(count);
+      for (let r = 0; r < count; r++) out[r] = this.local.logLikelihood(points.subarray(r * width, (r + 1) * width));
+      return out;
+    }
+    const parts = Math.min(this.workers.length, count);
+    const jobs: Promise<Float64Array>[] = [];
+    let start = 0;
+    for (let w = 0; w < parts; w++) {
+      const size = Math.floor(count / parts) + (w < count % parts ? 1 : 0);
+      const chunk = points.slice(start * width, (start + size) * width);
+      const id = this.nextId++;
+      jobs.push(new Promise<Float64Array>((resolve, reject) => {
+        this.pending.set(id, { resolve, reject });
+        this.workers[w].postMessage({ id, points: chunk, count: size }, [chunk.buffer]);
+      }));
+      start += size;
+    }
+    const answers = await Promise.all(jobs);
+    const out = new Float64Array(count);
+    let offset = 0;
+    for (const answer of answers) {
+      out.set(answer, offset);
+      offset += answer.length;
+    }
+    return out;
+  }
+
+  async close(): Promise<void> {
+    await Promise.all(this.workers.map((worker) => worker.terminate()));
+  }
+}
