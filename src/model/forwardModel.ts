@@ -1,8 +1,13 @@
 import type { PixelGrid } from '../imaging/pixelGrid.js';
-import { fillSubsetCentres } from '../imaging/pixelGrid.js';
 import type { PsfKernel } from '../imaging/psfKernel.js';
-import { FftConvolver } from '../imaging/convolver.js';
-import type { LensSystem } from './lensSystem.js';
+import type { LensSystem, LightTerm } from './lensSystem.js';
+import { AdaptivePixelMeans, type MeanLightTerm } from './adaptivePixelMeans.js';
+import { PixelSubsetConvolver } from './pixelSubsetConvolver.js';
+import { separablePsf } from './separablePsf.js';
+import { trimPsfKernel } from './trimPsfKernel.js';
+
+/** Default relative tolerance of the adaptive pixel means (see AdaptivePixelMeans). */
+export const FORWARD_MODEL_RELATIVE_TOLERANCE = 1e-5;
 
 export interface ForwardModelOptions {
   /**
@@ -11,14 +16,44 @@ export interface ForwardModelOptions {
    * mask. Default: every pixel.
    */
   readonly computed?: Uint8Array;
+  /**
+   * Row-major indices of the pixels whose PSF-convolved values are wanted (a fit's used
+   * pixels); the basis is filled there only (zero elsewhere) and light is computed only where
+   * the PSF carries it to them. Default: every pixel.
+   */
+  readonly used?: ArrayLike<number>;
+  /**
+   * Accuracy asked of each basis image, as a fraction of its peak pixel value (see
+   * AdaptivePixelMeans; default 1e-5). 0 gives the brute-force model: S x S rays in every pixel
+   * and the whole PSF kernel.
+   */
+  readonly relativeTolerance?: number;
+}
+
+/** Where a light term's bases sit among the amplitudes and in an evaluator's basis list. */
+interface BoundLightTerm {
+  readonly term: LightTerm;
+  readonly imagePlane: boolean;
+  /** True when every profile-vector entry it depends on is fixed (no prior). */
+  readonly fixed: boolean;
 }
 
 /**
- * From a model vector to pixel images: rays from every sub-pixel of the computed pixels are
- * traced to the source plane (beta = theta - alpha(theta)), the source and lens light evaluated
- * at unit amplitude for each linear amplitude, averaged over the sub-pixels, scaled by the pixel
- * area (images are in counts per second per pixel, amplitudes per arcsec^2) and convolved with
- * the PSF. Every buffer is allocated here once; evaluations allocate nothing.
+ * From a model vector to pixel images: each pixel's light is the mean of the source (traced
+ * through the lens, beta = theta - alpha(theta)) and lens light at unit amplitude over S x S
+ * sub-pixels, S = supersampling, scaled by the pixel area (images are in counts per second per
+ * pixel, amplitudes per arcsec^2) and convolved with the PSF.
+ *
+ * The same image is computed faster than by S^2 rays per pixel, within a stated tolerance:
+ * - pixel means adaptively (AdaptivePixelMeans): one ray per pixel where a stencil over the
+ *   neighbouring pixel centres predicts the S x S mean, more rays only where it cannot;
+ * - light terms whose parameters are all fixed (no prior) are computed once, brute force, and
+ *   their convolved basis kept until their profile-vector entries change;
+ * - the PSF is cut to the box outside which |K| sums to relativeTolerance / 10 of the total
+ *   (trimPsfKernel), convolved as two 1-D passes when separable to the same budget
+ *   (separablePsf), and only at the `used` pixels (PixelSubsetConvolver); light is computed only
+ *   within the cut kernel's reach of them.
+ * Every buffer is allocated here; evaluations allocate nothing.
  */
 export class ForwardModel {
   readonly system: LensSystem;
@@ -26,89 +61,97 @@ export class ForwardModel {
   readonly supersampling: number;
   readonly pixelCount: number;
   readonly amplitudeCount: number;
-  /** Row-major indices of the computed pixels. */
+  /** Row-major indices of the pixels whose light is computed. */
   readonly computedPixels: Int32Array;
+  /** Row-major indices of the pixels where `basis` is filled. */
+  readonly usedPixels: Int32Array;
   /** PSF-convolved unit-amplitude images: basis k of pixel p at basis[k * pixelCount + p]. */
   readonly basis: Float64Array;
-  private readonly subCount: number;
-  private readonly x: Float64Array;
-  private readonly y: Float64Array;
-  private readonly alphaX: Float64Array;
-  private readonly alphaY: Float64Array;
-  private readonly betaX: Float64Array;
-  private readonly betaY: Float64Array;
-  private readonly fine: Float64Array;
-  private readonly unconvolved: Float64Array;
+  readonly relativeTolerance: number;
+  /** The PSF as convolved (cut to its support), and whether it runs as two 1-D passes. */
+  readonly convolvedPsf: PsfKernel;
+  readonly separable: boolean;
+  /** Pixel means of the light terms with sampled parameters (adaptive). */
+  readonly varying: AdaptivePixelMeans;
+  /** Pixel means of the light terms whose parameters are all fixed (brute force, cached). */
+  readonly fixed: AdaptivePixelMeans;
+  private readonly varyingAmplitudes: Int32Array;
+  private readonly fixedAmplitudes: Int32Array;
+  /** Profile-vector entries the fixed terms depend on, and their values when last computed. */
+  private readonly fixedSlots: Int32Array;
+  private readonly fixedSlotValues: Float64Array;
+  private fixedValid = false;
   private readonly profile: Float64Array;
-  private readonly convolver: FftConvolver;
+  private readonly convolver: PixelSubsetConvolver;
+  private readonly inputPadded: Int32Array;
   private readonly pixelArea: number;
 
   constructor(system: LensSystem, grid: PixelGrid, supersampling: number, psf: PsfKernel, options: ForwardModelOptions = {}) {
+    if (!Number.isInteger(supersampling) || supersampling < 1) throw new RangeError(`supersampling must be a whole number >= 1, got ${supersampling}`);
     this.system = system;
     this.grid = grid;
     this.supersampling = supersampling;
     this.pixelCount = grid.columns * grid.rows;
     this.amplitudeCount = system.amplitudeCount;
-    const computed: number[] = [];
-    for (let p = 0; p < this.pixelCount; p++) if (options.computed === undefined || options.computed[p] !== 0) computed.push(p);
-    this.computedPixels = Int32Array.from(computed);
-    this.subCount = computed.length * supersampling * supersampling;
-    this.x = new Float64Array(this.subCount);
-    this.y = new Float64Array(this.subCount);
-    fillSubsetCentres(grid, supersampling, this.computedPixels, this.x, this.y);
-    this.alphaX = new Float64Array(this.subCount);
-    this.alphaY = new Float64Array(this.subCount);
-    this.betaX = new Float64Array(this.subCount);
-    this.betaY = new Float64Array(this.subCount);
-    this.fine = new Float64Array(this.amplitudeCount * this.subCount);
-    this.unconvolved = new Float64Array(this.pixelCount);
-    this.basis = new Float64Array(this.amplitudeCount * this.pixelCount);
+    this.relativeTolerance = options.relativeTolerance ?? FORWARD_MODEL_RELATIVE_TOLERANCE;
     this.profile = new Float64Array(system.profileVectorLength);
-    this.convolver = new FftConvolver(grid.columns, grid.rows, psf);
     this.pixelArea = grid.pixelScaleArcsec * grid.pixelScaleArcsec;
+
+    const kernelBudget = this.relativeTolerance / 10;
+    const trimmed = trimPsfKernel(psf, kernelBudget).kernel;
+    const factors = separablePsf(trimmed, kernelBudget);
+    this.convolvedPsf = trimmed;
+    this.separable = factors !== undefined;
+    this.usedPixels = options.used === undefined
+      ? Int32Array.from({ length: this.pixelCount }, (_, p) => p)
+      : Int32Array.from(options.used);
+    this.convolver = new PixelSubsetConvolver(grid.columns, grid.rows, trimmed, this.usedPixels, factors);
+    this.computedPixels = reachingPixels(grid, this.usedPixels, this.convolver.halfX, this.convolver.halfY, options.computed);
+    this.inputPadded = this.computedPixels.map((p) => this.convolver.paddedIndex(p));
+    this.basis = new Float64Array(this.amplitudeCount * this.pixelCount);
+
+    const bound = bindLightTerms(system);
+    const build = (terms: BoundLightTerm[], uniform: boolean): [AdaptivePixelMeans, Int32Array] => {
+      const amplitudes: number[] = [];
+      const meanTerms: MeanLightTerm[] = terms.map(({ term, imagePlane }) => {
+        const firstBasis = amplitudes.length;
+        for (let b = 0; b < term.profile.basisCount; b++) amplitudes.push(term.amplitudeOffset + b);
+        return { profile: term.profile, offset: term.offset, firstBasis, imagePlane };
+      });
+      const means = new AdaptivePixelMeans(
+        grid, supersampling, this.computedPixels, system.massTerms, meanTerms, amplitudes.length, this.relativeTolerance, uniform,
+      );
+      return [means, Int32Array.from(amplitudes)];
+    };
+    const fixedTerms = bound.filter((t) => t.fixed);
+    [this.varying, this.varyingAmplitudes] = build(bound.filter((t) => !t.fixed), this.relativeTolerance === 0);
+    [this.fixed, this.fixedAmplitudes] = build(fixedTerms, true);
+    const slots = new Set<number>();
+    for (const { term, imagePlane } of fixedTerms) {
+      for (let k = 0; k < term.profile.parameterNames.length; k++) slots.add(term.offset + k);
+      if (!imagePlane) for (const slot of massSlots(system)) slots.add(slot);
+    }
+    this.fixedSlots = Int32Array.from([...slots].sort((a, b) => a - b));
+    this.fixedSlotValues = new Float64Array(this.fixedSlots.length);
   }
 
-  /** Source-plane positions of the sub-pixels after the last `computeBasis`. */
+  /** Source-plane positions of the pixel-centre rays after the last `computeBasis`. */
   get sourcePlane(): { readonly x: Float64Array; readonly y: Float64Array } {
-    return { x: this.betaX, y: this.betaY };
+    return this.varying.latticeSourcePlane;
   }
 
   /** Fills `basis` for the model vector and returns it. */
   computeBasis(model: Float64Array): Float64Array {
-    const system = this.system;
     const p = this.profile;
-    const n = this.subCount;
-    system.writeProfileVector(model, p);
-    const ax = this.alphaX;
-    const ay = this.alphaY;
-    ax.fill(0);
-    ay.fill(0);
-    for (const term of system.massTerms) term.profile.addDeflection(p, term.offset, this.x, this.y, n, ax, ay);
-    const bx = this.betaX;
-    const by = this.betaY;
-    for (let i = 0; i < n; i++) {
-      bx[i] = this.x[i] - ax[i];
-      by[i] = this.y[i] - ay[i];
+    this.system.writeProfileVector(model, p);
+    if (this.fixedAmplitudes.length > 0 && !this.fixedUpToDate(p)) {
+      this.fixed.evaluate(p);
+      this.convolveMeans(this.fixed, this.fixedAmplitudes);
+      this.fixedValid = true;
     }
-    for (const term of system.sourceTerms) {
-      term.profile.writeBasis(p, term.offset, bx, by, n, this.fine, term.amplitudeOffset * n, n);
-    }
-    for (const term of system.lensLightTerms) {
-      term.profile.writeBasis(p, term.offset, this.x, this.y, n, this.fine, term.amplitudeOffset * n, n);
-    }
-    const run = this.supersampling * this.supersampling;
-    const scale = this.pixelArea / run;
-    const pixels = this.computedPixels;
-    const image = this.unconvolved;
-    for (let k = 0; k < this.amplitudeCount; k++) {
-      let index = k * n;
-      for (let e = 0; e < pixels.length; e++) {
-        let sum = 0;
-        for (let m = 0; m < run; m++) sum += this.fine[index + m];
-        image[pixels[e]] = sum * scale;
-        index += run;
-      }
-      this.convolver.convolve(image, this.basis.subarray(k * this.pixelCount, (k + 1) * this.pixelCount));
+    if (this.varyingAmplitudes.length > 0) {
+      this.varying.evaluate(p);
+      this.convolveMeans(this.varying, this.varyingAmplitudes);
     }
     return this.basis;
   }
@@ -125,4 +168,78 @@ export class ForwardModel {
     }
     return out;
   }
+
+  private fixedUpToDate(p: Float64Array): boolean {
+    const slots = this.fixedSlots;
+    const values = this.fixedSlotValues;
+    let same = this.fixedValid;
+    for (let k = 0; k < slots.length; k++) {
+      if (values[k] !== p[slots[k]]) same = false;
+      values[k] = p[slots[k]];
+    }
+    return same;
+  }
+
+  private convolveMeans(means: AdaptivePixelMeans, amplitudes: Int32Array): void {
+    const input = this.convolver.input;
+    const padded = this.inputPadded;
+    const count = padded.length;
+    const values = means.means;
+    const area = this.pixelArea;
+    for (let k = 0; k < amplitudes.length; k++) {
+      const from = k * count;
+      for (let e = 0; e < count; e++) input[padded[e]] = values[from + e] * area;
+      this.convolver.convolve(this.basis, amplitudes[k] * this.pixelCount);
+    }
+  }
+}
+
+/** Pixels within (halfX, halfY) of a used pixel (a square footprint), and computed. */
+function reachingPixels(grid: PixelGrid, used: Int32Array, halfX: number, halfY: number, computed?: Uint8Array): Int32Array {
+  const { columns, rows } = grid;
+  const reach = new Uint8Array(columns * rows);
+  for (const p of used) {
+    const i = p % columns;
+    const j = (p - i) / columns;
+    for (let b = Math.max(0, j - halfY); b <= Math.min(rows - 1, j + halfY); b++) {
+      for (let a = Math.max(0, i - halfX); a <= Math.min(columns - 1, i + halfX); a++) reach[b * columns + a] = 1;
+    }
+  }
+  const list: number[] = [];
+  for (let p = 0; p < reach.length; p++) if (reach[p] === 1 && (computed === undefined || computed[p] !== 0)) list.push(p);
+  return Int32Array.from(list);
+}
+
+/** Profile-vector entries read by the mass terms. */
+function massSlots(system: LensSystem): number[] {
+  const slots: number[] = [];
+  for (const term of system.massTerms) for (let k = 0; k < term.profile.parameterNames.length; k++) slots.push(term.offset + k);
+  return slots;
+}
+
+/**
+ * Which light terms depend only on fixed parameters: the model vector is filled with NaN at
+ * every parameter that has a prior (and any without a value), the profile vector written, and a
+ * term is fixed when none of its entries (and, for source light, none of the mass entries) came
+ * out NaN. Checked again at every evaluation by comparing the entries (fixedUpToDate).
+ */
+function bindLightTerms(system: LensSystem): BoundLightTerm[] {
+  const probe = system.configuredValues();
+  system.parameters.forEach((parameter, index) => {
+    if (parameter.prior !== undefined) probe[index] = Number.NaN;
+  });
+  const profile = new Float64Array(system.profileVectorLength);
+  let probed = true;
+  try {
+    system.writeProfileVector(probe, profile);
+  } catch {
+    probed = false;
+  }
+  const finite = (slots: number[]): boolean => probed && slots.every((slot) => Number.isFinite(profile[slot]));
+  const massFixed = finite(massSlots(system));
+  const termSlots = (term: LightTerm): number[] => Array.from(term.profile.parameterNames, (_, k) => term.offset + k);
+  return [
+    ...system.sourceTerms.map((term) => ({ term, imagePlane: false, fixed: massFixed && finite(termSlots(term)) })),
+    ...system.lensLightTerms.map((term) => ({ term, imagePlane: true, fixed: finite(termSlots(term)) })),
+  ];
 }

@@ -1,0 +1,120 @@
+import { fileURLToPath } from 'node:url';
+import { parseConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
+import { readConfigFile } from '../config/readConfigFile.js';
+import { usedPixelIndices } from '../imaging/mask.js';
+import { growMaskByKernel } from '../likelihood/growMaskByKernel.js';
+import { ForwardModel } from '../model/forwardModel.js';
+import { simulateObservation, type Simulation } from '../model/simulateObservation.js';
+
+/** The supersampling whose brute-force image the fast model reproduces in these scenarios. */
+export const BENCH_SUPERSAMPLING = 8;
+
+const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.url));
+
+/** A scenario: a config to simulate and time. */
+export interface ForwardScenario {
+  readonly name: string;
+  readonly config: ArcsiftConfig;
+}
+
+interface EditableConfig {
+  observation: { supersampling: number };
+  source: { light: { amplitude: number; effectiveRadiusArcsec: { value: number } }[] };
+  perturbers: { centerXArcsec: { value: number }; centerYArcsec: { value: number } }[];
+}
+
+/** The demo config as plain data with `supersampling`, for editing. */
+function demoData(): EditableConfig {
+  const data = readConfigFile(demoPath) as EditableConfig;
+  data.observation.supersampling = BENCH_SUPERSAMPLING;
+  return data;
+}
+
+/**
+ * The scenarios of the forward and likelihood benchmarks (and of the accuracy test):
+ * - demo: configs/demo.yaml at supersampling 8;
+ * - compactSource: the demo with a compact, bright source (R_e 0.05 arcsec, amplitude 400 instead
+ *   of 0.16 and 40) and the subhalo moved onto the brightest arc pixel of the smooth model.
+ */
+export function forwardScenarios(): ForwardScenario[] {
+  const demo = parseConfig(demoData(), demoPath);
+  const compact = demoData();
+  compact.source.light[0].effectiveRadiusArcsec.value = 0.05;
+  compact.source.light[0].amplitude = 400;
+  const smooth = simulateObservation({ ...parseConfig(compact, demoPath), perturbers: [] }, { seed: 1, noiseless: true });
+  const brightest = brightestUsedPixel(smooth);
+  const columns = smooth.grid.columns;
+  const i = brightest % columns;
+  const j = (brightest - i) / columns;
+  compact.perturbers[0].centerXArcsec.value = (i - (columns - 1) / 2) * smooth.grid.pixelScaleArcsec;
+  compact.perturbers[0].centerYArcsec.value = (j - (smooth.grid.rows - 1) / 2) * smooth.grid.pixelScaleArcsec;
+  return [{ name: 'demo', config: demo }, { name: 'compactSource', config: parseConfig(compact, demoPath) }];
+}
+
+/** Row-major index of the brightest pixel of the model inside the mask. */
+export function brightestUsedPixel(simulation: Simulation): number {
+  let best = -1;
+  for (let p = 0; p < simulation.model.length; p++) {
+    if (simulation.mask[p] !== 0 && (best < 0 || simulation.model[p] > simulation.model[best])) best = p;
+  }
+  return best;
+}
+
+/** The forward model a fit of this simulation uses: light where the PSF reaches the mask. */
+export function fitForwardModel(simulation: Simulation): ForwardModel {
+  const { grid, psf, mask } = simulation;
+  const computed = growMaskByKernel(mask, grid.columns, grid.rows, psf.columns, psf.rows);
+  return new ForwardModel(simulation.system, grid, BENCH_SUPERSAMPLING, psf, {
+    computed, used: usedPixelIndices(mask),
+  });
+}
+
+/** Best, over `repeats` runs of about `targetMs` each, of the mean milliseconds per call of f. */
+export function bestMillisecondsPerCall(f: () => void, repeats = 7, targetMs = 300): { ms: number; callsPerRepeat: number } {
+  f();
+  const start = performance.now();
+  let calls = 0;
+  while (performance.now() - start < 50) {
+    f();
+    calls++;
+  }
+  const callsPerRepeat = Math.max(1, Math.round((calls * targetMs) / (performance.now() - start)));
+  let best = Number.POSITIVE_INFINITY;
+  for (let r = 0; r < repeats; r++) {
+    const t0 = performance.now();
+    for (let k = 0; k < callsPerRepeat; k++) f();
+    best = Math.min(best, (performance.now() - t0) / callsPerRepeat);
+  }
+  return { ms: best, callsPerRepeat };
+}
+
+/**
+ * `npm run bench -- forward`: milliseconds per model-image evaluation (ForwardModel.image at
+ * the scenario's true parameters, one thread), best of 7 repeats of ~0.3 s, one JSON line per
+ * scenario with what the adaptive sampling did.
+ */
+export async function run(_args: string[]): Promise<void> {
+  const repeats = 7;
+  for (const scenario of forwardScenarios()) {
+    const simulation = simulateObservation(scenario.config, { seed: 1, noiseless: false });
+    const forward = fitForwardModel(simulation);
+    const model = simulation.truthVector;
+    const out = new Float64Array(forward.pixelCount);
+    const { ms, callsPerRepeat } = bestMillisecondsPerCall(() => forward.image(model, simulation.amplitudes, out), repeats);
+    console.log(JSON.stringify({
+      benchmark: 'forward',
+      scenario: scenario.name,
+      msPerEvaluation: Number(ms.toFixed(4)),
+      repeats,
+      evaluationsPerRepeat: callsPerRepeat,
+      supersampling: forward.supersampling,
+      relativeTolerance: forward.relativeTolerance,
+      usedPixels: forward.usedPixels.length,
+      computedPixels: forward.computedPixels.length,
+      raysPerEvaluation: forward.varying.raysTraced,
+      pixelsByLevel: Array.from(forward.varying.pixelsByLevel),
+      subPixelFactors: Array.from(forward.varying.factors),
+      psf: `${forward.convolvedPsf.columns}x${forward.convolvedPsf.rows}${forward.separable ? ' separable' : ''}`,
+    }));
+  }
+}

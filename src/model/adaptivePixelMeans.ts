@@ -1,0 +1,388 @@
+import type { PixelGrid } from '../imaging/pixelGrid.js';
+import type { LightProfile } from '../light/lightProfile.js';
+import type { MassTerm } from './lensSystem.js';
+import { midpointStencilWeights, richardsonFactor } from './midpointStencil.js';
+
+/** A light component as the pixel-mean evaluator sees it. */
+export interface MeanLightTerm {
+  readonly profile: LightProfile;
+  readonly offset: number;
+  /** Index of the component's first basis image among the evaluator's bases. */
+  readonly firstBasis: number;
+  /** True for lens light (evaluated at image-plane positions), false for source light. */
+  readonly imagePlane: boolean;
+}
+
+/** Rays are traced in batches of this many (a multiple of every S^2 up to S = 64). */
+const CHUNK = 4096;
+/** Weight of the lower-order correction in the lattice error indicator (see evaluate). */
+const LATTICE_GUARD = 0.1;
+/** Weight of the Richardson correction in the indicator of the intermediate levels. */
+const RICHARDSON_GUARD = 0.1;
+
+/**
+ * Mean surface brightness over S x S sub-pixels (S = `supersampling`, the midpoint rule that
+ * defines the model's pixel values) of each basis image at a fixed list of pixels, computed
+ * adaptively so that most pixels need one ray instead of S^2.
+ *
+ * 1. One ray through every pixel centre of the listed pixels and of a two-pixel ring around
+ *    them (the lattice). For a pixel, the tensor product of the 5-point stencil of
+ *    midpointStencil.ts over its 5 x 5 lattice neighbourhood predicts its S x S mean exactly for
+ *    every polynomial of degree <= 4 in x and y. The error indicator is the size of the
+ *    fourth-order part of that stencil (|x part| + |y part| + |mixed part|, what the 3-point
+ *    stencil would have missed) and, as a guard against those parts cancelling by chance where
+ *    the light is not smooth on the pixel scale, 0.1 times the second-order correction.
+ * 2. Pixels whose indicator exceeds the tolerance get m x m sub-pixel rays, m = 2, 4, ... below
+ *    S. The S-point mean is predicted by Richardson extrapolation from the means at the last two
+ *    factors (richardsonFactor); the indicator is the change from the previous prediction and
+ *    0.1 times the extrapolation step.
+ * 3. Pixels still above the tolerance get the S x S rays themselves: the exact model value.
+ *
+ * The tolerance of basis k is relativeTolerance times the largest |lattice value| of basis k
+ * over the listed pixels (its peak brightness), so the criterion is scale-free. The indicators
+ * are estimates of the error, not bounds: test/model/forwardAccuracy.test.ts compares the
+ * result with the brute-force S x S model. With `uniform` every pixel gets the S x S rays.
+ * Buffers are allocated here; evaluate() allocates nothing.
+ */
+export class AdaptivePixelMeans {
+  readonly pixels: Int32Array;
+  readonly basisCount: number;
+  /** Per-pixel means after evaluate(): basis k of pixels[e] at means[k * pixels.length + e]. */
+  readonly means: Float64Array;
+  /** Sub-pixel factors after the lattice, ending with S. */
+  readonly factors: Int32Array;
+  /** Pixels finished at the lattice (index 0) and at each factor (index l + 1), last evaluate. */
+  readonly pixelsByLevel: Int32Array;
+  /** Rays traced by the last evaluate(). */
+  raysTraced = 0;
+
+  private readonly grid: PixelGrid;
+  private readonly supersampling: number;
+  private readonly massTerms: readonly MassTerm[];
+  private readonly lightTerms: readonly MeanLightTerm[];
+  private readonly hasSource: boolean;
+  private readonly adaptive: boolean;
+  private readonly relativeTolerance: number;
+  private readonly tolerance: Float64Array;
+  // Lattice: padded grid with a 2-pixel margin, pixel (i, j) at (j + 2) * width + i + 2.
+  private readonly width: number;
+  private readonly latticeCount: number;
+  private readonly latticePadded: Int32Array;
+  private readonly latticeX: Float64Array;
+  private readonly latticeY: Float64Array;
+  private readonly latticeAx: Float64Array;
+  private readonly latticeAy: Float64Array;
+  private readonly latticeBx: Float64Array;
+  private readonly latticeBy: Float64Array;
+  private readonly latticeOut: Float64Array;
+  private readonly latticeValues: Float64Array;
+  private readonly rowFilterPadded: Int32Array;
+  private readonly rowSecond: Float64Array;
+  private readonly rowFourth: Float64Array;
+  private readonly pixelsPadded: Int32Array;
+  private readonly w3: Float64Array;
+  private readonly d5: Float64Array;
+  // Refinement state per pixel and basis.
+  private readonly previous: Float64Array;
+  private readonly current: Float64Array;
+  private readonly pending: Int32Array;
+  private readonly nextPending: Int32Array;
+  // One batch of rays.
+  private readonly chunkX = new Float64Array(CHUNK);
+  private readonly chunkY = new Float64Array(CHUNK);
+  private readonly chunkAx = new Float64Array(CHUNK);
+  private readonly chunkAy = new Float64Array(CHUNK);
+  private readonly chunkBx = new Float64Array(CHUNK);
+  private readonly chunkBy = new Float64Array(CHUNK);
+  private readonly chunkOut: Float64Array;
+  private readonly chunkPixels = new Int32Array(CHUNK);
+
+  constructor(
+    grid: PixelGrid, supersampling: number, pixels: Int32Array, massTerms: readonly MassTerm[],
+    lightTerms: readonly MeanLightTerm[], basisCount: number, relativeTolerance: number, uniform: boolean,
+  ) {
+    if (supersampling * supersampling > CHUNK) throw new RangeError(`supersampling ${supersampling} above ${Math.sqrt(CHUNK)}`);
+    this.grid = grid;
+    this.supersampling = supersampling;
+    this.pixels = Int32Array.from(pixels);
+    this.massTerms = massTerms;
+    this.lightTerms = lightTerms;
+    this.hasSource = lightTerms.some((term) => !term.imagePlane);
+    this.basisCount = basisCount;
+    this.relativeTolerance = relativeTolerance;
+    this.adaptive = !uniform && supersampling > 1;
+    const count = this.pixels.length;
+    this.means = new Float64Array(basisCount * count);
+    this.previous = new Float64Array(basisCount * count);
+    this.current = new Float64Array(basisCount * count);
+    this.pending = new Int32Array(count);
+    this.nextPending = new Int32Array(count);
+    this.tolerance = new Float64Array(basisCount);
+    this.chunkOut = new Float64Array(Math.max(1, basisCount) * CHUNK);
+    const factors: number[] = [];
+    if (this.adaptive) for (let m = 2; m < supersampling; m *= 2) factors.push(m);
+    factors.push(supersampling);
+    this.factors = Int32Array.from(factors);
+    this.pixelsByLevel = new Int32Array(factors.length + 1);
+
+    const { columns, rows } = grid;
+    const width = columns + 4;
+    const height = rows + 4;
+    this.width = width;
+    this.pixelsPadded = this.pixels.map((p) => {
+      const i = p % columns;
+      return ((p - i) / columns + 2) * width + i + 2;
+    });
+    this.w3 = midpointStencilWeights(supersampling, 1);
+    const w5 = midpointStencilWeights(supersampling, 2);
+    // Fourth-order part of the 5-point weights: w5 minus w3 padded with zeros.
+    this.d5 = Float64Array.from([w5[2] - this.w3[1], w5[1] - this.w3[0], w5[0]]);
+    if (!this.adaptive) {
+      this.latticeCount = 0;
+      this.latticePadded = new Int32Array(0);
+      this.latticeX = this.latticeY = this.latticeAx = this.latticeAy = this.latticeBx = this.latticeBy = new Float64Array(0);
+      this.latticeOut = this.latticeValues = this.rowSecond = this.rowFourth = new Float64Array(0);
+      this.rowFilterPadded = new Int32Array(0);
+      return;
+    }
+    const active = new Uint8Array(width * height);
+    const rowFilter = new Uint8Array(width * height);
+    for (const q of this.pixelsPadded) {
+      for (let b = -2; b <= 2; b++) {
+        rowFilter[q + b * width] = 1;
+        for (let a = -2; a <= 2; a++) active[q + b * width + a] = 1;
+      }
+    }
+    const latticeList: number[] = [];
+    const rowList: number[] = [];
+    for (let q = 0; q < active.length; q++) {
+      if (active[q] === 1) latticeList.push(q);
+      if (rowFilter[q] === 1) rowList.push(q);
+    }
+    this.latticePadded = Int32Array.from(latticeList);
+    this.rowFilterPadded = Int32Array.from(rowList);
+    const n = latticeList.length;
+    this.latticeCount = n;
+    this.latticeX = new Float64Array(n);
+    this.latticeY = new Float64Array(n);
+    const scale = grid.pixelScaleArcsec;
+    for (let e = 0; e < n; e++) {
+      const q = latticeList[e];
+      const i = (q % width) - 2;
+      const j = Math.floor(q / width) - 2;
+      this.latticeX[e] = (i - (columns - 1) / 2) * scale;
+      this.latticeY[e] = (j - (rows - 1) / 2) * scale;
+    }
+    this.latticeAx = new Float64Array(n);
+    this.latticeAy = new Float64Array(n);
+    this.latticeBx = new Float64Array(n);
+    this.latticeBy = new Float64Array(n);
+    this.latticeOut = new Float64Array(Math.max(1, basisCount) * n);
+    this.latticeValues = new Float64Array(Math.max(1, basisCount) * width * height);
+    this.rowSecond = new Float64Array(width * height);
+    this.rowFourth = new Float64Array(width * height);
+  }
+
+  /** Source-plane positions of the lattice rays (pixel centres) after the last evaluate(). */
+  get latticeSourcePlane(): { readonly x: Float64Array; readonly y: Float64Array } {
+    return { x: this.latticeBx, y: this.latticeBy };
+  }
+
+  /** Fills `means` for the profile vector p. */
+  evaluate(p: Float64Array): void {
+    this.raysTraced = 0;
+    this.pixelsByLevel.fill(0);
+    const count = this.pixels.length;
+    let pendingCount: number;
+    if (this.adaptive) {
+      pendingCount = this.latticeLevel(p);
+    } else {
+      for (let e = 0; e < count; e++) this.pending[e] = e;
+      pendingCount = count;
+    }
+    let previousFactor = 1;
+    for (let level = 0; level < this.factors.length && pendingCount > 0; level++) {
+      const m = this.factors[level];
+      this.subPixelMeans(p, m, pendingCount);
+      pendingCount = this.refine(m, previousFactor, level, pendingCount);
+      previousFactor = m;
+    }
+  }
+
+  /** Lattice rays and the stencil prediction; returns how many pixels are left pending. */
+  private latticeLevel(p: Float64Array): number {
+    const n = this.latticeCount;
+    this.trace(p, this.latticeX, this.latticeY, n, this.latticeAx, this.latticeAy, this.latticeBx, this.latticeBy);
+    this.shine(p, this.latticeX, this.latticeY, this.latticeBx, this.latticeBy, n, this.latticeOut, n);
+    this.raysTraced += n;
+    const planeSize = this.rowSecond.length;
+    const values = this.latticeValues;
+    const padded = this.latticePadded;
+    for (let k = 0; k < this.basisCount; k++) {
+      const from = k * n;
+      const to = k * planeSize;
+      for (let e = 0; e < n; e++) values[to + padded[e]] = this.latticeOut[from + e];
+    }
+    const count = this.pixels.length;
+    const pixelsPadded = this.pixelsPadded;
+    const width = this.width;
+    const w30 = this.w3[1], w31 = this.w3[0];
+    const d0 = this.d5[0], d1 = this.d5[1], d2 = this.d5[2];
+    const rowSecond = this.rowSecond;
+    const rowFourth = this.rowFourth;
+    const rowPoints = this.rowFilterPadded;
+    const pending = this.pending;
+    const means = this.means;
+    const previous = this.previous;
+    const flagged = this.nextPending;
+    flagged.fill(0, 0, count);
+    for (let k = 0; k < this.basisCount; k++) {
+      const base = k * planeSize;
+      let peak = 0;
+      for (let e = 0; e < count; e++) peak = Math.max(peak, Math.abs(values[base + pixelsPadded[e]]));
+      const tolerance = this.relativeTolerance * peak;
+      this.tolerance[k] = tolerance;
+      // Separable stencils: along x first (3- and 5-point parts), then along y.
+      for (let e = 0; e < rowPoints.length; e++) {
+        const q = base + rowPoints[e];
+        const centre = values[q];
+        const near = values[q - 1] + values[q + 1];
+        rowSecond[rowPoints[e]] = w30 * centre + w31 * near;
+        rowFourth[rowPoints[e]] = d0 * centre + d1 * near + d2 * (values[q - 2] + values[q + 2]);
+      }
+      const out = k * count;
+      for (let e = 0; e < count; e++) {
+        const q = pixelsPadded[e];
+        const centre = values[base + q];
+        const s0 = rowSecond[q], s1 = rowSecond[q - width] + rowSecond[q + width];
+        const s2 = rowSecond[q - 2 * width] + rowSecond[q + 2 * width];
+        const f0 = rowFourth[q], f1 = rowFourth[q - width] + rowFourth[q + width];
+        const f2 = rowFourth[q - 2 * width] + rowFourth[q + 2 * width];
+        const second = w30 * s0 + w31 * s1;
+        const partX = w30 * f0 + w31 * f1;
+        const partY = d0 * s0 + d1 * s1 + d2 * s2;
+        const partXY = d0 * f0 + d1 * f1 + d2 * f2;
+        means[out + e] = second + partX + partY + partXY;
+        previous[out + e] = centre;
+        const indicator = Math.max(
+          Math.abs(partX) + Math.abs(partY) + Math.abs(partXY), LATTICE_GUARD * Math.abs(second - centre),
+        );
+        if (indicator > tolerance) flagged[e] = 1;
+      }
+    }
+    let pendingCount = 0;
+    for (let e = 0; e < count; e++) if (flagged[e] === 1) pending[pendingCount++] = e;
+    this.pixelsByLevel[0] = count - pendingCount;
+    return pendingCount;
+  }
+
+  /** m x m sub-pixel means of the pending pixels into `current`. */
+  private subPixelMeans(p: Float64Array, m: number, pendingCount: number): void {
+    const { columns, rows, pixelScaleArcsec: scale } = this.grid;
+    const run = m * m;
+    const perChunk = Math.floor(CHUNK / run);
+    const step = scale / m;
+    const first = (0.5 / m - 0.5) * scale;
+    const count = this.pixels.length;
+    const x = this.chunkX, y = this.chunkY;
+    const out = this.chunkOut;
+    const current = this.current;
+    const chunkPixels = this.chunkPixels;
+    const inverseRun = 1 / run;
+    for (let start = 0; start < pendingCount; start += perChunk) {
+      const end = Math.min(pendingCount, start + perChunk);
+      let r = 0;
+      for (let t = start; t < end; t++) {
+        const e = this.pending[t];
+        chunkPixels[t - start] = e;
+        const pixel = this.pixels[e];
+        const i = pixel % columns;
+        const j = (pixel - i) / columns;
+        const x0 = (i - (columns - 1) / 2) * scale + first;
+        const y0 = (j - (rows - 1) / 2) * scale + first;
+        for (let b = 0; b < m; b++) {
+          const yb = y0 + b * step;
+          for (let a = 0; a < m; a++) {
+            x[r] = x0 + a * step;
+            y[r] = yb;
+            r++;
+          }
+        }
+      }
+      this.trace(p, x, y, r, this.chunkAx, this.chunkAy, this.chunkBx, this.chunkBy);
+      this.shine(p, x, y, this.chunkBx, this.chunkBy, r, out, CHUNK);
+      this.raysTraced += r;
+      for (let k = 0; k < this.basisCount; k++) {
+        let index = k * CHUNK;
+        const to = k * count;
+        for (let t = 0; t < end - start; t++) {
+          let sum = 0;
+          for (let u = 0; u < run; u++) sum += out[index + u];
+          current[to + chunkPixels[t]] = sum * inverseRun;
+          index += run;
+        }
+      }
+    }
+  }
+
+  /** Accepts or keeps pending the pixels after factor m; returns how many stay pending. */
+  private refine(m: number, previousFactor: number, level: number, pendingCount: number): number {
+    const count = this.pixels.length;
+    const means = this.means, previous = this.previous, current = this.current;
+    const pending = this.pending;
+    if (m === this.supersampling) {
+      for (let t = 0; t < pendingCount; t++) {
+        const e = pending[t];
+        for (let k = 0; k < this.basisCount; k++) means[k * count + e] = current[k * count + e];
+      }
+      this.pixelsByLevel[level + 1] = pendingCount;
+      return 0;
+    }
+    const factor = richardsonFactor(previousFactor, m, this.supersampling);
+    let kept = 0;
+    for (let t = 0; t < pendingCount; t++) {
+      const e = pending[t];
+      let refineFurther = false;
+      for (let k = 0; k < this.basisCount; k++) {
+        const index = k * count + e;
+        const now = current[index];
+        const step = (now - previous[index]) * factor;
+        const predicted = now + step;
+        const indicator = Math.max(Math.abs(predicted - means[index]), RICHARDSON_GUARD * Math.abs(step));
+        if (indicator > this.tolerance[k]) refineFurther = true;
+        means[index] = predicted;
+        previous[index] = now;
+      }
+      if (refineFurther) pending[kept++] = e;
+    }
+    this.pixelsByLevel[level + 1] = pendingCount - kept;
+    return kept;
+  }
+
+  /** Deflection and source-plane positions b = x - alpha(x) of n rays (skipped without source light). */
+  private trace(
+    p: Float64Array, x: Float64Array, y: Float64Array, n: number,
+    ax: Float64Array, ay: Float64Array, bx: Float64Array, by: Float64Array,
+  ): void {
+    if (!this.hasSource) return;
+    ax.fill(0, 0, n);
+    ay.fill(0, 0, n);
+    for (const term of this.massTerms) term.profile.addDeflection(p, term.offset, x, y, n, ax, ay);
+    for (let i = 0; i < n; i++) {
+      bx[i] = x[i] - ax[i];
+      by[i] = y[i] - ay[i];
+    }
+  }
+
+  /** Unit-amplitude light of every basis at n rays into out[k * stride + i]. */
+  private shine(
+    p: Float64Array, x: Float64Array, y: Float64Array, bx: Float64Array, by: Float64Array, n: number,
+    out: Float64Array, stride: number,
+  ): void {
+    for (const term of this.lightTerms) {
+      const px = term.imagePlane ? x : bx;
+      const py = term.imagePlane ? y : by;
+      term.profile.writeBasis(p, term.offset, px, py, n, out, term.firstBasis * stride, stride);
+    }
+  }
+}
