@@ -60,13 +60,17 @@ export function brightestUsedPixel(simulation: Simulation): number {
   return best;
 }
 
-/** The forward model a fit of this simulation uses: light where the PSF reaches the mask. */
+/**
+ * The forward model a fit of this simulation uses: light where the PSF reaches the mask, the
+ * tolerance from the noise map and the brightest data pixel in the mask.
+ */
 export function fitForwardModel(simulation: Simulation): ForwardModel {
-  const { grid, psf, mask } = simulation;
+  const { grid, psf, mask, image, noise } = simulation;
   const computed = growMaskByKernel(mask, grid.columns, grid.rows, psf.columns, psf.rows);
-  return new ForwardModel(simulation.system, grid, BENCH_SUPERSAMPLING, psf, {
-    computed, used: usedPixelIndices(mask),
-  });
+  const used = usedPixelIndices(mask);
+  let peakBrightness = 0;
+  for (const p of used) peakBrightness = Math.max(peakBrightness, image[p]);
+  return new ForwardModel(simulation.system, grid, BENCH_SUPERSAMPLING, psf, { computed, used, noise, peakBrightness });
 }
 
 /** Best, over `repeats` runs of about `targetMs` each, of the mean milliseconds per call of f. */
@@ -108,7 +112,7 @@ export async function run(_args: string[]): Promise<void> {
       repeats,
       evaluationsPerRepeat: callsPerRepeat,
       supersampling: forward.supersampling,
-      relativeTolerance: forward.relativeTolerance,
+      leastRelativeTolerance: Number(Math.min(...forward.relativeTolerance).toPrecision(3)),
       usedPixels: forward.usedPixels.length,
       computedPixels: forward.computedPixels.length,
       raysPerEvaluation: forward.varying.raysTraced,

@@ -1,4 +1,5 @@
 import type { PixelGrid } from '../imaging/pixelGrid.js';
+import type { PsfKernel } from '../imaging/psfKernel.js';
 import type { LightProfile } from '../light/lightProfile.js';
 import type { MassTerm } from './lensSystem.js';
 import { midpointStencilWeights, richardsonFactor } from './midpointStencil.js';
@@ -38,8 +39,10 @@ const RICHARDSON_GUARD = 0.1;
  *    0.1 times the extrapolation step.
  * 3. Pixels still above the tolerance get the S x S rays themselves: the exact model value.
  *
- * The tolerance of basis k is relativeTolerance times the largest |lattice value| of basis k
- * over the listed pixels (its peak brightness), so the criterion is scale-free. The indicators
+ * The tolerance of basis k at pixel e is relativeTolerance[e] times the scale of basis k: the
+ * PSF-convolved lattice image at the brightest lattice pixel (a lower bound of the convolved
+ * peak for light >= 0, the same up to the lattice's own error), so the criterion is scale-free
+ * and refers to what is compared with data, the convolved image. The indicators
  * are estimates of the error, not bounds: test/model/forwardAccuracy.test.ts compares the
  * result with the brute-force S x S model. With `uniform` every pixel gets the S x S rays.
  * Buffers are allocated here; evaluate() allocates nothing.
@@ -62,8 +65,10 @@ export class AdaptivePixelMeans {
   private readonly lightTerms: readonly MeanLightTerm[];
   private readonly hasSource: boolean;
   private readonly adaptive: boolean;
-  private readonly relativeTolerance: number;
-  private readonly tolerance: Float64Array;
+  private readonly relativeTolerance: Float64Array;
+  private readonly kernel: PsfKernel;
+  /** Scale of each basis (see above) after the last evaluate(). */
+  readonly scale: Float64Array;
   // Lattice: padded grid with a 2-pixel margin, pixel (i, j) at (j + 2) * width + i + 2.
   private readonly width: number;
   private readonly latticeCount: number;
@@ -99,7 +104,8 @@ export class AdaptivePixelMeans {
 
   constructor(
     grid: PixelGrid, supersampling: number, pixels: Int32Array, massTerms: readonly MassTerm[],
-    lightTerms: readonly MeanLightTerm[], basisCount: number, relativeTolerance: number, uniform: boolean,
+    lightTerms: readonly MeanLightTerm[], basisCount: number, relativeTolerance: Float64Array, kernel: PsfKernel,
+    uniform: boolean,
   ) {
     if (supersampling * supersampling > CHUNK) throw new RangeError(`supersampling ${supersampling} above ${Math.sqrt(CHUNK)}`);
     this.grid = grid;
@@ -110,6 +116,7 @@ export class AdaptivePixelMeans {
     this.hasSource = lightTerms.some((term) => !term.imagePlane);
     this.basisCount = basisCount;
     this.relativeTolerance = relativeTolerance;
+    this.kernel = kernel;
     this.adaptive = !uniform && supersampling > 1;
     const count = this.pixels.length;
     this.means = new Float64Array(basisCount * count);
@@ -117,7 +124,7 @@ export class AdaptivePixelMeans {
     this.current = new Float64Array(basisCount * count);
     this.pending = new Int32Array(count);
     this.nextPending = new Int32Array(count);
-    this.tolerance = new Float64Array(basisCount);
+    this.scale = new Float64Array(basisCount);
     this.chunkOut = new Float64Array(Math.max(1, basisCount) * CHUNK);
     const factors: number[] = [];
     if (this.adaptive) for (let m = 2; m < supersampling; m *= 2) factors.push(m);
@@ -236,12 +243,11 @@ export class AdaptivePixelMeans {
     const previous = this.previous;
     const flagged = this.nextPending;
     flagged.fill(0, 0, count);
+    const relativeTolerance = this.relativeTolerance;
     for (let k = 0; k < this.basisCount; k++) {
       const base = k * planeSize;
-      let peak = 0;
-      for (let e = 0; e < count; e++) peak = Math.max(peak, Math.abs(values[base + pixelsPadded[e]]));
-      const tolerance = this.relativeTolerance * peak;
-      this.tolerance[k] = tolerance;
+      const scale = this.convolvedPeak(base);
+      this.scale[k] = scale;
       // Separable stencils: along x first (3- and 5-point parts), then along y.
       for (let e = 0; e < rowPoints.length; e++) {
         const q = base + rowPoints[e];
@@ -267,13 +273,45 @@ export class AdaptivePixelMeans {
         const indicator = Math.max(
           Math.abs(partX) + Math.abs(partY) + Math.abs(partXY), LATTICE_GUARD * Math.abs(second - centre),
         );
-        if (indicator > tolerance) flagged[e] = 1;
+        if (indicator > scale * relativeTolerance[e]) flagged[e] = 1;
       }
     }
     let pendingCount = 0;
     for (let e = 0; e < count; e++) if (flagged[e] === 1) pending[pendingCount++] = e;
     this.pixelsByLevel[0] = count - pendingCount;
     return pendingCount;
+  }
+
+  /** |PSF-convolved lattice values| at the listed pixel of largest |lattice value| (basis at `base`). */
+  private convolvedPeak(base: number): number {
+    const values = this.latticeValues;
+    const padded = this.pixelsPadded;
+    let brightest = -1;
+    let peak = -1;
+    for (let e = 0; e < padded.length; e++) {
+      const value = Math.abs(values[base + padded[e]]);
+      if (value > peak) {
+        peak = value;
+        brightest = padded[e];
+      }
+    }
+    if (brightest < 0) return 0;
+    const { columns, rows, values: weights } = this.kernel;
+    const width = this.width;
+    const i = (brightest % width) - 2;
+    const j = Math.floor(brightest / width) - 2;
+    const halfX = (columns - 1) / 2, halfY = (rows - 1) / 2;
+    let sum = 0;
+    for (let b = 0; b < rows; b++) {
+      const jj = j - (b - halfY);
+      if (jj < -2 || jj >= this.grid.rows + 2) continue;
+      for (let a = 0; a < columns; a++) {
+        const ii = i - (a - halfX);
+        if (ii < -2 || ii >= this.grid.columns + 2) continue;
+        sum += weights[b * columns + a] * values[base + (jj + 2) * width + ii + 2];
+      }
+    }
+    return Math.abs(sum);
   }
 
   /** m x m sub-pixel means of the pending pixels into `current`. */
@@ -349,7 +387,7 @@ export class AdaptivePixelMeans {
         const step = (now - previous[index]) * factor;
         const predicted = now + step;
         const indicator = Math.max(Math.abs(predicted - means[index]), RICHARDSON_GUARD * Math.abs(step));
-        if (indicator > this.tolerance[k]) refineFurther = true;
+        if (indicator > this.scale[k] * this.relativeTolerance[e]) refineFurther = true;
         means[index] = predicted;
         previous[index] = now;
       }

@@ -8,6 +8,8 @@ import { trimPsfKernel } from './trimPsfKernel.js';
 
 /** Default relative tolerance of the adaptive pixel means (see AdaptivePixelMeans). */
 export const FORWARD_MODEL_RELATIVE_TOLERANCE = 1e-5;
+/** Default fraction of the noise asked of the model when a noise map is given. */
+export const FORWARD_MODEL_NOISE_FRACTION = 0.003;
 
 export interface ForwardModelOptions {
   /**
@@ -23,11 +25,22 @@ export interface ForwardModelOptions {
    */
   readonly used?: ArrayLike<number>;
   /**
-   * Accuracy asked of each basis image, as a fraction of its peak pixel value (see
-   * AdaptivePixelMeans; default 1e-5). 0 gives the brute-force model: S x S rays in every pixel
-   * and the whole PSF kernel.
+   * Accuracy asked of each PSF-convolved basis image in every pixel, as a fraction of its peak
+   * (see AdaptivePixelMeans; default 1e-5), when no noise map is given. 0 gives the brute-force
+   * model: S x S rays in every pixel and the whole PSF kernel.
    */
   readonly relativeTolerance?: number;
+  /**
+   * Per-pixel 1-sigma noise (whole grid) and the brightest pixel value the model is expected to
+   * reach among the used pixels (e.g. the data's): the tolerance at a pixel becomes
+   * noiseFraction * (least noise of the used pixels the PSF carries its light to) /
+   * peakBrightness, relative to each basis peak. A component of peak <= peakBrightness then errs
+   * by at most about noiseFraction times the noise (default 0.003: a third of the 1% criterion
+   * of test/model/forwardAccuracy.test.ts).
+   */
+  readonly noise?: ArrayLike<number>;
+  readonly peakBrightness?: number;
+  readonly noiseFraction?: number;
 }
 
 /** Where a light term's bases sit among the amplitudes and in an evaluator's basis list. */
@@ -67,7 +80,8 @@ export class ForwardModel {
   readonly usedPixels: Int32Array;
   /** PSF-convolved unit-amplitude images: basis k of pixel p at basis[k * pixelCount + p]. */
   readonly basis: Float64Array;
-  readonly relativeTolerance: number;
+  /** Relative tolerance of each computed pixel (see ForwardModelOptions). */
+  readonly relativeTolerance: Float64Array;
   /** The PSF as convolved (cut to its support), and whether it runs as two 1-D passes. */
   readonly convolvedPsf: PsfKernel;
   readonly separable: boolean;
@@ -93,20 +107,26 @@ export class ForwardModel {
     this.supersampling = supersampling;
     this.pixelCount = grid.columns * grid.rows;
     this.amplitudeCount = system.amplitudeCount;
-    this.relativeTolerance = options.relativeTolerance ?? FORWARD_MODEL_RELATIVE_TOLERANCE;
     this.profile = new Float64Array(system.profileVectorLength);
     this.pixelArea = grid.pixelScaleArcsec * grid.pixelScaleArcsec;
 
-    const kernelBudget = this.relativeTolerance / 10;
+    this.usedPixels = options.used === undefined
+      ? Int32Array.from({ length: this.pixelCount }, (_, p) => p)
+      : Int32Array.from(options.used);
+    const usedTolerance = usedPixelTolerance(this.usedPixels, options);
+    // The kernel cut and factorisation each cost at most budget * max|image| (trimPsfKernel).
+    let kernelBudget = Number.POSITIVE_INFINITY;
+    for (const value of usedTolerance) kernelBudget = Math.min(kernelBudget, value / 20);
+    if (!Number.isFinite(kernelBudget)) kernelBudget = 0;
     const trimmed = trimPsfKernel(psf, kernelBudget).kernel;
     const factors = separablePsf(trimmed, kernelBudget);
     this.convolvedPsf = trimmed;
     this.separable = factors !== undefined;
-    this.usedPixels = options.used === undefined
-      ? Int32Array.from({ length: this.pixelCount }, (_, p) => p)
-      : Int32Array.from(options.used);
     this.convolver = new PixelSubsetConvolver(grid.columns, grid.rows, trimmed, this.usedPixels, factors);
     this.computedPixels = reachingPixels(grid, this.usedPixels, this.convolver.halfX, this.convolver.halfY, options.computed);
+    this.relativeTolerance = computedPixelTolerance(
+      grid, this.usedPixels, usedTolerance, this.computedPixels, this.convolver.halfX, this.convolver.halfY,
+    );
     this.inputPadded = this.computedPixels.map((p) => this.convolver.paddedIndex(p));
     this.basis = new Float64Array(this.amplitudeCount * this.pixelCount);
 
@@ -119,12 +139,13 @@ export class ForwardModel {
         return { profile: term.profile, offset: term.offset, firstBasis, imagePlane };
       });
       const means = new AdaptivePixelMeans(
-        grid, supersampling, this.computedPixels, system.massTerms, meanTerms, amplitudes.length, this.relativeTolerance, uniform,
+        grid, supersampling, this.computedPixels, system.massTerms, meanTerms, amplitudes.length, this.relativeTolerance,
+        trimmed, uniform,
       );
       return [means, Int32Array.from(amplitudes)];
     };
     const fixedTerms = bound.filter((t) => t.fixed);
-    [this.varying, this.varyingAmplitudes] = build(bound.filter((t) => !t.fixed), this.relativeTolerance === 0);
+    [this.varying, this.varyingAmplitudes] = build(bound.filter((t) => !t.fixed), kernelBudget === 0);
     [this.fixed, this.fixedAmplitudes] = build(fixedTerms, true);
     const slots = new Set<number>();
     for (const { term, imagePlane } of fixedTerms) {
@@ -192,6 +213,34 @@ export class ForwardModel {
       this.convolver.convolve(this.basis, amplitudes[k] * this.pixelCount);
     }
   }
+}
+
+/** Relative tolerance of each used pixel (see ForwardModelOptions). */
+function usedPixelTolerance(used: Int32Array, options: ForwardModelOptions): Float64Array {
+  const { noise, peakBrightness } = options;
+  if (noise === undefined || peakBrightness === undefined) {
+    return new Float64Array(used.length).fill(options.relativeTolerance ?? FORWARD_MODEL_RELATIVE_TOLERANCE);
+  }
+  const fraction = options.noiseFraction ?? FORWARD_MODEL_NOISE_FRACTION;
+  return Float64Array.from(used, (p) => (fraction * noise[p]) / peakBrightness);
+}
+
+/** For each computed pixel, the least tolerance of the used pixels within (halfX, halfY) of it. */
+function computedPixelTolerance(
+  grid: PixelGrid, used: Int32Array, usedTolerance: Float64Array, computed: Int32Array, halfX: number, halfY: number,
+): Float64Array {
+  const { columns, rows } = grid;
+  const least = new Float64Array(columns * rows).fill(Number.POSITIVE_INFINITY);
+  used.forEach((p, e) => {
+    const i = p % columns;
+    const j = (p - i) / columns;
+    for (let b = Math.max(0, j - halfY); b <= Math.min(rows - 1, j + halfY); b++) {
+      for (let a = Math.max(0, i - halfX); a <= Math.min(columns - 1, i + halfX); a++) {
+        least[b * columns + a] = Math.min(least[b * columns + a], usedTolerance[e]);
+      }
+    }
+  });
+  return Float64Array.from(computed, (p) => least[p]);
 }
 
 /** Pixels within (halfX, halfY) of a used pixel (a square footprint), and computed. */
