@@ -23,11 +23,12 @@ export async function run(_args: string[]): Promise<void> {
       });
       const likelihood = new PixelLikelihood(scenario.config, data, scenario.config.perturbers.length);
       const model = likelihood.system.configuredValues();
-      const { ms, callsPerRepeat } = bestMillisecondsPerCall(() => likelihood.logLikelihood(model));
+      const { ms, cpuMs, callsPerRepeat } = bestMillisecondsPerCall(() => likelihood.logLikelihood(model));
       console.log(JSON.stringify({
         benchmark: 'likelihood',
         scenario: scenario.name,
         msPerCall: Number(ms.toFixed(4)),
+        cpuMsPerCall: Number(cpuMs.toFixed(4)),
         oneThread: true,
         repeats: 7,
         callsPerRepeat,

@@ -20,6 +20,8 @@ const CHUNK = 4096;
 const LATTICE_GUARD = 0.1;
 /** Weight of the Richardson correction in the indicator of the intermediate levels. */
 const RICHARDSON_GUARD = 0.1;
+/** Largest change of a sub-pixel's light, in tolerances, that lets a pixel use interpolated rays. */
+const INTERPOLATION_GUARD = 0.05;
 
 /**
  * Mean surface brightness over S x S sub-pixels (S = `supersampling`, the midpoint rule that
@@ -56,8 +58,9 @@ export class AdaptivePixelMeans {
   readonly factors: Int32Array;
   /** Pixels finished at the lattice (index 0) and at each factor (index l + 1), last evaluate. */
   readonly pixelsByLevel: Int32Array;
-  /** Rays traced by the last evaluate(). */
+  /** Rays traced, and rays whose source-plane position was interpolated, by the last evaluate(). */
   raysTraced = 0;
+  raysInterpolated = 0;
 
   private readonly grid: PixelGrid;
   private readonly supersampling: number;
@@ -101,6 +104,14 @@ export class AdaptivePixelMeans {
   private readonly chunkBy = new Float64Array(CHUNK);
   private readonly chunkOut: Float64Array;
   private readonly chunkPixels = new Int32Array(CHUNK);
+  private readonly chunkSecond: Float64Array;
+  // Interpolation of source-plane positions from the lattice.
+  private readonly latticeBetaX: Float64Array;
+  private readonly latticeBetaY: Float64Array;
+  private readonly interpolable: Uint8Array;
+  private readonly rowX = new Float64Array(5 * 64);
+  private readonly rowY = new Float64Array(5 * 64);
+  private readonly weightsByFactor = new Map<number, Float64Array>();
 
   constructor(
     grid: PixelGrid, supersampling: number, pixels: Int32Array, massTerms: readonly MassTerm[],
@@ -126,6 +137,8 @@ export class AdaptivePixelMeans {
     this.nextPending = new Int32Array(count);
     this.scale = new Float64Array(basisCount);
     this.chunkOut = new Float64Array(Math.max(1, basisCount) * CHUNK);
+    this.chunkSecond = new Float64Array(Math.max(1, basisCount) * CHUNK);
+    this.interpolable = new Uint8Array(count);
     const factors: number[] = [];
     if (this.adaptive) for (let m = 2; m < supersampling; m *= 2) factors.push(m);
     factors.push(supersampling);
@@ -150,6 +163,7 @@ export class AdaptivePixelMeans {
       this.latticeX = this.latticeY = this.latticeAx = this.latticeAy = this.latticeBx = this.latticeBy = new Float64Array(0);
       this.latticeOut = this.latticeValues = this.rowSecond = this.rowFourth = new Float64Array(0);
       this.rowFilterPadded = new Int32Array(0);
+      this.latticeBetaX = this.latticeBetaY = new Float64Array(0);
       return;
     }
     const active = new Uint8Array(width * height);
@@ -188,6 +202,9 @@ export class AdaptivePixelMeans {
     this.latticeValues = new Float64Array(Math.max(1, basisCount) * width * height);
     this.rowSecond = new Float64Array(width * height);
     this.rowFourth = new Float64Array(width * height);
+    this.latticeBetaX = new Float64Array(width * height);
+    this.latticeBetaY = new Float64Array(width * height);
+    for (const m of this.factors) this.lagrangeWeights(m);
   }
 
   /** Source-plane positions of the lattice rays (pixel centres) after the last evaluate(). */
@@ -198,6 +215,7 @@ export class AdaptivePixelMeans {
   /** Fills `means` for the profile vector p. */
   evaluate(p: Float64Array): void {
     this.raysTraced = 0;
+    this.raysInterpolated = 0;
     this.pixelsByLevel.fill(0);
     const count = this.pixels.length;
     let pendingCount: number;
@@ -210,7 +228,7 @@ export class AdaptivePixelMeans {
     let previousFactor = 1;
     for (let level = 0; level < this.factors.length && pendingCount > 0; level++) {
       const m = this.factors[level];
-      this.subPixelMeans(p, m, pendingCount);
+      this.subPixelMeans(p, m, level, pendingCount);
       pendingCount = this.refine(m, previousFactor, level, pendingCount);
       previousFactor = m;
     }
@@ -225,6 +243,10 @@ export class AdaptivePixelMeans {
     const planeSize = this.rowSecond.length;
     const values = this.latticeValues;
     const padded = this.latticePadded;
+    for (let e = 0; e < n; e++) {
+      this.latticeBetaX[padded[e]] = this.latticeBx[e];
+      this.latticeBetaY[padded[e]] = this.latticeBy[e];
+    }
     for (let k = 0; k < this.basisCount; k++) {
       const from = k * n;
       const to = k * planeSize;
@@ -314,53 +336,170 @@ export class AdaptivePixelMeans {
     return Math.abs(sum);
   }
 
-  /** m x m sub-pixel means of the pending pixels into `current`. */
-  private subPixelMeans(p: Float64Array, m: number, pendingCount: number): void {
-    const { columns, rows, pixelScaleArcsec: scale } = this.grid;
+  /**
+   * m x m sub-pixel means of the pending pixels into `current`. At the first factor every ray is
+   * traced, and the same rays are also shone from source-plane positions interpolated from the
+   * lattice (interpolatedBeta); a pixel whose light changes by at most INTERPOLATION_GUARD times
+   * its tolerance is marked `interpolable`, and at the later factors its rays are not traced but
+   * interpolated.
+   */
+  private subPixelMeans(p: Float64Array, m: number, level: number, pendingCount: number): void {
+    const check = level === 0 && this.hasSource && this.adaptive;
+    const interpolable = this.interpolable;
+    if (check || !this.hasSource || !this.adaptive) {
+      this.subPixelPass(p, m, 0, pendingCount, false, check);
+      return;
+    }
+    // Traced pixels first, then interpolated ones (pending is reordered, which refine() allows).
+    const pending = this.pending;
+    let traced = 0;
+    for (let t = 0; t < pendingCount; t++) {
+      const e = pending[t];
+      if (interpolable[e] === 0) {
+        pending[t] = pending[traced];
+        pending[traced++] = e;
+      }
+    }
+    if (traced > 0) this.subPixelPass(p, m, 0, traced, false, false);
+    if (traced < pendingCount) this.subPixelPass(p, m, traced, pendingCount, true, false);
+  }
+
+  /** One pass of subPixelMeans over pending[from..to), in chunks of rays. */
+  private subPixelPass(p: Float64Array, m: number, from: number, to: number, interpolate: boolean, check: boolean): void {
     const run = m * m;
     const perChunk = Math.floor(CHUNK / run);
-    const step = scale / m;
-    const first = (0.5 / m - 0.5) * scale;
     const count = this.pixels.length;
-    const x = this.chunkX, y = this.chunkY;
     const out = this.chunkOut;
     const current = this.current;
     const chunkPixels = this.chunkPixels;
     const inverseRun = 1 / run;
-    for (let start = 0; start < pendingCount; start += perChunk) {
-      const end = Math.min(pendingCount, start + perChunk);
+    const weights = this.lagrangeWeights(m);
+    for (let start = from; start < to; start += perChunk) {
+      const end = Math.min(to, start + perChunk);
       let r = 0;
       for (let t = start; t < end; t++) {
         const e = this.pending[t];
         chunkPixels[t - start] = e;
-        const pixel = this.pixels[e];
-        const i = pixel % columns;
-        const j = (pixel - i) / columns;
-        const x0 = (i - (columns - 1) / 2) * scale + first;
-        const y0 = (j - (rows - 1) / 2) * scale + first;
-        for (let b = 0; b < m; b++) {
-          const yb = y0 + b * step;
-          for (let a = 0; a < m; a++) {
-            x[r] = x0 + a * step;
-            y[r] = yb;
-            r++;
-          }
-        }
+        this.subPixelPositions(e, m, r);
+        if (interpolate) this.interpolatedBeta(e, m, weights, this.chunkBx, this.chunkBy, r);
+        r += run;
       }
-      this.trace(p, x, y, r, this.chunkAx, this.chunkAy, this.chunkBx, this.chunkBy);
-      this.shine(p, x, y, this.chunkBx, this.chunkBy, r, out, CHUNK);
-      this.raysTraced += r;
+      if (!interpolate) {
+        this.trace(p, this.chunkX, this.chunkY, r, this.chunkAx, this.chunkAy, this.chunkBx, this.chunkBy);
+        this.raysTraced += r;
+      } else {
+        this.raysInterpolated += r;
+      }
+      this.shine(p, this.chunkX, this.chunkY, this.chunkBx, this.chunkBy, r, out, CHUNK);
       for (let k = 0; k < this.basisCount; k++) {
         let index = k * CHUNK;
-        const to = k * count;
+        const into = k * count;
         for (let t = 0; t < end - start; t++) {
           let sum = 0;
           for (let u = 0; u < run; u++) sum += out[index + u];
-          current[to + chunkPixels[t]] = sum * inverseRun;
+          current[into + chunkPixels[t]] = sum * inverseRun;
           index += run;
         }
       }
+      if (check) this.checkInterpolation(p, m, end - start, r, weights);
     }
+  }
+
+  /** Marks the pixels of the last chunk whose light survives lattice-interpolated positions. */
+  private checkInterpolation(p: Float64Array, m: number, pixelCount: number, rays: number, weights: Float64Array): void {
+    const run = m * m;
+    const out = this.chunkOut;
+    const second = this.chunkSecond;
+    const chunkPixels = this.chunkPixels;
+    for (let t = 0, r = 0; t < pixelCount; t++, r += run) this.interpolatedBeta(chunkPixels[t], m, weights, this.chunkAx, this.chunkAy, r);
+    this.shine(p, this.chunkX, this.chunkY, this.chunkAx, this.chunkAy, rays, second, CHUNK);
+    for (let t = 0; t < pixelCount; t++) {
+      const e = chunkPixels[t];
+      let worst = 0;
+      let ok = true;
+      for (let k = 0; k < this.basisCount; k++) {
+        const index = k * CHUNK + t * run;
+        for (let u = 0; u < run; u++) worst = Math.max(worst, Math.abs(out[index + u] - second[index + u]));
+        if (worst > INTERPOLATION_GUARD * this.scale[k] * this.relativeTolerance[e]) ok = false;
+      }
+      this.interpolable[e] = ok ? 1 : 0;
+    }
+  }
+
+  /** Image-plane positions of the m x m sub-pixels of pixels[e] at chunk index r on. */
+  private subPixelPositions(e: number, m: number, r: number): void {
+    const { columns, rows, pixelScaleArcsec: scale } = this.grid;
+    const step = scale / m;
+    const pixel = this.pixels[e];
+    const i = pixel % columns;
+    const j = (pixel - i) / columns;
+    const x0 = (i - (columns - 1) / 2) * scale + (0.5 / m - 0.5) * scale;
+    const y0 = (j - (rows - 1) / 2) * scale + (0.5 / m - 0.5) * scale;
+    const x = this.chunkX, y = this.chunkY;
+    for (let b = 0; b < m; b++) {
+      const yb = y0 + b * step;
+      for (let a = 0; a < m; a++) {
+        x[r] = x0 + a * step;
+        y[r] = yb;
+        r++;
+      }
+    }
+  }
+
+  /**
+   * Source-plane positions of the m x m sub-pixels of pixels[e] by tensor-product Lagrange
+   * interpolation of degree 4 (Abramowitz & Stegun 1964, 25.2.2) of the traced lattice positions
+   * over the pixel's 5 x 5 neighbourhood, into bx, by from index r on.
+   */
+  private interpolatedBeta(e: number, m: number, weights: Float64Array, bx: Float64Array, by: Float64Array, r: number): void {
+    const width = this.width;
+    const q = this.pixelsPadded[e];
+    const rowX = this.rowX, rowY = this.rowY;
+    const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
+    // Along x for the five lattice rows: rowX[b * m + a] at sub-column a.
+    for (let b = 0; b < 5; b++) {
+      const centre = q + (b - 2) * width;
+      for (let a = 0; a < m; a++) {
+        const w = 5 * a;
+        let sx = 0, sy = 0;
+        for (let k = 0; k < 5; k++) {
+          sx += weights[w + k] * betaX[centre + k - 2];
+          sy += weights[w + k] * betaY[centre + k - 2];
+        }
+        rowX[b * m + a] = sx;
+        rowY[b * m + a] = sy;
+      }
+    }
+    for (let c = 0; c < m; c++) {
+      const w = 5 * c;
+      for (let a = 0; a < m; a++) {
+        let sx = 0, sy = 0;
+        for (let b = 0; b < 5; b++) {
+          sx += weights[w + b] * rowX[b * m + a];
+          sy += weights[w + b] * rowY[b * m + a];
+        }
+        bx[r] = sx;
+        by[r] = sy;
+        r++;
+      }
+    }
+  }
+
+  /** Lagrange weights on the nodes -2..2 at the m sub-pixel offsets (a + 1/2)/m - 1/2, 5 per offset. */
+  private lagrangeWeights(m: number): Float64Array {
+    const cached = this.weightsByFactor.get(m);
+    if (cached !== undefined) return cached;
+    const weights = new Float64Array(5 * m);
+    for (let a = 0; a < m; a++) {
+      const t = (a + 0.5) / m - 0.5;
+      for (let k = -2; k <= 2; k++) {
+        let w = 1;
+        for (let j = -2; j <= 2; j++) if (j !== k) w *= (t - j) / (k - j);
+        weights[5 * a + k + 2] = w;
+      }
+    }
+    this.weightsByFactor.set(m, weights);
+    return weights;
   }
 
   /** Accepts or keeps pending the pixels after factor m; returns how many stay pending. */

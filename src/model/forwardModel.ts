@@ -5,6 +5,7 @@ import { AdaptivePixelMeans, type MeanLightTerm } from './adaptivePixelMeans.js'
 import { PixelSubsetConvolver } from './pixelSubsetConvolver.js';
 import { separablePsf } from './separablePsf.js';
 import { trimPsfKernel } from './trimPsfKernel.js';
+import { fasterLightProfile } from './fasterProfiles.js';
 
 /** Default relative tolerance of the adaptive pixel means (see AdaptivePixelMeans). */
 export const FORWARD_MODEL_RELATIVE_TOLERANCE = 1e-5;
@@ -136,7 +137,7 @@ export class ForwardModel {
       const meanTerms: MeanLightTerm[] = terms.map(({ term, imagePlane }) => {
         const firstBasis = amplitudes.length;
         for (let b = 0; b < term.profile.basisCount; b++) amplitudes.push(term.amplitudeOffset + b);
-        return { profile: term.profile, offset: term.offset, firstBasis, imagePlane };
+        return { profile: fasterLightProfile(term.profile), offset: term.offset, firstBasis, imagePlane };
       });
       const means = new AdaptivePixelMeans(
         grid, supersampling, this.computedPixels, system.massTerms, meanTerms, amplitudes.length, this.relativeTolerance,
