@@ -28,3 +28,4 @@ export { logAddExp, logSumExp } from './logSumExp.js';
 export { SeededStream } from './seededStream.js';
 export { gaussianShellsProblem, gaussianShellsLnEvidence } from './problems/gaussianShells.js';
 export { eggBoxProblem, eggBoxLnEvidence } from './problems/eggBox.js';
+export { twistedGaussianProblem, twistedGaussianLnEvidence } from './problems/twistedGaussian.js';

@@ -16,7 +16,8 @@ export interface NestedProblem {
   readonly periodic?: readonly boolean[];
   /**
    * ln L of `count` physical points stored row-major in `points` (row length physicalDim). May
-   * be asynchronous (a worker pool). NaN and +-Infinity mark impossible points.
+   * be asynchronous (a worker pool). NaN and +-Infinity mark impossible points. The sampler owns
+   * `points` and reuses it after the call: copy it before keeping or transferring it.
    */
   logLikelihood(points: Float64Array, count: number): Promise<Float64Array> | Float64Array;
 }
