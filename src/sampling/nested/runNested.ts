@@ -48,6 +48,9 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   const tolerance = options.lnZTolerance ?? 0.1;
   if (!(tolerance > 0)) throw new InputError(`nested sampling lnZTolerance: ${expectedFound('a positive number', tolerance)}`);
   const checkpointPath = options.checkpoint?.path;
+  if (options.resume === true && checkpointPath === undefined) {
+    throw new InputError(`nested sampling resume: ${expectedFound('a checkpoint.path to resume from', undefined)}`);
+  }
   const record = options.resume === true && checkpointPath !== undefined ? readCheckpoint(checkpointPath, settings) : null;
   const evaluator = new BatchEvaluator(problem);
   let state: NestedState;
