@@ -1,6 +1,10 @@
 import type { LightProfile } from '../light/lightProfile.js';
+import type { MassProfile } from '../lens/massProfile.js';
 import { sersic } from '../light/sersic.js';
+import { isothermalEllipsoid } from '../lens/isothermalEllipsoid.js';
 import { fastSersic } from './fastSersic.js';
+import { fastIsothermalEllipsoid } from './fastIsothermalEllipsoid.js';
+
 
 /**
  * The profile the forward model evaluates in place of a light profile: the same function with
@@ -8,4 +12,9 @@ import { fastSersic } from './fastSersic.js';
  */
 export function fasterLightProfile(profile: LightProfile): LightProfile {
   return profile === sersic ? fastSersic : profile;
+}
+
+/** As fasterLightProfile for mass profiles (fastIsothermalEllipsoid for isothermalEllipsoid). */
+export function fasterMassProfile(profile: MassProfile): MassProfile {
+  return profile === isothermalEllipsoid ? fastIsothermalEllipsoid : profile;
 }

@@ -5,12 +5,12 @@ import { AdaptivePixelMeans, type MeanLightTerm } from './adaptivePixelMeans.js'
 import { PixelSubsetConvolver } from './pixelSubsetConvolver.js';
 import { separablePsf } from './separablePsf.js';
 import { trimPsfKernel } from './trimPsfKernel.js';
-import { fasterLightProfile } from './fasterProfiles.js';
+import { fasterLightProfile, fasterMassProfile } from './fasterProfiles.js';
 
 /** Default relative tolerance of the adaptive pixel means (see AdaptivePixelMeans). */
 export const FORWARD_MODEL_RELATIVE_TOLERANCE = 1e-5;
 /** Default fraction of the noise asked of the model when a noise map is given. */
-export const FORWARD_MODEL_NOISE_FRACTION = 0.003;
+export const FORWARD_MODEL_NOISE_FRACTION = 0.005;
 
 export interface ForwardModelOptions {
   /**
@@ -36,8 +36,8 @@ export interface ForwardModelOptions {
    * reach among the used pixels (e.g. the data's): the tolerance at a pixel becomes
    * noiseFraction * (least noise of the used pixels the PSF carries its light to) /
    * peakBrightness, relative to each basis peak. A component of peak <= peakBrightness then errs
-   * by at most about noiseFraction times the noise (default 0.003: a third of the 1% criterion
-   * of test/model/forwardAccuracy.test.ts).
+   * by about noiseFraction times the noise or less (default 0.005, half the 1% criterion of
+   * test/model/forwardAccuracy.test.ts; the estimates there are 4 to 7 times pessimistic).
    */
   readonly noise?: ArrayLike<number>;
   readonly peakBrightness?: number;
@@ -132,6 +132,7 @@ export class ForwardModel {
     this.basis = new Float64Array(this.amplitudeCount * this.pixelCount);
 
     const bound = bindLightTerms(system);
+    const massTerms = system.massTerms.map((term) => ({ profile: fasterMassProfile(term.profile), offset: term.offset }));
     const build = (terms: BoundLightTerm[], uniform: boolean): [AdaptivePixelMeans, Int32Array] => {
       const amplitudes: number[] = [];
       const meanTerms: MeanLightTerm[] = terms.map(({ term, imagePlane }) => {
@@ -140,7 +141,7 @@ export class ForwardModel {
         return { profile: fasterLightProfile(term.profile), offset: term.offset, firstBasis, imagePlane };
       });
       const means = new AdaptivePixelMeans(
-        grid, supersampling, this.computedPixels, system.massTerms, meanTerms, amplitudes.length, this.relativeTolerance,
+        grid, supersampling, this.computedPixels, massTerms, meanTerms, amplitudes.length, this.relativeTolerance,
         trimmed, uniform,
       );
       return [means, Int32Array.from(amplitudes)];

@@ -1,0 +1,32 @@
+/**
+ * arctan(x) by table lookup and a short series (the reduction of Gal & Bachelis 1991, ACM TOMS
+ * 17, 26): for |x| <= 1, c = j/64 the nearest table point, atan|x| = atan c + atan d with
+ * d = (|x| - c)/(1 + |x| c), |d| <= 1/128, and atan d = d - d^3/3 + d^5/5 - d^7/7 (truncation
+ * |d|^9/9 < 1.2e-20); for |x| > 1, atan|x| = pi/2 - atan(1/|x|). Error a few ulp (checked
+ * against Math.atan in test/model/fastElementary.test.ts); NaN stays NaN.
+ */
+export function fastAtan(x: number): number {
+  const magnitude = Math.abs(x);
+  const inverted = magnitude > 1;
+  const t = inverted ? 1 / magnitude : magnitude;
+  // Adding and removing 1.5 * 2^52 rounds to the nearest integer (in double arithmetic).
+  const jd = t * 64 + ROUNDING_SHIFT - ROUNDING_SHIFT;
+  const c = jd * (1 / 64);
+  const d = (t - c) / (1 + t * c);
+  const d2 = d * d;
+  const reduced = ATAN_TABLE[jd | 0] + d * (1 - d2 * (1 / 3 - d2 * (0.2 - d2 * (1 / 7))));
+  const angle = inverted ? HALF_PI_HIGH - reduced + HALF_PI_LOW : reduced;
+  return x < 0 ? -angle : angle;
+}
+
+/** artanh(z) = ln((1 + z)/(1 - z)) / 2 (Abramowitz & Stegun 1964, 4.6.22), with Math.log. */
+export function fastAtanh(z: number): number {
+  return 0.5 * Math.log((1 + z) / (1 - z));
+}
+
+const ROUNDING_SHIFT = 6755399441055744;
+/** atan(j/64), j = 0..64. */
+const ATAN_TABLE = Float64Array.from({ length: 65 }, (_, j) => Math.atan(j / 64));
+/** pi/2 as the double nearest it plus the remainder (fdlibm's pio2_hi, pio2_lo). */
+const HALF_PI_HIGH = 1.57079632679489655800e+00;
+const HALF_PI_LOW = 6.12323399573676603587e-17;
