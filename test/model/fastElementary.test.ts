@@ -2,6 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { fastExp } from '../../src/model/fastExp.js';
 import { fastSersic } from '../../src/model/fastSersic.js';
 import { sersic } from '../../src/light/sersic.js';
+import { fastAtan, fastAtanh } from '../../src/model/fastAtan.js';
+import { fastIsothermalEllipsoid } from '../../src/model/fastIsothermalEllipsoid.js';
+import { isothermalEllipsoid } from '../../src/lens/isothermalEllipsoid.js';
 
 /** A reproducible uniform generator (Park & Miller 1988 minimal standard), for sample points. */
 function uniformSequence(seed: number): () => number {
@@ -54,5 +57,50 @@ describe('fast elementary functions', () => {
       for (let k = 0; k < n; k++) if (a[k] > 1e-12 * peak) worst = Math.max(worst, Math.abs(a[k] - b[k]) / a[k]);
     }
     expect(worst).toBeLessThan(1e-13);
+  });
+
+  it('fastAtan agrees with Math.atan to 1e-15 relative, fastAtanh with Math.atanh to 1e-15 absolute', () => {
+    // Reference: Math.atan, Math.atanh (fdlibm ports, within 1 ulp). fastAtan: truncation
+    // 1.2e-20 plus roundings; fastAtanh = ln((1+z)/(1-z))/2 has an absolute error of a few
+    // 1e-16 (its relative error grows as z -> 0, which the deflection does not feel).
+    const next = uniformSequence(5);
+    let worstAtan = 0;
+    let worstAtanh = 0;
+    for (let k = 0; k < 200000; k++) {
+      const x = Math.tan((next() - 0.5) * 3.14159);
+      worstAtan = Math.max(worstAtan, Math.abs(fastAtan(x) - Math.atan(x)) / Math.max(Math.abs(Math.atan(x)), 1e-300));
+      const z = (2 * next() - 1) * 0.999;
+      worstAtanh = Math.max(worstAtanh, Math.abs(fastAtanh(z) - Math.atanh(z)));
+    }
+    expect(worstAtan).toBeLessThan(1e-15);
+    expect(worstAtanh).toBeLessThan(1e-15);
+    expect(fastAtan(0)).toBe(0);
+    expect(fastAtan(1)).toBeCloseTo(Math.PI / 4, 15);
+    expect(fastAtan(-1e300)).toBeCloseTo(-Math.PI / 2, 15);
+    expect(fastAtan(Number.NaN)).toBeNaN();
+  });
+
+  it('fastIsothermalEllipsoid deflects as the isothermal ellipsoid of src/lens to 1e-12 arcsec', () => {
+    // Reference: isothermalEllipsoid.ts (Math.atan, Math.atanh); bound stated in
+    // fastIsothermalEllipsoid.ts. Cases: the demo lens, a flat one with a core, a nearly round
+    // one (series branch) and one just outside the series branch (e^2 = 2e-6).
+    const next = uniformSequence(3);
+    const n = 20000;
+    const x = new Float64Array(n), y = new Float64Array(n);
+    for (let k = 0; k < n; k++) {
+      x[k] = (next() - 0.5) * 6;
+      y[k] = (next() - 0.5) * 6;
+    }
+    let worst = 0;
+    for (const parameters of [
+      [1.18, 0.82, 32, 0.02, -0.015, 0], [0.8, 0.3, 100, -0.1, 0.2, 0.05], [1.5, 1 - 1e-8, 0, 0, 0, 0], [1, Math.sqrt(1 - 2e-6), 45, 0, 0, 0],
+    ]) {
+      const p = Float64Array.from(parameters);
+      const ax = new Float64Array(n), ay = new Float64Array(n), bx = new Float64Array(n), by = new Float64Array(n);
+      isothermalEllipsoid.addDeflection(p, 0, x, y, n, ax, ay);
+      fastIsothermalEllipsoid.addDeflection(p, 0, x, y, n, bx, by);
+      for (let k = 0; k < n; k++) worst = Math.max(worst, Math.abs(ax[k] - bx[k]), Math.abs(ay[k] - by[k]));
+    }
+    expect(worst).toBeLessThan(1e-12);
   });
 });
