@@ -17,9 +17,9 @@ export interface MeanLightTerm {
 /** Rays are traced in batches of this many (a multiple of every S^2 up to S = 64). */
 const CHUNK = 4096;
 /** Weight of the lower-order correction in the lattice error indicator (see evaluate). */
-const LATTICE_GUARD = 0.1;
+const LATTICE_GUARD = 0.05;
 /** Weight of the Richardson correction in the indicator of the intermediate levels. */
-const RICHARDSON_GUARD = 0.1;
+const RICHARDSON_GUARD = 0;
 /** Largest change of the light at a predicted position, in tolerances, that lets a pixel use interpolated rays. */
 const INTERPOLATION_GUARD = 5;
 
@@ -487,28 +487,20 @@ export class AdaptivePixelMeans {
     const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
     // Along x for the five lattice rows: rowX[b * m + a] at sub-column a.
     for (let b = 0; b < 5; b++) {
-      const centre = q + (b - 2) * width;
-      for (let a = 0; a < m; a++) {
-        const w = 5 * a;
-        let sx = 0, sy = 0;
-        for (let k = 0; k < 5; k++) {
-          sx += weights[w + k] * betaX[centre + k - 2];
-          sy += weights[w + k] * betaY[centre + k - 2];
-        }
-        rowX[b * m + a] = sx;
-        rowY[b * m + a] = sy;
+      const c = q + (b - 2) * width;
+      const x0 = betaX[c - 2], x1 = betaX[c - 1], x2 = betaX[c], x3 = betaX[c + 1], x4 = betaX[c + 2];
+      const y0 = betaY[c - 2], y1 = betaY[c - 1], y2 = betaY[c], y3 = betaY[c + 1], y4 = betaY[c + 2];
+      for (let a = 0, w = 0; a < m; a++, w += 5) {
+        const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
+        rowX[b * m + a] = w0 * x0 + w1 * x1 + w2 * x2 + w3 * x3 + w4 * x4;
+        rowY[b * m + a] = w0 * y0 + w1 * y1 + w2 * y2 + w3 * y3 + w4 * y4;
       }
     }
-    for (let c = 0; c < m; c++) {
-      const w = 5 * c;
+    for (let c = 0, w = 0; c < m; c++, w += 5) {
+      const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
       for (let a = 0; a < m; a++) {
-        let sx = 0, sy = 0;
-        for (let b = 0; b < 5; b++) {
-          sx += weights[w + b] * rowX[b * m + a];
-          sy += weights[w + b] * rowY[b * m + a];
-        }
-        bx[r] = sx;
-        by[r] = sy;
+        bx[r] = w0 * rowX[a] + w1 * rowX[m + a] + w2 * rowX[2 * m + a] + w3 * rowX[3 * m + a] + w4 * rowX[4 * m + a];
+        by[r] = w0 * rowY[a] + w1 * rowY[m + a] + w2 * rowY[2 * m + a] + w3 * rowY[3 * m + a] + w4 * rowY[4 * m + a];
         r++;
       }
     }
