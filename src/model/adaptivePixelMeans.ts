@@ -17,9 +17,9 @@ export interface MeanLightTerm {
 /** Rays are traced in batches of this many (a multiple of every S^2 up to S = 64). */
 const CHUNK = 4096;
 /** Weight of the lower-order correction in the lattice error indicator (see evaluate). */
-const LATTICE_GUARD = 0.05;
+const LATTICE_GUARD = 0.1;
 /** Weight of the Richardson correction in the indicator of the intermediate levels. */
-const RICHARDSON_GUARD = 0;
+const RICHARDSON_GUARD = 0.1;
 /** Largest change of the light at a predicted position, in tolerances, that lets a pixel use interpolated rays. */
 const INTERPOLATION_GUARD = 5;
 
