@@ -565,7 +565,8 @@ export class AdaptivePixelMeans {
     if (!this.hasSource) return;
     ax.fill(0, 0, n);
     ay.fill(0, 0, n);
-    for (const term of this.massTerms) term.profile.addDeflection(p, term.offset, x, y, n, ax, ay);
+    const massTerms = this.massTerms;
+    for (let t = 0; t < massTerms.length; t++) massTerms[t].profile.addDeflection(p, massTerms[t].offset, x, y, n, ax, ay);
     for (let i = 0; i < n; i++) {
       bx[i] = x[i] - ax[i];
       by[i] = y[i] - ay[i];
@@ -577,7 +578,9 @@ export class AdaptivePixelMeans {
     p: Float64Array, x: Float64Array, y: Float64Array, bx: Float64Array, by: Float64Array, n: number,
     out: Float64Array, stride: number,
   ): void {
-    for (const term of this.lightTerms) {
+    const lightTerms = this.lightTerms;
+    for (let t = 0; t < lightTerms.length; t++) {
+      const term = lightTerms[t];
       const px = term.imagePlane ? x : bx;
       const py = term.imagePlane ? y : by;
       term.profile.writeBasis(p, term.offset, px, py, n, out, term.firstBasis * stride, stride);
