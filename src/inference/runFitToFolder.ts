@@ -1,0 +1,152 @@
+import { join } from 'node:path';
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import type { ObservedData } from '../data/observedData.js';
+import { InputError, expectedFound } from '../errors.js';
+import { writeJsonAtomic } from '../io/writeFileAtomic.js';
+import { packageVersion } from '../model/packageVersion.js';
+import type { PriorDescription } from '../sampling/parameterSpace.js';
+import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
+import { configHash, priorCaution } from './runComparisonToFolder.js';
+import { runModelEnsemble, type EnsembleFitSettings, type ModelEnsemble } from './runModelEnsemble.js';
+import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
+import { writeEnsembleOutputs, type EnsembleRecord } from './writeEnsembleOutputs.js';
+import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
+
+/** How one model is fitted: nested sampling (evidence and posterior) or ensemble MCMC (posterior only). */
+export type FitSettings =
+  | {
+    readonly sampler: 'nested';
+    /** How many of the config's perturbers the model holds (default: all; 0 = smooth). */
+    readonly perturberCount?: number;
+    readonly nested: EvidenceSettings;
+  }
+  | {
+    readonly sampler: 'ensemble';
+    readonly perturberCount?: number;
+    readonly ensemble: EnsembleFitSettings;
+  };
+
+/** What every fit summary holds, whichever the sampler. */
+interface FitSummaryBase {
+  readonly arcsiftVersion: string;
+  readonly kind: 'fit';
+  readonly config: string;
+  readonly configSha256: string;
+  readonly data: ObservedData['files'];
+  readonly dataNotices: readonly string[];
+  readonly seed: number;
+  readonly perturberCount: number;
+  readonly settings: Record<string, unknown>;
+  readonly runSeconds: number;
+  /** The priors of every parameter (fixed ones included): every posterior and ln Z depends on them. */
+  readonly priors: readonly PriorDescription[];
+  readonly amplitudePrior: string;
+  readonly caution: string;
+}
+
+/** The summary.json of a nested-sampling fit. */
+export interface NestedFitSummary extends FitSummaryBase {
+  readonly sampler: 'nested';
+  readonly evidence: { readonly lnEvidence: number; readonly lnEvidenceError: number; readonly lnEvidenceErrorSimulated: number };
+  readonly model: ModelRecord;
+  readonly perturbers: readonly PerturberSummary[];
+}
+
+/** The summary.json of an ensemble-MCMC fit (no evidence). */
+export interface EnsembleFitSummary extends FitSummaryBase {
+  readonly sampler: 'ensemble';
+  readonly model: EnsembleRecord;
+}
+
+export type FitSummary = NestedFitSummary | EnsembleFitSummary;
+
+export type FitOutcome =
+  | { readonly sampler: 'nested'; readonly summary: NestedFitSummary; readonly run: ModelEvidence }
+  | { readonly sampler: 'ensemble'; readonly summary: EnsembleFitSummary; readonly run: ModelEnsemble };
+
+/** The checkpoint of a fit in `folder` (either sampler). */
+export function fitCheckpointPath(folder: string): string {
+  return join(folder, 'checkpoint.json');
+}
+
+/** The amplitude prior in words, as every summary states it. */
+export function amplitudePriorText(config: ArcsiftConfig): string {
+  return `every linear light amplitude ~ Normal(0, ${config.amplitudePriorSigma}^2), counts/s/arcsec^2 (marginalised analytically)`;
+}
+
+/** The number of perturbers a fit holds: all of the config's by default; more than it lists is a user mistake. */
+export function fitPerturberCount(config: ArcsiftConfig, requested?: number): number {
+  const available = config.perturbers.length;
+  if (requested === undefined) return available;
+  if (!Number.isInteger(requested) || requested < 0) {
+    throw new InputError(`the number of perturbers to fit: ${expectedFound('a whole number >= 0', requested)}`, { file: config.file, key: 'perturbers' });
+  }
+  if (requested > available) {
+    throw new InputError(
+      `the number of perturbers to fit: ${expectedFound(`at most ${available}, the number listed under perturbers`, requested)}`,
+      { file: config.file, key: 'perturbers' },
+    );
+  }
+  return requested;
+}
+
+/** Settings as JSON: callbacks and stop signals left out. */
+function plainSettings(settings: EvidenceSettings | EnsembleFitSettings): Record<string, unknown> {
+  const { onProgress: _progress, signal: _signal, ...plain } = settings;
+  return plain;
+}
+
+/**
+ * Fits one model (the config's first perturberCount perturbers) and writes everything into
+ * `folder`: with nested sampling the weighted and equal-weight samples, with ensemble MCMC the
+ * chain after burn-in (chain.csv); corner-plot data, best-fit model and residual images, a
+ * checkpoint (checkpoint.json), and summary.json last, so a summary exists only for a finished run.
+ */
+export async function runFitToFolder(
+  config: ArcsiftConfig, data: ObservedData, folder: string, settings: FitSettings,
+): Promise<FitOutcome> {
+  const started = performance.now();
+  const perturberCount = fitPerturberCount(config, settings.perturberCount);
+  const checkpointPath = fitCheckpointPath(folder);
+  const common = {
+    arcsiftVersion: packageVersion(),
+    kind: 'fit' as const,
+    config: config.file,
+    configSha256: configHash(config),
+    data: data.files,
+    dataNotices: data.notices,
+    perturberCount,
+    amplitudePrior: amplitudePriorText(config),
+    caution: priorCaution,
+  };
+  if (settings.sampler === 'nested') {
+    const run = await runModelEvidence(config, data, perturberCount, { ...settings.nested, checkpointPath });
+    const model = writeModelOutputs(run, config, data, folder, settings.nested.seed);
+    const summary: NestedFitSummary = {
+      ...common,
+      sampler: 'nested',
+      seed: settings.nested.seed,
+      settings: { ...plainSettings(settings.nested), checkpointPath },
+      runSeconds: (performance.now() - started) / 1000,
+      priors: run.space.describe(),
+      evidence: { lnEvidence: model.lnEvidence, lnEvidenceError: model.lnEvidenceError, lnEvidenceErrorSimulated: model.lnEvidenceErrorSimulated },
+      model,
+      perturbers: summarisePerturbers(run),
+    };
+    writeJsonAtomic(join(folder, 'summary.json'), summary);
+    return { sampler: 'nested', summary, run };
+  }
+  const run = await runModelEnsemble(config, data, perturberCount, { ...settings.ensemble, checkpointPath });
+  const model = writeEnsembleOutputs(run, config, data, folder);
+  const summary: EnsembleFitSummary = {
+    ...common,
+    sampler: 'ensemble',
+    seed: settings.ensemble.seed,
+    settings: { ...plainSettings(settings.ensemble), walkers: run.result.walkers, checkpointPath },
+    runSeconds: (performance.now() - started) / 1000,
+    priors: run.space.describe(),
+    model,
+  };
+  writeJsonAtomic(join(folder, 'summary.json'), summary);
+  return { sampler: 'ensemble', summary, run };
+}

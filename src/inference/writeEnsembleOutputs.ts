@@ -1,0 +1,169 @@
+import { join } from 'node:path';
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import type { ObservedData } from '../data/observedData.js';
+import { writeJsonAtomic } from '../io/writeFileAtomic.js';
+import { cornerData, parameterColumn, parameterSummary, writeEqualWeightSamplesCsv } from '../results/index.js';
+import type { ModelEnsemble } from './runModelEnsemble.js';
+import type { ModelRecord } from './writeModelOutputs.js';
+import { writeFitImages } from './writeFitImages.js';
+
+/** R-hat above which a parameter's chains are called unmixed (Vehtari et al. 2021, sec. 4). */
+export const rHatLimit = 1.01;
+/** Length of the chain after burn-in, in autocorrelation times, below which tau itself is unreliable (common practice for ensemble samplers). */
+export const reliableChainLengthInTau = 50;
+
+/** Convergence diagnostics of one free parameter; null where the chain was too short to compute one. */
+export interface EnsembleParameterDiagnostics {
+  readonly name: string;
+  readonly unit: string;
+  /** Integrated autocorrelation time, in iterations. */
+  readonly autocorrelationTime: number | null;
+  /** Rank-normalised split R-hat, walkers as chains. */
+  readonly rHat: number | null;
+  readonly bulkEffectiveSampleSize: number | null;
+  readonly tailEffectiveSampleSize: number | null;
+}
+
+/** What a summary says of one model's ensemble run. */
+export interface EnsembleRecord {
+  readonly label: string;
+  readonly start: string;
+  readonly walkers: number;
+  /** Iterations run (each moves every walker once). */
+  readonly iterations: number;
+  readonly storedSteps: number;
+  readonly thin: number;
+  /** Stored steps left out as burn-in, before chain.csv and every diagnostic. */
+  readonly burnInSteps: number;
+  /** Rows of chain.csv: retained steps times walkers. */
+  readonly retainedSamples: number;
+  readonly evaluations: number;
+  readonly nonFiniteProposals: number;
+  /** True when the autocorrelation stopping rule was met before the step limit. */
+  readonly converged: boolean;
+  readonly stopped: boolean;
+  readonly acceptanceFraction: { readonly mean: number; readonly min: number };
+  /** False when some autocorrelation time came from a series too short for Sokal's window rule. */
+  readonly autocorrelationReliable: boolean;
+  /** Retained iterations over the largest autocorrelation time. */
+  readonly chainLengthInAutocorrelationTimes: number | null;
+  readonly maxRHat: number | null;
+  readonly diagnostics: readonly EnsembleParameterDiagnostics[];
+  /** Reasons not to trust the chain yet (R-hat, chain length); empty when none. */
+  readonly warnings: readonly string[];
+  readonly bestLnLikelihood: number;
+  readonly bestFit: Record<string, number>;
+  readonly bestFitAmplitudes: Record<string, number>;
+  readonly seconds: number;
+  readonly threads: number;
+  readonly parameters: ModelRecord['parameters'];
+  readonly files: Record<string, string>;
+}
+
+const finiteOrNull = (v: number): number | null => (Number.isFinite(v) ? v : null);
+
+/**
+ * Writes one model's ensemble chain after burn-in (chain.csv: every walker's retained positions,
+ * flattened, in the equal-weight samples format with ln L), its corner-plot data over the free
+ * parameters, and the images of its highest-ln L retained sample into `folder`; returns its record.
+ */
+export function writeEnsembleOutputs(
+  ensemble: ModelEnsemble, config: ArcsiftConfig, data: ObservedData, folder: string,
+): EnsembleRecord {
+  const { result, space, system } = ensemble;
+  const { walkers, dim } = result;
+  const width = space.physicalDim;
+  const units = system.parameters.map((p) => p.unit);
+  const freeIndices = Array.from(space.freeIndices);
+  const freeUnits = freeIndices.map((i) => units[i]);
+  const count = (result.steps - result.retainedFrom) * walkers;
+  const free = result.chain.subarray(result.retainedFrom * walkers * dim);
+  const physical = new Float64Array(count * width);
+  const lnLikelihood = new Float64Array(count);
+  let best = 0;
+  for (let r = 0; r < count; r++) {
+    space.toPhysical(free, physical, r * dim, r * width);
+    lnLikelihood[r] = result.logPosterior[result.retainedFrom * walkers + r] - space.logPrior(physical, r * width);
+    if (lnLikelihood[r] > lnLikelihood[best]) best = r;
+  }
+  const files: Record<string, string> = {};
+  files.chain = join(folder, 'chain.csv');
+  writeEqualWeightSamplesCsv(files.chain, { names: space.names, units, points: physical, lnLikelihood });
+  const weights = new Float64Array(count).fill(1);
+  files.cornerData = join(folder, 'corner.json');
+  writeJsonAtomic(files.cornerData, cornerData(space.freeNames, freeUnits, free, weights));
+
+  const bestVector = physical.slice(best * width, (best + 1) * width);
+  const images = writeFitImages(config, data, ensemble.perturberCount, bestVector, `${ensemble.label} model (highest ln L sample after burn-in)`, folder);
+  Object.assign(files, images.files);
+  const bestFit: Record<string, number> = {};
+  space.names.forEach((name, i) => { bestFit[name] = bestVector[i]; });
+
+  const diagnostics = space.freeNames.map((name, k): EnsembleParameterDiagnostics => ({
+    name,
+    unit: freeUnits[k],
+    autocorrelationTime: finiteOrNull(result.autocorrelationTime[k]),
+    rHat: finiteOrNull(result.rHat[k]),
+    bulkEffectiveSampleSize: finiteOrNull(result.effectiveSampleSize[k]),
+    tailEffectiveSampleSize: finiteOrNull(result.tailEffectiveSampleSize[k]),
+  }));
+  const tauMax = Math.max(...result.autocorrelationTime);
+  const lengthInTau = finiteOrNull(((result.steps - result.retainedFrom) * result.thin) / tauMax);
+  const maxRHat = finiteOrNull(Math.max(...result.rHat));
+  return {
+    label: ensemble.label,
+    start: ensemble.start,
+    walkers,
+    iterations: result.iterations,
+    storedSteps: result.steps,
+    thin: result.thin,
+    burnInSteps: result.retainedFrom,
+    retainedSamples: count,
+    evaluations: result.evaluations,
+    nonFiniteProposals: result.nonFiniteProposals,
+    converged: result.converged,
+    stopped: result.stopped,
+    acceptanceFraction: { mean: mean(result.acceptanceFraction), min: Math.min(...result.acceptanceFraction) },
+    autocorrelationReliable: result.autocorrelationReliable,
+    chainLengthInAutocorrelationTimes: lengthInTau,
+    maxRHat,
+    diagnostics,
+    warnings: chainWarnings(diagnostics, lengthInTau, result.autocorrelationReliable),
+    bestLnLikelihood: lnLikelihood[best],
+    bestFit,
+    bestFitAmplitudes: images.amplitudes,
+    seconds: ensemble.seconds,
+    threads: ensemble.threads,
+    parameters: space.freeNames.map((name, k) => {
+      const s = parameterSummary(parameterColumn(free, dim, k), weights);
+      return {
+        name, unit: freeUnits[k], median: s.median,
+        interval68: [s.interval68.lower, s.interval68.upper] as const,
+        interval95: [s.interval95.lower, s.interval95.upper] as const,
+      };
+    }),
+    files,
+  };
+}
+
+/** The reasons, in words, not to trust a chain yet. */
+function chainWarnings(
+  diagnostics: readonly EnsembleParameterDiagnostics[], lengthInTau: number | null, reliable: boolean,
+): string[] {
+  const warnings: string[] = [];
+  const unmixed = diagnostics.filter((d) => d.rHat === null || d.rHat > rHatLimit);
+  if (unmixed.length > 0) {
+    warnings.push(`R-hat above ${rHatLimit} (or not computable) for ${unmixed.map((d) => `${d.name} (${d.rHat === null ? 'n/a' : d.rHat.toFixed(3)})`).join(', ')}: the walkers have not mixed; run longer`);
+  }
+  if (lengthInTau === null || lengthInTau < reliableChainLengthInTau || !reliable) {
+    const length = lengthInTau === null ? 'an unknown number of' : lengthInTau.toFixed(1);
+    warnings.push(`the chain after burn-in is ${length} autocorrelation times long, fewer than ${reliableChainLengthInTau}: tau and the intervals are not yet reliable; run longer (--steps) or resume`);
+  }
+  return warnings;
+}
+
+function mean(values: Float64Array): number {
+  let sum = 0;
+  for (let i = 0; i < values.length; i++) sum += values[i];
+  return sum / values.length;
+}
