@@ -2,6 +2,7 @@ import type { CommandModule } from 'yargs';
 import { simulateCommand } from './simulateCommand.js';
 import { demoCommand } from './demoCommand.js';
 import { compareCommand } from './compareCommand.js';
+import { fitCommand } from './fitCommand.js';
 
 /** Every `arcsift` command, in the order `--help` lists them. */
-export const commands: CommandModule<object, any>[] = [simulateCommand, compareCommand, demoCommand];
+export const commands: CommandModule<object, any>[] = [simulateCommand, fitCommand, compareCommand, demoCommand];
