@@ -1,0 +1,207 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { loadConfig } from '../../src/config/arcsiftConfig.js';
+import { loadObservedData, type ObservedData } from '../../src/data/index.js';
+import { InputError } from '../../src/errors.js';
+import { readFitsImage } from '../../src/fits/index.js';
+import { ballAroundConfiguredValues } from '../../src/inference/ensembleStart.js';
+import { modelParameterSpace } from '../../src/inference/modelParameterSpace.js';
+import { readSamplesTable } from '../../src/inference/readSamplesTable.js';
+import { runFitToFolder, type EnsembleFitSummary, type NestedFitSummary } from '../../src/inference/runFitToFolder.js';
+import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';
+import { buildLensSystem } from '../../src/model/lensSystem.js';
+import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { weightedQuantiles } from '../../src/results/index.js';
+
+// `fit` on a mock made by `simulate` from an invented small scenario (test/fixtures/inference/
+// small-lens.yaml) with its perturber removed, so the smooth model is the one that made the data.
+// The reference for the posterior is the truth the mock was made from: a sound fit puts each true
+// value inside the central 99.7% of its marginal posterior (common practice for simulation-based
+// checks; 99.7% rather than 95% because the chain is short and its tails noisy).
+const configPath = fileURLToPath(new URL('../fixtures/inference/small-lens.yaml', import.meta.url));
+const mainScript = fileURLToPath(new URL('../../dist/cli/main.js', import.meta.url));
+const config = loadConfig(configPath);
+const smoothTruth = { ...config, perturbers: [] };
+
+function arcsift(args: string[]): { status: number | null; stdout: string; stderr: string } {
+  const run = spawnSync(process.execPath, [mainScript, ...args], { encoding: 'utf8', timeout: 120_000 });
+  return { status: run.status, stdout: run.stdout, stderr: run.stderr };
+}
+
+describe('ballAroundConfiguredValues', () => {
+  const system = buildLensSystem(config, { perturberCount: 0 });
+  const space = modelParameterSpace(system);
+  const without = (name: string, value: number | undefined) => ({
+    ...system, parameters: system.parameters.map((p) => (p.name === name ? { ...p, value } : p)),
+  });
+
+  it('centres on the config values, or on the prior median where none is given, with 1e-3 of the prior width', () => {
+    const radius = 'source.light[0].effectiveRadiusArcsec';
+    const start = ballAroundConfiguredValues(without(radius, undefined), space);
+    if (!('ball' in start)) throw new Error('expected a ball');
+    const k = space.freeNames.indexOf(radius);
+    // Median of log-uniform [0.05, 0.8] is the geometric mean sqrt(0.05 * 0.8) = 0.2 (elementary).
+    expect(start.ball.center[k]).toBeCloseTo(0.2, 12);
+    expect(start.ball.scale[k]).toBeCloseTo(1e-3 * (0.8 - 0.05), 15);
+    const einstein = space.freeNames.indexOf('lens.mass[0].einsteinRadiusArcsec');
+    expect(start.ball.center[einstein]).toBe(1.1);
+    expect(start.ball.scale[einstein]).toBeCloseTo(1e-3 * (1.3 - 0.9), 15);
+  });
+
+  it('names the key of a value outside its prior', () => {
+    const key = 'lens.mass[0].axisRatio';
+    expect(() => ballAroundConfiguredValues(without(key, 1.2), space)).toThrow(InputError);
+    expect(() => ballAroundConfiguredValues(without(key, 1.2), space)).toThrow(`key ${key}`);
+  });
+});
+
+describe('runFitToFolder with the ensemble sampler', () => {
+  const out = mkdtempSync(join(tmpdir(), 'arcsift-fit-'));
+  const dataDir = join(out, 'data');
+  const fitDir = join(out, 'ensemble');
+  let data: ObservedData;
+  let summary: EnsembleFitSummary;
+
+  beforeAll(async () => {
+    simulateToFolder(smoothTruth, dataDir, { seed: 7, noiseless: false });
+    data = loadObservedData({ folder: dataDir }, {});
+    const outcome = await runFitToFolder(config, data, fitDir, {
+      sampler: 'ensemble',
+      perturberCount: 0,
+      ensemble: { seed: 3, threads: 2, maxSteps: 400, targetAutocorrelationTimes: 50, move: 'differentialEvolution' },
+    });
+    summary = outcome.summary as EnsembleFitSummary;
+  }, 120_000);
+
+  it('writes a summary with the chain diagnostics and the priors', () => {
+    const written = JSON.parse(readFileSync(join(fitDir, 'summary.json'), 'utf8')) as EnsembleFitSummary;
+    expect(written.kind).toBe('fit');
+    expect(written.sampler).toBe('ensemble');
+    expect(written.configSha256).toMatch(/^[0-9a-f]{64}$/);
+    const m = written.model;
+    expect(m.walkers).toBe(12); // max(4, 2 x 5 free + 2)
+    expect(m.iterations).toBe(400);
+    expect(m.evaluations).toBeGreaterThanOrEqual(12 * 401); // the start plus one proposal per walker per iteration
+    expect(typeof m.converged).toBe('boolean');
+    expect(m.acceptanceFraction.mean).toBeGreaterThan(0);
+    expect(m.acceptanceFraction.mean).toBeLessThanOrEqual(1);
+    expect(m.acceptanceFraction.min).toBeLessThanOrEqual(m.acceptanceFraction.mean);
+    expect(m.diagnostics.map((d) => d.name)).toEqual(modelParameterSpace(buildLensSystem(config, { perturberCount: 0 })).freeNames);
+    for (const d of m.diagnostics) {
+      expect(d.autocorrelationTime, d.name).toBeGreaterThan(1);
+      expect(d.rHat, d.name).toBeGreaterThan(0.9);
+      expect(d.bulkEffectiveSampleSize, d.name).toBeGreaterThan(0);
+      expect(d.tailEffectiveSampleSize, d.name).toBeGreaterThan(0);
+    }
+    // The warnings must agree with the numbers they are about.
+    const short = (m.chainLengthInAutocorrelationTimes ?? 0) < 50;
+    expect(m.warnings.some((w) => w.includes('autocorrelation times long'))).toBe(short);
+    expect(m.warnings.some((w) => w.includes('R-hat'))).toBe((m.maxRHat ?? Infinity) > 1.01);
+    expect(written.priors.filter((p) => !p.fixed)).toHaveLength(5);
+    expect(written.caution.length).toBeGreaterThan(0);
+  });
+
+  it('brackets the truth of every free smooth parameter within the central 99.7% of its posterior', () => {
+    const truth = buildLensSystem(smoothTruth).configuredValues();
+    const table = readSamplesTable(join(fitDir, 'chain.csv'));
+    const weights = new Float64Array(table.count).fill(1);
+    for (const p of summary.model.parameters) {
+      const index = table.names.indexOf(p.name);
+      const column = Float64Array.from({ length: table.count }, (_, r) => table.points[r * table.names.length + index]);
+      const [lower, upper] = weightedQuantiles(column, weights, [0.0015, 0.9985]);
+      expect(truth[index], `${p.name}: 99.7% [${lower}, ${upper}]`).toBeGreaterThanOrEqual(lower);
+      expect(truth[index], `${p.name}: 99.7% [${lower}, ${upper}]`).toBeLessThanOrEqual(upper);
+    }
+  });
+
+  it('writes the chain after burn-in with ln L matching the pixel likelihood', () => {
+    const table = readSamplesTable(join(fitDir, 'chain.csv'));
+    const m = summary.model;
+    expect(table.count).toBe(m.retainedSamples);
+    expect(table.count).toBe((m.storedSteps - m.burnInSteps) * m.walkers);
+    expect(table.names).toEqual(buildLensSystem(config, { perturberCount: 0 }).parameters.map((p) => p.name));
+    const lnL = table.lnLikelihood!;
+    expect(Math.max(...lnL)).toBe(m.bestLnLikelihood);
+    // ln L = ln posterior - ln prior from the sampler must equal a direct evaluation up to the
+    // rounding of that subtraction (a few ulps of |ln L| ~ 3.6e3, so 1e-9 absolute is generous).
+    const likelihood = new PixelLikelihood(config, data, 0);
+    const width = table.names.length;
+    for (const row of [0, table.count - 1]) {
+      const direct = likelihood.logLikelihood(table.points.slice(row * width, (row + 1) * width));
+      expect(Math.abs(direct - lnL[row])).toBeLessThan(1e-9);
+    }
+    const corner = JSON.parse(readFileSync(join(fitDir, 'corner.json'), 'utf8')) as { parameters: { name: string }[]; pairs: unknown[] };
+    expect(corner.parameters.map((p) => p.name)).toEqual(m.parameters.map((p) => p.name));
+    expect(corner.pairs).toHaveLength(10); // 5 x 4 / 2
+  });
+
+  it('writes model and residual images that add up to the data inside the mask', () => {
+    const model = readFitsImage(join(fitDir, 'best-fit-model.fits'));
+    const residual = readFitsImage(join(fitDir, 'residual.fits'));
+    const normalised = readFitsImage(join(fitDir, 'normalised-residual.fits'));
+    expect([model.nx, model.ny]).toEqual([48, 48]);
+    for (let p = 0; p < model.data.length; p++) {
+      if (data.mask[p] === 0) {
+        expect(residual.data[p]).toBe(0);
+      } else {
+        // Data = model + residual to double rounding (values ~1 counts/s, so 1e-12 is ~1e4 ulps).
+        expect(Math.abs(model.data[p] + residual.data[p] - data.image[p])).toBeLessThan(1e-12);
+        expect(Math.abs(normalised.data[p] - residual.data[p] / data.noise[p])).toBeLessThan(1e-12);
+      }
+    }
+  });
+
+  it('starts a CLI ensemble run from the chain, and refuses a chain of another model', () => {
+    const chain = join(fitDir, 'chain.csv');
+    const common = ['fit', '--config', configPath, '--data', dataDir, '--sampler', 'ensemble', '--threads', '2', '--quiet'];
+    const ok = arcsift([...common, '--perturbers', '0', '--steps', '20', '--start-from', chain, '--out', join(out, 'restart')]);
+    expect(ok.status, ok.stderr).toBe(0);
+    const restarted = JSON.parse(readFileSync(join(out, 'restart', 'summary.json'), 'utf8')) as EnsembleFitSummary;
+    expect(restarted.model.start).toContain('chain.csv');
+    const wrong = arcsift([...common, '--perturbers', '1', '--steps', '20', '--start-from', chain, '--out', join(out, 'wrong')]);
+    expect(wrong.status).toBe(2);
+    expect(wrong.stderr).toContain('another model');
+    expect(existsSync(join(out, 'wrong', 'summary.json'))).toBe(false);
+  });
+});
+
+describe('arcsift fit on the command line', () => {
+  const out = mkdtempSync(join(tmpdir(), 'arcsift-fit-cli-'));
+  const dataDir = join(out, 'data');
+  beforeAll(() => {
+    simulateToFolder(smoothTruth, dataDir, { seed: 8, noiseless: false });
+  });
+
+  it('exits with status 2 naming the key when --perturbers exceeds the config', () => {
+    const run = arcsift(['fit', '--config', configPath, '--data', dataDir, '--perturbers', '5', '--out', join(out, 'five')]);
+    expect(run.status).toBe(2);
+    expect(run.stderr).toContain('key perturbers');
+    expect(run.stderr).toContain('found 5');
+    expect(run.stderr).not.toContain('    at '); // no stack trace
+  });
+
+  it('runs a short nested fit and writes ln Z with its priors', () => {
+    const folder = join(out, 'nested');
+    const run = arcsift(['fit', '--config', configPath, '--data', dataDir, '--perturbers', '0', '--live-points', '20',
+      '--max-evaluations', '3000', '--threads', '2', '--quiet', '--out', folder]);
+    expect(run.status, run.stderr).toBe(0);
+    const summary = JSON.parse(readFileSync(join(folder, 'summary.json'), 'utf8')) as NestedFitSummary;
+    expect(summary.kind).toBe('fit');
+    expect(summary.sampler).toBe('nested');
+    expect(Number.isFinite(summary.evidence.lnEvidence)).toBe(true);
+    expect(summary.evidence.lnEvidenceError).toBeGreaterThan(0);
+    expect(summary.priors).toHaveLength(12);
+    expect(summary.priors.filter((p) => !p.fixed).map((p) => p.kind)).toEqual(['uniform', 'uniform', 'logUniform', 'uniform', 'uniform']);
+    expect(summary.perturbers).toEqual([]);
+    for (const file of ['samples.csv', 'equal-weight-samples.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
+      expect(existsSync(join(folder, file)), file).toBe(true);
+    }
+    expect(run.stdout).toContain('ln Z = ');
+    expect(run.stdout).toContain('Priors behind this ln Z');
+    expect(run.stdout).toContain('lens.mass[0].einsteinRadiusArcsec: uniform [0.9, 1.3]');
+  });
+});
