@@ -30,7 +30,7 @@ export async function run(_args: string[]): Promise<void> {
         msPerCall: Number(ms.toFixed(4)),
         cpuMsPerCall: Number(cpuMs.toFixed(4)),
         oneThread: true,
-        repeats: 7,
+        repeats: 25,
         callsPerRepeat,
         supersampling: observation.supersampling,
         usedPixels: data.usedPixels.length,

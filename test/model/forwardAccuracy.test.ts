@@ -145,4 +145,32 @@ describe('fast forward model against the brute-force model (supersampling 8 ever
     const fast = Float64Array.from(forward.image(model, simulation.amplitudes, out));
     expect(worstOverNoise(simulation, fast, referenceImage(simulation, model, BENCH_SUPERSAMPLING))).toBeLessThan(0.01);
   });
+
+  it('demo at six random draws from its priors (amplitudes held at the truth)', () => {
+    // Draws cover the prior box: Sersic index 0.5-4, R_e 0.03-0.6 arcsec, subhalo anywhere in
+    // the field, 1e7-1e11 Msun. With the amplitudes at the truth a draw can be three times
+    // brighter than the data the tolerance was set from, so this is harsher than a fit, where
+    // the amplitudes follow the data.
+    const simulation = simulations.get('demo')!;
+    const forward = fitForwardModel(simulation);
+    const out = new Float64Array(forward.pixelCount);
+    let state = 20240601;
+    const next = (): number => {
+      state = (state * 16807) % 2147483647;
+      return state / 2147483647;
+    };
+    for (let draw = 0; draw < 6; draw++) {
+      const model = Float64Array.from(simulation.truthVector);
+      simulation.system.parameters.forEach((parameter, index) => {
+        const prior = parameter.prior;
+        if (prior === undefined) return;
+        const u = next();
+        if (prior.kind === 'uniform' || prior.kind === 'periodic') model[index] = prior.lower + (prior.upper - prior.lower) * u;
+        else if (prior.kind === 'logUniform') model[index] = prior.lower * Math.pow(prior.upper / prior.lower, u);
+        else if (prior.kind === 'normal') model[index] = prior.mean + prior.sigma * (2 * u - 1);
+      });
+      const fast = forward.image(model, simulation.amplitudes, out);
+      expect(worstOverNoise(simulation, fast, referenceImage(simulation, model, BENCH_SUPERSAMPLING))).toBeLessThan(0.01);
+    }
+  });
 });
