@@ -21,3 +21,5 @@ export { modelParameterSpace } from './inference/modelParameterSpace.js';
 export { runModelEvidence, type ModelEvidence, type EvidenceSettings } from './inference/runModelEvidence.js';
 export { compareModels, type Comparison } from './inference/compareModels.js';
 export { runComparisonToFolder, type ComparisonSummary } from './inference/runComparisonToFolder.js';
+export { runFitToFolder, fitPerturberCount, type FitSettings, type FitOutcome } from './inference/runFitToFolder.js';
+export { runModelEnsemble } from './inference/runModelEnsemble.js';
