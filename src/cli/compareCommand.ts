@@ -4,12 +4,14 @@ import { loadConfig } from '../config/arcsiftConfig.js';
 import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
-import { formatComparison } from './formatComparison.js';
+import { formatComparison, formatCountComparison } from './formatComparison.js';
+import { comparePerturberCounts } from '../inference/comparePerturberCounts.js';
 
 interface CompareArguments extends DataArguments, SamplerArguments {
   config: string;
   out?: string;
   perturbers: number;
+  'max-perturbers'?: number;
 }
 
 export const compareCommand: CommandModule<object, CompareArguments> = {
@@ -18,12 +20,27 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
   builder: (y) => withSamplerOptions(withDataOptions(y
     .option('config', { type: 'string', demandOption: true, describe: 'model config (YAML or JSON) with priors; its perturbers make the perturbed model' })
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-compare]' })
-    .option('perturbers', { type: 'number', default: 1, describe: 'how many of the config\'s perturbers the perturbed model holds' })), { livePoints: 200 })
+    .option('perturbers', { type: 'number', default: 1, describe: 'how many of the config\'s perturbers the perturbed model holds' })
+    .option('max-perturbers', { type: 'number', describe: 'instead: compare 0, 1, ..., K perturbers by evidence (extra ones copy the last listed perturber)' })), { livePoints: 200 })
     .example('$0 compare --config configs/demo.yaml --data chains/mock --out chains/mock-compare', 'smooth versus one subhalo'),
   handler: async (args) => {
     const config = loadConfig(args.config);
     const out = args.out ?? join('chains', `${basename(args.config, extname(args.config))}-compare`);
     const perturberCount = wholeNumberOption('perturbers', args.perturbers, 1);
+    if (args['max-perturbers'] !== undefined) {
+      const maxCount = wholeNumberOption('max-perturbers', args['max-perturbers'], 1);
+      const folders = Array.from({ length: maxCount + 1 }, (_, k) => `perturbers-${k}`);
+      checkOutputFolder(out, args.resume, folders);
+      const data = loadDataOf(args, config);
+      const run = evidenceSettingsOf(args, 'model');
+      const summary = await comparePerturberCounts(config, data, maxCount, out, run.settings, (k) => {
+        run.finish();
+        if (!args.quiet) process.stderr.write(`model with ${k} perturber(s)\n`);
+      });
+      run.finish();
+      process.stdout.write(`${formatCountComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and perturbers-0 ... perturbers-${maxCount} under ${out}\n`);
+      return;
+    }
     checkOutputFolder(out, args.resume, ['smooth', 'perturbed']);
     const data = loadDataOf(args, config);
     const smooth = evidenceSettingsOf(args, 'smooth');

@@ -1,5 +1,6 @@
 import type { ComparisonSummary } from '../inference/runComparisonToFolder.js';
 import type { PriorDescription } from '../sampling/parameterSpace.js';
+import type { CountComparisonSummary } from '../inference/comparePerturberCounts.js';
 
 const fixed = (v: number, digits = 2): string => (Number.isFinite(v) ? v.toFixed(digits) : String(v));
 
@@ -58,5 +59,22 @@ export function formatComparison(summary: ComparisonSummary): string {
   lines.push(`    amplitudes: ${summary.amplitudePrior}`);
   lines.push('');
   lines.push(`Caution: ${summary.caution}`);
+  return lines.join('\n');
+}
+
+/** The plain-text table of a perturber-count comparison. */
+export function formatCountComparison(summary: CountComparisonSummary): string {
+  const lines = ['How many perturbers (nested sampling of each count)', '  count   ln Z              ln B vs count - 1   reading'];
+  for (const row of summary.rows) {
+    const lnB = row.lnBayesFactorToPrevious === null ? '' : fixed(row.lnBayesFactorToPrevious);
+    lines.push(`  ${String(row.perturbers).padStart(5)}   ${`${fixed(row.lnEvidence)} +- ${fixed(row.lnEvidenceError)}`.padEnd(16)}  ${lnB.padStart(17)}   ${row.reading}`);
+  }
+  lines.push(`  preferred: ${summary.preferredCount} perturber(s), the count of highest evidence`);
+  lines.push(`  label switching: ${summary.labelSwitching}`);
+  for (const p of summary.perturbers) {
+    const m = p.log10Mass;
+    lines.push(`  ${p.key}: log10 mass ${fixed(m.median)} (95% ${fixed(m.interval95.lower)} to ${fixed(m.interval95.upper)}), x ${fixed(p.centerXArcsec.median, 3)}", y ${fixed(p.centerYArcsec.median, 3)}"`);
+  }
+  lines.push('', 'Priors (largest model):', ...formatPriors(summary.priors), '', `Caution: ${summary.caution}`);
   return lines.join('\n');
 }

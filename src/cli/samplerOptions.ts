@@ -13,6 +13,7 @@ export interface SamplerArguments {
   seed: number;
   'live-points': number;
   method: string;
+  'slice-steps'?: number;
   tolerance: number;
   'max-evaluations'?: number;
   resume: boolean;
@@ -25,7 +26,8 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
     .option('threads', { type: 'number', describe: 'worker threads evaluating the likelihood [default: all cores]' })
     .option('seed', { type: 'number', default: 1, describe: 'seed of the sampler (results do not depend on --threads)' })
     .option('live-points', { type: 'number', default: defaults.livePoints, describe: 'live points of each nested-sampling run' })
-    .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: 'ellipsoids', describe: 'constrained draws: multi-ellipsoid bounds or slice sampling' })
+    .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: 'auto', describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters, slice otherwise)' })
+    .option('slice-steps', { type: 'number', describe: 'slice moves per new live point [default: 2 x free parameters]' })
     .option('tolerance', { type: 'number', default: 0.1, describe: 'stop when the live points could add less than this to ln Z' })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
     .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
@@ -44,6 +46,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string): { set
     settings: {
       livePoints, seed, threads, maxEvaluations,
       method: args.method as NestedMethod,
+      sliceSteps: args['slice-steps'] === undefined ? undefined : wholeNumberOption('slice-steps', args['slice-steps'], 1),
       replacementsPerStep: 2,
       lnZTolerance: args.tolerance,
       resume: args.resume,

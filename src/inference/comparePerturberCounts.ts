@@ -1,0 +1,107 @@
+import { join } from 'node:path';
+import type { ArcsiftConfig, ComponentConfig } from '../config/arcsiftConfig.js';
+import type { ObservedData } from '../data/observedData.js';
+import { InputError } from '../errors.js';
+import { writeJsonAtomic } from '../io/writeFileAtomic.js';
+import { packageVersion } from '../model/packageVersion.js';
+import { bayesFactorReading } from '../results/index.js';
+import type { PriorDescription } from '../sampling/parameterSpace.js';
+import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
+import { configHash, priorCaution } from './runComparisonToFolder.js';
+import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
+import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
+
+/** The config with exactly `count` perturbers: the listed ones, then copies of the last listed. */
+export function withPerturberCount(config: ArcsiftConfig, count: number): ArcsiftConfig {
+  if (config.perturbers.length === 0) {
+    throw new InputError('comparing perturber counts needs at least one perturber under perturbers (the template)', { file: config.file, key: 'perturbers' });
+  }
+  const perturbers: ComponentConfig[] = [];
+  for (let k = 0; k < count; k++) {
+    const template = config.perturbers[Math.min(k, config.perturbers.length - 1)];
+    const key = `perturbers[${k}]`;
+    const entries = Object.fromEntries(Object.entries(template.entries).map(([name, entry]) => [name, { ...entry, key: `${key}.${name}` }]));
+    perturbers.push({ ...template, key, entries });
+  }
+  return { ...config, perturbers };
+}
+
+export interface CountRow {
+  readonly perturbers: number;
+  readonly lnEvidence: number;
+  readonly lnEvidenceError: number;
+  /** ln Z(k) - ln Z(k - 1); null for k = 0. */
+  readonly lnBayesFactorToPrevious: number | null;
+  readonly lnBayesFactorToSmooth: number;
+  readonly reading: string;
+  readonly relabelled: boolean;
+}
+
+export interface CountComparisonSummary {
+  readonly arcsiftVersion: string;
+  readonly kind: 'perturberCount';
+  readonly config: string;
+  readonly configSha256: string;
+  readonly data: ObservedData['files'];
+  readonly seed: number;
+  readonly runSeconds: number;
+  readonly rows: readonly CountRow[];
+  readonly preferredCount: number;
+  readonly models: readonly ModelRecord[];
+  readonly perturbers: readonly PerturberSummary[];
+  readonly priors: readonly PriorDescription[];
+  readonly labelSwitching: string;
+  readonly caution: string;
+}
+
+/**
+ * Nested sampling of the models with 0, 1, ..., maxCount perturbers; the preferred count is the
+ * one of highest evidence. Identical perturbers are ordered by x (perturberRelabelling), so
+ * their labels do not switch. Writes perturbers-K/ folders and summary.json into `folder`.
+ */
+export async function comparePerturberCounts(
+  config: ArcsiftConfig, data: ObservedData, maxCount: number, folder: string,
+  settings: EvidenceSettings, onModelStart?: (count: number) => void,
+): Promise<CountComparisonSummary> {
+  const started = performance.now();
+  const full = withPerturberCount(config, maxCount);
+  const runs: ModelEvidence[] = [];
+  for (let k = 0; k <= maxCount; k++) {
+    onModelStart?.(k);
+    runs.push(await runModelEvidence(full, data, k, { ...settings, checkpointPath: join(folder, `perturbers-${k}`, 'checkpoint.json') }));
+  }
+  const models = runs.map((run, k) => writeModelOutputs(run, full, data, join(folder, `perturbers-${k}`), settings.seed));
+  const rows: CountRow[] = runs.map((run, k) => {
+    const toPrevious = k === 0 ? null : run.result.lnZ - runs[k - 1].result.lnZ;
+    return {
+      perturbers: k,
+      lnEvidence: run.result.lnZ,
+      lnEvidenceError: run.result.lnZError,
+      lnBayesFactorToPrevious: toPrevious,
+      lnBayesFactorToSmooth: run.result.lnZ - runs[0].result.lnZ,
+      reading: toPrevious === null ? '' : bayesFactorReading(toPrevious, `${k} perturbers`, `${k - 1}`).sentence,
+      relabelled: run.relabelled,
+    };
+  });
+  let preferred = 0;
+  for (let k = 1; k < runs.length; k++) if (runs[k].result.lnZ > runs[preferred].result.lnZ) preferred = k;
+  const summary: CountComparisonSummary = {
+    arcsiftVersion: packageVersion(),
+    kind: 'perturberCount',
+    config: config.file,
+    configSha256: configHash(config),
+    data: data.files,
+    seed: settings.seed,
+    runSeconds: (performance.now() - started) / 1000,
+    rows,
+    preferredCount: preferred,
+    models,
+    perturbers: preferred === 0 ? [] : summarisePerturbers(runs[preferred]),
+    priors: runs[maxCount].space.describe(),
+    labelSwitching: 'identical perturbers are ordered by increasing x inside the prior transform (relabelling); ' +
+      'the evidence is unchanged and perturbers[0] is always the leftmost',
+    caution: priorCaution,
+  };
+  writeJsonAtomic(join(folder, 'summary.json'), summary);
+  return summary;
+}
