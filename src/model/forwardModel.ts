@@ -64,11 +64,15 @@ interface BoundLightTerm {
  *   neighbouring pixel centres predicts the S x S mean, more rays only where it cannot;
  * - light terms whose parameters are all fixed (no prior) are computed once, brute force, and
  *   their convolved basis kept until their profile-vector entries change;
- * - the PSF is cut to the box outside which |K| sums to relativeTolerance / 10 of the total
+ * - sub-pixel rays of pixels where the lens mapping is smooth are not traced: their source-plane
+ *   positions are interpolated from the pixel-centre rays;
+ * - the isothermal ellipsoid and the Sersic profile run with table-driven atan and exp
+ *   (fasterProfiles.ts; errors below 1e-12 arcsec and 1e-13 relative, tested);
+ * - the PSF is cut to the box outside which |K| sums to 1/20 of the least relative tolerance
  *   (trimPsfKernel), convolved as two 1-D passes when separable to the same budget
  *   (separablePsf), and only at the `used` pixels (PixelSubsetConvolver); light is computed only
  *   within the cut kernel's reach of them.
- * Every buffer is allocated here; evaluations allocate nothing.
+ * Every buffer is allocated here; evaluations create no arrays or objects.
  */
 export class ForwardModel {
   readonly system: LensSystem;
@@ -159,7 +163,10 @@ export class ForwardModel {
     this.fixedSlotValues = new Float64Array(this.fixedSlots.length);
   }
 
-  /** Source-plane positions of the pixel-centre rays after the last `computeBasis`. */
+  /**
+   * Source-plane positions of the pixel-centre rays (the lattice of AdaptivePixelMeans: the
+   * computed pixels and a two-pixel ring) after the last `computeBasis`.
+   */
   get sourcePlane(): { readonly x: Float64Array; readonly y: Float64Array } {
     return this.varying.latticeSourcePlane;
   }
