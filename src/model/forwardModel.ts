@@ -41,6 +41,7 @@ export interface ForwardModelOptions {
    * source and random draws from the demo's priors, is 0.29% of the noise).
    */
   readonly noise?: ArrayLike<number>;
+  /** See `noise`; ignored (relativeTolerance used) unless finite and > 0. */
   readonly peakBrightness?: number;
   readonly noiseFraction?: number;
 }
@@ -228,7 +229,7 @@ export class ForwardModel {
 /** Relative tolerance of each used pixel (see ForwardModelOptions). */
 function usedPixelTolerance(used: Int32Array, options: ForwardModelOptions): Float64Array {
   const { noise, peakBrightness } = options;
-  if (noise === undefined || peakBrightness === undefined) {
+  if (noise === undefined || peakBrightness === undefined || !(peakBrightness > 0) || !Number.isFinite(peakBrightness)) {
     return new Float64Array(used.length).fill(options.relativeTolerance ?? FORWARD_MODEL_RELATIVE_TOLERANCE);
   }
   const fraction = options.noiseFraction ?? FORWARD_MODEL_NOISE_FRACTION;
