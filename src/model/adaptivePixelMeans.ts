@@ -20,6 +20,13 @@ const CHUNK = 4096;
 const LATTICE_GUARD = 0.1;
 /** Weight of the Richardson correction in the indicator of the intermediate levels. */
 const RICHARDSON_GUARD = 0.1;
+/**
+ * A pixel whose indicator exceeds this many tolerances goes straight to the S x S rays: the next
+ * factor cuts the midpoint error about fourfold (m^-2), sixteenfold after extrapolation for
+ * smooth light, so it would fail again (in the demo and compact-source scenarios every pixel
+ * above 30 tolerances at one level needed S x S). This changes the cost only: S x S is exact.
+ */
+const HOPELESS = 30;
 /** Largest change of the light at a predicted position, in tolerances, that lets a pixel use interpolated rays. */
 const INTERPOLATION_GUARD = 5;
 
@@ -95,6 +102,9 @@ export class AdaptivePixelMeans {
   private readonly current: Float64Array;
   private readonly pending: Int32Array;
   private readonly nextPending: Int32Array;
+  /** Pixels sent straight to the S x S rays (HOPELESS), and how many. */
+  private readonly direct: Int32Array;
+  private directCount = 0;
   // One batch of rays.
   private readonly chunkX = new Float64Array(CHUNK);
   private readonly chunkY = new Float64Array(CHUNK);
@@ -134,6 +144,7 @@ export class AdaptivePixelMeans {
     this.current = new Float64Array(basisCount * count);
     this.pending = new Int32Array(count);
     this.nextPending = new Int32Array(count);
+    this.direct = new Int32Array(count);
     this.scale = new Float64Array(basisCount);
     this.chunkOut = new Float64Array(Math.max(1, basisCount) * CHUNK);
     this.interpolable = new Uint8Array(count);
@@ -214,19 +225,28 @@ export class AdaptivePixelMeans {
   evaluate(p: Float64Array): void {
     this.raysTraced = 0;
     this.raysInterpolated = 0;
+    this.directCount = 0;
     this.pixelsByLevel.fill(0);
     const count = this.pixels.length;
     let pendingCount: number;
     if (this.adaptive) {
       pendingCount = this.latticeLevel(p);
-      if (this.hasSource) this.checkInterpolation(p, pendingCount);
+      if (this.hasSource) {
+        this.checkInterpolation(p, this.pending, pendingCount);
+        this.checkInterpolation(p, this.direct, this.directCount);
+      }
     } else {
       for (let e = 0; e < count; e++) this.pending[e] = e;
       pendingCount = count;
     }
     let previousFactor = 1;
-    for (let level = 0; level < this.factors.length && pendingCount > 0; level++) {
+    for (let level = 0; level < this.factors.length && pendingCount + this.directCount > 0; level++) {
       const m = this.factors[level];
+      if (m === this.supersampling) {
+        this.pending.set(this.direct.subarray(0, this.directCount), pendingCount);
+        pendingCount += this.directCount;
+        this.directCount = 0;
+      }
       this.subPixelMeans(p, m, pendingCount);
       pendingCount = this.refine(m, previousFactor, level, pendingCount);
       previousFactor = m;
@@ -294,12 +314,17 @@ export class AdaptivePixelMeans {
         const indicator = Math.max(
           Math.abs(partX) + Math.abs(partY) + Math.abs(partXY), LATTICE_GUARD * Math.abs(second - centre),
         );
-        if (indicator > scale * relativeTolerance[e]) flagged[e] = 1;
+        const tolerance = scale * relativeTolerance[e];
+        if (indicator > HOPELESS * tolerance) flagged[e] = 2;
+        else if (indicator > tolerance && flagged[e] === 0) flagged[e] = 1;
       }
     }
     let pendingCount = 0;
-    for (let e = 0; e < count; e++) if (flagged[e] === 1) pending[pendingCount++] = e;
-    this.pixelsByLevel[0] = count - pendingCount;
+    for (let e = 0; e < count; e++) {
+      if (flagged[e] === 1) pending[pendingCount++] = e;
+      else if (flagged[e] === 2) this.direct[this.directCount++] = e;
+    }
+    this.pixelsByLevel[0] = count - pendingCount - this.directCount;
     return pendingCount;
   }
 
@@ -401,7 +426,7 @@ export class AdaptivePixelMeans {
   }
 
   /**
-   * Marks the pending pixels whose sub-pixel rays may be interpolated from the lattice: the
+   * Marks the listed pixels whose sub-pixel rays may be interpolated from the lattice: the
    * traced position at the pixel centre is predicted from its four lattice neighbours along x,
    * and along y, by cubic Lagrange interpolation (nodes -2, -1, 1, 2: weights -1/6, 2/3, 2/3,
    * -1/6), and the light at both predictions must differ from the light of the traced centre by
@@ -415,7 +440,7 @@ export class AdaptivePixelMeans {
    * (In test/model/forwardAccuracy.test.ts the errors are the same to three digits as with
    * every ray traced.)
    */
-  private checkInterpolation(p: Float64Array, pendingCount: number): void {
+  private checkInterpolation(p: Float64Array, list: Int32Array, listCount: number): void {
     const { columns, rows, pixelScaleArcsec: scale } = this.grid;
     const width = this.width;
     const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
@@ -424,11 +449,11 @@ export class AdaptivePixelMeans {
     const out = this.chunkOut;
     const x = this.chunkX, y = this.chunkY, bx = this.chunkBx, by = this.chunkBy;
     const perChunk = CHUNK / 2;
-    for (let start = 0; start < pendingCount; start += perChunk) {
-      const end = Math.min(pendingCount, start + perChunk);
+    for (let start = 0; start < listCount; start += perChunk) {
+      const end = Math.min(listCount, start + perChunk);
       let r = 0;
       for (let t = start; t < end; t++) {
-        const e = this.pending[t];
+        const e = list[t];
         const q = this.pixelsPadded[e];
         const pixel = this.pixels[e];
         const i = pixel % columns;
@@ -442,7 +467,7 @@ export class AdaptivePixelMeans {
       }
       this.shine(p, x, y, bx, by, r, out, CHUNK);
       for (let t = start, u = 0; t < end; t++, u += 2) {
-        const e = this.pending[t];
+        const e = list[t];
         const q = this.pixelsPadded[e];
         let ok = true;
         for (let k = 0; k < this.basisCount; k++) {
@@ -538,22 +563,27 @@ export class AdaptivePixelMeans {
     }
     const factor = richardsonFactor(previousFactor, m, this.supersampling);
     let kept = 0;
+    const directBefore = this.directCount;
     for (let t = 0; t < pendingCount; t++) {
       const e = pending[t];
       let refineFurther = false;
+      let hopeless = false;
       for (let k = 0; k < this.basisCount; k++) {
         const index = k * count + e;
         const now = current[index];
         const step = (now - previous[index]) * factor;
         const predicted = now + step;
         const indicator = Math.max(Math.abs(predicted - means[index]), RICHARDSON_GUARD * Math.abs(step));
-        if (indicator > this.scale[k] * this.relativeTolerance[e]) refineFurther = true;
+        const tolerance = this.scale[k] * this.relativeTolerance[e];
+        if (indicator > tolerance) refineFurther = true;
+        if (indicator > HOPELESS * tolerance) hopeless = true;
         means[index] = predicted;
         previous[index] = now;
       }
-      if (refineFurther) pending[kept++] = e;
+      if (hopeless) this.direct[this.directCount++] = e;
+      else if (refineFurther) pending[kept++] = e;
     }
-    this.pixelsByLevel[level + 1] = pendingCount - kept;
+    this.pixelsByLevel[level + 1] = pendingCount - kept - (this.directCount - directBefore);
     return kept;
   }
 
