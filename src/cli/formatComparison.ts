@@ -56,6 +56,7 @@ export function formatComparison(summary: ComparisonSummary): string {
   lines.push('');
   lines.push('Priors behind this Bayes factor (perturbed model; the smooth model has the same without the perturber):');
   lines.push(...formatPriors(summary.priors.perturbed));
+  for (const p of summary.positionPriors ?? []) lines.push(`    ${p.key} position: ${p.region} (instead of the box above)`);
   lines.push(`    amplitudes: ${summary.amplitudePrior}`);
   lines.push('');
   lines.push(`Caution: ${summary.caution}`);

@@ -13,6 +13,27 @@ export interface ComponentConfig {
   /** Fixed coefficient list (shapelet amplitudes for simulation), when given. */
   readonly coefficients: readonly number[] | undefined;
   readonly entries: Readonly<Record<string, ParameterEntry>>;
+  /** Perturbers only: a joint prior on the position, uniform over a region (default: the box of the x and y priors). */
+  readonly positionPrior?: PositionPriorConfig;
+}
+
+/** A uniform prior over the used pixels of the mask, or over a disc. */
+export type PositionPriorConfig =
+  | { readonly region: 'mask' }
+  | { readonly region: 'disc'; readonly centerXArcsec: number; readonly centerYArcsec: number; readonly radiusArcsec: number };
+
+function readPositionPrior(node: ConfigNode): PositionPriorConfig {
+  if (node.value === 'mask') return { region: 'mask' };
+  if (!node.isMapping() || !node.has('disc')) {
+    node.fail(expectedFound('mask, or { disc: [centerXArcsec, centerYArcsec, radiusArcsec] }', node.value));
+  }
+  const disc = node.get('disc');
+  const values = disc.list();
+  if (values.length !== 3) disc.fail(expectedFound('a list of 3 numbers [centerXArcsec, centerYArcsec, radiusArcsec]', disc.value));
+  const [centerXArcsec, centerYArcsec] = values.slice(0, 2).map((v) => v.number());
+  const radiusArcsec = values[2].number({ min: 0, exclusiveMin: true });
+  node.finish();
+  return { region: 'disc', centerXArcsec, centerYArcsec, radiusArcsec };
 }
 
 export type PsfConfig =
@@ -66,10 +87,13 @@ function readComponent(node: ConfigNode, kindRequired = true): ComponentConfig {
   const entries: Record<string, ParameterEntry> = {};
   let order: number | undefined;
   let coefficients: number[] | undefined;
+  let positionPrior: PositionPriorConfig | undefined;
   for (const name of node.keys()) {
     if (name === 'kind') continue;
     const child = node.get(name);
-    if (name === 'order') {
+    if (name === 'positionPrior' && node.key.startsWith('perturbers')) {
+      positionPrior = readPositionPrior(child);
+    } else if (name === 'order') {
       order = child.number({ integer: true, min: 0 });
     } else if (name === 'coefficients') {
       coefficients = child.list().map((c) => c.number());
@@ -77,7 +101,9 @@ function readComponent(node: ConfigNode, kindRequired = true): ComponentConfig {
       entries[name] = readParameterEntry(child);
     }
   }
-  return { kind, key: node.key, order, coefficients, entries };
+  return positionPrior === undefined
+    ? { kind, key: node.key, order, coefficients, entries }
+    : { kind, key: node.key, order, coefficients, entries, positionPrior };
 }
 
 function readComponentList(node: ConfigNode): ComponentConfig[] {

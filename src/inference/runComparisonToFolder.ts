@@ -5,6 +5,7 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
+import type { LensSystem } from '../model/lensSystem.js';
 import { compareModels, favouredLnBayesFactor, type Comparison, type ComparisonSettings } from './compareModels.js';
 import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
 
@@ -39,6 +40,8 @@ export interface ComparisonSummary {
   };
   readonly perturbers: Comparison['perturbers'];
   readonly priors: Comparison['priors'];
+  /** Region priors on perturber positions, where given (they replace the box of the x and y priors). */
+  readonly positionPriors: readonly { readonly key: string; readonly region: string }[];
   readonly amplitudePrior: string;
   readonly caution: string;
 }
@@ -52,6 +55,19 @@ export function configHash(config: ArcsiftConfig): string {
     bytes = JSON.stringify(config);
   }
   return createHash('sha256').update(bytes).digest('hex');
+}
+
+/** Plain words for each perturber's region prior. */
+export function describePositionPriors(system: LensSystem): { key: string; region: string }[] {
+  return system.perturbers.filter((p) => p.positionPrior !== undefined).map((p) => {
+    const r = p.positionPrior!;
+    return {
+      key: p.key,
+      region: r.region === 'mask'
+        ? 'uniform over the used pixels of the mask'
+        : `uniform over the disc of radius ${r.radiusArcsec}" centred at (${r.centerXArcsec}", ${r.centerYArcsec}")`,
+    };
+  });
 }
 
 const finiteOrNull = (v: number): number | null => (Number.isFinite(v) ? v : null);
@@ -100,6 +116,7 @@ export async function runComparisonToFolder(
     },
     perturbers: comparison.perturbers,
     priors: comparison.priors,
+    positionPriors: describePositionPriors(comparison.perturbed.system),
     amplitudePrior: `every linear light amplitude ~ Normal(0, ${config.amplitudePriorSigma}^2), counts/s/arcsec^2 (marginalised analytically)`,
     caution: priorCaution,
   };

@@ -6,6 +6,7 @@ import { runNested, type NestedMethod, type NestedProgress, type NestedResult } 
 import type { ParameterSpace } from '../sampling/parameterSpace.js';
 import { modelParameterSpace } from './modelParameterSpace.js';
 import { perturberRelabelling } from './perturberRelabelling.js';
+import { positionRegionTransform } from './positionRegion.js';
 
 /** Settings of one nested-sampling run of a lens model. */
 export interface EvidenceSettings {
@@ -67,6 +68,7 @@ export async function runModelEvidence(
   const system = buildLensSystem(config, { perturberCount });
   const space = modelParameterSpace(system);
   const relabel = perturberRelabelling(system, space);
+  const region = positionRegionTransform(system, space, data);
   const started = performance.now();
   const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads);
   try {
@@ -74,9 +76,11 @@ export async function runModelEvidence(
       {
         dim: space.dim,
         physicalDim: space.physicalDim,
-        transform: relabel === undefined
-          ? (unit, out) => space.fromUnitCube(unit, out)
-          : (unit, out) => { space.fromUnitCube(unit, out); relabel(out); },
+        transform: (unit, out) => {
+          space.fromUnitCube(unit, out);
+          if (region !== undefined) region(unit, out);
+          if (relabel !== undefined) relabel(out);
+        },
         periodic: space.periodic,
         logLikelihood: (points, count) => pool.evaluate(points, count),
       },

@@ -73,6 +73,31 @@ function lightProfileOf(component: ComponentConfig, file: string): LightProfile 
   return profile;
 }
 
+/**
+ * A perturber with a region prior (`positionPrior`) gets uniform priors on its centre over the
+ * region's bounding box (the whole image for `mask`); the sampler then maps those two unit
+ * coordinates onto the region itself (inference/positionRegion.ts).
+ */
+function withRegionBounds(component: ComponentConfig, config: ArcsiftConfig, file: string): ComponentConfig {
+  const region = component.positionPrior;
+  if (region === undefined) return component;
+  const entries = { ...component.entries };
+  const halfX = (config.observation.columns / 2) * config.observation.pixelScaleArcsec;
+  const halfY = (config.observation.rows / 2) * config.observation.pixelScaleArcsec;
+  const bounds = region.region === 'mask'
+    ? { x: [-halfX, halfX], y: [-halfY, halfY] }
+    : { x: [region.centerXArcsec - region.radiusArcsec, region.centerXArcsec + region.radiusArcsec],
+        y: [region.centerYArcsec - region.radiusArcsec, region.centerYArcsec + region.radiusArcsec] };
+  for (const [name, [lower, upper]] of [['centerXArcsec', bounds.x], ['centerYArcsec', bounds.y]] as const) {
+    const entry = entries[name];
+    if (entry?.prior !== undefined) {
+      throw new InputError('with positionPrior the centre takes only a value (the truth for simulate), not a prior of its own', { file, key: entry.key });
+    }
+    entries[name] = { key: entry?.key ?? `${component.key}.${name}`, value: entry?.value, prior: { kind: 'uniform', lower, upper } };
+  }
+  return { ...component, entries };
+}
+
 export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOptions = {}): LensSystem {
   const file = config.file;
   const collector = new ParameterCollector(file);
@@ -134,7 +159,7 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
   const perturbers: PerturberBinding[] = [];
   const perturberCount = Math.min(options.perturberCount ?? config.perturbers.length, config.perturbers.length);
   for (let k = 0; k < perturberCount; k++) {
-    const binding = bindPerturber(config.perturbers[k], collector, lensing, profileLength, file);
+    const binding = bindPerturber(withRegionBounds(config.perturbers[k], config, file), collector, lensing, profileLength, file);
     perturbers.push(binding);
     writers.push(binding.write);
     massTerms.push({ profile: binding.profile, offset: profileLength });

@@ -34,6 +34,8 @@ export interface PerturberBinding {
   /** Fills this perturber's lensing parameters in the profile vector (allocates nothing). */
   readonly write: (model: Float64Array, profile: Float64Array) => void;
   derived(model: Float64Array): PerturberDerived;
+  /** The joint region prior on the centre, when the config gives one. */
+  readonly positionPrior?: ComponentConfig['positionPrior'];
 }
 
 const massNames = ['log10MassSolar', 'centerXArcsec', 'centerYArcsec'];
@@ -65,7 +67,7 @@ export function bindPerturber(
         : massNames;
   const indices = collector.bind(component, names, { truncationRatio: 10 });
   const [massIndex, centerXIndex, centerYIndex] = indices;
-  const base = { kind, key: component.key, profile, massIndex, centerXIndex, centerYIndex };
+  const base = { kind, key: component.key, profile, massIndex, centerXIndex, centerYIndex, positionPrior: component.positionPrior };
   const z = lensing.lensRedshift;
   const littleH = lensing.littleH;
   // r200 = (3 M / (800 pi rho_crit))^(1/3) (Navarro, Frenk & White 1996 with Delta = 200).
