@@ -47,6 +47,9 @@ const INTERPOLATION_GUARD = 5;
  *    factors (richardsonFactor); the indicator is the change from the previous prediction and
  *    0.1 times the extrapolation step.
  * 3. Pixels still above the tolerance get the S x S rays themselves: the exact model value.
+ *    A pixel more than HOPELESS (30) tolerances off at any level goes there directly.
+ * Sub-pixel rays are traced only for pixels where interpolating the source-plane positions from
+ * the lattice is not safe (checkInterpolation); elsewhere they are interpolated (degree 4).
  *
  * The tolerance of basis k at pixel e is relativeTolerance[e] times the scale of basis k: the
  * PSF-convolved lattice image at the brightest lattice pixel (a lower bound of the convolved
@@ -54,7 +57,7 @@ const INTERPOLATION_GUARD = 5;
  * and refers to what is compared with data, the convolved image. The indicators
  * are estimates of the error, not bounds: test/model/forwardAccuracy.test.ts compares the
  * result with the brute-force S x S model. With `uniform` every pixel gets the S x S rays.
- * Buffers are allocated here; evaluate() allocates nothing.
+ * Buffers are allocated here; evaluate() creates no arrays or objects.
  */
 export class AdaptivePixelMeans {
   readonly pixels: Int32Array;
