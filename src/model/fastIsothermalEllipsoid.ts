@@ -31,13 +31,16 @@ export const fastIsothermalEllipsoid: MassProfile = {
     const nearRound = e2 < SERIES_BELOW;
     const e = Math.sqrt(e2);
     const scaleOverE = nearRound ? 0 : scale / e;
+    // Without a core both denominators are psi: one division per point instead of two.
+    const coreless = sK === 0;
     for (let i = 0; i < n; i++) {
       const dx = x[i] - cx, dy = y[i] - cy;
       const xr = cos * dx + sin * dy, yr = cos * dy - sin * dx;
       const psi = Math.sqrt(q * q * xr * xr + yr * yr + qs2);
       const dnx = psi + sK;
       if (dnx === 0) continue;
-      const ux = xr / dnx, uy = yr / (psi + qqsK);
+      const inverse = 1 / dnx;
+      const ux = xr * inverse, uy = coreless ? yr * inverse : yr / (psi + qqsK);
       let ax: number, ay: number;
       if (nearRound) {
         const wx = e2 * ux * ux, wy = e2 * uy * uy;
