@@ -8,7 +8,9 @@ import { bayesFactorReading } from '../results/index.js';
 import type { PriorDescription } from '../sampling/parameterSpace.js';
 import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
 import { configHash, priorCaution } from './runComparisonToFolder.js';
-import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
+import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
+import { modelParameterSpace } from './modelParameterSpace.js';
+import { buildLensSystem } from '../model/lensSystem.js';
 import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
 
 /** The config with exactly `count` perturbers: the listed ones, then copies of the last listed. */
@@ -66,9 +68,11 @@ export async function comparePerturberCounts(
   const started = performance.now();
   const full = withPerturberCount(config, maxCount);
   const runs: ModelEvidence[] = [];
+  // One constrained-draw method for every count, so their biases cancel in the Bayes factors.
+  const method = lensModelMethod(settings.method, modelParameterSpace(buildLensSystem(full, { perturberCount: maxCount })).dim, maxCount);
   for (let k = 0; k <= maxCount; k++) {
     onModelStart?.(k);
-    runs.push(await runModelEvidence(full, data, k, { ...settings, checkpointPath: join(folder, `perturbers-${k}`, 'checkpoint.json') }));
+    runs.push(await runModelEvidence(full, data, k, { ...settings, method, checkpointPath: join(folder, `perturbers-${k}`, 'checkpoint.json') }));
   }
   const models = runs.map((run, k) => writeModelOutputs(run, full, data, join(folder, `perturbers-${k}`), settings.seed));
   const rows: CountRow[] = runs.map((run, k) => {
