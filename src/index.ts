@@ -11,7 +11,7 @@ export * from './sampling/index.js';
 export * from './results/index.js';
 export { loadConfig, parseConfig, type ArcsiftConfig } from './config/arcsiftConfig.js';
 export { buildLensSystem, type LensSystem } from './model/lensSystem.js';
-export { ForwardModel } from './model/forwardModel.js';
+export { ForwardModel, FORWARD_MODEL_RELATIVE_TOLERANCE, FORWARD_MODEL_NOISE_FRACTION, type ForwardModelOptions } from './model/forwardModel.js';
 export { simulateObservation, type Simulation } from './model/simulateObservation.js';
 export { simulateToFolder } from './model/simulateToFolder.js';
 export { MarginalisedAmplitudes } from './likelihood/marginalisedAmplitudes.js';

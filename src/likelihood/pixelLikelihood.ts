@@ -31,7 +31,11 @@ export class PixelLikelihood {
     this.system = buildLensSystem(config, { perturberCount });
     const grid = pixelGrid(data.columns, data.rows, data.pixelScaleArcsec);
     const computed = growMaskByKernel(data.mask, data.columns, data.rows, data.psf.columns, data.psf.rows);
-    this.forward = new ForwardModel(this.system, grid, observation.supersampling, data.psf, { computed });
+    let peakBrightness = 0;
+    for (let k = 0; k < data.usedPixels.length; k++) peakBrightness = Math.max(peakBrightness, data.image[data.usedPixels[k]]);
+    this.forward = new ForwardModel(this.system, grid, observation.supersampling, data.psf, {
+      computed, used: data.usedPixels, noise: data.noise, peakBrightness,
+    });
     this.used = data.usedPixels;
     const n = this.used.length;
     const values = new Float64Array(n);
