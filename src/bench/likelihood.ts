@@ -5,12 +5,52 @@ import { loadObservedData } from '../data/loadObservedData.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { simulateToFolder } from '../model/simulateToFolder.js';
 import { bestMillisecondsPerCall, forwardScenarios } from './forward.js';
+import { LikelihoodPool, defaultThreadCount } from '../parallel/likelihoodPool.js';
+import { runModelEvidence } from '../inference/runModelEvidence.js';
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import type { ObservedData } from '../data/observedData.js';
+
+/**
+ * Wall-clock milliseconds per likelihood through the worker pool with `threads` threads: batches
+ * of 64 points near the truth (as a nested-sampling step would send), best of 5 repeats.
+ */
+async function poolMilliseconds(config: ArcsiftConfig, data: ObservedData, threads: number, model: Float64Array): Promise<number> {
+  const pool = await LikelihoodPool.start({ config, data, perturberCount: config.perturbers.length }, threads);
+  try {
+    const batch = 64;
+    const points = new Float64Array(batch * model.length);
+    for (let r = 0; r < batch; r++) {
+      points.set(model, r * model.length);
+      points[r * model.length] *= 1 + 1e-4 * r;
+    }
+    await pool.evaluate(points, batch);
+    let best = Number.POSITIVE_INFINITY;
+    for (let repeat = 0; repeat < 5; repeat++) {
+      const started = performance.now();
+      await pool.evaluate(points, batch);
+      best = Math.min(best, (performance.now() - started) / batch);
+    }
+    return best;
+  } finally {
+    await pool.close();
+  }
+}
+
+/** Seconds for a nested-sampling run of the perturbed model cut at a fixed number of evaluations. */
+async function nestedSeconds(config: ArcsiftConfig, data: ObservedData, threads: number): Promise<number> {
+  const started = performance.now();
+  await runModelEvidence(config, data, config.perturbers.length, {
+    livePoints: 40, seed: 1, method: 'slice', replacementsPerStep: 2, lnZTolerance: 0.1, threads, maxEvaluations: 4000,
+  });
+  return (performance.now() - started) / 1000;
+}
 
 /**
  * `npm run bench -- likelihood`: milliseconds per PixelLikelihood.logLikelihood (the model with
  * the config's perturbers, at the true parameters) on one thread, for the scenarios of the
  * forward benchmark (supersampling 8), each simulated to a temporary folder and read back as a
- * fit reads its data. "allThreads" is left null for the worker-pool figure.
+ * fit reads its data; "allThreads" gives the worker-pool figures (batches of 64, and a nested
+ * run of the perturbed model cut at 4,000 evaluations) on every core and on one.
  */
 export async function run(_args: string[]): Promise<void> {
   for (const scenario of forwardScenarios()) {
@@ -24,6 +64,11 @@ export async function run(_args: string[]): Promise<void> {
       const likelihood = new PixelLikelihood(scenario.config, data, scenario.config.perturbers.length);
       const model = likelihood.system.configuredValues();
       const { ms, cpuMs, callsPerRepeat } = bestMillisecondsPerCall(() => likelihood.logLikelihood(model));
+      const threads = defaultThreadCount();
+      const poolOne = await poolMilliseconds(scenario.config, data, 1, model);
+      const poolAll = await poolMilliseconds(scenario.config, data, threads, model);
+      const nestedOne = await nestedSeconds(scenario.config, data, 1);
+      const nestedAll = await nestedSeconds(scenario.config, data, threads);
       console.log(JSON.stringify({
         benchmark: 'likelihood',
         scenario: scenario.name,
@@ -35,7 +80,15 @@ export async function run(_args: string[]): Promise<void> {
         supersampling: observation.supersampling,
         usedPixels: data.usedPixels.length,
         computedPixels: likelihood.forward.computedPixels.length,
-        allThreads: null,
+        allThreads: {
+          threads,
+          msPerCallOneThreadPool: Number(poolOne.toFixed(4)),
+          msPerCall: Number(poolAll.toFixed(4)),
+          speedUp: Number((poolOne / poolAll).toFixed(2)),
+          nestedSecondsOneThread: Number(nestedOne.toFixed(2)),
+          nestedSecondsAllThreads: Number(nestedAll.toFixed(2)),
+          nestedSpeedUp: Number((nestedOne / nestedAll).toFixed(2)),
+        },
       }));
     } finally {
       rmSync(folder, { recursive: true, force: true });
