@@ -1,0 +1,31 @@
+import type { ComparisonSummary } from '../inference/runComparisonToFolder.js';
+import type { ModelRecord } from '../inference/writeModelOutputs.js';
+import { escapeMarkup } from './escapeMarkup.js';
+import { formatCount, formatNumber } from './formatNumber.js';
+import { htmlTable, numberCell, type TableCell } from './htmlTable.js';
+
+/** The nested sampler's own record of each run: settings, cost, efficiency and the insertion-rank check. */
+export function diagnosticsTable(summary: ComparisonSummary): string {
+  const { smooth, perturbed } = summary.models;
+  const row = (label: string, cell: (m: ModelRecord) => string | TableCell): (string | TableCell)[] => [label, cell(smooth), cell(perturbed)];
+  const rank = (m: ModelRecord): TableCell => ({
+    html: `${m.insertionRankPValue === null ? 'n/a' : formatNumber(m.insertionRankPValue, 3)}${m.insertionRankWarning ? ' <span class="tag warn">biased draws?</span>' : ''}`,
+    className: m.insertionRankWarning ? 'num warn' : 'num',
+  });
+  return htmlTable({
+    id: 'diagnostics-table',
+    head: [['', '<span class="swatch smooth"></span>smooth', '<span class="swatch perturbed"></span>perturbed']],
+    rows: [
+      row('draw method', (m) => escapeMarkup(m.method)),
+      row('live points', (m) => numberCell(formatCount(m.livePoints))),
+      row('iterations', (m) => numberCell(formatCount(m.iterations))),
+      row('likelihood evaluations', (m) => numberCell(formatCount(m.evaluations))),
+      row('efficiency (accepted / evaluated)', (m) => numberCell(`${formatNumber(100 * m.efficiency, 2)}%`)),
+      row('insertion-rank p-value (Fowlie, Handley &amp; Su 2020)', rank),
+      row('non-finite likelihoods', (m) => numberCell(formatCount(m.nonFiniteLikelihoods))),
+      row('stopped because', (m) => escapeMarkup(m.stopReason)),
+      row('wall time [s]', (m) => numberCell(formatNumber(m.seconds, 1))),
+      row('threads', (m) => numberCell(String(m.threads))),
+    ],
+  });
+}
