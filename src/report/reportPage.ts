@@ -1,0 +1,155 @@
+import { existsSync } from 'node:fs';
+import { basename, dirname, join, relative, resolve, sep } from 'node:path';
+import { bayesFactorTable } from './bayesFactorTable.js';
+import type { ColourMap } from './colourMap.js';
+import { diagnosticsTable } from './diagnosticsTable.js';
+import { divergingColourMap } from './divergingColourMap.js';
+import { escapeMarkup } from './escapeMarkup.js';
+import { LN_EVIDENCE_DIGITS, evidenceTable } from './evidenceTable.js';
+import { formatNumber } from './formatNumber.js';
+import { imagePng } from './imagePng.js';
+import { parameterTable } from './parameterTable.js';
+import { perturberMassName, perturberTable } from './perturberTable.js';
+import { priorTable } from './priorTable.js';
+import type { ReportFigure } from './reportFigures.js';
+import { reportStyle } from './reportStyle.js';
+import { MODEL_NAMES, type RunFolder } from './readRunFolder.js';
+import { sequentialColourMap } from './sequentialColourMap.js';
+
+/** A link from the page to `file`, relative to the page's folder, so the pair can be moved together. */
+export function pageLink(pageFile: string, file: string): string {
+  const path = relative(dirname(resolve(pageFile)), resolve(file)).split(sep).join('/');
+  return encodeURI(path);
+}
+
+function figureHtml(figure: ReportFigure, pageFile: string): string {
+  const links = figure.files.map((f) => `<a href="${pageLink(pageFile, f)}">${escapeMarkup(f.slice(f.lastIndexOf('.') + 1).toUpperCase())}</a>`).join(' &middot; ');
+  return `<figure id="figure-${figure.key}"><div class="art">${figure.svg}</div><figcaption>${figure.caption} <span class="files-inline">(${links})</span></figcaption></figure>`;
+}
+
+function verdict(run: RunFolder): string {
+  const b = run.summary.bayesFactor;
+  const favoured = b.perturberFavoured;
+  const lines = run.summary.perturbers.map((p) => {
+    const m = p.log10Mass;
+    const digits = 2;
+    const massName = perturberMassName(p.kind);
+    const mass = favoured
+      ? `${massName} = ${formatNumber(m.median, digits)} <small>(68%: ${formatNumber(m.interval68.lower, digits)} to ${formatNumber(m.interval68.upper, digits)})</small>`
+      : `${massName} &lt; ${formatNumber(p.log10MassUpperLimit95, digits)} <small>(95% upper limit)</small>`;
+    const at = `at x = ${formatNumber(p.centerXArcsec.median, 2)}&Prime;, y = ${formatNumber(p.centerYArcsec.median, 2)}&Prime;`;
+    return `<p>${escapeMarkup(p.key)} (${escapeMarkup(p.kind)}): ${mass} ${favoured ? at : ''}</p>`;
+  });
+  return `<section class="verdict ${favoured ? 'favoured' : 'not-favoured'}" id="verdict">
+<div><span class="label">ln Bayes factor, perturbed / smooth</span>
+<span class="big">${formatNumber(b.lnBayesFactor, LN_EVIDENCE_DIGITS)} <small>&plusmn; ${formatNumber(b.lnBayesFactorError, LN_EVIDENCE_DIGITS)}</small></span>
+<span class="badge ${favoured ? 'favoured' : 'not-favoured'}">${favoured ? 'perturber favoured' : 'perturber not favoured'}</span></div>
+<div><p class="reading">${escapeMarkup(b.reading)}</p>
+<p>${escapeMarkup(b.significance)} <span class="muted">(Sellke, Bayarri &amp; Berger 2001 bound)</span></p>
+${lines.join('\n')}
+<p class="muted">Under the priors listed in <a href="#priors">the prior table</a>; see the caution below.</p></div>
+</section>`;
+}
+
+function colourMapRow(map: ColourMap, use: string): string {
+  const values = Float64Array.from({ length: map.size }, (_, k) => k / (map.size - 1));
+  const png = imagePng({ values, columns: map.size, rows: 1, map, low: 0, high: 1 });
+  const stops = map.stops.map((s) => `L ${s.lightness.toFixed(2)}, C ${s.chroma.toFixed(3)}, h ${s.hueDeg}&deg;`).join(' &rarr; ');
+  return `<img alt="${escapeMarkup(map.name)} colour map" src="data:image/png;base64,${png.toString('base64')}"><div><strong>${escapeMarkup(map.name)}</strong> &mdash; ${use}<br><span class="muted">OKLCh control points: ${stops}</span></div>`;
+}
+
+/** The files of the run the page links to, those that exist. */
+function runFiles(run: RunFolder): string[] {
+  const files = [run.summaryFile];
+  for (const m of MODEL_NAMES) {
+    for (const name of ['samples.csv', 'equal-weight-samples.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
+      files.push(join(run.folder, m, name));
+    }
+  }
+  for (const f of Object.values(run.dataFiles)) if (f !== null) files.push(f);
+  if (run.truth !== null) files.push(run.truth.file);
+  return files.filter((f) => existsSync(f));
+}
+
+export interface ReportPageInput {
+  readonly run: RunFolder;
+  readonly figures: readonly ReportFigure[];
+  readonly notices: readonly string[];
+  /** Where the page will be written: links are relative to it. */
+  readonly pageFile: string;
+  readonly arcsiftVersion: string;
+}
+
+/** The report as one HTML document: inline style and inline SVG figures, no script and no network. */
+export function reportPage(input: ReportPageInput): string {
+  const { run, figures, pageFile } = input;
+  const s = run.summary;
+  const name = basename(resolve(run.folder));
+  const title = run.truth?.title;
+  const section = (id: string, heading: string, body: string): string => `<section class="card" id="${id}"><h2>${heading}</h2>\n${body}\n</section>`;
+  const inSection = (key: ReportFigure['section']): ReportFigure[] => figures.filter((f) => f.section === key);
+  const images = inSection('images');
+  const imageRow = (label: string, keys: string[]): string => {
+    const chosen = keys.map((k) => images.find((f) => f.key === k)).filter((f): f is ReportFigure => f !== undefined);
+    return chosen.length === 0 ? '' : `<div class="row-label">${label}</div>${chosen.map((f) => figureHtml(f, pageFile)).join('\n')}`;
+  };
+  const imageGrid = `<div class="image-grid">
+${imageRow('Observed data', ['data', 'noise'])}
+${imageRow('<span class="swatch smooth"></span>Smooth model', ['smooth-model', 'smooth-residual', 'smooth-normalised-residual'])}
+${imageRow('<span class="swatch perturbed"></span>Perturbed model', ['perturbed-model', 'perturbed-residual', 'perturbed-normalised-residual'])}
+</div>
+<p class="note">Images are shown with row 0 at the bottom: x grows to the right and y upwards, in arcsec from the image centre. Data and models share one linear scale; the residuals of both models share one symmetric scale.${run.truth === null ? '' : ' Open circles: simulated perturber position.'} Dot with bars: the perturber's posterior median and 68% intervals.</p>`;
+  const notices = [...run.notices, ...input.notices, ...s.dataNotices];
+  const settings = (s.settings as { smooth?: { lnZTolerance?: number } }).smooth;
+  const meta = [
+    `config <code>${escapeMarkup(s.config)}</code> (sha256 ${escapeMarkup(s.configSha256.slice(0, 12))}&hellip;)`,
+    `data <code>${escapeMarkup(dirname(s.data.image))}</code>`,
+    `seed ${s.seed}`,
+    `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
+    `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
+  ].join(' &middot; ');
+
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="arcsift ${escapeMarkup(input.arcsiftVersion)}">
+<title>arcsift report: ${escapeMarkup(name)}</title>
+<style>${reportStyle()}</style>
+</head>
+<body>
+<header class="masthead"><div class="wrap">
+<div class="brand">arcsift &middot; smooth versus perturbed lens</div>
+<h1>${escapeMarkup(name)}${title === undefined ? '' : ` <span style="font-weight:400;opacity:.7">&mdash; ${escapeMarkup(title)}</span>`}</h1>
+<p class="meta">${meta}</p>
+</div></header>
+<main class="wrap">
+${verdict(run)}
+<aside class="caution" id="caution" role="note"><div class="mark">!</div><div><p><strong>CAUTION</strong></p><p>${escapeMarkup(s.caution)}</p></div></aside>
+<nav class="contents"><a href="#evidence">Evidence</a><a href="#priors">Priors</a><a href="#perturber">Perturber</a><a href="#images">Images</a><a href="#posterior">Posteriors</a><a href="#diagnostics">Sampler diagnostics</a><a href="#files">Files</a><a href="#about">About the figures</a></nav>
+${section('evidence', 'Evidence and Bayes factor', `<div><h3>Evidence of each model</h3>${evidenceTable(s)}<p class="note">ln Z is the natural log of the evidence (marginal likelihood). The first error follows from the information H (Skilling 2006); the second from simulated prior-volume shrinkage. Settings: ${MODEL_NAMES.map((m) => `${m} ${s.models[m].livePoints} live points`).join(', ')}${settings?.lnZTolerance === undefined ? '' : `, stop when the remaining evidence is below ${settings.lnZTolerance} in ln Z`}.</p></div>
+<div class="narrow"><h3>Bayes factor</h3>${bayesFactorTable(s)}</div>
+<h3 id="priors">Priors behind this Bayes factor</h3>
+<p class="note">The Bayes factor above holds for these priors only: widening the perturber's prior over masses or positions the data disfavour lowers it.</p>
+${priorTable(s)}`)}
+${section('perturber', 'Perturber', `${perturberTable(s, run.truth)}${inSection('perturber-posterior').map((f) => figureHtml(f, pageFile)).join('\n')}`)}
+${section('images', 'Images and residuals', images.length === 0 ? '<p class="note">No image could be read; see the notices under the diagnostics.</p>' : imageGrid)}
+${section('posterior', 'Posteriors of all parameters', `${inSection('posterior').map((f) => figureHtml(f, pageFile)).join('\n')}
+<h3>Parameter intervals</h3>
+<p class="note">Median and central 68% and 95% credible intervals of the weighted posterior samples.${run.truth === null ? '' : ' The truth column gives the simulated value and whether each model\'s intervals hold it.'}</p>
+${parameterTable(s, run.truth)}`)}
+${section('diagnostics', 'Sampler diagnostics', `${diagnosticsTable(s)}
+<p class="note">The insertion-rank p-value tests whether each new live point's likelihood rank is uniform among the live points, as it is when the constrained draws are unbiased; a small value warns that ln Z may be off.</p>
+${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
+${section('files', 'Files', `<ul class="files">${runFiles(run).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(run.folder), resolve(f)) || f)}</a></li>`).join('\n')}
+${figures.flatMap((f) => f.files).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(run.folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
+${section('about', 'About the figures', `<div class="maps">${colourMapRow(sequentialColourMap, 'data, models and noise: lightness rises steadily from dark to light, so brightness reads the same in grey and for colour-blind readers.')}
+${colourMapRow(divergingColourMap, 'residuals: blue below zero, rust above, equally light at equal distance from the near-white zero.')}</div>
+<p class="note">Both maps are arcsift's own, set by five control points in OKLCh (Ottosson 2020) and interpolated linearly in OKLab between them, with lightness monotonic along each arm. Corner plots show 1-D marginal histograms and the 2-D regions of highest posterior density holding 39.3% and 86.5% of the mass (1 and 2 sigma for a 2-D Gaussian), traced by marching squares on the binned densities of corner.json.</p>`)}
+</main>
+<footer>arcsift ${escapeMarkup(input.arcsiftVersion)} &middot; report of ${escapeMarkup(resolve(run.folder))}</footer>
+</body>
+</html>
+`;
+}

@@ -1,0 +1,128 @@
+import normal from '@stdlib/random/base/normal';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { writeFits } from '../../src/fits/index.js';
+import type { HeaderCard } from '../../src/fits/index.js';
+import { cornerData } from '../../src/results/index.js';
+
+/** Hand-made numbers of the synthetic summary, distinct enough to be found in the page. */
+export const SYNTHETIC = {
+  smoothLnZ: -1234.5678,
+  smoothLnZError: 0.4321,
+  perturbedLnZ: -1229.1234,
+  perturbedLnZError: 0.5432,
+  lnB: 5.4444,
+  lnBError: 0.6912,
+  caution: 'Synthetic caution: these numbers were typed by hand for a test.',
+} as const;
+
+const SIDE = 12;
+const SCALE_ARCSEC = 0.1;
+
+function cards(unit: string): HeaderCard[] {
+  return [
+    { keyword: 'BUNIT', kind: 'string', value: unit },
+    { keyword: 'CDELT1', kind: 'float', value: SCALE_ARCSEC / 3600 },
+    { keyword: 'CDELT2', kind: 'float', value: SCALE_ARCSEC / 3600 },
+  ];
+}
+
+function image(f: (i: number, j: number) => number): Float64Array {
+  const out = new Float64Array(SIDE * SIDE);
+  for (let j = 0; j < SIDE; j++) for (let i = 0; i < SIDE; i++) out[i + SIDE * j] = f(i, j);
+  return out;
+}
+
+const fits = (file: string, data: Float64Array, unit: string): void =>
+  writeFits(file, { primary: { data, nx: SIDE, ny: SIDE, cards: cards(unit) } });
+
+const prior = (name: string, lower: number, upper: number) => ({ name, kind: 'uniform', fixed: false, periodic: false, lower, upper });
+const summaryOf = (median: number, half: number) => ({
+  median,
+  interval68: { lower: median - half, upper: median + half },
+  interval95: { lower: median - 2 * half, upper: median + 2 * half },
+});
+
+function modelRecord(label: string, lnZ: number, lnZError: number, names: string[], units: string[], folder: string) {
+  return {
+    label, lnEvidence: lnZ, lnEvidenceError: lnZError, lnEvidenceErrorSimulated: lnZError * 1.1, informationNats: 12.5,
+    livePoints: 50, method: 'slice', iterations: 700, evaluations: 43210, efficiency: 0.0123, nonFiniteLikelihoods: 0,
+    insertionRankPValue: 0.42, insertionRankWarning: false, stopReason: 'converged', bestLnLikelihood: lnZ + 20,
+    bestFit: {}, bestFitAmplitudes: {}, seconds: 12.3, threads: 1,
+    parameters: names.map((name, k) => ({ name, unit: units[k], median: k, interval68: [k - 0.1, k + 0.1], interval95: [k - 0.2, k + 0.2] })),
+    files: { cornerData: join(folder, 'corner.json') },
+  };
+}
+
+/**
+ * Writes a small comparison run as `arcsift compare` would, by hand: a data folder (12 x 12 FITS
+ * images, truth.json) and a run folder with summary.json, both corner.json files (cornerData of
+ * Gaussian samples) and the best-fit, residual and normalised-residual FITS of each model.
+ * Returns the run folder.
+ */
+export function writeSyntheticRun(root: string): string {
+  const dataFolder = join(root, 'data');
+  const runFolder = join(root, 'chains', 'synthetic-run');
+  mkdirSync(dataFolder, { recursive: true });
+  const ring = (i: number, j: number): number => Math.exp(-((Math.hypot(i - 5.5, j - 5.5) - 3.5) ** 2));
+  fits(join(dataFolder, 'image.fits'), image((i, j) => ring(i, j) + (i === 0 && j === 0 ? 0.5 : 0)), 'counts/s');
+  fits(join(dataFolder, 'noise.fits'), image(() => 0.05), 'counts/s');
+  fits(join(dataFolder, 'psf.fits'), image((i, j) => (i === 5 && j === 5 ? 1 : 0)), '');
+  fits(join(dataFolder, 'mask.fits'), image((i, j) => (Math.hypot(i - 5.5, j - 5.5) < 5 ? 1 : 0)), '');
+  writeFileSync(join(dataFolder, 'truth.json'), JSON.stringify({
+    title: 'synthetic lens',
+    parameters: [
+      { name: 'lens.mass[0].einsteinRadiusArcsec', value: 0.35, unit: 'arcsec' },
+      { name: 'perturbers[0].log10MassSolar', value: 9.5, unit: 'log10(M/Msun)' },
+      { name: 'perturbers[0].centerXArcsec', value: 0.2, unit: 'arcsec' },
+      { name: 'perturbers[0].centerYArcsec', value: -0.1, unit: 'arcsec' },
+    ],
+    perturbers: [{ key: 'perturbers[0]', kind: 'truncatedNfw', massM200Solar: 10 ** 9.5, totalMassSolar: 10 ** 9.6 }],
+  }));
+
+  const smoothNames = ['lens.mass[0].einsteinRadiusArcsec'];
+  const perturbedNames = [...smoothNames, 'perturbers[0].log10MassSolar', 'perturbers[0].centerXArcsec', 'perturbers[0].centerYArcsec'];
+  const units = ['arcsec', 'log10(M/Msun)', 'arcsec', 'arcsec'];
+  const centres = [0.35, 9.5, 0.2, -0.1];
+  const widths = [0.01, 0.3, 0.05, 0.05];
+  const draw = normal.factory(0, 1, { seed: 3 });
+  for (const [model, names] of [['smooth', smoothNames], ['perturbed', perturbedNames]] as const) {
+    const folder = join(runFolder, model);
+    mkdirSync(folder, { recursive: true });
+    const count = 3000;
+    const points = new Float64Array(count * names.length);
+    for (let r = 0; r < count; r++) for (let c = 0; c < names.length; c++) points[r * names.length + c] = centres[c] + widths[c] * draw();
+    writeFileSync(join(folder, 'corner.json'), JSON.stringify(cornerData(names, units.slice(0, names.length), points, new Float64Array(count).fill(1))));
+    fits(join(folder, 'best-fit-model.fits'), image(ring), 'counts/s');
+    fits(join(folder, 'residual.fits'), image((i, j) => (i - j) * 0.01), 'counts/s');
+    fits(join(folder, 'normalised-residual.fits'), image((i, j) => (i - j) * 0.2), '');
+  }
+  const summary = {
+    arcsiftVersion: '0.0.0-test', kind: 'comparison', config: 'configs/synthetic.yaml', configSha256: 'ab'.repeat(32),
+    data: { image: join(dataFolder, 'image.fits'), noise: join(dataFolder, 'noise.fits'), psf: join(dataFolder, 'psf.fits'), mask: join(dataFolder, 'mask.fits') },
+    dataNotices: [], seed: 7, settings: { smooth: { lnZTolerance: 0.1 }, perturbed: { lnZTolerance: 0.1 } }, runSeconds: 99,
+    models: {
+      smooth: modelRecord('smooth', SYNTHETIC.smoothLnZ, SYNTHETIC.smoothLnZError, smoothNames, units, join(runFolder, 'smooth')),
+      perturbed: modelRecord('perturbed', SYNTHETIC.perturbedLnZ, SYNTHETIC.perturbedLnZError, perturbedNames, units, join(runFolder, 'perturbed')),
+    },
+    bayesFactor: {
+      lnBayesFactor: SYNTHETIC.lnB, lnBayesFactorError: SYNTHETIC.lnBError,
+      reading: 'strong evidence for the perturbed model over the smooth model', kassRafteryGrade: 'strong',
+      significance: 'at most as significant as a p-value of 0.00123 (3.2 sigma, two-sided)',
+      pValueBound: 0.00123, sigmaBound: 3.23, perturberFavoured: true, favouredAbove: 1,
+    },
+    perturbers: [{
+      key: 'perturbers[0]', kind: 'truncatedNfw', log10Mass: summaryOf(9.52, 0.3), log10MassUpperLimit95: 10.1,
+      centerXArcsec: summaryOf(0.21, 0.05), centerYArcsec: summaryOf(-0.09, 0.05),
+      log10M200: summaryOf(9.52, 0.3), log10TotalMass: summaryOf(9.61, 0.3), massPriorRange: [8, 12],
+    }],
+    priors: {
+      smooth: [prior(smoothNames[0], 0.2, 0.5)],
+      perturbed: [prior(smoothNames[0], 0.2, 0.5), prior(perturbedNames[1], 8, 12), prior(perturbedNames[2], -0.6, 0.6), prior(perturbedNames[3], -0.6, 0.6)],
+    },
+    amplitudePrior: 'every linear light amplitude ~ Normal(0, 100^2), counts/s/arcsec^2 (marginalised analytically)',
+    caution: SYNTHETIC.caution,
+  };
+  writeFileSync(join(runFolder, 'summary.json'), JSON.stringify(summary, null, 2));
+  return runFolder;
+}

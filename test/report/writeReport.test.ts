@@ -1,0 +1,118 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { InputError } from '../../src/errors.js';
+import { writeReport } from '../../src/report/writeReport.js';
+import { SYNTHETIC, writeSyntheticRun } from './syntheticRun.js';
+
+// The report of a hand-made run folder (syntheticRun.ts): a page that stands alone (no network),
+// whose links all resolve, that shows summary.json's evidence numbers and every figure.
+
+/** Every src and href value in an HTML text (attribute values in double quotes, as the report writes them). */
+function references(html: string): string[] {
+  return [...html.matchAll(/\s(?:src|href)="([^"]*)"/g)].map((m) => m[1]);
+}
+
+/** The references a browser would load or follow to another file: not in-page anchors, not data URIs. */
+const fileReferences = (html: string): string[] => references(html).filter((r) => !r.startsWith('#') && !r.startsWith('data:'));
+
+let root: string;
+let run: string;
+let page: string;
+let html: string;
+
+describe('writeReport on a synthetic run folder', () => {
+  beforeAll(() => {
+    root = mkdtempSync(join(tmpdir(), 'arcsift-report-'));
+    run = writeSyntheticRun(root);
+    page = writeReport(run);
+    html = readFileSync(page, 'utf8');
+  });
+
+  it('writes report.html in the run folder and its figures in figures/', () => {
+    expect(page).toBe(join(run, 'report.html'));
+    const figures = readdirSync(join(run, 'figures'));
+    for (const name of ['data', 'noise', 'smooth-model', 'smooth-residual', 'smooth-normalised-residual', 'perturbed-model', 'perturbed-residual', 'perturbed-normalised-residual']) {
+      expect(figures).toContain(`${name}.svg`);
+      expect(figures).toContain(`${name}.png`);
+    }
+    expect(figures).toContain('corner-perturber.svg');
+    expect(figures).toContain('corner-all.svg');
+  });
+
+  it('needs no network and refers only to files that exist', () => {
+    const all = references(html);
+    expect(all.length).toBeGreaterThan(0);
+    for (const r of all) expect(r).not.toMatch(/^(https?:)?\/\//);
+    expect(html).not.toMatch(/<script|<link\s|@import|url\(\s*['"]?https?:/);
+    for (const r of fileReferences(html)) expect(existsSync(resolve(dirname(page), decodeURI(r))), r).toBe(true);
+    // Every in-page anchor has its target.
+    for (const r of all.filter((x) => x.startsWith('#'))) expect(html).toContain(`id="${r.slice(1)}"`);
+  });
+
+  it('links every figure file and shows every SVG figure inline', () => {
+    const linked = new Set(fileReferences(html).map((r) => resolve(dirname(page), decodeURI(r))));
+    const figures = readdirSync(join(run, 'figures'));
+    for (const name of figures) expect(linked.has(resolve(run, 'figures', name)), name).toBe(true);
+    const inline = (html.match(/<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg"/g) ?? []).length;
+    expect(inline).toBe(figures.filter((f) => f.endsWith('.svg')).length);
+  });
+
+  it("contains the numbers of summary.json's evidence table, to the two decimals it shows", () => {
+    const table = /<table id="evidence-table">[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
+    for (const value of [SYNTHETIC.smoothLnZ, SYNTHETIC.smoothLnZError, SYNTHETIC.perturbedLnZ, SYNTHETIC.perturbedLnZError]) {
+      expect(table).toContain(value.toFixed(2));
+    }
+    const bayes = /<table id="bayes-factor-table"[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
+    expect(bayes).toContain(`${SYNTHETIC.lnB.toFixed(2)} &plusmn; ${SYNTHETIC.lnBError.toFixed(2)}`);
+    expect(bayes).toContain('strong evidence for the perturbed model');
+    expect(bayes).toContain('0.00123');
+  });
+
+  it('shows the caution, the priors behind the Bayes factor, the truth and the sampler diagnostics', () => {
+    expect(html).toContain(SYNTHETIC.caution);
+    const priors = /<table id="prior-table">[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
+    expect(priors).toContain('uniform on [8, 12]');
+    expect(priors).toContain('not in this model');
+    expect(priors).toContain('Normal(0, 100^2)');
+    expect(html).toContain('simulated truth');
+    const diagnostics = /<table id="diagnostics-table">[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
+    for (const text of ['slice', '43\u2009210', '1.23%', '0.420']) expect(diagnostics).toContain(text);
+  });
+
+  it('writes elsewhere with --out, its links still resolving from there', () => {
+    const other = join(root, 'elsewhere', 'page.html');
+    expect(writeReport(run, other)).toBe(other);
+    const text = readFileSync(other, 'utf8');
+    for (const r of fileReferences(text)) expect(existsSync(resolve(dirname(other), decodeURI(r))), r).toBe(true);
+  });
+});
+
+describe('writeReport on a bad run folder', () => {
+  it('names summary.json when it is missing, not JSON, or misses a key', () => {
+    const folder = mkdtempSync(join(tmpdir(), 'arcsift-report-bad-'));
+    const summary = join(folder, 'summary.json');
+    expect(() => writeReport(folder)).toThrow(InputError);
+    expect(() => writeReport(folder)).toThrow(summary);
+    writeFileSync(summary, '{ "kind": "comparison", ');
+    expect(() => writeReport(folder)).toThrow(/summary\.json: not valid JSON/);
+    const good = JSON.parse(readFileSync(join(writeSyntheticRun(folder), 'summary.json'), 'utf8'));
+    good.models.perturbed.lnEvidence = 'big';
+    writeFileSync(summary, JSON.stringify(good));
+    expect(() => writeReport(folder)).toThrow(/summary\.json, key models\.perturbed\.lnEvidence: expected a number, found "big"/);
+    rmSync(folder, { recursive: true, force: true });
+  });
+
+  it('exits with status 2 from the command line, naming the file', () => {
+    // The CLI contract of src/errors.ts: user mistakes print one line and exit 2. Runs the built CLI (npm test builds first).
+    const cli = fileURLToPath(new URL('../../dist/cli/main.js', import.meta.url));
+    const folder = mkdtempSync(join(tmpdir(), 'arcsift-report-cli-'));
+    const result = spawnSync(process.execPath, [cli, 'report', folder], { encoding: 'utf8', timeout: 60_000 });
+    expect(result.status).toBe(2);
+    expect(result.stderr).toContain(join(folder, 'summary.json'));
+    rmSync(folder, { recursive: true, force: true });
+  });
+});
