@@ -29,14 +29,21 @@ export function priorTable(summary: ComparisonSummary): string {
   const isFree = (name: string): boolean => !(perturbed.get(name) ?? smooth.get(name))!.fixed;
   const ordered = [...names.filter(isFree), ...names.filter((n) => !isFree(n))];
   const cell = (p: PriorDescription | undefined): string => (p === undefined ? '<span class="absent">not in this model</span>' : escapeMarkup(priorText(p)));
+  // Region priors on perturber positions (summaries written before they existed have none).
+  const regions = new Map((summary.positionPriors ?? []).map((r) => [r.key, r.region]));
+  const replaced = (name: string): string | undefined => {
+    const match = /^(.*)\.center[XY]Arcsec$/.exec(name);
+    return match === null ? undefined : regions.get(match[1]);
+  };
   const rows: (string | TableCell)[][] = ordered.map((name) => {
     const label = parameterLabel(name, '');
     const p = perturbed.get(name) ?? smooth.get(name)!;
+    const region = replaced(name);
     return [
       `<span class="component">${escapeMarkup(label.component)}</span> ${escapeMarkup(label.quantity)}`,
       p.fixed ? '<span class="tag held">held</span>' : '<span class="tag free">free</span>',
       cell(smooth.get(name)),
-      cell(perturbed.get(name)),
+      region === undefined ? cell(perturbed.get(name)) : `position ${escapeMarkup(region)} <span class="muted">(replaces the box ${escapeMarkup(priorText(perturbed.get(name)!))})</span>`,
     ];
   });
   rows.push(['every linear light amplitude', '<span class="tag free">marginalised</span>', { html: escapeMarkup(summary.amplitudePrior), columns: 2 }]);

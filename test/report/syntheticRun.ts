@@ -120,6 +120,7 @@ export function writeSyntheticRun(root: string): string {
       smooth: [prior(smoothNames[0], 0.2, 0.5)],
       perturbed: [prior(smoothNames[0], 0.2, 0.5), prior(perturbedNames[1], 8, 12), prior(perturbedNames[2], -0.6, 0.6), prior(perturbedNames[3], -0.6, 0.6)],
     },
+    positionPriors: [{ key: 'perturbers[0]', region: 'uniform over the used pixels of the mask' }],
     amplitudePrior: 'every linear light amplitude ~ Normal(0, 100^2), counts/s/arcsec^2 (marginalised analytically)',
     caution: SYNTHETIC.caution,
   };

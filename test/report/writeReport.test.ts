@@ -78,6 +78,7 @@ describe('writeReport on a synthetic run folder', () => {
     expect(priors).toContain('uniform on [8, 12]');
     expect(priors).toContain('not in this model');
     expect(priors).toContain('Normal(0, 100^2)');
+    expect(priors).toContain('position uniform over the used pixels of the mask');
     expect(html).toContain('simulated truth');
     const diagnostics = /<table id="diagnostics-table">[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
     for (const text of ['slice', '43\u2009210', '1.23%', '0.420']) expect(diagnostics).toContain(text);
