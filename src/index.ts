@@ -23,3 +23,4 @@ export { compareModels, type Comparison } from './inference/compareModels.js';
 export { runComparisonToFolder, type ComparisonSummary } from './inference/runComparisonToFolder.js';
 export { runFitToFolder, fitPerturberCount, type FitSettings, type FitOutcome } from './inference/runFitToFolder.js';
 export { runModelEnsemble } from './inference/runModelEnsemble.js';
+export * from './report/index.js';

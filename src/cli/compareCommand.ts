@@ -1,4 +1,5 @@
 import type { CommandModule } from 'yargs';
+import { writeReport } from '../report/index.js';
 import { basename, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
@@ -12,6 +13,7 @@ interface CompareArguments extends DataArguments, SamplerArguments {
   out?: string;
   perturbers: number;
   'max-perturbers'?: number;
+  report: boolean;
 }
 
 export const compareCommand: CommandModule<object, CompareArguments> = {
@@ -21,6 +23,7 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
     .option('config', { type: 'string', demandOption: true, describe: 'model config (YAML or JSON) with priors; its perturbers make the perturbed model' })
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-compare]' })
     .option('perturbers', { type: 'number', default: 1, describe: 'how many of the config\'s perturbers the perturbed model holds' })
+    .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
     .option('max-perturbers', { type: 'number', describe: 'instead: compare 0, 1, ..., K perturbers by evidence (extra ones copy the last listed perturber)' })), { livePoints: 200 })
     .example('$0 compare --config configs/demo.yaml --data chains/mock --out chains/mock-compare', 'smooth versus one subhalo'),
   handler: async (args) => {
@@ -53,5 +56,6 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
     });
     perturbed.finish();
     process.stdout.write(`${formatComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
+    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
   },
 };

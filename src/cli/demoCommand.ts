@@ -1,4 +1,5 @@
 import type { CommandModule } from 'yargs';
+import { writeReport } from '../report/index.js';
 import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
@@ -12,9 +13,11 @@ import { formatComparison } from './formatComparison.js';
 import { rmSync } from 'node:fs';
 
 interface DemoArguments extends SamplerArguments {
+  config?: string;
   out: string;
   'noise-seed': number;
   fresh: boolean;
+  report: boolean;
 }
 
 /** configs/demo.yaml of the installed package. */
@@ -24,18 +27,21 @@ export const demoCommand: CommandModule<object, DemoArguments> = {
   command: 'demo',
   describe: 'Run the main job on the built-in scenario: simulate it, then compare smooth and perturbed models',
   builder: (y) => withSamplerOptions(y
+    .option('config', { type: 'string', describe: 'another scenario to run the demo on [default: the built-in configs/demo.yaml]' })
     .option('out', { type: 'string', default: 'chains/demo', describe: 'folder for the demo run (data/ and compare/ inside)' })
     .option('noise-seed', { type: 'number', default: 1, describe: 'seed of the simulated noise' })
+    .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
     .option('fresh', { type: 'boolean', default: true, describe: 'remove an earlier demo run in --out first (--no-fresh with --resume continues one)' }),
-  { livePoints: 60 }),
+  { livePoints: 40 }),
   handler: async (args) => {
     const started = performance.now();
-    const config = loadConfig(demoConfigPath);
+    const configPath = args.config ?? demoConfigPath;
+    const config = loadConfig(configPath);
     const dataDir = join(args.out, 'data');
     const compareDir = join(args.out, 'compare');
     if (args.fresh && !args.resume) rmSync(compareDir, { recursive: true, force: true });
     checkOutputFolder(compareDir, args.resume, ['smooth', 'perturbed']);
-    process.stdout.write(`arcsift demo: ${config.title}\n1. simulating the scenario of ${demoConfigPath}\n`);
+    process.stdout.write(`arcsift demo: ${config.title}\n1. simulating the scenario of ${configPath}\n`);
     simulateToFolder(config, dataDir, { seed: args['noise-seed'], noiseless: false });
     process.stdout.write(`   wrote ${dataDir}/image.fits, noise.fits, psf.fits, mask.fits, truth.json\n`);
     const data = loadObservedData({ folder: dataDir }, { columns: config.observation.columns, rows: config.observation.rows, pixelScaleArcsec: config.observation.pixelScaleArcsec });
@@ -64,6 +70,7 @@ export const demoCommand: CommandModule<object, DemoArguments> = {
     }
     const found = comparison.perturberFavoured;
     process.stdout.write(`  verdict: the planted subhalo was ${found ? 'FOUND' : 'NOT found'} (ln B = ${comparison.lnBayesFactor.toFixed(1)} +- ${comparison.lnBayesFactorError.toFixed(1)})\n`);
+    if (args.report) process.stdout.write(`\nreport (open it in a browser): ${writeReport(compareDir)}\n`);
     process.stdout.write(`\ndemo finished in ${((performance.now() - started) / 1000).toFixed(0)} s; results in ${compareDir}\n`);
   },
 };
