@@ -13,7 +13,7 @@ export interface SamplerArguments {
   seed: number;
   'live-points': number;
   method: string;
-  'slice-steps'?: number;
+  'slice-steps': number;
   tolerance: number;
   'max-evaluations'?: number;
   resume: boolean;
@@ -21,17 +21,22 @@ export interface SamplerArguments {
 }
 
 /** Options shared by every command that runs nested sampling. */
-export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number }): Argv<T & SamplerArguments> {
+export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number; sliceStepsPerParameter?: number }): Argv<T & SamplerArguments> {
   return y
     .option('threads', { type: 'number', describe: 'worker threads evaluating the likelihood [default: all cores]' })
     .option('seed', { type: 'number', default: 1, describe: 'seed of the sampler (results do not depend on --threads)' })
     .option('live-points', { type: 'number', default: defaults.livePoints, describe: 'live points of each nested-sampling run' })
     .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: 'auto', describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters, slice otherwise)' })
-    .option('slice-steps', { type: 'number', describe: 'slice moves per new live point [default: 2 x free parameters]' })
+    .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? 2, describe: 'slice moves per new live point, per free parameter' })
     .option('tolerance', { type: 'number', default: 0.1, describe: 'stop when the live points could add less than this to ln Z' })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
     .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
     .option('quiet', { type: 'boolean', default: false, describe: 'print no progress' }) as Argv<T & SamplerArguments>;
+}
+
+function positiveOption(name: string, value: number): number {
+  if (!(value > 0) || !Number.isFinite(value)) throw new InputError(`--${name}: expected a number > 0, found ${value}`);
+  return value;
 }
 
 /** Evidence settings from the options, with a progress printer; checks the options first. */
@@ -46,7 +51,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string): { set
     settings: {
       livePoints, seed, threads, maxEvaluations,
       method: args.method as NestedMethod,
-      sliceSteps: args['slice-steps'] === undefined ? undefined : wholeNumberOption('slice-steps', args['slice-steps'], 1),
+      sliceStepsPerParameter: positiveOption('slice-steps', args['slice-steps']),
       replacementsPerStep: 2,
       lnZTolerance: args.tolerance,
       resume: args.resume,

@@ -16,7 +16,9 @@ export interface EvidenceSettings {
   /** Live points replaced per step; fixed, never tied to the thread count, so results do not depend on it. */
   readonly replacementsPerStep: number;
   readonly lnZTolerance: number;
-  /** Slice moves per new live point (slice sampling); default 2 x the number of free parameters. */
+  /** Slice moves per new live point, per free parameter (slice sampling); default 2. */
+  readonly sliceStepsPerParameter?: number;
+  /** Slice moves per new live point in all; overrides sliceStepsPerParameter when given. */
   readonly sliceSteps?: number;
   readonly maxEvaluations?: number;
   readonly threads: number;
@@ -88,7 +90,7 @@ export async function runModelEvidence(
         livePoints: settings.livePoints,
         seed: settings.seed,
         method: lensModelMethod(settings.method, space.dim, perturberCount),
-        slice: { steps: settings.sliceSteps ?? 2 * space.dim },
+        slice: { steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? 2) * space.dim)) },
         replacementsPerStep: settings.replacementsPerStep,
         lnZTolerance: settings.lnZTolerance,
         maxEvaluations: settings.maxEvaluations,
