@@ -143,7 +143,7 @@ describe('runFitToFolder with the ensemble sampler', () => {
     const model = readFitsImage(join(fitDir, 'best-fit-model.fits'));
     const residual = readFitsImage(join(fitDir, 'residual.fits'));
     const normalised = readFitsImage(join(fitDir, 'normalised-residual.fits'));
-    expect([model.nx, model.ny]).toEqual([48, 48]);
+    expect([model.nx, model.ny]).toEqual([config.observation.columns, config.observation.rows]);
     for (let p = 0; p < model.data.length; p++) {
       if (data.mask[p] === 0) {
         expect(residual.data[p]).toBe(0);
