@@ -17,6 +17,7 @@ export interface SamplerArguments {
   tolerance: number;
   'max-evaluations'?: number;
   resume: boolean;
+  'checkpoint-seconds': number;
   quiet: boolean;
 }
 
@@ -30,6 +31,7 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
     .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? 2, describe: 'slice moves per new live point, per free parameter' })
     .option('tolerance', { type: 'number', default: 0.1, describe: 'stop when the live points could add less than this to ln Z' })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
+    .option('checkpoint-seconds', { type: 'number', default: 30, describe: 'seconds between checkpoints of the sampler state' })
     .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
     .option('quiet', { type: 'boolean', default: false, describe: 'print no progress' }) as Argv<T & SamplerArguments>;
 }
@@ -55,6 +57,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string): { set
       replacementsPerStep: 2,
       lnZTolerance: args.tolerance,
       resume: args.resume,
+      checkpointSeconds: positiveOption('checkpoint-seconds', args['checkpoint-seconds']),
       onProgress: printer.onProgress,
     },
     finish: printer.finish,

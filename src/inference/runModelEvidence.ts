@@ -24,6 +24,8 @@ export interface EvidenceSettings {
   readonly threads: number;
   /** Checkpoint file; with `resume`, an existing one is continued. */
   readonly checkpointPath?: string;
+  /** Seconds between checkpoints (default 30). */
+  readonly checkpointSeconds?: number;
   readonly resume?: boolean;
   readonly onProgress?: (progress: NestedProgress) => void;
   readonly signal?: { stopRequested: boolean };
@@ -94,7 +96,7 @@ export async function runModelEvidence(
         replacementsPerStep: settings.replacementsPerStep,
         lnZTolerance: settings.lnZTolerance,
         maxEvaluations: settings.maxEvaluations,
-        checkpoint: settings.checkpointPath === undefined ? undefined : { path: settings.checkpointPath, everySeconds: 30 },
+        checkpoint: settings.checkpointPath === undefined ? undefined : { path: settings.checkpointPath, everySeconds: settings.checkpointSeconds ?? 30 },
         resume: settings.resume,
         onProgress: settings.onProgress,
         signal: settings.signal,
