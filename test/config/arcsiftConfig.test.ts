@@ -59,3 +59,19 @@ describe('config loading', () => {
     expect(() => loadConfig('/nonexistent/arcsift.yaml')).toThrow(/\/nonexistent\/arcsift\.yaml: cannot read the config file \(ENOENT\)/);
   });
 });
+
+describe('example configs', () => {
+  it('every config in configs/ loads and assembles into a model with priors', async () => {
+    const { readdirSync } = await import('node:fs');
+    const { buildLensSystem } = await import('../../src/model/lensSystem.js');
+    const { modelParameterSpace } = await import('../../src/inference/modelParameterSpace.js');
+    const folder = fileURLToPath(new URL('../../configs/', import.meta.url));
+    const files = readdirSync(folder).filter((f) => f.endsWith('.yaml'));
+    expect(files.length).toBeGreaterThanOrEqual(2);
+    for (const file of files) {
+      const config = loadConfig(`${folder}${file}`);
+      const space = modelParameterSpace(buildLensSystem(config));
+      expect(space.dim, file).toBeGreaterThan(0);
+    }
+  });
+});
