@@ -26,7 +26,7 @@ describe('config loading', () => {
     expect(config.observation.columns).toBe(100);
     expect(config.observation.psf).toEqual({ shape: 'gaussian', fwhmArcsec: 0.1, sizePixels: 21 });
     expect(config.lensMass[0].entries.einsteinRadiusArcsec).toEqual({
-      key: 'lens.mass[0].einsteinRadiusArcsec', value: 1.18, prior: { kind: 'uniform', lower: 1.0, upper: 1.4 },
+      key: 'lens.mass[0].einsteinRadiusArcsec', value: 1.18, prior: { kind: 'uniform', lower: 1.05, upper: 1.3 },
     });
     expect(config.perturbers).toHaveLength(1);
   });
