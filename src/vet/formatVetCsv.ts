@@ -1,0 +1,39 @@
+import type { VetRunRecord, VetSummary } from './runVetToFolder.js';
+
+/** Columns of vet.csv, in order. */
+export const VET_CSV_COLUMNS = [
+  'candidate', 'flag_x_arcsec', 'flag_y_arcsec', 'score', 'ln_bayes_factor', 'ln_bayes_factor_error', 'verdict',
+  'log10_mass_median', 'log10_mass_68_lower', 'log10_mass_68_upper', 'log10_mass_upper_limit_95',
+  'x_arcsec', 'y_arcsec', 'offset_arcsec',
+] as const;
+
+const cell = (v: number | null | undefined): string => (v === null || v === undefined || !Number.isFinite(v) ? '' : String(+v.toPrecision(8)));
+
+function row(r: VetRunRecord): string {
+  const confirmed = r.verdict === 'confirmed';
+  return [
+    r.id, cell(r.flag?.xArcsec), cell(r.flag?.yArcsec), cell(r.score), cell(r.lnBayesFactor), cell(r.lnBayesFactorError), r.verdict,
+    confirmed ? cell(r.log10Mass.median) : '', confirmed ? cell(r.log10Mass.interval68.lower) : '', confirmed ? cell(r.log10Mass.interval68.upper) : '',
+    confirmed ? '' : cell(r.log10MassUpperLimit95),
+    cell(r.position.xArcsec.median), cell(r.position.yArcsec.median), cell(r.offsetArcsec),
+  ].join(',');
+}
+
+/**
+ * vet.csv: comment lines starting with '#' (thresholds, what the mass is), a header
+ * (VET_CSV_COLUMNS) and one row per candidate, then the map-prior run if any (candidate
+ * `map-prior`, no flag position). Mass median and 68% interval are given for confirmed rows, the
+ * 95% upper limit for the others; x, y are posterior medians; empty cells mean "not given".
+ */
+export function formatVetCsv(summary: VetSummary): string {
+  const t = summary.thresholds;
+  const lines = [
+    `# arcsift vet: ln B = ln Z(perturbed) - ln Z(smooth); confirmed when ln B > ${t.confirmAboveLnB}, disfavoured when ln B < ${t.disfavourBelowLnB}, inconclusive between`,
+    `# log10 mass of the ${summary.perturberKind} perturber in solar masses (M200 for NFW-type perturbers, total mass otherwise): median and 68% interval when confirmed, 95% upper limit otherwise`,
+    '# positions in arcsec from the image centre (x with the column, y with the row); offset = distance of the posterior median from the flag',
+    VET_CSV_COLUMNS.join(','),
+    ...summary.candidates.map(row),
+    ...(summary.mapPrior === null ? [] : [row(summary.mapPrior)]),
+  ];
+  return `${lines.join('\n')}\n`;
+}
