@@ -120,7 +120,7 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     const interrupted = existsSync(out) && readdirSync(out).some((name) => existsSync(join(out, name, 'checkpoint.json')));
     if (interrupted && !args.resume) throw new InputError(`${out} holds an interrupted vetting; pass --resume to continue it, or choose another --out`);
     const data = loadDataOf(args, config);
-    const flags = readFlags(args.flags, data, mapSettings);
+    const flags = readFlags(args.flags, data, { ...mapSettings, requireCandidates: !args['map-prior'] });
     if (args['map-prior'] && flags.map === undefined) {
       throw new InputError('--map-prior takes the probability map as the position prior: expected --flags to name a .fits or .npy map, found a list', { file: args.flags });
     }

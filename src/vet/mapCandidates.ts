@@ -8,6 +8,8 @@ export interface MapCandidateSettings {
   readonly threshold: number;
   /** Maxima closer than this to a higher kept one are merged into it, arcsec (default 0.15). */
   readonly mergeRadiusArcsec: number;
+  /** When false, a map with no value at the threshold gives no candidates instead of an InputError (default true). */
+  readonly requireCandidates?: boolean;
 }
 
 export const defaultMapCandidateSettings: MapCandidateSettings = { threshold: 0.5, mergeRadiusArcsec: 0.15 };
@@ -18,7 +20,8 @@ export const defaultMapCandidateSettings: MapCandidateSettings = { threshold: 0.
  * row-major order), taken from the highest down and each dropped when it lies within the merge
  * radius of one already kept (greedy non-maximum suppression, common practice). A candidate sits
  * at the value-weighted centroid of the 3 x 3 pixels around its peak (masked pixels count 0) and
- * its score is the peak value. Throws InputError when no pixel reaches the threshold.
+ * its score is the peak value. Throws InputError when no pixel reaches the threshold (unless
+ * `requireCandidates` is false).
  */
 export function mapCandidates(map: ProbabilityMap, mask: Uint8Array, grid: FlagGrid, settings: MapCandidateSettings): FlagCandidate[] {
   const { columns, rows, values } = map;
@@ -42,7 +45,7 @@ export function mapCandidates(map: ProbabilityMap, mask: Uint8Array, grid: FlagG
       if (peak) peaks.push(p);
     }
   }
-  if (peaks.length === 0) {
+  if (peaks.length === 0 && settings.requireCandidates !== false) {
     let highest = 0;
     for (let p = 0; p < values.length; p++) if (mask[p] !== 0) highest = Math.max(highest, values[p]);
     throw new InputError(

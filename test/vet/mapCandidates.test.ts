@@ -79,6 +79,11 @@ describe('candidates from a probability map', () => {
     expect(merged[0].score).toBeCloseTo(0.9, 2);
   });
 
+  it('gives no candidates, without an error, when asked not to require any (a map used only as a prior)', () => {
+    const path = writeMapFits('flat-prior.fits', new Float64Array(columns * rows).fill(0.2));
+    expect(readFlags(path, data, { threshold: 0.5, mergeRadiusArcsec: 0.15, requireCandidates: false }).candidates).toEqual([]);
+  });
+
   it('ignores maxima outside the mask', () => {
     const mask = new Uint8Array(columns * rows).fill(1);
     for (let j = 0; j < rows; j++) for (let i = 0; i < columns / 2; i++) mask[i + columns * j] = 0;
