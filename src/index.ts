@@ -24,3 +24,6 @@ export { runComparisonToFolder, type ComparisonSummary } from './inference/runCo
 export { runFitToFolder, fitPerturberCount, type FitSettings, type FitOutcome } from './inference/runFitToFolder.js';
 export { runModelEnsemble } from './inference/runModelEnsemble.js';
 export * from './report/index.js';
+export * from './vet/index.js';
+export * from './sensitivity/index.js';
+export { readNpy, decodeNpy, type NpyImage } from './io/readNpy.js';
