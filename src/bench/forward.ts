@@ -20,7 +20,7 @@ export interface ForwardScenario {
 interface EditableConfig {
   observation: { supersampling: number };
   source: { light: { amplitude: number; effectiveRadiusArcsec: { value: number } }[] };
-  perturbers: { centerXArcsec: { value: number }; centerYArcsec: { value: number } }[];
+  perturbers: { centerXArcsec: number; centerYArcsec: number }[];
 }
 
 /** The demo config as plain data with `supersampling`, for editing. */
@@ -46,8 +46,8 @@ export function forwardScenarios(): ForwardScenario[] {
   const columns = smooth.grid.columns;
   const i = brightest % columns;
   const j = (brightest - i) / columns;
-  compact.perturbers[0].centerXArcsec.value = (i - (columns - 1) / 2) * smooth.grid.pixelScaleArcsec;
-  compact.perturbers[0].centerYArcsec.value = (j - (smooth.grid.rows - 1) / 2) * smooth.grid.pixelScaleArcsec;
+  compact.perturbers[0].centerXArcsec = (i - (columns - 1) / 2) * smooth.grid.pixelScaleArcsec;
+  compact.perturbers[0].centerYArcsec = (j - (smooth.grid.rows - 1) / 2) * smooth.grid.pixelScaleArcsec;
   return [{ name: 'demo', config: demo }, { name: 'compactSource', config: parseConfig(compact, demoPath) }];
 }
 
