@@ -40,7 +40,7 @@ async function poolMilliseconds(config: ArcsiftConfig, data: ObservedData, threa
 async function nestedSeconds(config: ArcsiftConfig, data: ObservedData, threads: number): Promise<number> {
   const started = performance.now();
   await runModelEvidence(config, data, config.perturbers.length, {
-    livePoints: 40, seed: 1, method: 'slice', replacementsPerStep: 2, lnZTolerance: 0.1, threads, maxEvaluations: 4000,
+    livePoints: 40, seed: 1, method: 'slice', replacementsPerStep: 6, lnZTolerance: 0.1, threads, maxEvaluations: 4000,
   });
   return (performance.now() - started) / 1000;
 }

@@ -13,7 +13,10 @@ export interface EvidenceSettings {
   readonly livePoints: number;
   readonly seed: number;
   readonly method: NestedMethod;
-  /** Live points replaced per step; fixed, never tied to the thread count, so results do not depend on it. */
+  /**
+   * Live points replaced per step (6 from the command line: batches big enough to keep two
+   * workers busy); fixed, never tied to the thread count, so results do not depend on it.
+   */
   readonly replacementsPerStep: number;
   readonly lnZTolerance: number;
   /** Slice moves per new live point, per free parameter (slice sampling); default 2. */
@@ -49,7 +52,7 @@ export const defaultEvidenceSettings = {
   livePoints: 400,
   seed: 1,
   method: 'auto' as NestedMethod,
-  replacementsPerStep: 2,
+  replacementsPerStep: 6,
   lnZTolerance: 0.1,
 };
 

@@ -16,8 +16,9 @@ export function defaultThreadCount(): number {
 
 /**
  * Evaluates batches of model vectors (row-major, one row per point, in the model's parameter
- * order) across worker threads. A batch is cut into contiguous runs, one per worker, and the
- * answers are put back in order, so results never depend on the thread count or on timing.
+ * order) across worker threads. Idle workers take the next points of a batch from a queue and
+ * every answer is stored at its point's index, so results never depend on the thread count or
+ * on timing.
  * With one thread everything runs in the calling thread.
  */
 export class LikelihoodPool {
@@ -80,26 +81,27 @@ export class LikelihoodPool {
       for (let r = 0; r < count; r++) out[r] = this.local.logLikelihood(points.subarray(r * width, (r + 1) * width));
       return out;
     }
-    const parts = Math.min(this.workers.length, count);
-    const jobs: Promise<Float64Array>[] = [];
-    let start = 0;
-    for (let w = 0; w < parts; w++) {
-      const size = Math.floor(count / parts) + (w < count % parts ? 1 : 0);
-      const chunk = points.slice(start * width, (start + size) * width);
-      const id = this.nextId++;
-      jobs.push(new Promise<Float64Array>((resolve, reject) => {
-        this.pending.set(id, { resolve, reject });
-        this.workers[w].postMessage({ id, points: chunk, count: size }, [chunk.buffer]);
-      }));
-      start += size;
-    }
-    const answers = await Promise.all(jobs);
+    // A work queue: each idle worker takes the next few points, so an expensive point does not
+    // hold the others up. Every value lands at its own index, so the result is the same
+    // whatever worker computed it and in whatever order.
     const out = new Float64Array(count);
-    let offset = 0;
-    for (const answer of answers) {
-      out.set(answer, offset);
-      offset += answer.length;
-    }
+    const piece = Math.max(1, Math.floor(count / (8 * this.workers.length)));
+    let next = 0;
+    const runWorker = async (worker: Worker): Promise<void> => {
+      while (next < count) {
+        const from = next;
+        const size = Math.min(piece, count - from);
+        next += size;
+        const chunk = points.slice(from * width, (from + size) * width);
+        const id = this.nextId++;
+        const values = await new Promise<Float64Array>((resolve, reject) => {
+          this.pending.set(id, { resolve, reject });
+          worker.postMessage({ id, points: chunk, count: size }, [chunk.buffer]);
+        });
+        out.set(values, from);
+      }
+    };
+    await Promise.all(this.workers.map(runWorker));
     return out;
   }
 
