@@ -54,7 +54,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string): { set
       livePoints, seed, threads, maxEvaluations,
       method: args.method as NestedMethod,
       sliceStepsPerParameter: positiveOption('slice-steps', args['slice-steps']),
-      replacementsPerStep: 6,
+      replacementsPerStep: 2,
       lnZTolerance: args.tolerance,
       resume: args.resume,
       checkpointSeconds: positiveOption('checkpoint-seconds', args['checkpoint-seconds']),
