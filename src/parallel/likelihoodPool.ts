@@ -1,6 +1,7 @@
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
+import { buildLensSystem } from '../model/lensSystem.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
 import { workerScriptUrl } from './workerScriptUrl.js';
 
@@ -56,9 +57,11 @@ export class LikelihoodPool {
 
   static async start(task: LikelihoodTask, threads = defaultThreadCount()): Promise<LikelihoodPool> {
     const count = Math.max(1, Math.floor(threads));
-    const probe = new PixelLikelihood(task.config, task.data, task.perturberCount);
-    const width = probe.system.parameters.length;
-    if (count === 1) return new LikelihoodPool(1, width, [], probe);
+    if (count === 1) {
+      const local = new PixelLikelihood(task.config, task.data, task.perturberCount);
+      return new LikelihoodPool(1, local.system.parameters.length, [], local);
+    }
+    const width = buildLensSystem(task.config, { perturberCount: task.perturberCount }).parameters.length;
     const url = workerScriptUrl(import.meta.url, './likelihoodWorker.js');
     const workers = await Promise.all(Array.from({ length: count }, () => new Promise<Worker>((resolve, reject) => {
       const worker = new Worker(url, { workerData: task });
