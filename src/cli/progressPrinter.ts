@@ -2,15 +2,15 @@ import type { NestedProgress } from '../sampling/nested/index.js';
 
 /**
  * Progress of a nested-sampling run: one line rewritten in place on a terminal, plain lines
- * (at most one per `everySeconds`) otherwise, nothing when quiet. The remaining time is
+ * (at most one per `everySeconds`) otherwise or with `plainLines` (runs side by side), nothing when quiet. The remaining time is
  * estimated from how fast ln Z_remaining - ln Z has been falling towards the stopping tolerance.
  */
-export function progressPrinter(label: string, options: { quiet: boolean; tolerance: number; everySeconds?: number }): {
+export function progressPrinter(label: string, options: { quiet: boolean; tolerance: number; everySeconds?: number; plainLines?: boolean }): {
   onProgress: (p: NestedProgress) => void;
   finish: () => void;
 } {
   const stream = process.stderr;
-  const terminal = stream.isTTY === true;
+  const terminal = stream.isTTY === true && options.plainLines !== true;
   let lastPrinted = -Infinity;
   let first: { gap: number; seconds: number } | undefined;
   let wrote = false;

@@ -42,13 +42,13 @@ function positiveOption(name: string, value: number): number {
 }
 
 /** Evidence settings from the options, with a progress printer; checks the options first. */
-export function evidenceSettingsOf(args: SamplerArguments, label: string): { settings: EvidenceSettings; finish: () => void } {
+export function evidenceSettingsOf(args: SamplerArguments, label: string, options: { plainLines?: boolean } = {}): { settings: EvidenceSettings; finish: () => void } {
   const threads = args.threads === undefined ? defaultThreadCount() : wholeNumberOption('threads', args.threads, 1);
   const seed = wholeNumberOption('seed', args.seed, 1);
   const livePoints = wholeNumberOption('live-points', args['live-points'], 10);
   if (!(args.tolerance > 0)) throw new InputError(`--tolerance: expected a number > 0, found ${args.tolerance}`);
   const maxEvaluations = args['max-evaluations'] === undefined ? undefined : wholeNumberOption('max-evaluations', args['max-evaluations'], 1);
-  const printer = progressPrinter(label, { quiet: args.quiet, tolerance: args.tolerance });
+  const printer = progressPrinter(label, { quiet: args.quiet, tolerance: args.tolerance, plainLines: options.plainLines });
   return {
     settings: {
       livePoints, seed, threads, maxEvaluations,

@@ -6,7 +6,7 @@ import { InputError, expectedFound } from '../errors.js';
 import { defaultMapCandidateSettings } from '../vet/mapCandidates.js';
 import { readFlags } from '../vet/readFlags.js';
 import { runVetToFolder, type VetRunRecord, type VetSummary } from '../vet/runVetToFolder.js';
-import { defaultVetWindowArcsec } from '../vet/vetFlags.js';
+import { defaultVetWindowArcsec, vetConcurrency } from '../vet/vetFlags.js';
 import { defaultVetThresholds } from '../vet/vetVerdict.js';
 import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
@@ -93,8 +93,8 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     .usage(
       '$0 vet --config FILE --data DIR --flags FILE [options]\n\n' +
       'One smooth fit is shared by every candidate; each candidate gets one perturbed fit (the config\'s first perturber, ' +
-      'its centre priors replaced by a uniform prior on a --window square around the flag). Candidates run one after ' +
-      'another, each on every thread (candidate-level parallelism is left for later).\n\n' +
+      'its centre priors replaced by a uniform prior on a --window square around the flag). The runs go side by side, ' +
+      'one per thread; a run\'s result depends on --seed, not on --threads.\n\n' +
       'Flags are a CSV list or a probability map. The list has a header and one candidate per line: columns x,y (arcsec ' +
       'from the image centre, x with the column, y with the row) or column,row (pixels counted from 0), optionally ' +
       'coordinates (arcsec or pixel, per line, with x,y), score and id; lines starting with # are skipped. A map is a FITS ' +
@@ -124,15 +124,18 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     if (args['map-prior'] && flags.map === undefined) {
       throw new InputError('--map-prior takes the probability map as the position prior: expected --flags to name a .fits or .npy map, found a list', { file: args.flags });
     }
-    evidenceSettingsOf(args, 'check');
+    const { settings: checked } = evidenceSettingsOf(args, 'check');
+    const runs = 1 + flags.candidates.length + (args['map-prior'] ? 1 : 0);
+    const sideBySide = vetConcurrency(checked.threads, runs) > 1;
+    if (sideBySide && !args.quiet) process.stderr.write(`${runs} runs, ${vetConcurrency(checked.threads, runs)} side by side\n`);
     let finish: (() => void) | undefined;
     const { summary } = await runVetToFolder(config, data, flags, out, {
       windowArcsec,
       thresholds,
       mapPrior: args['map-prior'] && flags.map !== undefined ? { map: flags.map } : undefined,
       evidence: (label) => {
-        const run = evidenceSettingsOf(args, label);
-        finish = run.finish;
+        const run = evidenceSettingsOf(args, label, { plainLines: sideBySide });
+        if (!sideBySide) finish = run.finish;
         return run.settings;
       },
       onRunStart: () => finish?.(),

@@ -26,6 +26,8 @@ export interface EvidenceSettings {
   readonly sliceSteps?: number;
   readonly maxEvaluations?: number;
   readonly threads: number;
+  /** Evaluate in worker threads even with one thread, so that several runs can go side by side. */
+  readonly inWorker?: boolean;
   /** Checkpoint file; with `resume`, an existing one is continued. */
   readonly checkpointPath?: string;
   /** Seconds between checkpoints (default 30). */
@@ -69,16 +71,25 @@ export function lensModelMethod(requested: NestedMethod, dim: number, perturberC
   return perturberCount === 0 && dim <= 8 ? 'ellipsoids' : 'slice';
 }
 
-/** Nested sampling of one lens model (smooth when perturberCount = 0) on observed data. */
+/** A prior transform applied after the model's own, built once the model's parameter space is known. */
+export type ExtraTransform = (system: LensSystem, space: ParameterSpace) => (unit: Float64Array, out: Float64Array) => void;
+
+/**
+ * Nested sampling of one lens model (smooth when perturberCount = 0) on observed data. `extra`
+ * names the run (default `smooth` or `perturbed`) and may add a prior transform that overwrites
+ * parts of the physical vector (the map prior on a perturber's position does).
+ */
 export async function runModelEvidence(
   config: ArcsiftConfig, data: ObservedData, perturberCount: number, settings: EvidenceSettings,
+  extra: { readonly label?: string; readonly transform?: ExtraTransform } = {},
 ): Promise<ModelEvidence> {
   const system = buildLensSystem(config, { perturberCount });
   const space = modelParameterSpace(system);
   const relabel = perturberRelabelling(system, space);
   const region = positionRegionTransform(system, space, data);
+  const additional = extra.transform?.(system, space);
   const started = performance.now();
-  const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads);
+  const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads, { inWorker: settings.inWorker });
   try {
     const result = await runNested(
       {
@@ -88,6 +99,7 @@ export async function runModelEvidence(
           space.fromUnitCube(unit, out);
           if (region !== undefined) region(unit, out);
           if (relabel !== undefined) relabel(out);
+          if (additional !== undefined) additional(unit, out);
         },
         periodic: space.periodic,
         logLikelihood: (points, count) => pool.evaluate(points, count),
@@ -107,7 +119,7 @@ export async function runModelEvidence(
       },
     );
     return {
-      label: perturberCount === 0 ? 'smooth' : 'perturbed',
+      label: extra.label ?? (perturberCount === 0 ? 'smooth' : 'perturbed'),
       perturberCount,
       system,
       space,

@@ -55,9 +55,13 @@ export class LikelihoodPool {
     this.pending.clear();
   }
 
-  static async start(task: LikelihoodTask, threads = defaultThreadCount()): Promise<LikelihoodPool> {
+  /**
+   * Starts `threads` workers. One thread runs in the calling thread unless `inWorker` is set: runs
+   * that share the process (vetting candidates side by side) each need a worker of their own.
+   */
+  static async start(task: LikelihoodTask, threads = defaultThreadCount(), options: { inWorker?: boolean } = {}): Promise<LikelihoodPool> {
     const count = Math.max(1, Math.floor(threads));
-    if (count === 1) {
+    if (count === 1 && options.inWorker !== true) {
       const local = new PixelLikelihood(task.config, task.data, task.perturberCount);
       return new LikelihoodPool(1, local.system.parameters.length, [], local);
     }

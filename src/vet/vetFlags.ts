@@ -22,7 +22,7 @@ export interface VetSettings {
   readonly evidence: (label: string, folderName: string) => EvidenceSettings;
   /** With a probability map: also one run with the map itself as the position prior. */
   readonly mapPrior?: { readonly map: ProbabilityMap };
-  /** Called before each run starts. */
+  /** Called as each run starts (runs may overlap: see vetConcurrency). */
   readonly onRunStart?: (label: string) => void;
 }
 
@@ -75,12 +75,36 @@ function readPerturbed(evidence: ModelEvidence, smooth: ModelEvidence, threshold
 }
 
 /**
- * Vets network flags one after another: one nested-sampling run of the smooth model (the config
- * without perturbers), then for each candidate one run of the model with the config's first
- * perturber, its centre priors replaced by a uniform prior on the square window around the flag
- * (its mass prior as written). Each run uses every thread it is given; candidates run in turn
- * (candidate-level parallelism is left for later). With `mapPrior`, one more run takes the map
- * itself as the prior on the perturber's position (see MapPositionPrior).
+ * How many runs of a vetting go side by side on `threads` threads: one per thread, at most one
+ * per run. Each then gets floor(threads / concurrency) threads of its own.
+ */
+export function vetConcurrency(threads: number, runs: number): number {
+  return Math.max(1, Math.min(Math.floor(threads), runs));
+}
+
+/** Runs `jobs` with at most `concurrency` at once, in list order; results in list order. */
+async function runSideBySide<T>(jobs: readonly (() => Promise<T>)[], concurrency: number): Promise<T[]> {
+  const results = new Array<T>(jobs.length);
+  let next = 0;
+  const lane = async (): Promise<void> => {
+    while (next < jobs.length) {
+      const k = next++;
+      results[k] = await jobs[k]();
+    }
+  };
+  await Promise.all(Array.from({ length: concurrency }, lane));
+  return results;
+}
+
+/**
+ * Vets network flags: one nested-sampling run of the smooth model (the config without
+ * perturbers), and for each candidate one run of the model with the config's first perturber, its
+ * centre priors replaced by a uniform prior on the square window around the flag (its mass prior
+ * as written). The runs do not depend on each other, so they go side by side, one per thread
+ * (vetConcurrency), each in a worker of its own; with fewer runs than threads each run gets
+ * several. A run's result depends only on its own seed, never on the thread count. With
+ * `mapPrior`, one more run takes the map itself as the prior on the perturber's position (see
+ * MapPositionPrior).
  */
 export async function vetFlags(
   config: ArcsiftConfig, data: ObservedData, candidates: readonly FlagCandidate[], settings: VetSettings,
@@ -97,31 +121,48 @@ export async function vetFlags(
   if (candidates.length === 0 && settings.mapPrior === undefined) throw new InputError('vetting: expected at least one candidate, found none');
   const mapPrior = settings.mapPrior === undefined ? undefined : new MapPositionPrior(settings.mapPrior.map, data.mask, data);
 
-  settings.onRunStart?.('smooth');
   const smoothSettings = settings.evidence('smooth', 'smooth');
-  const smooth = await runModelEvidence(config, data, 0, smoothSettings);
-  const vetted: CandidateVetting[] = [];
-  for (let k = 0; k < candidates.length; k++) {
-    const candidate = candidates[k];
-    const label = `candidate ${candidate.id}`;
+  const runs = 1 + candidates.length + (mapPrior === undefined ? 0 : 1);
+  const concurrency = vetConcurrency(smoothSettings.threads, runs);
+  const share = (run: EvidenceSettings): EvidenceSettings => (concurrency === 1
+    ? run
+    : { ...run, threads: Math.max(1, Math.floor(run.threads / concurrency)), inWorker: true });
+
+  const windows = candidates.map((c) => windowAround(c.xArcsec, c.yArcsec, windowArcsec));
+  const windowedConfigs = windows.map((w) => perturberPositionConfig(config, w.x, w.y));
+  const jobs: (() => Promise<ModelEvidence>)[] = [
+    async () => {
+      settings.onRunStart?.('smooth');
+      return runModelEvidence(config, data, 0, share(smoothSettings));
+    },
+    ...candidates.map((candidate, k) => async () => {
+      const label = `candidate ${candidate.id}`;
+      settings.onRunStart?.(label);
+      return runModelEvidence(windowedConfigs[k], data, 1, share(settings.evidence(label, `candidate-${k + 1}`)));
+    }),
+  ];
+  if (mapPrior !== undefined) {
+    jobs.push(async () => {
+      settings.onRunStart?.('map prior');
+      return runMapPriorEvidence(config, data, mapPrior, share(settings.evidence('map prior', 'map-prior')));
+    });
+  }
+  const evidences = await runSideBySide(jobs, concurrency);
+  const smooth = evidences[0];
+
+  const vetted: CandidateVetting[] = candidates.map((candidate, k) => {
     const folderName = `candidate-${k + 1}`;
-    const window = windowAround(candidate.xArcsec, candidate.yArcsec, windowArcsec);
-    const windowed = perturberPositionConfig(config, window.x, window.y);
-    settings.onRunStart?.(label);
-    const evidence = await runModelEvidence(windowed, data, 1, settings.evidence(label, folderName));
-    const reading = readPerturbed(evidence, smooth, thresholds, folderName);
+    const reading = readPerturbed(evidences[1 + k], smooth, thresholds, folderName);
     const offsetArcsec = Math.hypot(
       reading.perturber.centerXArcsec.median - candidate.xArcsec, reading.perturber.centerYArcsec.median - candidate.yArcsec,
     );
-    vetted.push({ ...reading, candidate, window: { xArcsec: window.x, yArcsec: window.y }, offsetArcsec, config: windowed });
-  }
+    return { ...reading, candidate, window: { xArcsec: windows[k].x, yArcsec: windows[k].y }, offsetArcsec, config: windowedConfigs[k] };
+  });
   let mapRun: VetResult['mapPrior'];
   if (mapPrior !== undefined && settings.mapPrior !== undefined) {
-    settings.onRunStart?.('map prior');
-    const evidence = await runMapPriorEvidence(config, data, mapPrior, settings.evidence('map prior', 'map-prior'));
     const { xMin, xMax, yMin, yMax } = mapPrior.bounds;
     mapRun = {
-      ...readPerturbed(evidence, smooth, thresholds, 'map-prior'),
+      ...readPerturbed(evidences[1 + candidates.length], smooth, thresholds, 'map-prior'),
       mapFile: settings.mapPrior.map.file,
       config: perturberPositionConfig(config, [xMin, xMax], [yMin, yMax]),
     };

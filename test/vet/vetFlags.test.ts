@@ -12,7 +12,7 @@ import { MapPositionPrior } from '../../src/vet/mapPositionPrior.js';
 import { readFlags } from '../../src/vet/readFlags.js';
 import { runMapPriorEvidence } from '../../src/vet/runMapPriorEvidence.js';
 import { runVetToFolder, type VetSummary } from '../../src/vet/runVetToFolder.js';
-import type { VetResult } from '../../src/vet/vetFlags.js';
+import { vetConcurrency, vetFlags, type VetResult } from '../../src/vet/vetFlags.js';
 
 // Vetting on a mock made by `simulate` from the invented scenario of
 // test/fixtures/inference/small-lens.yaml (a truncated-NFW perturber of log10 M200 = 10.3 on
@@ -149,5 +149,21 @@ describe('vetting flags on a mock with a planted perturber', () => {
       const near = (v: number): number[] => (Math.abs(v - Math.round(v)) < 1e-9 ? [Math.round(v) - 1, Math.round(v)] : [Math.floor(v)]);
       expect(near(pi).some((i) => near(pj).some((j) => positive(i, j)))).toBe(true);
     }
+  }, 120_000);
+
+  it('gives the same evidences with the runs side by side on two threads as one after another on one (own determinism contract)', async () => {
+    const short = { ...settings, maxEvaluations: 600 };
+    const flags = [{ id: 'a', xArcsec: trueX, yArcsec: trueY, score: undefined, origin: 'test' }, { id: 'b', xArcsec: -0.9, yArcsec: -0.62, score: undefined, origin: 'test' }];
+    const started: string[] = [];
+    const sequential = await vetFlags(config, data, flags, { evidence: () => ({ ...short, threads: 1 }) });
+    const sideBySide = await vetFlags(config, data, flags, { evidence: () => ({ ...short, threads: 2 }), onRunStart: (label) => started.push(label) });
+    expect(vetConcurrency(2, 3)).toBe(2);
+    expect(started).toEqual(['smooth', 'candidate a', 'candidate b']);
+    expect(sideBySide.smooth.threads).toBe(1);
+    expect(sideBySide.smooth.result.lnZ).toBe(sequential.smooth.result.lnZ);
+    sideBySide.candidates.forEach((c, k) => {
+      expect(c.evidence.result.lnZ).toBe(sequential.candidates[k].evidence.result.lnZ);
+      expect(c.evidence.result.count).toBe(sequential.candidates[k].evidence.result.count);
+    });
   }, 120_000);
 });
