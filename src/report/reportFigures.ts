@@ -33,7 +33,7 @@ const DISPLAY_SMOOTHING_BINS = 1;
 /** Smallest normalised-residual colour limit, in units of the noise sigma. */
 const NORMALISED_RESIDUAL_FLOOR = 4;
 
-interface ImageSet {
+export interface ImageSet {
   readonly columns: number;
   readonly rows: number;
   readonly pixelScaleArcsec: number;
@@ -55,27 +55,20 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
   const figures: ReportFigure[] = [];
   const truth = new Map((run.truth?.parameters ?? []).map((p) => [p.name, p.value]));
 
-  const data = readImage(run.dataFiles.image, notices, 'observed image');
-  const noise = readImage(run.dataFiles.noise, notices, 'noise map');
-  const maskImage = run.dataFiles.mask === null ? null : readImage(run.dataFiles.mask, notices, 'mask');
-  const models = Object.fromEntries(MODEL_NAMES.map((m) => [m, {
-    fit: readImage(join(run.folder, m, 'best-fit-model.fits'), notices, `${m} best-fit model`),
-    residual: readImage(join(run.folder, m, 'residual.fits'), notices, `${m} residual`),
-    normalised: readImage(join(run.folder, m, 'normalised-residual.fits'), notices, `${m} normalised residual`),
-  }])) as Record<ModelName, { fit: FitsImage | null; residual: FitsImage | null; normalised: FitsImage | null }>;
-
-  const any = [data, models.perturbed.fit, models.smooth.fit, noise].find((x) => x !== null) ?? null;
-  if (any !== null) {
-    const pixelScaleArcsec = [data, models.perturbed.fit, models.smooth.fit].find((x) => x?.pixelScale !== undefined)?.pixelScale?.pixelScaleArcsec;
-    const set: ImageSet = {
-      columns: any.nx,
-      rows: any.ny,
-      pixelScaleArcsec: pixelScaleArcsec ?? 1,
-      mask: maskImage === null ? undefined : maskImage.data,
-      outside: maskImage === null ? undefined : Uint8Array.from(maskImage.data, (v) => (v === 0 ? 1 : 0)),
-    };
-    if (pixelScaleArcsec === undefined) notices.push('no pixel scale in the FITS headers: image axes are in pixels, labelled arcsec at 1 arcsec per pixel');
-    figures.push(...imageFigures(run, set, data, noise, models, truth, figuresFolder));
+  const observed = readObservedImages(run.dataFiles, notices);
+  const models = MODEL_NAMES.map((m) => readModelImages(join(run.folder, m), m, m === 'smooth' ? 'Smooth' : 'Perturbed', notices));
+  const set = imageSetOf(observed, models, notices);
+  if (set !== null) {
+    const truthMarkers = perturberTruthMarkers(run.summary.perturbers, truth);
+    const posteriorMarkers: ImageMarker[] = run.summary.perturbers.map((p) => ({
+      kind: 'posterior',
+      xArcsec: p.centerXArcsec.median,
+      yArcsec: p.centerYArcsec.median,
+      xInterval: [p.centerXArcsec.interval68.lower, p.centerXArcsec.interval68.upper],
+      yInterval: [p.centerYArcsec.interval68.lower, p.centerYArcsec.interval68.upper],
+    }));
+    models[1] = { ...models[1], markers: posteriorMarkers };
+    figures.push(...imageFigures(set, observed, models, truthMarkers, figuresFolder));
   }
 
   const perturbedCorner = run.corners.perturbed;
@@ -115,7 +108,7 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
   return { figures, notices };
 }
 
-function writeSvgFigure(
+export function writeSvgFigure(
   folder: string, file: string, key: string, figure: Omit<ReportFigure, 'files' | 'key'>, png?: Buffer,
 ): ReportFigure {
   const svgFile = join(folder, `${file}.svg`);
@@ -134,37 +127,91 @@ function uniqueIds(svg: string, key: string): string {
   return svg.replace(/\bid="([^"]+)"/g, `id="${key}-$1"`).replace(/url\(#([^)]+)\)/g, `url(#${key}-$1)`);
 }
 
-function imageFigures(
-  run: RunFolder,
-  set: ImageSet,
-  data: FitsImage | null,
-  noise: FitsImage | null,
-  models: Record<ModelName, { fit: FitsImage | null; residual: FitsImage | null; normalised: FitsImage | null }>,
-  truth: ReadonlyMap<string, number>,
-  folder: string,
-): ReportFigure[] {
-  const upscale = Math.max(1, Math.ceil(232 / Math.max(set.columns, set.rows)));
-  const shape = (image: FitsImage | null): FitsImage | null => (image !== null && image.nx === set.columns && image.ny === set.rows ? image : null);
-  const fits = MODEL_NAMES.map((m) => shape(models[m].fit)).filter((x): x is FitsImage => x !== null);
-  const dataImage = shape(data);
-  const [low, high] = sequentialRange([...(dataImage === null ? [] : [dataImage.data]), ...fits.map((f) => f.data)]);
-  const residuals = MODEL_NAMES.map((m) => shape(models[m].residual)).filter((x): x is FitsImage => x !== null);
-  const [rLow, rHigh] = symmetricRange(residuals.map((r) => r.data), set.mask);
-  const normalised = MODEL_NAMES.map((m) => shape(models[m].normalised)).filter((x): x is FitsImage => x !== null);
-  const [nLow, nHigh] = symmetricRange(normalised.map((r) => r.data), set.mask, NORMALISED_RESIDUAL_FLOOR);
+/** The observed image, noise map and mask of a run, those that can be read. */
+export interface ObservedImages {
+  readonly data: FitsImage | null;
+  readonly noise: FitsImage | null;
+  readonly mask: FitsImage | null;
+}
 
-  const truthMarkers: ImageMarker[] = run.summary.perturbers.flatMap((p) => {
+/** Reads the observed data files named by a run (a missing one is left out with a notice). */
+export function readObservedImages(files: Readonly<Record<'image' | 'noise' | 'psf' | 'mask', string | null>>, notices: string[]): ObservedImages {
+  return {
+    data: readImage(files.image, notices, 'observed image'),
+    noise: readImage(files.noise, notices, 'noise map'),
+    mask: files.mask === null ? null : readImage(files.mask, notices, 'mask'),
+  };
+}
+
+/** One model's best-fit images in a run folder, as writeModelOutputs writes them, and its markers. */
+export interface ModelImages {
+  /** File stem prefix of its figures, e.g. `perturbed`. */
+  readonly key: string;
+  /** Title word, e.g. `Perturbed`. */
+  readonly name: string;
+  readonly fit: FitsImage | null;
+  readonly residual: FitsImage | null;
+  readonly normalised: FitsImage | null;
+  readonly markers: readonly ImageMarker[];
+}
+
+/** Reads best-fit-model.fits, residual.fits and normalised-residual.fits of one model folder. */
+export function readModelImages(folder: string, key: string, name: string, notices: string[]): ModelImages {
+  return {
+    key,
+    name,
+    fit: readImage(join(folder, 'best-fit-model.fits'), notices, `${key} best-fit model`),
+    residual: readImage(join(folder, 'residual.fits'), notices, `${key} residual`),
+    normalised: readImage(join(folder, 'normalised-residual.fits'), notices, `${key} normalised residual`),
+    markers: [],
+  };
+}
+
+/** The grid every image panel of a run shares, from the first image that could be read; null when none could. */
+export function imageSetOf(observed: ObservedImages, models: readonly ModelImages[], notices: string[]): ImageSet | null {
+  const fits = models.map((m) => m.fit);
+  const any = [observed.data, ...fits, observed.noise].find((x) => x !== null) ?? null;
+  if (any === null) return null;
+  const pixelScaleArcsec = [observed.data, ...fits].find((x) => x?.pixelScale !== undefined)?.pixelScale?.pixelScaleArcsec;
+  if (pixelScaleArcsec === undefined) notices.push('no pixel scale in the FITS headers: image axes are in pixels, labelled arcsec at 1 arcsec per pixel');
+  const maskImage = observed.mask;
+  return {
+    columns: any.nx,
+    rows: any.ny,
+    pixelScaleArcsec: pixelScaleArcsec ?? 1,
+    mask: maskImage === null ? undefined : maskImage.data,
+    outside: maskImage === null ? undefined : Uint8Array.from(maskImage.data, (v) => (v === 0 ? 1 : 0)),
+  };
+}
+
+/** Simulated perturber positions (truth.json) as markers. */
+export function perturberTruthMarkers(perturbers: readonly { readonly key: string }[], truth: ReadonlyMap<string, number>): ImageMarker[] {
+  return perturbers.flatMap((p) => {
     const x = truth.get(`${p.key}.centerXArcsec`);
     const y = truth.get(`${p.key}.centerYArcsec`);
     return x === undefined || y === undefined ? [] : [{ kind: 'truth' as const, xArcsec: x, yArcsec: y }];
   });
-  const posteriorMarkers: ImageMarker[] = run.summary.perturbers.map((p) => ({
-    kind: 'posterior',
-    xArcsec: p.centerXArcsec.median,
-    yArcsec: p.centerYArcsec.median,
-    xInterval: [p.centerXArcsec.interval68.lower, p.centerXArcsec.interval68.upper],
-    yInterval: [p.centerYArcsec.interval68.lower, p.centerYArcsec.interval68.upper],
-  }));
+}
+
+/**
+ * The image panels of a run: observed data and noise, then for each model its best fit, residual
+ * and normalised residual. Data and models share one linear scale, residuals one symmetric scale.
+ */
+export function imageFigures(
+  set: ImageSet,
+  observed: ObservedImages,
+  models: readonly ModelImages[],
+  truthMarkers: readonly ImageMarker[],
+  folder: string,
+): ReportFigure[] {
+  const upscale = Math.max(1, Math.ceil(232 / Math.max(set.columns, set.rows)));
+  const shape = (image: FitsImage | null): FitsImage | null => (image !== null && image.nx === set.columns && image.ny === set.rows ? image : null);
+  const present = (images: (FitsImage | null)[]): FitsImage[] => images.map(shape).filter((x): x is FitsImage => x !== null);
+  const fits = present(models.map((m) => m.fit));
+  const dataImage = shape(observed.data);
+  const [low, high] = sequentialRange([...(dataImage === null ? [] : [dataImage.data]), ...fits.map((f) => f.data)]);
+  const [rLow, rHigh] = symmetricRange(present(models.map((m) => m.residual)).map((r) => r.data), set.mask);
+  const [nLow, nHigh] = symmetricRange(present(models.map((m) => m.normalised)).map((r) => r.data), set.mask, NORMALISED_RESIDUAL_FLOOR);
   const unit = (image: FitsImage): string => image.header.getString('BUNIT')?.trim() || 'counts/s';
 
   const figures: ReportFigure[] = [];
@@ -182,17 +229,18 @@ function imageFigures(
   };
   const sequential = { map: sequentialColourMap, low, high };
   add('data', dataImage, { title: 'Observed image', subtitle: 'dashed: boundary of the fitted pixels', mask: set.mask, markers: truthMarkers }, sequential, 'The observed image on the shared linear scale of the models.');
-  const noiseImage = shape(noise);
+  const noiseImage = shape(observed.noise);
   if (noiseImage !== null) {
     const [noiseLow, noiseHigh] = sequentialRange([noiseImage.data]);
     add('noise', noiseImage, { title: 'Noise (1 sigma)', subtitle: 'per-pixel standard deviation', mask: set.mask }, { map: sequentialColourMap, low: noiseLow, high: noiseHigh }, 'The per-pixel noise the likelihood assumes.');
   }
-  for (const m of MODEL_NAMES) {
-    const markers = m === 'perturbed' ? [...truthMarkers, ...posteriorMarkers] : truthMarkers;
-    const name = m === 'smooth' ? 'Smooth' : 'Perturbed';
-    add(`${m}-model`, shape(models[m].fit), { title: `${name} model: best fit`, subtitle: 'highest-likelihood sample', mask: set.mask, markers }, sequential, `Best-fit ${m} model image, same scale as the data.`);
-    add(`${m}-residual`, shape(models[m].residual), { title: `${name} model: residual`, subtitle: 'data minus model; grey: not fitted', markers }, { map: divergingColourMap, low: rLow, high: rHigh, hidden: set.outside }, `Data minus the best-fit ${m} model inside the mask.`);
-    add(`${m}-normalised-residual`, shape(models[m].normalised), { title: `${name} model: normalised residual`, subtitle: '(data - model) / noise; grey: not fitted', colourBarLabel: 'sigma', markers }, { map: divergingColourMap, low: nLow, high: nHigh, hidden: set.outside }, `Residual of the ${m} model in units of the noise; the scale is clipped at ${nHigh.toFixed(1)} sigma.`);
+  for (const m of models) {
+    const markers = [...truthMarkers, ...m.markers];
+    const name = m.name;
+    const what = m.key;
+    add(`${m.key}-model`, shape(m.fit), { title: `${name} model: best fit`, subtitle: 'highest-likelihood sample', mask: set.mask, markers }, sequential, `Best-fit ${what} model image, same scale as the data.`);
+    add(`${m.key}-residual`, shape(m.residual), { title: `${name} model: residual`, subtitle: 'data minus model; grey: not fitted', markers }, { map: divergingColourMap, low: rLow, high: rHigh, hidden: set.outside }, `Data minus the best-fit ${what} model inside the mask.`);
+    add(`${m.key}-normalised-residual`, shape(m.normalised), { title: `${name} model: normalised residual`, subtitle: '(data - model) / noise; grey: not fitted', colourBarLabel: 'sigma', markers }, { map: divergingColourMap, low: nLow, high: nHigh, hidden: set.outside }, `Residual of the ${what} model in units of the noise; the scale is clipped at ${nHigh.toFixed(1)} sigma.`);
   }
   return figures;
 }

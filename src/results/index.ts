@@ -1,6 +1,8 @@
 export { bayesFactorReading, evidenceGrade, KASS_RAFTERY_LN_EDGES } from './bayesFactorReading.js';
 export type { BayesFactorReading, EvidenceGrade } from './bayesFactorReading.js';
 export { cornerData } from './cornerData.js';
+export { evidenceTrace } from './evidenceTrace.js';
+export type { EvidenceTrace } from './evidenceTrace.js';
 export type { CornerData, CornerOptions, CornerPair, CornerParameter } from './cornerData.js';
 export { credibleInterval } from './credibleInterval.js';
 export type { CredibleInterval } from './credibleInterval.js';
