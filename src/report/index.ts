@@ -34,7 +34,9 @@ export { MODEL_NAMES, readCornerData, readRunFolder, readSummary, readTruth } fr
 export type { ModelName, RunFolder, TruthParameter, TruthPerturber, TruthRecord } from './readRunFolder.js';
 export { writeReportFigures } from './reportFigures.js';
 export type { ReportFigure } from './reportFigures.js';
-export { pageLink, reportPage } from './reportPage.js';
+export { reportPage } from './reportPage.js';
+export { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
+export type { PageFrame } from './pageFrame.js';
 export type { ReportPageInput } from './reportPage.js';
 export { hexFromOklch, modelColours, reportPalette } from './reportPalette.js';
 export type { ModelTone } from './reportPalette.js';

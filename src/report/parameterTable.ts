@@ -16,13 +16,25 @@ function truthPlace(p: ParameterRecord, value: number): TableCell {
   return { html: 'out', className: 'place out' };
 }
 
-/** Every free parameter of either model: median, 68% and 95% intervals per model, and the truth when known. */
+/** One model's column group in a parameter table: `tone` names its swatch class (smooth, perturbed). */
+export interface ParameterColumn {
+  readonly tone: string;
+  readonly label: string;
+  readonly parameters: readonly ParameterRecord[];
+}
+
+/** Every free parameter of the comparison's two models: median, 68% and 95% intervals per model, and the truth when known. */
 export function parameterTable(summary: ComparisonSummary, truth: TruthRecord | null): string {
-  const byModel = MODEL_NAMES.map((m) => new Map(summary.models[m].parameters.map((p) => [p.name, p])));
-  const names = [...new Set([...summary.models.perturbed.parameters, ...summary.models.smooth.parameters].map((p) => p.name))];
+  return parameterColumnsTable(MODEL_NAMES.map((m) => ({ tone: m, label: `${m} model`, parameters: summary.models[m].parameters })), truth);
+}
+
+/** Every free parameter of any of the models, one column group per model, the truth when known. */
+export function parameterColumnsTable(models: readonly ParameterColumn[], truth: TruthRecord | null): string {
+  const byModel = models.map((m) => new Map(m.parameters.map((p) => [p.name, p])));
+  const names = [...new Set([...models].reverse().flatMap((m) => m.parameters).map((p) => p.name))];
   const rows = names.map((name) => {
     const records = byModel.map((m) => m.get(name));
-    const any = (records[1] ?? records[0])!;
+    const any = [...records].reverse().find((r) => r !== undefined)!;
     const label = parameterLabel(name, any.unit);
     const digits = digitsForSpread(Math.min(...records.filter((r) => r !== undefined).map((r) => 0.5 * (r!.interval68[1] - r!.interval68[0]))));
     const t = truth?.parameters.find((p) => p.name === name)?.value;
@@ -45,13 +57,13 @@ export function parameterTable(summary: ComparisonSummary, truth: TruthRecord | 
     });
     return cells;
   });
-  const perModel = (m: string): TableCell => ({ html: `<span class="swatch ${m}"></span>${m} model`, columns: truth === null ? 3 : 4, className: `group ${m}` });
+  const perModel = (m: ParameterColumn): TableCell => ({ html: `<span class="swatch ${m.tone}"></span>${escapeMarkup(m.label)}`, columns: truth === null ? 3 : 4, className: `group ${m.tone}` });
   const sub = [numberCell('median'), numberCell('68%'), numberCell('95%'), ...(truth === null ? [] : ['truth in'])];
   return htmlTable({
     id: 'parameter-table',
     head: [
-      [{ html: '', columns: truth === null ? 2 : 3 }, perModel('smooth'), perModel('perturbed')],
-      ['parameter', 'unit', ...(truth === null ? [] : [numberCell('truth')]), ...sub, ...sub],
+      [{ html: '', columns: truth === null ? 2 : 3 }, ...models.map(perModel)],
+      ['parameter', 'unit', ...(truth === null ? [] : [numberCell('truth')]), ...models.flatMap(() => sub)],
     ],
     rows,
   });

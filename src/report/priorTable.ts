@@ -18,34 +18,53 @@ export function priorText(p: PriorDescription): string {
   }
 }
 
+/** One model's column in a prior table. */
+export interface PriorColumn {
+  readonly label: string;
+  readonly priors: readonly PriorDescription[];
+}
+
 /**
  * Every prior behind the two evidences, side by side: a Bayes factor means nothing without them.
  * Free parameters first, then the held ones; the amplitude prior last.
  */
 export function priorTable(summary: ComparisonSummary): string {
-  const smooth = new Map(summary.priors.smooth.map((p) => [p.name, p]));
-  const perturbed = new Map(summary.priors.perturbed.map((p) => [p.name, p]));
-  const names = [...new Set([...perturbed.keys(), ...smooth.keys()])];
-  const isFree = (name: string): boolean => !(perturbed.get(name) ?? smooth.get(name))!.fixed;
+  return priorColumnsTable(
+    [{ label: 'smooth model', priors: summary.priors.smooth }, { label: 'perturbed model', priors: summary.priors.perturbed }],
+    summary.amplitudePrior,
+    new Map((summary.positionPriors ?? []).map((r) => [r.key, r.region])),
+  );
+}
+
+/**
+ * The priors of one or more models, one column each (the last model's region priors on perturber
+ * positions shown in place of the boxes they replace); free parameters first, then the held
+ * ones, the amplitude prior last.
+ */
+export function priorColumnsTable(models: readonly PriorColumn[], amplitudePrior: string, regions: ReadonlyMap<string, string> = new Map()): string {
+  const maps = models.map((m) => new Map(m.priors.map((p) => [p.name, p])));
+  const names = [...new Set([...maps].reverse().flatMap((m) => [...m.keys()]))];
+  const find = (name: string): PriorDescription => [...maps].reverse().map((m) => m.get(name)).find((p) => p !== undefined)!;
+  const isFree = (name: string): boolean => !find(name).fixed;
   const ordered = [...names.filter(isFree), ...names.filter((n) => !isFree(n))];
   const cell = (p: PriorDescription | undefined): string => (p === undefined ? '<span class="absent">not in this model</span>' : escapeMarkup(priorText(p)));
-  // Region priors on perturber positions (summaries written before they existed have none).
-  const regions = new Map((summary.positionPriors ?? []).map((r) => [r.key, r.region]));
   const replaced = (name: string): string | undefined => {
     const match = /^(.*)\.center[XY]Arcsec$/.exec(name);
     return match === null ? undefined : regions.get(match[1]);
   };
   const rows: (string | TableCell)[][] = ordered.map((name) => {
     const label = parameterLabel(name, '');
-    const p = perturbed.get(name) ?? smooth.get(name)!;
+    const p = find(name);
     const region = replaced(name);
+    const cells = maps.map((m, k) => (k === maps.length - 1 && region !== undefined && m.get(name) !== undefined
+      ? `position ${escapeMarkup(region)} <span class="muted">(replaces the box ${escapeMarkup(priorText(m.get(name)!))})</span>`
+      : cell(m.get(name))));
     return [
       `<span class="component">${escapeMarkup(label.component)}</span> ${escapeMarkup(label.quantity)}`,
       p.fixed ? '<span class="tag held">held</span>' : '<span class="tag free">free</span>',
-      cell(smooth.get(name)),
-      region === undefined ? cell(perturbed.get(name)) : `position ${escapeMarkup(region)} <span class="muted">(replaces the box ${escapeMarkup(priorText(perturbed.get(name)!))})</span>`,
+      ...cells,
     ];
   });
-  rows.push(['every linear light amplitude', '<span class="tag free">marginalised</span>', { html: escapeMarkup(summary.amplitudePrior), columns: 2 }]);
-  return htmlTable({ id: 'prior-table', head: [['parameter', '', 'smooth model', 'perturbed model']], rows });
+  rows.push(['every linear light amplitude', '<span class="tag free">marginalised</span>', { html: escapeMarkup(amplitudePrior), columns: models.length }]);
+  return htmlTable({ id: 'prior-table', head: [['parameter', '', ...models.map((m) => escapeMarkup(m.label))]], rows });
 }

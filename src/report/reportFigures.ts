@@ -9,12 +9,15 @@ import { imagePanelSvg, type ImageMarker, type ImagePanel } from './imagePanelSv
 import { imagePng } from './imagePng.js';
 import { MODEL_NAMES, type ModelName, type RunFolder } from './readRunFolder.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
+import { modelColours } from './reportPalette.js';
+import { readWeightedSamples } from './readWeightedSamples.js';
+import { nestedTraceSvg } from './samplerTraceSvg.js';
 
 /** One figure of the report: its inline SVG and the files written for it. */
 export interface ReportFigure {
   /** File stem in the figures folder, e.g. `perturbed-residual`. */
   readonly key: string;
-  readonly section: 'images' | 'perturber-posterior' | 'posterior';
+  readonly section: 'images' | 'perturber-posterior' | 'posterior' | 'diagnostics';
   readonly title: string;
   /** HTML. */
   readonly caption: string;
@@ -105,7 +108,23 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
       svg,
     }));
   }
+  const traced = MODEL_NAMES.flatMap((m) => {
+    const file = join(run.folder, m, 'samples.csv');
+    if (!existsSync(file)) return [];
+    return [{ label: `${m} model`, colour: modelColours(m).line, samples: readWeightedSamples(file) }];
+  });
+  if (traced.length > 0) figures.push(nestedTraceFigure(traced, figuresFolder));
   return { figures, notices };
+}
+
+/** The evidence history of one or more nested-sampling runs (nestedTraceSvg) as a figure. */
+export function nestedTraceFigure(runs: Parameters<typeof nestedTraceSvg>[0], folder: string): ReportFigure {
+  return writeSvgFigure(folder, 'nested-history', 'nested-history', {
+    section: 'diagnostics',
+    title: 'Nested-sampling history',
+    caption: 'Left: ln Z accumulated point by point, the final value dashed; a run that stopped early shows a curve still rising. Right: ln L against the ln of the prior volume X still enclosed (Skilling 2006); the posterior mass lies where ln L flattens.',
+    svg: nestedTraceSvg(runs),
+  });
 }
 
 export function writeSvgFigure(

@@ -1,31 +1,17 @@
 import { existsSync } from 'node:fs';
-import { basename, dirname, join, relative, resolve, sep } from 'node:path';
+import { basename, dirname, join, relative, resolve } from 'node:path';
 import { bayesFactorTable } from './bayesFactorTable.js';
-import type { ColourMap } from './colourMap.js';
+import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
 import { diagnosticsTable } from './diagnosticsTable.js';
-import { divergingColourMap } from './divergingColourMap.js';
 import { escapeMarkup } from './escapeMarkup.js';
 import { LN_EVIDENCE_DIGITS, evidenceTable } from './evidenceTable.js';
 import { formatNumber } from './formatNumber.js';
-import { imagePng } from './imagePng.js';
 import { parameterTable } from './parameterTable.js';
 import { perturberMassName, perturberTable } from './perturberTable.js';
 import { priorTable } from './priorTable.js';
 import type { ReportFigure } from './reportFigures.js';
 import { reportStyle } from './reportStyle.js';
 import { MODEL_NAMES, type RunFolder } from './readRunFolder.js';
-import { sequentialColourMap } from './sequentialColourMap.js';
-
-/** A link from the page to `file`, relative to the page's folder, so the pair can be moved together. */
-export function pageLink(pageFile: string, file: string): string {
-  const path = relative(dirname(resolve(pageFile)), resolve(file)).split(sep).join('/');
-  return encodeURI(path);
-}
-
-function figureHtml(figure: ReportFigure, pageFile: string): string {
-  const links = figure.files.map((f) => `<a href="${pageLink(pageFile, f)}">${escapeMarkup(f.slice(f.lastIndexOf('.') + 1).toUpperCase())}</a>`).join(' &middot; ');
-  return `<figure id="figure-${figure.key}"><div class="art">${figure.svg}</div><figcaption>${figure.caption} <span class="files-inline">(${links})</span></figcaption></figure>`;
-}
 
 function verdict(run: RunFolder): string {
   const b = run.summary.bayesFactor;
@@ -49,13 +35,6 @@ function verdict(run: RunFolder): string {
 ${lines.join('\n')}
 <p class="muted">Under the priors listed in <a href="#priors">the prior table</a>; see the caution below.</p></div>
 </section>`;
-}
-
-function colourMapRow(map: ColourMap, use: string): string {
-  const values = Float64Array.from({ length: map.size }, (_, k) => k / (map.size - 1));
-  const png = imagePng({ values, columns: map.size, rows: 1, map, low: 0, high: 1 });
-  const stops = map.stops.map((s) => `L ${s.lightness.toFixed(2)}, C ${s.chroma.toFixed(3)}, h ${s.hueDeg}&deg;`).join(' &rarr; ');
-  return `<img alt="${escapeMarkup(map.name)} colour map" src="data:image/png;base64,${png.toString('base64')}"><div><strong>${escapeMarkup(map.name)}</strong> &mdash; ${use}<br><span class="muted">OKLCh control points: ${stops}</span></div>`;
 }
 
 /** The files of the run the page links to, those that exist. */
@@ -109,24 +88,8 @@ ${imageRow('<span class="swatch perturbed"></span>Perturbed model', ['perturbed-
     `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
   ].join(' &middot; ');
 
-  return `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="generator" content="arcsift ${escapeMarkup(input.arcsiftVersion)}">
-<title>arcsift report: ${escapeMarkup(name)}</title>
-<style>${reportStyle()}</style>
-</head>
-<body>
-<header class="masthead"><div class="wrap">
-<div class="brand">arcsift &middot; smooth versus perturbed lens</div>
-<h1>${escapeMarkup(name)}${title === undefined ? '' : ` <span style="font-weight:400;opacity:.7">&mdash; ${escapeMarkup(title)}</span>`}</h1>
-<p class="meta">${meta}</p>
-</div></header>
-<main class="wrap">
-${verdict(run)}
-<aside class="caution" id="caution" role="note"><div class="mark">!</div><div><p><strong>CAUTION</strong></p><p>${escapeMarkup(s.caution)}</p></div></aside>
+  const body = `${verdict(run)}
+${cautionBox(s.caution)}
 <nav class="contents"><a href="#evidence">Evidence</a><a href="#priors">Priors</a><a href="#perturber">Perturber</a><a href="#images">Images</a><a href="#posterior">Posteriors</a><a href="#diagnostics">Sampler diagnostics</a><a href="#files">Files</a><a href="#about">About the figures</a></nav>
 ${section('evidence', 'Evidence and Bayes factor', `<div><h3>Evidence of each model</h3>${evidenceTable(s)}<p class="note">ln Z is the natural log of the evidence (marginal likelihood). The first error follows from the information H (Skilling 2006); the second from simulated prior-volume shrinkage. Settings: ${MODEL_NAMES.map((m) => `${m} ${s.models[m].livePoints} live points`).join(', ')}${settings?.lnZTolerance === undefined ? '' : `, stop when the remaining evidence is below ${settings.lnZTolerance} in ln Z`}.</p></div>
 <div class="narrow"><h3>Bayes factor</h3>${bayesFactorTable(s)}</div>
@@ -140,16 +103,15 @@ ${section('posterior', 'Posteriors of all parameters', `${inSection('posterior')
 <p class="note">Median and central 68% and 95% credible intervals of the weighted posterior samples.${run.truth === null ? '' : ' The truth column gives the simulated value and whether each model\'s intervals hold it.'}</p>
 ${parameterTable(s, run.truth)}`)}
 ${section('diagnostics', 'Sampler diagnostics', `${diagnosticsTable(s)}
+${inSection('diagnostics').map((f) => figureHtml(f, pageFile)).join('\n')}
 <p class="note">The insertion-rank p-value tests whether each new live point's likelihood rank is uniform among the live points, as it is when the constrained draws are unbiased; a small value warns that ln Z may be off.</p>
 ${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
 ${section('files', 'Files', `<ul class="files">${runFiles(run).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(run.folder), resolve(f)) || f)}</a></li>`).join('\n')}
 ${figures.flatMap((f) => f.files).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(run.folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
-${section('about', 'About the figures', `<div class="maps">${colourMapRow(sequentialColourMap, 'data, models and noise: lightness rises steadily from dark to light, so brightness reads the same in grey and for colour-blind readers.')}
-${colourMapRow(divergingColourMap, 'residuals: blue below zero, rust above, equally light at equal distance from the near-white zero.')}</div>
+${section('about', 'About the figures', `${colourMapRows()}
 <p class="note">Both maps are arcsift's own, set by five control points in OKLCh (Ottosson 2020) and interpolated linearly in OKLab between them, with lightness monotonic along each arm. Corner plots show the 1-D marginal histograms of corner.json and the 2-D regions of highest posterior density holding 39.3% and 86.5% of the mass (1 and 2 sigma for a 2-D Gaussian): traced by marching squares on a bilinear refinement of corner.json's binned densities, their outlines smoothed by one bin, their levels set so that each holds its fraction of the unsmoothed mass. Axes show each model's 95% interval with a margin; the histograms' far tails may lie outside.</p>`)}
-</main>
-<footer>arcsift ${escapeMarkup(input.arcsiftVersion)} &middot; report of ${escapeMarkup(resolve(run.folder))}</footer>
-</body>
-</html>
 `;
+  return pageFrame({
+    name, brand: 'arcsift &middot; smooth versus perturbed lens', subtitle: title, meta, body, arcsiftVersion: input.arcsiftVersion, folder: run.folder,
+  });
 }
