@@ -1,6 +1,7 @@
 import type { CommandModule } from 'yargs';
 import { basename, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
+import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { fitPerturberCount, runFitToFolder, type EnsembleFitSummary, type NestedFitSummary } from '../inference/runFitToFolder.js';
 import { defaultEnsembleFitSettings, type EnsembleFitSettings } from '../inference/runModelEnsemble.js';
@@ -12,6 +13,7 @@ import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type Sampler
 
 interface FitArguments extends DataArguments, SamplerArguments {
   config: string;
+  report: boolean;
   out?: string;
   perturbers?: number;
   sampler: 'nested' | 'ensemble';
@@ -149,6 +151,7 @@ export const fitCommand: CommandModule<object, FitArguments> = {
   builder: (y) => withSamplerOptions(withDataOptions(y
     .option('config', { type: 'string', demandOption: true, describe: 'model config (YAML or JSON) with priors' })
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-fit]' })
+    .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
     .option('perturbers', { type: 'number', describe: 'how many of the config\'s perturbers the model holds (0 = smooth) [default: all]' })
     .option('sampler', { choices: ['nested', 'ensemble'] as const, default: 'nested' as const, describe: 'nested sampling (ln Z and posterior) or ensemble MCMC (posterior only)' })
     .option('walkers', { type: 'number', describe: 'ensemble: walkers, even and >= 2 x free parameters [default: max(4, 2 x free + 2)]' })
@@ -184,5 +187,6 @@ export const fitCommand: CommandModule<object, FitArguments> = {
       text = formatEnsembleFit(summary as EnsembleFitSummary);
     }
     process.stdout.write(`${text}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
+    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
   },
 };

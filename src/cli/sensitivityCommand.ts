@@ -1,7 +1,8 @@
 import type { CommandModule } from 'yargs';
 import { existsSync } from 'node:fs';
-import { basename, extname, join } from 'node:path';
+import { basename, dirname, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
+import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { defaultDetectionThreshold } from '../sensitivity/minimumDetectableMass.js';
 import { runSensitivityToFolder, type SensitivitySummary } from '../sensitivity/runSensitivityToFolder.js';
@@ -12,6 +13,7 @@ import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from '.
 
 interface SensitivityArguments extends DataArguments, SamplerArguments {
   config: string;
+  report: boolean;
   out?: string;
   grid: number;
   threshold: number;
@@ -51,6 +53,7 @@ export const sensitivityCommand: CommandModule<object, SensitivityArguments> = {
       'options below). Grid points are shared among --threads worker threads.')
     .option('config', { type: 'string', demandOption: true, describe: 'model config; its first perturber gives the kind and the mass prior range' })
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-sensitivity]' })
+    .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
     .option('grid', { type: 'number', default: 10, describe: 'N for the N x N grid over the mask\'s bounding box' })
     .option('threshold', { type: 'number', default: defaultDetectionThreshold, describe: 'detected when Delta chi^2 / 2 reaches this (5: Delta chi^2 = 10)' })
     .option('mass-tolerance', { type: 'number', default: 0.05, describe: 'bisection stops at this width in log10 mass (dex)' })
@@ -84,5 +87,6 @@ export const sensitivityCommand: CommandModule<object, SensitivityArguments> = {
     });
     if (terminal) process.stderr.write('\n');
     process.stdout.write(`${formatSensitivity(summary)}\n\nwrote ${summary.files.map}, ${summary.files.table} and ${summary.files.summary}\n`);
+    if (args.report) process.stdout.write(`report: ${writeReport(dirname(summary.files.summary))}\n`);
   },
 };

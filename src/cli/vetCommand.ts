@@ -2,6 +2,7 @@ import type { CommandModule } from 'yargs';
 import { existsSync, readdirSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
+import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { defaultMapCandidateSettings } from '../vet/mapCandidates.js';
 import { readFlags } from '../vet/readFlags.js';
@@ -14,6 +15,7 @@ import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from '.
 
 interface VetArguments extends DataArguments, SamplerArguments {
   config: string;
+  report: boolean;
   flags: string;
   out?: string;
   window: number;
@@ -103,6 +105,7 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     .option('config', { type: 'string', demandOption: true, describe: 'model config with priors; its first perturber is placed at each flag' })
     .option('flags', { type: 'string', demandOption: true, describe: 'flag list (.csv) or probability map (.fits or .npy) aligned with the image' })
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-vet]' })
+    .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
     .option('window', { type: 'number', default: defaultVetWindowArcsec, describe: 'side of the square position prior around each flag, arcsec' })
     .option('confirm-above', { type: 'number', default: defaultVetThresholds.confirmAboveLnB, describe: 'confirmed when ln B exceeds this' })
     .option('disfavour-below', { type: 'number', default: defaultVetThresholds.disfavourBelowLnB, describe: 'disfavoured when ln B is below this' })
@@ -142,5 +145,6 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     });
     finish?.();
     process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')} and each run's samples and images under ${out}\n`);
+    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
   },
 };

@@ -6,15 +6,22 @@ import { htmlTable, numberCell, type TableCell } from './htmlTable.js';
 
 /** The nested sampler's own record of each run: settings, cost, efficiency and the insertion-rank check. */
 export function diagnosticsTable(summary: ComparisonSummary): string {
-  const { smooth, perturbed } = summary.models;
-  const row = (label: string, cell: (m: ModelRecord) => string | TableCell): (string | TableCell)[] => [label, cell(smooth), cell(perturbed)];
+  return nestedDiagnosticsTable([
+    { tone: 'smooth', label: 'smooth', record: summary.models.smooth },
+    { tone: 'perturbed', label: 'perturbed', record: summary.models.perturbed },
+  ]);
+}
+
+/** The nested sampler's record of one or more runs, a column each (`tone` names the swatch class). */
+export function nestedDiagnosticsTable(runs: readonly { readonly tone: string; readonly label: string; readonly record: ModelRecord }[]): string {
+  const row = (label: string, cell: (m: ModelRecord) => string | TableCell): (string | TableCell)[] => [label, ...runs.map((r) => cell(r.record))];
   const rank = (m: ModelRecord): TableCell => ({
     html: `${m.insertionRankPValue === null ? 'n/a' : formatNumber(m.insertionRankPValue, 3)}${m.insertionRankWarning ? ' <span class="tag warn">biased draws?</span>' : ''}`,
     className: m.insertionRankWarning ? 'num warn' : 'num',
   });
   return htmlTable({
     id: 'diagnostics-table',
-    head: [['', '<span class="swatch smooth"></span>smooth', '<span class="swatch perturbed"></span>perturbed']],
+    head: [['', ...runs.map((r) => `<span class="swatch ${r.tone}"></span>${escapeMarkup(r.label)}`)]],
     rows: [
       row('draw method', (m) => escapeMarkup(m.method)),
       row('live points', (m) => numberCell(formatCount(m.livePoints))),

@@ -5,9 +5,16 @@ import { formatTick, niceTicks } from './niceTicks.js';
 import { reportPalette } from './reportPalette.js';
 import { FIGURE_FONT, px } from './svgText.js';
 
-/** A point drawn over an image: a simulated true position, or a posterior median with its 68% interval. */
+/**
+ * A point drawn over an image: a simulated true position, a posterior median with its 68%
+ * interval, or a network flag labelled with its id and coloured by its verdict.
+ */
 export interface ImageMarker {
-  readonly kind: 'truth' | 'posterior';
+  readonly kind: 'truth' | 'posterior' | 'flag';
+  /** flag: its id, written beside it. */
+  readonly label?: string;
+  /** flag: its verdict. */
+  readonly verdict?: 'confirmed' | 'inconclusive' | 'disfavoured';
   readonly xArcsec: number;
   readonly yArcsec: number;
   readonly xInterval?: readonly [number, number];
@@ -111,6 +118,12 @@ function marker(m: ImageMarker, toX: (x: number) => number, toY: (y: number) => 
   const y = toY(m.yArcsec);
   if (m.kind === 'truth') {
     return `<circle cx="${px(x)}" cy="${px(y)}" r="6" fill="none" stroke="#ffffff" stroke-width="3"/><circle cx="${px(x)}" cy="${px(y)}" r="6" fill="none" stroke="${reportPalette.truth}" stroke-width="1.4"/>`;
+  }
+  if (m.kind === 'flag') {
+    const colour = m.verdict === 'confirmed' ? reportPalette.perturbed : m.verdict === 'disfavoured' ? reportPalette.smooth : reportPalette.caution;
+    const d = `M${px(x)},${px(y - 6)}L${px(x + 6)},${px(y)}L${px(x)},${px(y + 6)}L${px(x - 6)},${px(y)}Z`;
+    const text = m.label === undefined ? '' : `<text x="${px(x + 8)}" y="${px(y - 5)}" font-size="10" font-weight="600" fill="${colour}" stroke="#ffffff" stroke-width="2.5" paint-order="stroke">${escapeMarkup(m.label)}</text>`;
+    return `<path d="${d}" fill="none" stroke="#ffffff" stroke-width="3.4"/><path d="${d}" fill="none" stroke="${colour}" stroke-width="1.8"/>${text}`;
   }
   const parts: string[] = [];
   const stroke = `stroke="${reportPalette.perturbed}" stroke-width="1.6"`;

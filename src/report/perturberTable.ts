@@ -17,6 +17,12 @@ export function summaryCells(s: ParameterSummary, digits = digitsForSpread(0.5 *
 
 const MASS_DIGITS = 2;
 
+/** What the perturber table reads: the perturbers, and the Bayes factor when the run has one (a comparison). */
+export interface PerturberTableInput {
+  readonly perturbers: ComparisonSummary['perturbers'];
+  readonly bayesFactor?: { readonly perturberFavoured: boolean; readonly favouredAbove: number };
+}
+
 /** HTML name of a perturber's sampled mass: M200 for NFW-type profiles, the total mass otherwise. */
 export function perturberMassName(kind: string): string {
   return kind === 'nfw' || kind === 'truncatedNfw' ? 'log<sub>10</sub> M<sub>200</sub> / M<sub>&#9737;</sub>' : 'log<sub>10</sub> M / M<sub>&#9737;</sub>';
@@ -29,8 +35,8 @@ const POSITION_DIGITS = 3;
  * upper limit on the mass; when the evidence does not favour a perturber the upper limit is the
  * quoted result and the intervals are shown for reference only.
  */
-export function perturberTable(summary: ComparisonSummary, truth: TruthRecord | null): string {
-  const favoured = summary.bayesFactor.perturberFavoured;
+export function perturberTable(summary: PerturberTableInput, truth: TruthRecord | null): string {
+  const favoured = summary.bayesFactor?.perturberFavoured ?? true;
   const truthOf = (name: string): number | undefined => truth?.parameters.find((p) => p.name === name)?.value;
   const truthCell = (value: number | undefined, digits: number): TableCell => numberCell(value === undefined ? '' : formatNumber(value, digits));
   const blocks = summary.perturbers.map((p) => {
@@ -50,7 +56,9 @@ export function perturberTable(summary: ComparisonSummary, truth: TruthRecord | 
     rows.push(['x [arcsec]', ...summaryCells(p.centerXArcsec, POSITION_DIGITS), truthCell(truthOf(`${p.key}.centerXArcsec`), POSITION_DIGITS)]);
     rows.push(['y [arcsec]', ...summaryCells(p.centerYArcsec, POSITION_DIGITS), truthCell(truthOf(`${p.key}.centerYArcsec`), POSITION_DIGITS)]);
     const prior = p.massPriorRange === null ? 'held fixed' : `uniform in log<sub>10</sub> mass on [${p.massPriorRange[0]}, ${p.massPriorRange[1]}]`;
-    const note = favoured
+    const note = summary.bayesFactor === undefined
+      ? 'A single fit weighs no evidence for the perturber: only a comparison with the smooth model (arcsift compare) can call it a detection. The intervals are this model\'s posterior.'
+      : favoured
       ? 'The evidence favours a perturber: the intervals are the measurement.'
       : `The evidence does not favour a perturber (ln B &le; ${formatNumber(summary.bayesFactor.favouredAbove, 0)}): the 95% upper limit is the result; the intervals are shown for reference.`;
     return `<h3>${escapeMarkup(p.key)} <span class="muted">${escapeMarkup(p.kind)}</span></h3>`

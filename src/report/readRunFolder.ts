@@ -45,16 +45,17 @@ export interface RunFolder {
   readonly notices: string[];
 }
 
-type Json = unknown;
-type Check = (value: Json) => boolean;
-const isNumber: Check = (v) => typeof v === 'number';
-const isNumberOrNull: Check = (v) => v === null || typeof v === 'number';
-const isString: Check = (v) => typeof v === 'string';
-const isBoolean: Check = (v) => typeof v === 'boolean';
-const isList: Check = (v) => Array.isArray(v);
-const isMapping: Check = (v) => typeof v === 'object' && v !== null && !Array.isArray(v);
+export type Json = unknown;
+export type Check = (value: Json) => boolean;
+export const isNumber: Check = (v) => typeof v === 'number';
+export const isNumberOrNull: Check = (v) => v === null || typeof v === 'number';
+export const isString: Check = (v) => typeof v === 'string';
+export const isBoolean: Check = (v) => typeof v === 'boolean';
+export const isList: Check = (v) => Array.isArray(v);
+export const isMapping: Check = (v) => typeof v === 'object' && v !== null && !Array.isArray(v);
 
-function readJson(file: string): Json {
+/** Parses a JSON file; a missing or malformed one is an InputError naming it. */
+export function readJson(file: string): Json {
   let text: string;
   try {
     text = readFileSync(file, 'utf8');
@@ -70,7 +71,7 @@ function readJson(file: string): Json {
 }
 
 /** Checks that `root` holds, at each dotted key, a value passing its check; throws an InputError naming the first that fails. */
-function requireShape(root: Json, file: string, shape: Readonly<Record<string, [Check, string]>>, prefix = ''): void {
+export function requireShape(root: Json, file: string, shape: Readonly<Record<string, [Check, string]>>, prefix = ''): void {
   for (const [key, [check, expected]] of Object.entries(shape)) {
     let value: Json = root;
     for (const part of key.split('.')) value = isMapping(value) ? (value as Record<string, Json>)[part] : undefined;
@@ -197,6 +198,21 @@ function locate(recorded: string, folder: string): string | null {
   return null;
 }
 
+/** The observed data files a summary names, as found from here, and truth.json beside the image when present. */
+export function locateRunData(
+  data: { readonly image: string; readonly noise?: string; readonly psf?: string; readonly mask?: string }, folder: string, summaryFile: string, notices: string[],
+): { dataFiles: Record<'image' | 'noise' | 'psf' | 'mask', string | null>; truth: TruthRecord | null } {
+  const dataFiles = {} as Record<'image' | 'noise' | 'psf' | 'mask', string | null>;
+  for (const key of ['image', 'noise', 'psf', 'mask'] as const) {
+    const recorded = data[key];
+    dataFiles[key] = recorded === undefined ? null : locate(recorded, folder);
+    if (recorded !== undefined && dataFiles[key] === null) notices.push(`observed ${key} ${recorded} (named in ${summaryFile}) not found`);
+  }
+  const truthFile = dataFiles.image === null ? null : join(dirname(dataFiles.image), 'truth.json');
+  const truth = truthFile !== null && existsSync(truthFile) ? readTruth(truthFile) : null;
+  return { dataFiles, truth };
+}
+
 /** Reads a comparison run folder: summary.json (required), both corner.json files and truth.json when present. */
 export function readRunFolder(folder: string): RunFolder {
   const summaryFile = join(folder, 'summary.json');
@@ -208,13 +224,6 @@ export function readRunFolder(folder: string): RunFolder {
     corners[model] = existsSync(file) ? readCornerData(file) : null;
     if (corners[model] === null) notices.push(`${file} not found: the ${model} model's posterior figures are left out`);
   }
-  const dataFiles = {} as Record<'image' | 'noise' | 'psf' | 'mask', string | null>;
-  for (const key of ['image', 'noise', 'psf', 'mask'] as const) {
-    const recorded = summary.data[key];
-    dataFiles[key] = recorded === undefined ? null : locate(recorded, folder);
-    if (recorded !== undefined && dataFiles[key] === null) notices.push(`observed ${key} ${recorded} (named in ${summaryFile}) not found`);
-  }
-  const truthFile = dataFiles.image === null ? null : join(dirname(dataFiles.image), 'truth.json');
-  const truth = truthFile !== null && existsSync(truthFile) ? readTruth(truthFile) : null;
+  const { dataFiles, truth } = locateRunData(summary.data, folder, summaryFile, notices);
   return { folder, summaryFile, summary, corners, truth, dataFiles, notices };
 }

@@ -69,6 +69,9 @@ td.quoted { font-weight: 700; color: var(--ink); background: rgba(60, 100, 170, 
 .tag.held { background: #eeeeee; color: var(--muted); }
 .tag.warn, td.warn { color: #8a3b00; }
 .tag.warn { background: var(--caution-tint); border: 1px solid var(--caution); }
+.tag.verdict-confirmed { background: var(--perturbed); color: #ffffff; }
+.tag.verdict-disfavoured { background: var(--smooth); color: #ffffff; }
+.tag.verdict-inconclusive { background: var(--caution-tint); border: 1px solid var(--caution); color: var(--ink); }
 .place { font-size: 12px; text-align: center; }
 .place.in68 { color: #2f6b3a; }
 .place.in95 { color: #7a6200; }

@@ -1,9 +1,14 @@
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
+import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
-import { readRunFolder } from './readRunFolder.js';
+import { writeFitReport } from './fitReport.js';
+import { isMapping, readJson, readRunFolder } from './readRunFolder.js';
 import { writeReportFigures } from './reportFigures.js';
 import { reportPage } from './reportPage.js';
+import { writeSensitivityReport } from './sensitivityReport.js';
+import { writeVetReport } from './vetReport.js';
 
 /** Default page of a run folder: report.html inside it. */
 export const REPORT_FILE = 'report.html';
@@ -11,15 +16,25 @@ export const REPORT_FILE = 'report.html';
 export const FIGURES_FOLDER = 'figures';
 
 /**
- * Writes the report of a comparison run folder (from `arcsift compare`): one self-contained HTML
- * page (default `runFolder/report.html`) and its figures as SVG and PNG files in
- * `runFolder/figures/`. A missing or malformed summary.json throws an InputError naming it.
- * Returns the page's path.
+ * Writes the report of a run folder: one self-contained HTML page (default
+ * `runFolder/report.html`) and its figures as SVG and PNG files in `runFolder/figures/`. The kind
+ * of run is read from the folder: a comparison or a fit (summary.json), a vetting (vet.json) or
+ * a sensitivity map (sensitivity.json). A folder with none of them, or a malformed one, throws an
+ * InputError naming the file. Returns the page's path.
  */
 export function writeReport(runFolder: string, outFile?: string): string {
-  const run = readRunFolder(runFolder);
   const pageFile = outFile ?? join(runFolder, REPORT_FILE);
-  const { figures, notices } = writeReportFigures(run, join(runFolder, FIGURES_FOLDER));
+  const figuresFolder = join(runFolder, FIGURES_FOLDER);
+  if (existsSync(join(runFolder, 'vet.json'))) return writeVetReport(runFolder, pageFile, figuresFolder);
+  if (existsSync(join(runFolder, 'sensitivity.json'))) return writeSensitivityReport(runFolder, pageFile, figuresFolder);
+  const summaryFile = join(runFolder, 'summary.json');
+  if (!existsSync(summaryFile)) {
+    throw new InputError(`file not found: a finished run folder holds summary.json (compare, fit), vet.json (vet) or sensitivity.json (sensitivity), and ${runFolder} has none of them`, { file: summaryFile });
+  }
+  const json = readJson(summaryFile);
+  if (isMapping(json) && (json as { kind?: unknown }).kind === 'fit') return writeFitReport(runFolder, pageFile, figuresFolder);
+  const run = readRunFolder(runFolder);
+  const { figures, notices } = writeReportFigures(run, figuresFolder);
   const html = reportPage({ run, figures, notices, pageFile, arcsiftVersion: packageVersion() });
   writeFileAtomic(pageFile, html);
   return pageFile;

@@ -1,4 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
+import { writeReport } from '../../src/report/writeReport.js';
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -76,6 +77,22 @@ describe('runFitToFolder with the ensemble sampler', () => {
     });
     summary = outcome.summary as EnsembleFitSummary;
   }, 120_000);
+
+  it('reports the ensemble fit: convergence table, trace plots, images and priors in one page (own report contract)', () => {
+    const page = writeReport(fitDir);
+    const html = readFileSync(page, 'utf8');
+    expect(html).toContain('ensemble-diagnostics');
+    expect(html).toContain('R-hat');
+    expect(html).toContain('id="figure-trace"');
+    expect(html).toContain('prior-table');
+    expect(html).toContain(summary.caution.slice(0, 40));
+    for (const figure of ['trace.svg', 'corner-all.svg', 'data.png', 'smooth-model.png', 'smooth-residual.png', 'smooth-normalised-residual.png']) {
+      expect(existsSync(join(fitDir, 'figures', figure)), figure).toBe(true);
+    }
+    // Every free parameter's autocorrelation time appears in the table as the summary holds it.
+    const tau = summary.model.diagnostics[0].autocorrelationTime;
+    if (tau !== null) expect(html).toContain(tau.toFixed(1));
+  });
 
   it('writes a summary with the chain diagnostics and the priors', () => {
     const written = JSON.parse(readFileSync(join(fitDir, 'summary.json'), 'utf8')) as EnsembleFitSummary;
@@ -203,5 +220,11 @@ describe('arcsift fit on the command line', () => {
     expect(run.stdout).toContain('ln Z = ');
     expect(run.stdout).toContain('Priors behind this ln Z');
     expect(run.stdout).toContain('lens.mass[0].einsteinRadiusArcsec: uniform [0.9, 1.3]');
+    // The report is written by default: the nested history and the evidence of the summary.
+    expect(run.stdout).toContain(`report: ${join(folder, 'report.html')}`);
+    const html = readFileSync(join(folder, 'report.html'), 'utf8');
+    expect(html).toContain('id="figure-nested-history"');
+    expect(html).toContain(summary.evidence.lnEvidence.toFixed(2));
+    expect(existsSync(join(folder, 'figures', 'nested-history.svg'))).toBe(true);
   });
 });

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { writeReport } from '../../src/report/writeReport.js';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -83,6 +84,15 @@ describe('detection sensitivity on a clean mock ring', () => {
     expect(json.settings.deltaChiSquareThreshold).toBe(10);
     // Cumulative fractions never fall with mass.
     for (let k = 1; k < json.decades.length; k++) expect(json.decades[k].fraction).toBeGreaterThanOrEqual(json.decades[k - 1].fraction);
+  });
+
+  it('reports the map with its decade fractions and the approximation (own report contract)', () => {
+    const html = readFileSync(writeReport(out), 'utf8');
+    expect(html).toContain('Smallest detectable mass');
+    expect(html).toContain('decade-table');
+    expect(html).toContain(summary.approximation.slice(0, 40).replace(/&/g, '&amp;'));
+    for (const d of summary.decades) expect(html).toContain(`${(100 * d.fraction).toFixed(1)}%`);
+    expect(existsSync(join(out, 'figures', 'sensitivity.png'))).toBe(true);
   });
 
   it('grows as M^2 in the linear regime of a point mass', () => {

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { writeReport } from '../../src/report/writeReport.js';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -110,6 +111,23 @@ describe('vetting flags on a mock with a planted perturber', () => {
     expect(json.priors.perturbed.some((p) => p.name === 'perturbers[0].log10MassSolar' && p.kind === 'uniform')).toBe(true);
     expect(json.caution).toMatch(/depend on the priors/);
     expect(readFileSync(join(out, 'candidate-1', 'samples.csv'), 'utf8')).toMatch(/perturbers\[0\]\.log10MassSolar/);
+  });
+
+  it('reports the vetting: verdict table, flags drawn over the image by verdict, priors and caution (own report contract)', () => {
+    const html = readFileSync(writeReport(out), 'utf8');
+    expect(html).toContain('vet-table');
+    for (const c of summary.candidates) {
+      expect(html).toContain(`<td>${c.id}</td>`);
+      expect(html).toContain(`verdict-${c.verdict}`);
+    }
+    expect(html).toContain('Flags and verdicts');
+    expect(html).toContain('confirmed when ln B'.replace('confirmed', 'Confirmed'));
+    expect(html).toContain(summary.caution.slice(0, 40));
+    const flags = readFileSync(join(out, 'figures', 'flags.svg'), 'utf8');
+    // One labelled diamond per flag.
+    for (const c of summary.candidates) expect(flags).toContain(`>${c.id}</text>`);
+    expect(existsSync(join(out, 'figures', 'smooth-residual.png'))).toBe(true);
+    expect(existsSync(join(out, 'figures', 'candidate-1-model.png'))).toBe(true);
   });
 
   it('prints the table with its thresholds, the priors and the caution', () => {

@@ -1,0 +1,173 @@
+import { existsSync } from 'node:fs';
+import { join, relative, resolve } from 'node:path';
+import type { EnsembleFitSummary, NestedFitSummary } from '../inference/runFitToFolder.js';
+import { writeFileAtomic } from '../io/writeFileAtomic.js';
+import { packageVersion } from '../model/packageVersion.js';
+import { cornerPlotSvg } from './cornerPlotSvg.js';
+import { nestedDiagnosticsTable } from './diagnosticsTable.js';
+import { escapeMarkup } from './escapeMarkup.js';
+import { LN_EVIDENCE_DIGITS } from './evidenceTable.js';
+import { formatCount, formatNumber } from './formatNumber.js';
+import { htmlTable, numberCell } from './htmlTable.js';
+import type { ImageMarker } from './imagePanelSvg.js';
+import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
+import { parameterColumnsTable } from './parameterTable.js';
+import { parameterLabel } from './parameterLabel.js';
+import { perturberTable } from './perturberTable.js';
+import { priorColumnsTable } from './priorTable.js';
+import { readFitFolder, type FitFolder } from './readFitFolder.js';
+import { readWeightedSamples } from './readWeightedSamples.js';
+import {
+  imageFigures, imageSetOf, nestedTraceFigure, perturberTruthMarkers, readModelImages, readObservedImages, writeSvgFigure,
+  type ReportFigure,
+} from './reportFigures.js';
+import { modelColours, type ModelTone } from './reportPalette.js';
+import { ensembleTraceSvg } from './samplerTraceSvg.js';
+
+/** Gaussian smoothing of the 2-D histograms' outlines, in bins (as on the comparison page). */
+const DISPLAY_SMOOTHING_BINS = 1;
+
+/** The figures of a fit: image panels, corner plot, and the sampler's history or trace plots. */
+function fitFigures(run: FitFolder, tone: ModelTone, figuresFolder: string, notices: string[]): ReportFigure[] {
+  const s = run.summary;
+  const figures: ReportFigure[] = [];
+  const truth = new Map((run.truth?.parameters ?? []).map((p) => [p.name, p.value]));
+  const perturbers = s.sampler === 'nested' ? s.perturbers : [];
+  const observed = readObservedImages(run.dataFiles, notices);
+  const posteriorMarkers: ImageMarker[] = perturbers.map((p) => ({
+    kind: 'posterior',
+    xArcsec: p.centerXArcsec.median,
+    yArcsec: p.centerYArcsec.median,
+    xInterval: [p.centerXArcsec.interval68.lower, p.centerXArcsec.interval68.upper],
+    yInterval: [p.centerYArcsec.interval68.lower, p.centerYArcsec.interval68.upper],
+  }));
+  const model = { ...readModelImages(run.folder, tone, tone === 'smooth' ? 'Smooth' : 'Perturbed', notices), markers: posteriorMarkers };
+  const set = imageSetOf(observed, [model], notices);
+  if (set !== null) {
+    const keys = Array.from({ length: s.perturberCount }, (_, k) => ({ key: `perturbers[${k}]` }));
+    figures.push(...imageFigures(set, observed, [model], perturberTruthMarkers(keys, truth), figuresFolder));
+  }
+  if (run.corner !== null) {
+    const names = run.corner.parameters.map((p) => p.name);
+    figures.push(writeSvgFigure(figuresFolder, 'corner-all', 'posterior-all', {
+      section: 'posterior',
+      title: 'All free parameters',
+      caption: 'Every free parameter of the model: 1-D marginals on the diagonal, 2-D marginals below with the 39.3% (inner) and 86.5% (outer) highest-density regions, the 2-D equivalents of 1 and 2 sigma; dashed lines: simulated values where known.',
+      svg: cornerPlotSvg({ parameters: names, layers: [{ tone, label: `${tone} model`, data: run.corner }], truth, smoothingSigmaBins: DISPLAY_SMOOTHING_BINS }),
+    }));
+  }
+  if (s.sampler === 'nested') {
+    const file = join(run.folder, 'samples.csv');
+    if (existsSync(file)) figures.push(nestedTraceFigure([{ label: `${tone} model`, colour: modelColours(tone).line, samples: readWeightedSamples(file) }], figuresFolder));
+  } else {
+    const file = join(run.folder, 'chain.csv');
+    if (existsSync(file)) {
+      const m = s.model;
+      figures.push(writeSvgFigure(figuresFolder, 'trace', 'trace', {
+        section: 'diagnostics',
+        title: 'Trace plots',
+        caption: `Each free parameter over the iterations after burn-in (${formatCount(m.burnInSteps * m.thin)} iterations left out): the median of the ${m.walkers} walkers with the band holding the central 68% of them, and three single walkers. A mixed chain shows flat, overlapping traces with no drift.`,
+        svg: ensembleTraceSvg(file, m.walkers, m.thin, m.burnInSteps, m.diagnostics.map((d) => d.name), m.diagnostics.map((d) => d.unit)),
+      }));
+    } else notices.push(`${file} not found: the trace plots are left out`);
+  }
+  return figures;
+}
+
+function nestedHeadline(s: NestedFitSummary): string {
+  const e = s.evidence;
+  return `<section class="verdict not-favoured" id="verdict">
+<div><span class="label">ln Z of this model</span>
+<span class="big">${formatNumber(e.lnEvidence, LN_EVIDENCE_DIGITS)} <small>&plusmn; ${formatNumber(e.lnEvidenceError, LN_EVIDENCE_DIGITS)}</small></span></div>
+<div><p class="reading">One model's evidence says nothing alone: a detection needs the Bayes factor against the smooth model under the same data and priors (<code>arcsift compare</code>).</p>
+<p>Best ln L ${formatNumber(s.model.bestLnLikelihood, 2)} &middot; ${formatCount(s.model.evaluations)} likelihood evaluations &middot; stopped because ${escapeMarkup(s.model.stopReason)}</p>
+<p class="muted">Under the priors listed in <a href="#priors">the prior table</a>.</p></div>
+</section>`;
+}
+
+function ensembleHeadline(s: EnsembleFitSummary): string {
+  const m = s.model;
+  const trusted = m.warnings.length === 0;
+  return `<section class="verdict ${trusted ? 'not-favoured' : 'favoured'}" id="verdict">
+<div><span class="label">ensemble MCMC</span>
+<span class="big">${trusted ? 'mixed' : 'not yet mixed'}</span>
+<span class="badge ${trusted ? 'not-favoured' : 'favoured'}">max R-hat ${m.maxRHat === null ? 'n/a' : formatNumber(m.maxRHat, 3)}</span></div>
+<div><p class="reading">${trusted ? 'Every convergence check passed: the chain after burn-in can be read as the posterior.' : escapeMarkup(m.warnings.join(' '))}</p>
+<p>${m.walkers} walkers &middot; ${formatCount(m.iterations)} iterations &middot; chain ${m.chainLengthInAutocorrelationTimes === null ? 'n/a' : formatNumber(m.chainLengthInAutocorrelationTimes, 1)} autocorrelation times long &middot; acceptance ${formatNumber(100 * m.acceptanceFraction.mean, 1)}% (lowest walker ${formatNumber(100 * m.acceptanceFraction.min, 1)}%)</p>
+<p class="muted">An ensemble fit gives the posterior only, no evidence.</p></div>
+</section>`;
+}
+
+/** Per-parameter convergence of an ensemble fit: autocorrelation time, R-hat, effective sample sizes. */
+function ensembleDiagnosticsTable(s: EnsembleFitSummary): string {
+  const m = s.model;
+  const value = (v: number | null, digits: number): string => (v === null ? 'n/a' : formatNumber(v, digits));
+  const rows = m.diagnostics.map((d) => {
+    const label = parameterLabel(d.name, d.unit);
+    return [
+      `<span class="component">${escapeMarkup(label.component)}</span> ${escapeMarkup(label.quantity)}`,
+      numberCell(value(d.autocorrelationTime, 1)),
+      { html: value(d.rHat, 3), className: d.rHat !== null && d.rHat > 1.01 ? 'num warn' : 'num' },
+      numberCell(value(d.bulkEffectiveSampleSize, 0)),
+      numberCell(value(d.tailEffectiveSampleSize, 0)),
+    ];
+  });
+  return htmlTable({
+    id: 'ensemble-diagnostics',
+    head: [['parameter', numberCell('autocorrelation time [iterations]'), numberCell('R-hat'), numberCell('bulk ESS'), numberCell('tail ESS')]],
+    rows,
+  });
+}
+
+/**
+ * Writes the report of a fit run folder (from `arcsift fit`): one self-contained page with the
+ * model's images and residuals, corner plot, parameter intervals, priors, and the sampler's
+ * diagnostics (nested: evidence history; ensemble: acceptance, autocorrelation times, R-hat and
+ * trace plots). Returns the page's path.
+ */
+export function writeFitReport(folder: string, pageFile: string, figuresFolder: string): string {
+  const run = readFitFolder(folder);
+  const s = run.summary;
+  const notices = [...run.notices, ...s.dataNotices];
+  const tone: ModelTone = s.perturberCount === 0 ? 'smooth' : 'perturbed';
+  const label = `${tone} model`;
+  const figures = fitFigures(run, tone, figuresFolder, notices);
+  const inSection = (key: ReportFigure['section']): string => figures.filter((f) => f.section === key).map((f) => figureHtml(f, pageFile)).join('\n');
+  const headline = s.sampler === 'nested' ? nestedHeadline(s) : ensembleHeadline(s);
+  const perturbers = s.sampler === 'nested' && s.perturbers.length > 0
+    ? pageSection('perturber', 'Perturber', perturberTable({ perturbers: s.perturbers }, run.truth))
+    : '';
+  const diagnostics = s.sampler === 'nested'
+    ? `${nestedDiagnosticsTable([{ tone, label, record: s.model }])}\n${inSection('diagnostics')}`
+    : `${ensembleDiagnosticsTable(s)}<p class="note">R-hat is the rank-normalised split R-hat with walkers as chains (Vehtari et al. 2021); values above 1.01 are flagged. Autocorrelation times by Sokal's windowed estimate; the chain should be at least 50 of them long.</p>\n${inSection('diagnostics')}`;
+  const files = [run.summaryFile, ...['samples.csv', 'equal-weight-samples.csv', 'chain.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits'].map((f) => join(folder, f))]
+    .filter((f) => existsSync(f))
+    .concat(figures.flatMap((f) => f.files));
+  const body = `${headline}
+${cautionBox(s.caution)}
+${pageSection('priors', 'Priors', `<p class="note">Every posterior${s.sampler === 'nested' ? ' and the evidence' : ''} below holds for these priors only.</p>${priorColumnsTable([{ label, priors: s.priors }], s.amplitudePrior)}`)}
+${perturbers}
+${pageSection('images', 'Images and residuals', figures.some((f) => f.section === 'images') ? `<div class="image-grid">${inSection('images')}</div><p class="note">Row 0 at the bottom: x grows to the right and y upwards, in arcsec from the image centre.${run.truth === null ? '' : ' Open circles: simulated perturber positions.'}</p>` : '<p class="note">No image could be read; see the notices.</p>')}
+${pageSection('posterior', 'Posterior', `${inSection('posterior')}<h3>Parameter intervals</h3>${parameterColumnsTable([{ tone, label, parameters: s.model.parameters }], run.truth)}`)}
+${pageSection('diagnostics', 'Sampler diagnostics', `${diagnostics}${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
+${pageSection('files', 'Files', `<ul class="files">${files.map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
+${pageSection('about', 'About the figures', colourMapRows())}`;
+  const meta = [
+    `config <code>${escapeMarkup(s.config)}</code> (sha256 ${escapeMarkup(s.configSha256.slice(0, 12))}&hellip;)`,
+    `${s.sampler === 'nested' ? 'nested sampling' : 'ensemble MCMC'}`,
+    `seed ${s.seed}`,
+    `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
+    `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
+  ].join(' &middot; ');
+  const html = pageFrame({
+    name: relative(resolve(folder, '..'), resolve(folder)),
+    brand: `arcsift &middot; fit of the ${label}`,
+    subtitle: run.truth?.title,
+    meta,
+    body,
+    arcsiftVersion: packageVersion(),
+    folder,
+  });
+  writeFileAtomic(pageFile, html);
+  return pageFile;
+}

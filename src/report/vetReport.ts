@@ -1,0 +1,151 @@
+import { existsSync } from 'node:fs';
+import { join, relative, resolve } from 'node:path';
+import { InputError, expectedFound } from '../errors.js';
+import { writeFileAtomic } from '../io/writeFileAtomic.js';
+import { packageVersion } from '../model/packageVersion.js';
+import type { VetRunRecord, VetSummary } from '../vet/runVetToFolder.js';
+import { nestedDiagnosticsTable } from './diagnosticsTable.js';
+import { escapeMarkup } from './escapeMarkup.js';
+import { LN_EVIDENCE_DIGITS } from './evidenceTable.js';
+import { formatNumber } from './formatNumber.js';
+import { htmlTable, numberCell } from './htmlTable.js';
+import { imagePanelSvg, type ImageMarker } from './imagePanelSvg.js';
+import { imagePng } from './imagePng.js';
+import { sequentialRange } from './displayRange.js';
+import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
+import { perturberMassName } from './perturberTable.js';
+import { priorColumnsTable } from './priorTable.js';
+import { isList, isMapping, isString, locateRunData, readJson, requireShape } from './readRunFolder.js';
+import {
+  imageFigures, imageSetOf, perturberTruthMarkers, readModelImages, readObservedImages, writeSvgFigure, type ReportFigure,
+} from './reportFigures.js';
+import { sequentialColourMap } from './sequentialColourMap.js';
+
+/** Confirmed candidates whose best-fit images the page shows, at most. */
+const CONFIRMED_SHOWN = 3;
+
+/** Reads and checks vet.json of a vetting run folder. */
+function readVetSummary(file: string): VetSummary {
+  const json = readJson(file);
+  if (!isMapping(json)) throw new InputError(expectedFound('a mapping (the summary of a vetting)', json), { file });
+  requireShape(json, file, {
+    kind: [(v) => v === 'vet', '"vet" (a summary written by `arcsift vet`)'],
+    'data.image': [isString, 'the path of the observed image'],
+    smooth: [isMapping, 'the smooth run record'],
+    candidates: [isList, 'a list of candidate records'],
+    thresholds: [isMapping, 'the verdict thresholds'],
+    'priors.smooth': [isList, 'a list of priors'],
+    'priors.perturbed': [isList, 'a list of priors'],
+    'priors.positionPrior': [isString, 'a string'],
+    caution: [isString, 'a string'],
+  });
+  return json as VetSummary;
+}
+
+const fixed = (v: number | null, digits = 2): string => (v === null || !Number.isFinite(v) ? '&ndash;' : formatNumber(v, digits));
+
+/** One row per run: flag, score, ln B, verdict, mass (interval when confirmed, upper limit otherwise), position and offset. */
+function vetTable(summary: VetSummary, pageFile: string): string {
+  const runs = [...summary.candidates, ...(summary.mapPrior === null ? [] : [summary.mapPrior])];
+  const rows = runs.map((r: VetRunRecord) => {
+    const m = r.log10Mass;
+    const mass = r.verdict === 'confirmed'
+      ? `${fixed(m.median)} <small>[${fixed(m.interval68.lower)}, ${fixed(m.interval68.upper)}]</small>`
+      : `&lt; ${fixed(r.log10MassUpperLimit95)} <small>(95% upper limit)</small>`;
+    return [
+      escapeMarkup(r.id),
+      numberCell(r.flag === null ? 'map prior' : `(${fixed(r.flag.xArcsec, 3)}, ${fixed(r.flag.yArcsec, 3)})`),
+      numberCell(fixed(r.score)),
+      numberCell(`${fixed(r.lnBayesFactor, LN_EVIDENCE_DIGITS)} &plusmn; ${fixed(r.lnBayesFactorError, LN_EVIDENCE_DIGITS)}`),
+      { html: `<span class="tag verdict-${r.verdict}">${r.verdict}</span>` },
+      numberCell(mass),
+      numberCell(`(${fixed(r.position.xArcsec.median, 3)}, ${fixed(r.position.yArcsec.median, 3)})`),
+      numberCell(fixed(r.offsetArcsec, 3)),
+      r.model.files.cornerData === undefined ? '' : `<a href="${pageLink(pageFile, r.model.files.cornerData)}">corner.json</a>`,
+    ];
+  });
+  return htmlTable({
+    id: 'vet-table',
+    head: [['candidate', numberCell('flag (x, y) ["]'), numberCell('score'), numberCell('ln B'), 'verdict', numberCell(perturberMassName(summary.perturberKind)), numberCell('posterior (x, y) ["]'), numberCell('offset ["]'), 'posterior']],
+    rows,
+  });
+}
+
+/**
+ * Writes the report of a vetting run folder (from `arcsift vet`): the verdict table with its
+ * thresholds and priors, the flags over the observed image coloured by verdict, the smooth fit's
+ * and the confirmed candidates' images and residuals, and every run's sampler record.
+ */
+export function writeVetReport(folder: string, pageFile: string, figuresFolder: string): string {
+  const summaryFile = join(folder, 'vet.json');
+  const s = readVetSummary(summaryFile);
+  const notices: string[] = [...s.dataNotices, ...s.flags.notices];
+  const { dataFiles, truth } = locateRunData(s.data, folder, summaryFile, notices);
+  const truthValues = new Map((truth?.parameters ?? []).map((p) => [p.name, p.value]));
+  const observed = readObservedImages(dataFiles, notices);
+  const runs = [...s.candidates, ...(s.mapPrior === null ? [] : [s.mapPrior])];
+  const confirmed = s.candidates.filter((c) => c.verdict === 'confirmed').slice(0, CONFIRMED_SHOWN);
+  const candidateFolder = (r: VetRunRecord): string => join(folder, r.id === 'map-prior' ? 'map-prior' : `candidate-${s.candidates.indexOf(r) + 1}`);
+  const models = [
+    readModelImages(join(folder, 'smooth'), 'smooth', 'Smooth', notices),
+    ...confirmed.map((c) => ({
+      ...readModelImages(candidateFolder(c), `candidate-${s.candidates.indexOf(c) + 1}`, `Candidate ${c.id}`, notices),
+      markers: [{
+        kind: 'posterior' as const,
+        xArcsec: c.position.xArcsec.median,
+        yArcsec: c.position.yArcsec.median,
+        xInterval: [c.position.xArcsec.interval68.lower, c.position.xArcsec.interval68.upper] as const,
+        yInterval: [c.position.yArcsec.interval68.lower, c.position.yArcsec.interval68.upper] as const,
+      }],
+    })),
+  ];
+  const set = imageSetOf(observed, models, notices);
+  const figures: ReportFigure[] = [];
+  const truthMarkers = perturberTruthMarkers(truth?.perturbers ?? [], truthValues);
+  if (set !== null && observed.data !== null && observed.data.nx === set.columns && observed.data.ny === set.rows) {
+    const flags: ImageMarker[] = s.candidates.filter((c) => c.flag !== null).map((c) => ({
+      kind: 'flag', xArcsec: c.flag!.xArcsec, yArcsec: c.flag!.yArcsec, label: c.id, verdict: c.verdict,
+    }));
+    const [low, high] = sequentialRange([observed.data.data]);
+    const colouring = { map: sequentialColourMap, low, high, values: observed.data.data, columns: set.columns, rows: set.rows, upscale: Math.max(1, Math.ceil(320 / Math.max(set.columns, set.rows))) };
+    const png = imagePng(colouring);
+    figures.push(writeSvgFigure(figuresFolder, 'flags', 'flags', {
+      section: 'images',
+      title: 'Flags and verdicts',
+      caption: `The network's flags over the observed image, each labelled with its candidate id: vermilion confirmed (ln B &gt; ${s.thresholds.confirmAboveLnB}), blue disfavoured (ln B &lt; ${s.thresholds.disfavourBelowLnB}), yellow inconclusive.${truth === null ? '' : ' Open circles: simulated perturbers.'}`,
+      svg: imagePanelSvg({
+        title: 'Flags and verdicts', subtitle: 'diamonds: flags; dashed: fitted pixels', colouring, pixelScaleArcsec: set.pixelScaleArcsec,
+        colourBarLabel: observed.data.header.getString('BUNIT')?.trim() || 'counts/s', mask: set.mask, markers: [...truthMarkers, ...flags], imagePx: 320,
+      }, png),
+    }, png));
+  }
+  if (set !== null) figures.push(...imageFigures(set, observed, models, truthMarkers, figuresFolder));
+  const [flagFigure, ...imageFiguresShown] = figures;
+  const t = s.thresholds;
+  const body = `<section class="verdict not-favoured" id="verdict">
+<div><span class="label">flags vetted</span><span class="big">${s.candidates.length}</span>
+<span class="badge favoured">${s.candidates.filter((c) => c.verdict === 'confirmed').length} confirmed</span></div>
+<div><p class="reading">Confirmed when ln B &gt; ${t.confirmAboveLnB}, disfavoured when ln B &lt; ${t.disfavourBelowLnB}, inconclusive between (ln B = ln Z with a perturber in the flag's window minus ln Z of the one shared smooth fit, ${fixed(s.smooth.lnEvidence, LN_EVIDENCE_DIGITS)} &plusmn; ${fixed(s.smooth.lnEvidenceError, LN_EVIDENCE_DIGITS)}).</p>
+<p class="muted">Under the priors listed in <a href="#priors">the prior table</a>; a verdict is only as good as them.</p></div>
+</section>
+${cautionBox(s.caution)}
+${s.mapPriorNote === null ? '' : `<aside class="caution" role="note"><div class="mark">!</div><div><p>${escapeMarkup(s.mapPriorNote)}</p></div></aside>`}
+${pageSection('verdicts', 'Verdicts', `${vetTable(s, pageFile)}${flagFigure === undefined || flagFigure.key !== 'flags' ? '' : figureHtml(flagFigure, pageFile)}`)}
+${pageSection('priors', 'Priors behind these Bayes factors', `${priorColumnsTable([{ label: 'smooth model', priors: s.priors.smooth }, { label: 'perturbed models', priors: s.priors.perturbed }], s.amplitudePrior)}<p class="note">Perturber position: ${escapeMarkup(s.priors.positionPrior)}.</p>`)}
+${pageSection('images', 'Images and residuals', `<div class="image-grid">${(flagFigure?.key === 'flags' ? imageFiguresShown : figures).map((f) => figureHtml(f, pageFile)).join('\n')}</div><p class="note">The shared smooth fit${confirmed.length === 0 ? '' : ' and the confirmed candidates\' perturbed fits'}; row 0 at the bottom, x right and y up in arcsec from the image centre.</p>`)}
+${pageSection('diagnostics', 'Sampler diagnostics', `${nestedDiagnosticsTable([{ tone: 'smooth', label: 'smooth', record: s.smooth }, ...runs.map((r) => ({ tone: 'perturbed', label: r.id, record: r.model }))])}${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
+${pageSection('files', 'Files', `<ul class="files">${[summaryFile, join(folder, 'vet.csv'), ...figures.flatMap((f) => f.files)].filter((f) => existsSync(f)).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
+${pageSection('about', 'About the figures', colourMapRows())}`;
+  const meta = [
+    `config <code>${escapeMarkup(s.config)}</code>`,
+    `flags <code>${escapeMarkup(s.flags.file)}</code> (${s.flags.kind})`,
+    `window ${s.windowArcsec}&Prime;`,
+    `seed ${s.seed}`,
+    `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
+    `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
+  ].join(' &middot; ');
+  writeFileAtomic(pageFile, pageFrame({
+    name: relative(resolve(folder, '..'), resolve(folder)), brand: 'arcsift &middot; vetting network flags', subtitle: truth?.title, meta, body, arcsiftVersion: packageVersion(), folder,
+  }));
+  return pageFile;
+}
