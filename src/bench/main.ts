@@ -1,7 +1,11 @@
 #!/usr/bin/env node
-// `npm run bench -- NAME [...]`: runs the benchmark module src/bench/NAME.ts, which prints one
-// JSON line per scenario on standard output.
-const names = process.argv.slice(2);
+// `npm run bench -- NAME [...] [--option value ...]`: runs the benchmark module src/bench/NAME.ts,
+// which prints one JSON line per scenario on standard output; arguments from the first `--option`
+// on go to every module named.
+const all = process.argv.slice(2);
+const firstOption = all.findIndex((a) => a.startsWith('--'));
+const names = firstOption < 0 ? all : all.slice(0, firstOption);
+const options = firstOption < 0 ? [] : all.slice(firstOption);
 if (names.length === 0) {
   console.error('usage: npm run bench -- NAME [NAME ...]   (e.g. forward, samplers, likelihood)');
   process.exit(2);
@@ -18,5 +22,5 @@ for (const name of names) {
     console.error(`bench: no benchmark named ${JSON.stringify(name)} (${(error as Error).message})`);
     process.exit(2);
   }
-  await module.run(process.argv.slice(3));
+  await module.run(options);
 }

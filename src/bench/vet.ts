@@ -14,10 +14,13 @@ const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.ur
 /**
  * `npm run bench -- vet`: seconds to vet 5 flags on the demo scenario (one shared smooth fit and
  * five windowed perturbed fits, the demo's quick settings: 25 live points, one slice move per
- * free parameter), on one thread and on every core. Flags: the planted subhalo, three other
- * places on the arc and one off it.
+ * free parameter), on one thread and on every core (`--threads N` runs N alone). Flags: the
+ * planted subhalo, three other places on the arc and one off it.
  */
-export async function run(_args: string[]): Promise<void> {
+export async function run(args: string[]): Promise<void> {
+  const at = args.indexOf('--threads');
+  const only = at < 0 ? undefined : Number(args[at + 1]);
+  if (only !== undefined && !(Number.isInteger(only) && only >= 1)) throw new Error(`--threads: expected a whole number >= 1, found ${args[at + 1]}`);
   const config = loadConfig(demoPath);
   const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-vet-'));
   try {
@@ -27,7 +30,7 @@ export async function run(_args: string[]): Promise<void> {
     const candidates: FlagCandidate[] = positions.map(([x, y], k) => ({
       id: String(k + 1), xArcsec: x, yArcsec: y, score: undefined, origin: `bench flag ${k + 1}`,
     }));
-    const threadCounts = [...new Set([1, defaultThreadCount()])];
+    const threadCounts = only === undefined ? [...new Set([1, defaultThreadCount()])] : [only];
     for (const threads of threadCounts) {
       const started = performance.now();
       const result = await vetFlags(config, data, candidates, {
