@@ -7,6 +7,7 @@ import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
 import type { LensSystem } from '../model/lensSystem.js';
 import { compareModels, favouredLnBayesFactor, type Comparison, type ComparisonSettings } from './compareModels.js';
+import { amplitudePriorText } from './amplitudePriorText.js';
 import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
 
 /** The caution printed and written beside every Bayes factor. */
@@ -117,7 +118,7 @@ export async function runComparisonToFolder(
     perturbers: comparison.perturbers,
     priors: comparison.priors,
     positionPriors: describePositionPriors(comparison.perturbed.system),
-    amplitudePrior: `every linear light amplitude ~ Normal(0, ${config.amplitudePriorSigma}^2), counts/s/arcsec^2 (marginalised analytically)`,
+    amplitudePrior: amplitudePriorText(config),
     caution: priorCaution,
   };
   writeJsonAtomic(join(folder, 'summary.json'), summary);

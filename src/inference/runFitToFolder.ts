@@ -5,6 +5,7 @@ import { InputError, expectedFound } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
 import type { PriorDescription } from '../sampling/parameterSpace.js';
+import { amplitudePriorText } from './amplitudePriorText.js';
 import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
 import { configHash, priorCaution } from './runComparisonToFolder.js';
 import { runModelEnsemble, type EnsembleFitSettings, type ModelEnsemble } from './runModelEnsemble.js';
@@ -67,11 +68,6 @@ export type FitOutcome =
 /** The checkpoint of a fit in `folder` (either sampler). */
 export function fitCheckpointPath(folder: string): string {
   return join(folder, 'checkpoint.json');
-}
-
-/** The amplitude prior in words, as every summary states it. */
-export function amplitudePriorText(config: ArcsiftConfig): string {
-  return `every linear light amplitude ~ Normal(0, ${config.amplitudePriorSigma}^2), counts/s/arcsec^2 (marginalised analytically)`;
 }
 
 /** The number of perturbers a fit holds: all of the config's by default; more than it lists is a user mistake. */

@@ -1,15 +1,13 @@
 import { join } from 'node:path';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
-import { writeFits } from '../fits/index.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
-import { gridCards } from '../model/simulateToFolder.js';
 import {
   cornerData, equalWeightResample, parameterColumn, parameterSummary, weightsFromLogWeights,
   writeEqualWeightSamplesCsv, writeWeightedSamplesCsv,
 } from '../results/index.js';
 import type { ModelEvidence } from './runModelEvidence.js';
+import { writeFitImages } from './writeFitImages.js';
 
 /** What a summary says of one model's run. */
 export interface ModelRecord {
@@ -77,28 +75,12 @@ export function writeModelOutputs(
   let best = 0;
   for (let r = 1; r < result.count; r++) if (result.lnL[r] > result.lnL[best]) best = r;
   const bestVector = result.points.slice(best * width, (best + 1) * width);
-  const likelihood = new PixelLikelihood(config, data, evidence.perturberCount);
-  const fit = likelihood.modelImage(bestVector);
-  const residual = new Float64Array(fit.image.length);
-  const normalised = new Float64Array(fit.image.length);
-  for (let p = 0; p < residual.length; p++) {
-    residual[p] = data.mask[p] ? data.image[p] - fit.image[p] : 0;
-    normalised[p] = data.mask[p] ? residual[p] / data.noise[p] : 0;
-  }
-  const grid = { columns: data.columns, rows: data.rows, pixelScaleArcsec: data.pixelScaleArcsec };
-  for (const [key, name, values, unit, what] of [
-    ['bestFitModel', 'best-fit-model.fits', fit.image, 'counts/s', `best-fit ${evidence.label} model (highest ln L sample)`],
-    ['residual', 'residual.fits', residual, 'counts/s', 'data minus best-fit model inside the mask, 0 outside'],
-    ['normalisedResidual', 'normalised-residual.fits', normalised, '', '(data - model) / noise inside the mask, 0 outside'],
-  ] as const) {
-    files[key] = join(folder, name);
-    writeFits(files[key], { primary: { data: values, nx: data.columns, ny: data.rows, cards: gridCards(grid, unit, what) } });
-  }
+  const images = writeFitImages(config, data, evidence.perturberCount, bestVector, `${evidence.label} model (highest ln L sample)`, folder);
+  Object.assign(files, images.files);
 
   const bestFit: Record<string, number> = {};
   names.forEach((name, i) => { bestFit[name] = bestVector[i]; });
-  const bestFitAmplitudes: Record<string, number> = {};
-  system.amplitudeNames.forEach((name, i) => { bestFitAmplitudes[name] = fit.amplitudes[i]; });
+  const bestFitAmplitudes = images.amplitudes;
   return {
     label: evidence.label,
     lnEvidence: result.lnZ,

@@ -5,6 +5,7 @@ import { writeFileAtomic, writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { ParameterSummary } from '../results/index.js';
 import { bayesFactorReading } from '../results/index.js';
 import { packageVersion } from '../model/packageVersion.js';
+import { amplitudePriorText } from '../inference/amplitudePriorText.js';
 import { configHash, priorCaution } from '../inference/runComparisonToFolder.js';
 import { writeModelOutputs, type ModelRecord } from '../inference/writeModelOutputs.js';
 import type { PriorDescription } from '../sampling/parameterSpace.js';
@@ -164,7 +165,7 @@ export async function runVetToFolder(
       perturbed: perturbedRun === undefined ? [] : perturbedRun.space.describe().filter((p) => !centreNames.includes(p.name)),
       positionPrior: `${centreNames.join(', ')}: ${positionPrior}`,
     },
-    amplitudePrior: `every linear light amplitude ~ Normal(0, ${config.amplitudePriorSigma}^2), counts/s/arcsec^2 (marginalised analytically)`,
+    amplitudePrior: amplitudePriorText(config),
     caution: priorCaution,
     mapPriorNote: result.mapPrior === undefined ? null : mapPriorNote,
   };
