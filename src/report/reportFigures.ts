@@ -7,6 +7,7 @@ import { divergingColourMap } from './divergingColourMap.js';
 import { sequentialRange, symmetricRange } from './displayRange.js';
 import { imagePanelSvg, type ImageMarker, type ImagePanel } from './imagePanelSvg.js';
 import { imagePng } from './imagePng.js';
+import { lensingFigures } from './lensingFigures.js';
 import { MODEL_NAMES, type ModelName, type RunFolder } from './readRunFolder.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
 
@@ -76,6 +77,7 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
     };
     if (pixelScaleArcsec === undefined) notices.push('no pixel scale in the FITS headers: image axes are in pixels, labelled arcsec at 1 arcsec per pixel');
     figures.push(...imageFigures(run, set, data, noise, models, truth, figuresFolder));
+    figures.push(...lensingFigures(run, set, notices, (key, figure, png) => writeSvgFigure(figuresFolder, key, key, figure, png)));
   }
 
   const perturbedCorner = run.corners.perturbed;
