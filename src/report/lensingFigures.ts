@@ -54,7 +54,7 @@ const title = (model: ModelName): string => (model === 'smooth' ? 'Smooth' : 'Pe
  * The lens is rebuilt from the run's config (summary.config) with the best-fit values put in.
  * Without the config, or when it no longer matches the run, the panels are left out with a notice.
  */
-export function lensingFigures(run: RunFolder, grid: LensingGrid, notices: string[], write: FigureWriter): ReportFigure[] {
+export function lensingFigures(run: RunFolder, imageGrid: LensingGrid, notices: string[], write: FigureWriter): ReportFigure[] {
   const configFile = locate(run.summary.config, run.folder);
   if (configFile === null) {
     notices.push(`config ${run.summary.config} (named in ${run.summaryFile}) not found: the lens and source plane panels are left out`);
@@ -65,6 +65,14 @@ export function lensingFigures(run: RunFolder, grid: LensingGrid, notices: strin
     const config = loadConfig(configFile);
     if (configHash(config) !== run.summary.configSha256) {
       notices.push(`config ${configFile} has changed since the run (its sha256 differs): the lens and source plane panels use its current fixed values`);
+    }
+    // The data's pixel scale agrees with the config's (checked when the run loaded it); a
+    // disagreement here means the FITS headers held none and the report fell back to 1 arcsec.
+    const configScale = config.observation.pixelScaleArcsec;
+    let grid = imageGrid;
+    if (Math.abs(grid.pixelScaleArcsec - configScale) > 1e-3 * configScale) {
+      notices.push(`the lens and source plane panels use the config's pixel scale, ${configScale} arcsec, not the ${grid.pixelScaleArcsec} arcsec of the image panels`);
+      grid = { ...grid, pixelScaleArcsec: configScale };
     }
     const halfX = (grid.columns / 2) * grid.pixelScaleArcsec;
     const halfY = (grid.rows / 2) * grid.pixelScaleArcsec;
