@@ -1,4 +1,5 @@
 import normal from '@stdlib/random/base/normal';
+import { createHash } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeFits } from '../../src/fits/index.js';
@@ -150,7 +151,7 @@ export function writeSyntheticRun(root: string): string {
     fits(join(folder, 'normalised-residual.fits'), image((i, j) => (i - j) * 0.2), '');
   }
   const summary = {
-    arcsiftVersion: '0.0.0-test', kind: 'comparison', config: 'configs/synthetic.yaml', configSha256: 'ab'.repeat(32),
+    arcsiftVersion: '0.0.0-test', kind: 'comparison', config: 'configs/synthetic.yaml', configSha256: createHash('sha256').update(SYNTHETIC_CONFIG).digest('hex'),
     data: { image: join(dataFolder, 'image.fits'), noise: join(dataFolder, 'noise.fits'), psf: join(dataFolder, 'psf.fits'), mask: join(dataFolder, 'mask.fits') },
     dataNotices: [], seed: 7, settings: { smooth: { lnZTolerance: 0.1 }, perturbed: { lnZTolerance: 0.1 } }, runSeconds: 99,
     models: {

@@ -56,6 +56,18 @@ describe('writeReport on a synthetic run folder', () => {
     }
     expect(html).toContain('Lens and source planes');
     expect(html).not.toContain('the lens and source plane panels are left out');
+    expect(html).not.toContain('has changed since the run');
+  });
+
+  it('says so when the config has changed since the run', () => {
+    const other = mkdtempSync(join(tmpdir(), 'arcsift-report-changed-'));
+    const folder = writeSyntheticRun(other);
+    const config = join(other, 'configs', 'synthetic.yaml');
+    writeFileSync(config, `${readFileSync(config, 'utf8')}# edited after the run\n`);
+    const text = readFileSync(writeReport(folder), 'utf8');
+    expect(text).toContain('has changed since the run (its sha256 differs)');
+    expect(text).toContain('figure-perturbed-convergence');
+    rmSync(other, { recursive: true, force: true });
   });
 
   it('leaves the lens and source planes out, with a notice, when the config is missing', () => {
