@@ -92,7 +92,7 @@ export function lensingFigures(run: RunFolder, imageGrid: LensingGrid, notices: 
       return { model, system, vector, profile, curves: criticalCurves(system.massTerms, profile, xNodes, yNodes) };
     });
     const figures = [convergenceFigure(run, grid, lenses[0], lenses[1], write)];
-    for (const lens of lenses) figures.push(sourcePlaneFigure(run, grid, lens, write));
+    figures.push(...sourcePlaneFigures(run, grid, lenses, write));
     return figures;
   } catch (error) {
     if (!(error instanceof InputError)) throw error;
@@ -148,15 +148,19 @@ function convergenceFigure(run: RunFolder, grid: LensingGrid, perturbed: ModelLe
   }, png);
 }
 
-/** The best-fit source light (unit-amplitude components times their best-fit amplitudes) with the caustics. */
-function sourcePlaneFigure(run: RunFolder, grid: LensingGrid, lens: ModelLens, write: FigureWriter): ReportFigure {
-  const amplitudes = lens.system.amplitudeNames.map((name) => {
+/** A model's best-fit amplitudes in the order of its system's amplitude names. */
+function bestFitAmplitudes(run: RunFolder, lens: ModelLens): number[] {
+  return lens.system.amplitudeNames.map((name) => {
     const v = run.summary.models[lens.model].bestFitAmplitudes?.[name];
     if (typeof v !== 'number' || !Number.isFinite(v)) {
       throw new InputError(`expected a number for the amplitude ${name}, found ${v === undefined ? 'nothing' : JSON.stringify(v)}`, { file: run.summaryFile, key: `models.${lens.model}.bestFitAmplitudes.${name}` });
     }
     return v;
   });
+}
+
+/** Half-side of a square about the origin holding a model's caustics and its source where brighter than SOURCE_EXTENT_FRACTION of the peak. */
+function sourcePlaneExtent(grid: LensingGrid, lens: ModelLens, amplitudes: readonly number[]): number {
   // Where the source is bright: a coarse look over the whole image field.
   const field = Math.max(grid.columns, grid.rows) * grid.pixelScaleArcsec * 0.5;
   const coarse = sourceLight(lens, amplitudes, field, SOURCE_SEARCH_CELLS);
@@ -168,25 +172,37 @@ function sourcePlaneFigure(run: RunFolder, grid: LensingGrid, lens: ModelLens, w
     if (Math.abs(coarse.values[p]) >= SOURCE_EXTENT_FRACTION * peak) extent = Math.max(extent, Math.abs(coarse.x[p]) + cell, Math.abs(coarse.y[p]) + cell);
   }
   for (const caustic of lens.curves.caustics) for (const v of caustic) if (Number.isFinite(v)) extent = Math.max(extent, Math.abs(v));
+  return extent;
+}
+
+/**
+ * Each model's best-fit source light (unit-amplitude components times their best-fit amplitudes)
+ * with its caustics, all on one source-plane square and one colour scale.
+ */
+function sourcePlaneFigures(run: RunFolder, grid: LensingGrid, lenses: readonly ModelLens[], write: FigureWriter): ReportFigure[] {
+  const amplitudes = lenses.map((lens) => bestFitAmplitudes(run, lens));
+  const extent = Math.max(...lenses.map((lens, k) => sourcePlaneExtent(grid, lens, amplitudes[k])));
   const half = Math.max((1 + SOURCE_MARGIN) * extent, grid.pixelScaleArcsec);
-  const fine = sourceLight(lens, amplitudes, half, SOURCE_CELLS);
-  const [low, high] = sequentialRange([fine.values]);
-  const colouring = { values: fine.values, columns: SOURCE_CELLS, rows: SOURCE_CELLS, map: sequentialColourMap, low, high, upscale: upscaleFor(SOURCE_CELLS, SOURCE_CELLS) };
-  const panel: ImagePanel = {
-    title: `${title(lens.model)} model: source plane`,
-    subtitle: 'best-fit source light and caustics',
-    colouring,
-    pixelScaleArcsec: (2 * half) / SOURCE_CELLS,
-    colourBarLabel: 'counts/s/arcsec\u00b2',
-    lines: lens.curves.caustics.map((points): ImageLine => ({ points, colour: tone(lens.model) })),
-  };
-  const png = imagePng(colouring);
-  return write(`${lens.model}-source-plane`, {
-    section: 'images',
-    title: panel.title,
-    caption: `Source plane of the best-fit ${lens.model} model: its source light components at unit amplitude times their best-fit amplitudes, at the centres of a ${SOURCE_CELLS} &times; ${SOURCE_CELLS} grid in source-plane arcsec (&beta;) chosen to hold the caustics and the source (where it is brighter than ${100 * SOURCE_EXTENT_FRACTION}% of its peak) with a ${100 * SOURCE_MARGIN}% margin, on a linear scale. Lines: the caustics, its critical curves mapped through &beta; = &theta; &minus; &alpha;(&theta;) (parts outside the image field are not traced).`,
-    svg: imagePanelSvg(panel, png),
-  }, png);
+  const lights = lenses.map((lens, k) => sourceLight(lens, amplitudes[k], half, SOURCE_CELLS).values);
+  const [low, high] = sequentialRange(lights);
+  return lenses.map((lens, k) => {
+    const colouring = { values: lights[k], columns: SOURCE_CELLS, rows: SOURCE_CELLS, map: sequentialColourMap, low, high, upscale: upscaleFor(SOURCE_CELLS, SOURCE_CELLS) };
+    const panel: ImagePanel = {
+      title: `${title(lens.model)} model: source plane`,
+      subtitle: 'best-fit source light and caustics',
+      colouring,
+      pixelScaleArcsec: (2 * half) / SOURCE_CELLS,
+      colourBarLabel: 'counts/s/arcsec\u00b2',
+      lines: lens.curves.caustics.map((points): ImageLine => ({ points, colour: tone(lens.model) })),
+    };
+    const png = imagePng(colouring);
+    return write(`${lens.model}-source-plane`, {
+      section: 'images',
+      title: panel.title,
+      caption: `Source plane of the best-fit ${lens.model} model: its source light components at unit amplitude times their best-fit amplitudes, at the centres of a ${SOURCE_CELLS} &times; ${SOURCE_CELLS} grid in source-plane arcsec (&beta;), on a linear scale. The grid, shared by both models' source planes as is the colour scale, is chosen to hold their caustics and their sources (where brighter than ${100 * SOURCE_EXTENT_FRACTION}% of the peak) with a ${100 * SOURCE_MARGIN}% margin. Lines: the caustics, the critical curves mapped through &beta; = &theta; &minus; &alpha;(&theta;) (parts outside the image field are not traced).`,
+      svg: imagePanelSvg(panel, png),
+    }, png);
+  });
 }
 
 /** Source light of a model on a cells x cells grid over [-half, half]^2, cell centres, row 0 at the bottom. */
