@@ -52,7 +52,8 @@ const title = (model: ModelName): string => (model === 'smooth' ? 'Smooth' : 'Pe
  * perturbed model's convergence on the observed image's grid with its critical curves and the
  * perturber's position, and each model's source light on a source-plane grid with its caustics.
  * The lens is rebuilt from the run's config (summary.config) with the best-fit values put in.
- * Without the config, or when it no longer matches the run, the panels are left out with a notice.
+ * Without the config, or when its parameters no longer match the run's best fits, the panels are
+ * left out with a notice; a config edited since the run (other sha256) is used with a notice.
  */
 export function lensingFigures(run: RunFolder, imageGrid: LensingGrid, notices: string[], write: FigureWriter): ReportFigure[] {
   const configFile = locate(run.summary.config, run.folder);
@@ -60,7 +61,6 @@ export function lensingFigures(run: RunFolder, imageGrid: LensingGrid, notices: 
     notices.push(`config ${run.summary.config} (named in ${run.summaryFile}) not found: the lens and source plane panels are left out`);
     return [];
   }
-  let lenses: ModelLens[];
   try {
     const config = loadConfig(configFile);
     if (configHash(config) !== run.summary.configSha256) {
@@ -84,7 +84,7 @@ export function lensingFigures(run: RunFolder, imageGrid: LensingGrid, notices: 
     };
     const xNodes = nodes(halfX);
     const yNodes = nodes(halfY);
-    lenses = (['perturbed', 'smooth'] as const).map((model): ModelLens => {
+    const lenses = (['perturbed', 'smooth'] as const).map((model): ModelLens => {
       const system = buildLensSystem(config, { perturberCount: model === 'perturbed' ? run.summary.perturbers.length : 0 });
       const vector = modelVectorFromRecord(system, run.summary.models[model].bestFit ?? {}, run.summaryFile, `models.${model}.bestFit`);
       const profile = new Float64Array(system.profileVectorLength);

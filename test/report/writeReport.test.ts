@@ -59,6 +59,20 @@ describe('writeReport on a synthetic run folder', () => {
     expect(html).not.toContain('has changed since the run');
   });
 
+  it('leaves the lens and source planes out, naming the key, when a best fit lacks a parameter of the config', () => {
+    const other = mkdtempSync(join(tmpdir(), 'arcsift-report-nobest-'));
+    const folder = writeSyntheticRun(other);
+    const summaryFile = join(folder, 'summary.json');
+    const summary = JSON.parse(readFileSync(summaryFile, 'utf8'));
+    delete summary.models.smooth.bestFit['lens.shear.shearStrength'];
+    writeFileSync(summaryFile, JSON.stringify(summary));
+    const text = readFileSync(writeReport(folder), 'utf8');
+    expect(text).toContain('key models.smooth.bestFit.lens.shear.shearStrength');
+    expect(text).toContain('the lens and source plane panels are left out');
+    expect(text).not.toContain('figure-perturbed-convergence');
+    rmSync(other, { recursive: true, force: true });
+  });
+
   it('says so when the config has changed since the run', () => {
     const other = mkdtempSync(join(tmpdir(), 'arcsift-report-changed-'));
     const folder = writeSyntheticRun(other);
