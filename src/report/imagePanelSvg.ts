@@ -21,6 +21,13 @@ export interface ImageMarker {
   readonly yInterval?: readonly [number, number];
 }
 
+/** A polyline drawn over an image (e.g. a critical curve): flat x0, y0, x1, y1, ... in arcsec. */
+export interface ImageLine {
+  readonly points: ArrayLike<number>;
+  readonly colour: string;
+  readonly dashed?: boolean;
+}
+
 export interface ImagePanel {
   readonly title: string;
   readonly subtitle?: string;
@@ -30,6 +37,8 @@ export interface ImagePanel {
   /** When given, the boundary of its used pixels is outlined. */
   readonly mask?: ArrayLike<number>;
   readonly markers?: readonly ImageMarker[];
+  /** Drawn over the image and mask outline, under the markers, each on a white halo. */
+  readonly lines?: readonly ImageLine[];
   /** Side of the longer image axis on screen, px; default 232. */
   readonly imagePx?: number;
 }
@@ -84,6 +93,7 @@ export function imagePanelSvg(panel: ImagePanel, png: Buffer): string {
     }
     if (d !== '') out.push(`<path d="${d}" fill="none" stroke="#ffffff" stroke-opacity="0.75" stroke-width="0.8" stroke-dasharray="2 2"/>`);
   }
+  for (const l of panel.lines ?? []) out.push(line(l, toX, toY));
   for (const m of panel.markers ?? []) out.push(marker(m, toX, toY));
   out.push(`<rect x="${px(LEFT)}" y="${px(TOP)}" width="${px(w)}" height="${px(h)}" fill="none" stroke="${muted}" stroke-width="0.8"/>`);
 
@@ -111,6 +121,14 @@ export function imagePanelSvg(panel: ImagePanel, png: Buffer): string {
   out.push(`<text x="${px(barX + BAR_WIDTH)}" y="${px(TOP - 6)}" font-size="9" text-anchor="end" fill="${muted}">${escapeMarkup(panel.colourBarLabel)}</text>`);
   out.push('</svg>');
   return out.join('\n');
+}
+
+function line(l: ImageLine, toX: (x: number) => number, toY: (y: number) => number): string {
+  let d = '';
+  for (let k = 0; k + 1 < l.points.length; k += 2) d += `${k === 0 ? 'M' : 'L'}${px(toX(l.points[k]))},${px(toY(l.points[k + 1]))}`;
+  if (d === '') return '';
+  const dash = l.dashed === true ? ' stroke-dasharray="4 3"' : '';
+  return `<path d="${d}" fill="none" stroke="#ffffff" stroke-opacity="0.8" stroke-width="3" stroke-linejoin="round"${dash}/><path d="${d}" fill="none" stroke="${l.colour}" stroke-width="1.4" stroke-linejoin="round"${dash}/>`;
 }
 
 function marker(m: ImageMarker, toX: (x: number) => number, toY: (y: number) => number): string {

@@ -188,7 +188,7 @@ export function readTruth(file: string): TruthRecord {
  * Where a path recorded in summary.json is now: as written (relative to the working directory),
  * else relative to the run folder's parent or grandparent (a run moved together with its data).
  */
-function locate(recorded: string, folder: string): string | null {
+export function locate(recorded: string, folder: string): string | null {
   if (existsSync(recorded)) return recorded;
   if (isAbsolute(recorded)) return null;
   for (const base of [resolve(folder, '..'), resolve(folder, '..', '..')]) {

@@ -7,6 +7,7 @@ import { divergingColourMap } from './divergingColourMap.js';
 import { sequentialRange, symmetricRange } from './displayRange.js';
 import { imagePanelSvg, type ImageMarker, type ImagePanel } from './imagePanelSvg.js';
 import { imagePng } from './imagePng.js';
+import { lensingFigures } from './lensingFigures.js';
 import { MODEL_NAMES, type ModelName, type RunFolder } from './readRunFolder.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
 import { modelColours } from './reportPalette.js';
@@ -72,6 +73,7 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
     }));
     models[1] = { ...models[1], markers: posteriorMarkers };
     figures.push(...imageFigures(set, observed, models, truthMarkers, figuresFolder));
+    figures.push(...lensingFigures(run, set, notices, (key, figure, png) => writeSvgFigure(figuresFolder, key, key, figure, png)));
   }
 
   const perturbedCorner = run.corners.perturbed;

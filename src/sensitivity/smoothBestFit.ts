@@ -6,6 +6,7 @@ import { InputError } from '../errors.js';
 import { runModelEvidence, type EvidenceSettings } from '../inference/runModelEvidence.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../model/lensSystem.js';
+import { modelVectorFromRecord } from '../model/modelVectorFromRecord.js';
 import type { SmoothBestFit } from './plantedPerturberStatistic.js';
 
 /** A smooth best fit and where it came from. */
@@ -46,13 +47,7 @@ export function smoothBestFitFromFolder(config: ArcsiftConfig, data: ObservedDat
   }
   const bestFit = record.bestFit as Record<string, unknown>;
   const system = buildLensSystem(config, { perturberCount: 0 });
-  const parameters = Float64Array.from(system.parameters, (p) => {
-    const v = bestFit[p.name];
-    if (typeof v !== 'number' || !Number.isFinite(v)) {
-      throw new InputError(`best fit: expected a number for the config's parameter ${p.name}, found ${v === undefined ? 'nothing' : JSON.stringify(v)}`, { file: path, key: `bestFit.${p.name}` });
-    }
-    return v;
-  });
+  const parameters = modelVectorFromRecord(system, bestFit, path, 'bestFit');
   return withAmplitudes(config, data, parameters, `run folder ${folder}`);
 }
 

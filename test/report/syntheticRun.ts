@@ -1,4 +1,5 @@
 import normal from '@stdlib/random/base/normal';
+import { createHash } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeFits } from '../../src/fits/index.js';
@@ -43,12 +44,60 @@ const summaryOf = (median: number, half: number) => ({
   interval95: { lower: median - 2 * half, upper: median + 2 * half },
 });
 
+/** Invented lens of the synthetic run: an SIE in shear, a Sersic source, one truncated-NFW perturber. */
+const SYNTHETIC_CONFIG = `title: synthetic lens
+observation:
+  columns: ${SIDE}
+  rows: ${SIDE}
+  pixelScaleArcsec: ${SCALE_ARCSEC}
+  supersampling: 2
+  psf: { shape: gaussian, fwhmArcsec: 0.1, sizePixels: 5 }
+  noise: { backgroundRms: 0.05, exposureSeconds: 1000 }
+  mask: { shape: disc, outerRadiusArcsec: 0.5 }
+redshifts: { lens: 0.5, source: 2.0 }
+lens:
+  mass:
+    - kind: isothermalEllipsoid
+      einsteinRadiusArcsec: { value: 0.35, prior: { uniform: [0.2, 0.5] } }
+      axisRatio: 0.8
+      positionAngleDeg: 20
+      centerXArcsec: 0
+      centerYArcsec: 0
+  shear:
+    shearStrength: 0.04
+    shearAngleDeg: 70
+source:
+  light:
+    - kind: sersic
+      effectiveRadiusArcsec: 0.05
+      sersicIndex: 1
+      axisRatio: 0.7
+      positionAngleDeg: 100
+      centerXArcsec: 0.03
+      centerYArcsec: 0.02
+perturbers:
+  - kind: truncatedNfw
+    log10MassSolar: { value: 9.5, prior: { uniform: [8, 12] } }
+    centerXArcsec: { value: 0.2, prior: { uniform: [-0.6, 0.6] } }
+    centerYArcsec: { value: -0.1, prior: { uniform: [-0.6, 0.6] } }
+    truncationRatio: 3
+`;
+
+/** Best-fit values of the synthetic config's fixed parameters, as a run records them beside the free ones. */
+const FIXED_BEST_FIT = {
+  'lens.mass[0].axisRatio': 0.8, 'lens.mass[0].positionAngleDeg': 20, 'lens.mass[0].centerXArcsec': 0, 'lens.mass[0].centerYArcsec': 0,
+  'lens.mass[0].coreRadiusArcsec': 0, 'lens.shear.shearStrength': 0.04, 'lens.shear.shearAngleDeg': 70,
+  'source.light[0].effectiveRadiusArcsec': 0.05, 'source.light[0].sersicIndex': 1, 'source.light[0].axisRatio': 0.7,
+  'source.light[0].positionAngleDeg': 100, 'source.light[0].centerXArcsec': 0.03, 'source.light[0].centerYArcsec': 0.02,
+};
+
 function modelRecord(label: string, lnZ: number, lnZError: number, names: string[], units: string[], folder: string) {
   return {
     label, lnEvidence: lnZ, lnEvidenceError: lnZError, lnEvidenceErrorSimulated: lnZError * 1.1, informationNats: 12.5,
     livePoints: 50, method: 'slice', iterations: 700, evaluations: 43210, efficiency: 0.0123, nonFiniteLikelihoods: 0,
     insertionRankPValue: 0.42, insertionRankWarning: false, stopReason: 'converged', bestLnLikelihood: lnZ + 20,
-    bestFit: {}, bestFitAmplitudes: {}, seconds: 12.3, threads: 1,
+    bestFit: { ...FIXED_BEST_FIT, ...Object.fromEntries(names.map((name, k) => [name, [0.35, 9.5, 0.2, -0.1][k]])), ...(label === 'perturbed' ? { 'perturbers[0].truncationRatio': 3 } : {}) },
+    bestFitAmplitudes: { 'source.light[0].amplitude': 40 }, seconds: 12.3, threads: 1,
     parameters: names.map((name, k) => ({ name, unit: units[k], median: k, interval68: [k - 0.1, k + 0.1], interval95: [k - 0.2, k + 0.2] })),
     files: { cornerData: join(folder, 'corner.json') },
   };
@@ -80,6 +129,10 @@ export function writeSyntheticRun(root: string): string {
     perturbers: [{ key: 'perturbers[0]', kind: 'truncatedNfw', massM200Solar: 10 ** 9.5, totalMassSolar: 10 ** 9.6 }],
   }));
 
+  // The config the run names (summary.config, found from the run folder's grandparent) and the best
+  // fits of both models, so that the lens and source planes can be drawn.
+  mkdirSync(join(root, 'configs'), { recursive: true });
+  writeFileSync(join(root, 'configs', 'synthetic.yaml'), SYNTHETIC_CONFIG);
   const smoothNames = ['lens.mass[0].einsteinRadiusArcsec'];
   const perturbedNames = [...smoothNames, 'perturbers[0].log10MassSolar', 'perturbers[0].centerXArcsec', 'perturbers[0].centerYArcsec'];
   const units = ['arcsec', 'log10(M/Msun)', 'arcsec', 'arcsec'];
@@ -98,7 +151,7 @@ export function writeSyntheticRun(root: string): string {
     fits(join(folder, 'normalised-residual.fits'), image((i, j) => (i - j) * 0.2), '');
   }
   const summary = {
-    arcsiftVersion: '0.0.0-test', kind: 'comparison', config: 'configs/synthetic.yaml', configSha256: 'ab'.repeat(32),
+    arcsiftVersion: '0.0.0-test', kind: 'comparison', config: 'configs/synthetic.yaml', configSha256: createHash('sha256').update(SYNTHETIC_CONFIG).digest('hex'),
     data: { image: join(dataFolder, 'image.fits'), noise: join(dataFolder, 'noise.fits'), psf: join(dataFolder, 'psf.fits'), mask: join(dataFolder, 'mask.fits') },
     dataNotices: [], seed: 7, settings: { smooth: { lnZTolerance: 0.1 }, perturbed: { lnZTolerance: 0.1 } }, runSeconds: 99,
     models: {

@@ -5,6 +5,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
+import { reportPalette } from '../../src/report/reportPalette.js';
 import { writeReport } from '../../src/report/writeReport.js';
 import { SYNTHETIC, writeSyntheticRun } from './syntheticRun.js';
 
@@ -41,6 +42,58 @@ describe('writeReport on a synthetic run folder', () => {
     }
     expect(figures).toContain('corner-perturber.svg');
     expect(figures).toContain('corner-all.svg');
+  });
+
+  it('draws the lens and source planes from the run\'s config and best fits', () => {
+    const figures = readdirSync(join(run, 'figures'));
+    for (const name of ['perturbed-convergence', 'perturbed-source-plane', 'smooth-source-plane']) {
+      expect(figures).toContain(`${name}.svg`);
+      expect(figures).toContain(`${name}.png`);
+      const inline = new RegExp(`<figure id="figure-${name}"><div class="art"><svg xmlns="http://www.w3.org/2000/svg"[\\s\\S]*?</figure>`).exec(html)?.[0] ?? '';
+      expect(inline, name).toContain('data:image/png;base64,');
+      // Critical curves (image plane) or caustics (source plane): paths in the model's colour.
+      expect(inline, name).toContain(`stroke="${name.startsWith('smooth') ? reportPalette.smooth : reportPalette.perturbed}" stroke-width="1.4"`);
+    }
+    expect(html).toContain('Lens and source planes');
+    expect(html).not.toContain('the lens and source plane panels are left out');
+    expect(html).not.toContain('has changed since the run');
+  });
+
+  it('leaves the lens and source planes out, naming the key, when a best fit lacks a parameter of the config', () => {
+    const other = mkdtempSync(join(tmpdir(), 'arcsift-report-nobest-'));
+    const folder = writeSyntheticRun(other);
+    const summaryFile = join(folder, 'summary.json');
+    const summary = JSON.parse(readFileSync(summaryFile, 'utf8'));
+    delete summary.models.smooth.bestFit['lens.shear.shearStrength'];
+    writeFileSync(summaryFile, JSON.stringify(summary));
+    const text = readFileSync(writeReport(folder), 'utf8');
+    expect(text).toContain('key models.smooth.bestFit.lens.shear.shearStrength');
+    expect(text).toContain('the lens and source plane panels are left out');
+    expect(text).not.toContain('figure-perturbed-convergence');
+    rmSync(other, { recursive: true, force: true });
+  });
+
+  it('says so when the config has changed since the run', () => {
+    const other = mkdtempSync(join(tmpdir(), 'arcsift-report-changed-'));
+    const folder = writeSyntheticRun(other);
+    const config = join(other, 'configs', 'synthetic.yaml');
+    writeFileSync(config, `${readFileSync(config, 'utf8')}# edited after the run\n`);
+    const text = readFileSync(writeReport(folder), 'utf8');
+    expect(text).toContain('has changed since the run (its sha256 differs)');
+    expect(text).toContain('figure-perturbed-convergence');
+    rmSync(other, { recursive: true, force: true });
+  });
+
+  it('leaves the lens and source planes out, with a notice, when the config is missing', () => {
+    const other = mkdtempSync(join(tmpdir(), 'arcsift-report-noconfig-'));
+    const folder = writeSyntheticRun(other);
+    rmSync(join(other, 'configs'), { recursive: true, force: true });
+    const text = readFileSync(writeReport(folder), 'utf8');
+    expect(text).toContain('configs/synthetic.yaml (named in');
+    expect(text).toContain('the lens and source plane panels are left out');
+    expect(text).not.toContain('figure-perturbed-convergence');
+    expect(text).toContain('figure-perturbed-model');
+    rmSync(other, { recursive: true, force: true });
   });
 
   it('needs no network and refers only to files that exist', () => {
