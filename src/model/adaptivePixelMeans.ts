@@ -246,7 +246,7 @@ export class AdaptivePixelMeans {
     for (let level = 0; level < this.factors.length && pendingCount + this.directCount > 0; level++) {
       const m = this.factors[level];
       if (m === this.supersampling) {
-        this.pending.set(this.direct.subarray(0, this.directCount), pendingCount);
+        for (let t = 0; t < this.directCount; t++) this.pending[pendingCount + t] = this.direct[t];
         pendingCount += this.directCount;
         this.directCount = 0;
       }
