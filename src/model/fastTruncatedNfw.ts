@@ -3,6 +3,7 @@ import { truncatedNfw } from '../perturber/truncatedNfw.js';
 import { nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio } from '../perturber/nfwProjection.js';
 import { fastAtan } from './fastAtan.js';
 import { fastLog } from './fastLog.js';
+import { passScratch } from './passScratch.js';
 
 /** As in nfwProjection.ts: |x^2 - 1| below which F comes from its series about x = 1. */
 const SERIES_HALF_WIDTH = 0.02;
@@ -26,35 +27,44 @@ export const fastTruncatedNfw: MassProfile = {
     const cx = p[offset + 3], cy = p[offset + 4];
     const invThetaS = 1 / thetaS, tau2 = tau * tau, tau2m1 = (tau - 1) * (tau + 1), invTau = 1 / tau;
     const logTau = Math.log(tau), scale = (4 * kappaS * tau2) / ((tau2 + 1) * (tau2 + 1));
+    // In passes (see passScratch.ts): u and 1/(tau + R); ln(u/(tau + R)); F(u); the sum.
+    const radius = passScratch(0, n), inverse = passScratch(1, n);
+    const logRatio = passScratch(2, n), projection = passScratch(3, n);
     for (let i = 0; i < n; i++) {
       const dx = x[i] - cx, dy = y[i] - cy;
       const u = Math.max(Math.sqrt(dx * dx + dy * dy) * invThetaS, nfwSmallestRadiusRatio);
-      const u2 = u * u;
-      const r = Math.sqrt(tau2 + u2);
-      const tauPlusR = tau + r;
-      const inverseTauPlusR = 1 / tauPlusR;
-      const d = u2 * invTau * inverseTauPlusR;
-      const logRatio = fastLog(u * inverseTauPlusR);
-      // F(u) as nfwProjectionF: ln((1 + s)/u)/s below 1, atan(t)/t above, the series near 1.
+      const inverseTauPlusR = 1 / (tau + Math.sqrt(tau2 + u * u));
+      radius[i] = u;
+      inverse[i] = inverseTauPlusR;
+      logRatio[i] = u * inverseTauPlusR;
+    }
+    for (let i = 0; i < n; i++) logRatio[i] = fastLog(logRatio[i]);
+    // F(u) as nfwProjectionF: ln((1 + s)/u)/s below 1, atan(t)/t above, the series near 1.
+    for (let i = 0; i < n; i++) {
+      const u = radius[i];
       const w = (u - 1) * (u + 1);
-      let f: number;
       if (w < -SERIES_HALF_WIDTH) {
         const s = Math.sqrt(-w);
-        f = fastLog((1 + s) / u) / s;
+        projection[i] = fastLog((1 + s) / u) / s;
       } else if (w > SERIES_HALF_WIDTH) {
         const t = Math.sqrt(w);
-        f = fastAtan(t) / t;
+        projection[i] = fastAtan(t) / t;
       } else {
-        f = nfwProjectionF(u);
+        projection[i] = nfwProjectionF(u);
       }
+    }
+    for (let i = 0; i < n; i++) {
+      const u = radius[i], f = projection[i], l = logRatio[i], inverseTauPlusR = inverse[i];
+      const u2 = u * u;
+      const d = u2 * invTau * inverseTauPlusR;
       const logarithms = u < 0.5
-        ? nfwProjectedMassShape(u) - Math.log1p(0.5 * d) + d * logRatio
-        : f + logTau + (1 + d) * logRatio;
+        ? nfwProjectedMassShape(u) - Math.log1p(0.5 * d) + d * l
+        : f + logTau + (1 + d) * l;
       const bracket = tau2m1 * logarithms + 2 * u2 * f - Math.PI * u2 * inverseTauPlusR;
       // alpha / |theta - centre| = 4 kappa_s P bracket / u^2
       const factor = (scale * bracket) / u2;
-      alphaX[i] += factor * dx;
-      alphaY[i] += factor * dy;
+      alphaX[i] += factor * (x[i] - cx);
+      alphaY[i] += factor * (y[i] - cy);
     }
   },
 };
