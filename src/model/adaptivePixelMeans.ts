@@ -77,6 +77,8 @@ export class AdaptivePixelMeans {
   private readonly massTerms: readonly MassTerm[];
   private readonly lightTerms: readonly MeanLightTerm[];
   private readonly hasSource: boolean;
+  /** Whether a light term is evaluated at image-plane positions (else sub-pixel x, y are only traced). */
+  private readonly hasImagePlane: boolean;
   private readonly adaptive: boolean;
   private readonly relativeTolerance: Float64Array;
   private readonly kernel: PsfKernel;
@@ -137,6 +139,7 @@ export class AdaptivePixelMeans {
     this.massTerms = massTerms;
     this.lightTerms = lightTerms;
     this.hasSource = lightTerms.some((term) => !term.imagePlane);
+    this.hasImagePlane = lightTerms.some((term) => term.imagePlane);
     this.basisCount = basisCount;
     this.relativeTolerance = relativeTolerance;
     this.kernel = kernel;
@@ -404,7 +407,7 @@ export class AdaptivePixelMeans {
       for (let t = start; t < end; t++) {
         const e = this.pending[t];
         chunkPixels[t - start] = e;
-        this.subPixelPositions(e, m, r);
+        if (!interpolate || this.hasImagePlane) this.subPixelPositions(e, m, r);
         if (interpolate) this.interpolatedBeta(e, m, weights, this.chunkBx, this.chunkBy, r);
         r += run;
       }
@@ -524,12 +527,14 @@ export class AdaptivePixelMeans {
         rowY[b * m + a] = w0 * y0 + w1 * y1 + w2 * y2 + w3 * y3 + w4 * y4;
       }
     }
-    for (let c = 0, w = 0; c < m; c++, w += 5) {
-      const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
-      for (let a = 0; a < m; a++) {
-        bx[r] = w0 * rowX[a] + w1 * rowX[m + a] + w2 * rowX[2 * m + a] + w3 * rowX[3 * m + a] + w4 * rowX[4 * m + a];
-        by[r] = w0 * rowY[a] + w1 * rowY[m + a] + w2 * rowY[2 * m + a] + w3 * rowY[3 * m + a] + w4 * rowY[4 * m + a];
-        r++;
+    // Along y: column a of the m x m block from the five row values of that column.
+    for (let a = 0; a < m; a++) {
+      const x0 = rowX[a], x1 = rowX[m + a], x2 = rowX[2 * m + a], x3 = rowX[3 * m + a], x4 = rowX[4 * m + a];
+      const y0 = rowY[a], y1 = rowY[m + a], y2 = rowY[2 * m + a], y3 = rowY[3 * m + a], y4 = rowY[4 * m + a];
+      for (let c = 0, w = 0, out = r + a; c < m; c++, w += 5, out += m) {
+        const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
+        bx[out] = w0 * x0 + w1 * x1 + w2 * x2 + w3 * x3 + w4 * x4;
+        by[out] = w0 * y0 + w1 * y1 + w2 * y2 + w3 * y3 + w4 * y4;
       }
     }
   }

@@ -192,11 +192,16 @@ export class ForwardModel {
   image(model: Float64Array, amplitudes: Float64Array, out: Float64Array): Float64Array {
     const basis = this.computeBasis(model);
     const count = this.pixelCount;
+    const used = this.usedPixels;
+    // The basis is zero outside the used pixels.
     out.fill(0);
     for (let k = 0; k < this.amplitudeCount; k++) {
       const a = amplitudes[k];
       const row = k * count;
-      for (let q = 0; q < count; q++) out[q] += a * basis[row + q];
+      for (let e = 0; e < used.length; e++) {
+        const q = used[e];
+        out[q] += a * basis[row + q];
+      }
     }
     return out;
   }
