@@ -66,6 +66,7 @@ export class AdaptivePixelMeans {
   readonly means: Float64Array;
   /** Sub-pixel factors after the lattice, ending with S. */
   readonly factors: Int32Array;
+  private readonly richardsonByLevel: Float64Array;
   /** Pixels finished at the lattice (index 0) and at each factor (index l + 1), last evaluate. */
   readonly pixelsByLevel: Int32Array;
   /** Rays traced, and rays whose source-plane position was interpolated, by the last evaluate(). */
@@ -158,6 +159,8 @@ export class AdaptivePixelMeans {
     if (this.adaptive) for (let m = 2; m < supersampling; m *= 2) factors.push(m);
     factors.push(supersampling);
     this.factors = Int32Array.from(factors);
+    // Richardson factor of each level from the previous factor (1 for the lattice) to this one.
+    this.richardsonByLevel = Float64Array.from(factors, (m, level) => richardsonFactor(level === 0 ? 1 : factors[level - 1], m, supersampling));
     this.pixelsByLevel = new Int32Array(factors.length + 1);
 
     const { columns, rows } = grid;
@@ -245,7 +248,6 @@ export class AdaptivePixelMeans {
       for (let e = 0; e < count; e++) this.pending[e] = e;
       pendingCount = count;
     }
-    let previousFactor = 1;
     for (let level = 0; level < this.factors.length && pendingCount + this.directCount > 0; level++) {
       const m = this.factors[level];
       if (m === this.supersampling) {
@@ -254,8 +256,7 @@ export class AdaptivePixelMeans {
         this.directCount = 0;
       }
       this.subPixelMeans(p, m, pendingCount);
-      pendingCount = this.refine(m, previousFactor, level, pendingCount);
-      previousFactor = m;
+      pendingCount = this.refine(m, level, pendingCount);
     }
   }
 
@@ -557,7 +558,7 @@ export class AdaptivePixelMeans {
   }
 
   /** Accepts or keeps pending the pixels after factor m; returns how many stay pending. */
-  private refine(m: number, previousFactor: number, level: number, pendingCount: number): number {
+  private refine(m: number, level: number, pendingCount: number): number {
     const count = this.pixels.length;
     const means = this.means, previous = this.previous, current = this.current;
     const pending = this.pending;
@@ -569,7 +570,7 @@ export class AdaptivePixelMeans {
       this.pixelsByLevel[level + 1] = pendingCount;
       return 0;
     }
-    const factor = richardsonFactor(previousFactor, m, this.supersampling);
+    const factor = this.richardsonByLevel[level];
     let kept = 0;
     const directBefore = this.directCount;
     for (let t = 0; t < pendingCount; t++) {
