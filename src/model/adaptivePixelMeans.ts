@@ -66,6 +66,7 @@ export class AdaptivePixelMeans {
   readonly means: Float64Array;
   /** Sub-pixel factors after the lattice, ending with S. */
   readonly factors: Int32Array;
+  private readonly richardsonByLevel: Float64Array;
   /** Pixels finished at the lattice (index 0) and at each factor (index l + 1), last evaluate. */
   readonly pixelsByLevel: Int32Array;
   /** Rays traced, and rays whose source-plane position was interpolated, by the last evaluate(). */
@@ -77,6 +78,8 @@ export class AdaptivePixelMeans {
   private readonly massTerms: readonly MassTerm[];
   private readonly lightTerms: readonly MeanLightTerm[];
   private readonly hasSource: boolean;
+  /** Whether a light term is evaluated at image-plane positions (else sub-pixel x, y are only traced). */
+  private readonly hasImagePlane: boolean;
   private readonly adaptive: boolean;
   private readonly relativeTolerance: Float64Array;
   private readonly kernel: PsfKernel;
@@ -137,6 +140,7 @@ export class AdaptivePixelMeans {
     this.massTerms = massTerms;
     this.lightTerms = lightTerms;
     this.hasSource = lightTerms.some((term) => !term.imagePlane);
+    this.hasImagePlane = lightTerms.some((term) => term.imagePlane);
     this.basisCount = basisCount;
     this.relativeTolerance = relativeTolerance;
     this.kernel = kernel;
@@ -155,6 +159,8 @@ export class AdaptivePixelMeans {
     if (this.adaptive) for (let m = 2; m < supersampling; m *= 2) factors.push(m);
     factors.push(supersampling);
     this.factors = Int32Array.from(factors);
+    // Richardson factor of each level from the previous factor (1 for the lattice) to this one.
+    this.richardsonByLevel = Float64Array.from(factors, (m, level) => richardsonFactor(level === 0 ? 1 : factors[level - 1], m, supersampling));
     this.pixelsByLevel = new Int32Array(factors.length + 1);
 
     const { columns, rows } = grid;
@@ -242,17 +248,15 @@ export class AdaptivePixelMeans {
       for (let e = 0; e < count; e++) this.pending[e] = e;
       pendingCount = count;
     }
-    let previousFactor = 1;
     for (let level = 0; level < this.factors.length && pendingCount + this.directCount > 0; level++) {
       const m = this.factors[level];
       if (m === this.supersampling) {
-        this.pending.set(this.direct.subarray(0, this.directCount), pendingCount);
+        for (let t = 0; t < this.directCount; t++) this.pending[pendingCount + t] = this.direct[t];
         pendingCount += this.directCount;
         this.directCount = 0;
       }
       this.subPixelMeans(p, m, pendingCount);
-      pendingCount = this.refine(m, previousFactor, level, pendingCount);
-      previousFactor = m;
+      pendingCount = this.refine(m, level, pendingCount);
     }
   }
 
@@ -404,7 +408,7 @@ export class AdaptivePixelMeans {
       for (let t = start; t < end; t++) {
         const e = this.pending[t];
         chunkPixels[t - start] = e;
-        this.subPixelPositions(e, m, r);
+        if (!interpolate || this.hasImagePlane) this.subPixelPositions(e, m, r);
         if (interpolate) this.interpolatedBeta(e, m, weights, this.chunkBx, this.chunkBy, r);
         r += run;
       }
@@ -524,12 +528,14 @@ export class AdaptivePixelMeans {
         rowY[b * m + a] = w0 * y0 + w1 * y1 + w2 * y2 + w3 * y3 + w4 * y4;
       }
     }
-    for (let c = 0, w = 0; c < m; c++, w += 5) {
-      const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
-      for (let a = 0; a < m; a++) {
-        bx[r] = w0 * rowX[a] + w1 * rowX[m + a] + w2 * rowX[2 * m + a] + w3 * rowX[3 * m + a] + w4 * rowX[4 * m + a];
-        by[r] = w0 * rowY[a] + w1 * rowY[m + a] + w2 * rowY[2 * m + a] + w3 * rowY[3 * m + a] + w4 * rowY[4 * m + a];
-        r++;
+    // Along y: column a of the m x m block from the five row values of that column.
+    for (let a = 0; a < m; a++) {
+      const x0 = rowX[a], x1 = rowX[m + a], x2 = rowX[2 * m + a], x3 = rowX[3 * m + a], x4 = rowX[4 * m + a];
+      const y0 = rowY[a], y1 = rowY[m + a], y2 = rowY[2 * m + a], y3 = rowY[3 * m + a], y4 = rowY[4 * m + a];
+      for (let c = 0, w = 0, out = r + a; c < m; c++, w += 5, out += m) {
+        const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
+        bx[out] = w0 * x0 + w1 * x1 + w2 * x2 + w3 * x3 + w4 * x4;
+        by[out] = w0 * y0 + w1 * y1 + w2 * y2 + w3 * y3 + w4 * y4;
       }
     }
   }
@@ -552,7 +558,7 @@ export class AdaptivePixelMeans {
   }
 
   /** Accepts or keeps pending the pixels after factor m; returns how many stay pending. */
-  private refine(m: number, previousFactor: number, level: number, pendingCount: number): number {
+  private refine(m: number, level: number, pendingCount: number): number {
     const count = this.pixels.length;
     const means = this.means, previous = this.previous, current = this.current;
     const pending = this.pending;
@@ -564,7 +570,7 @@ export class AdaptivePixelMeans {
       this.pixelsByLevel[level + 1] = pendingCount;
       return 0;
     }
-    const factor = richardsonFactor(previousFactor, m, this.supersampling);
+    const factor = this.richardsonByLevel[level];
     let kept = 0;
     const directBefore = this.directCount;
     for (let t = 0; t < pendingCount; t++) {

@@ -3,37 +3,68 @@ import { sersic } from '../light/sersic.js';
 import { ellipticalQuadraticForm } from '../light/ellipticalQuadraticForm.js';
 import { sersicCoefficient } from '../light/sersicCoefficient.js';
 import { fastExp } from './fastExp.js';
+import { fastLog } from './fastLog.js';
+import { PowerTable } from './powerTable.js';
 
 const form = new Float64Array(3);
+const powers = new PowerTable();
+/** Effective radius, index, axis ratio and angle last seen, then A, B, C, b_n, power table usable (1/0). */
+const lastShape = new Float64Array(9).fill(Number.NaN);
 
 /**
  * The elliptical Sersic profile of src/light/sersic.ts (Sersic 1968; Graham & Driver 2005,
  * eq. 1), I = exp(b_n - b_n (R^2 / R_e^2)^(1/(2n))), same parameters and quadratic form, with
- * both exponentials by fastExp (relative error < 1e-15 each) and the power as
- * exp(ln(R^2/R_e^2) / (2n)) with Math.log. The relative error of I is then below
- * (1 + b_n (R/R_e)^(1/n)) * 2e-15 + 1e-15, which for the pixels that matter (I above 1e-12 of
- * its peak, so b_n (R/R_e)^(1/n) < 28 + b_n) is below 1e-13 (tested against sersic.ts in
- * test/model/fastElementary.test.ts).
+ * the power s = (R^2/R_e^2)^(1/(2n)) = (R/R_e)^(1/n) from PowerTable (relative error
+ * < (1.5 |ln s| + 8) 2.2e-16) and the outer exponential by fastExp (relative error < 1e-15).
+ * The relative error of I is then below b_n s (1.5 |ln s| + 9) 2.2e-16 + 1e-15 (the power, the
+ * rounding of b_n - b_n s, the exponential), which for the pixels that matter (I above 1e-12 of
+ * its peak, so b_n s < 28 + b_n) is below 1.1e-13 for 0.5 <= n <= 8 (measured 2e-14 against
+ * sersic.ts in test/model/fastElementary.test.ts). For n < 1/14, outside the power table's
+ * range, s is exp(ln(R^2/R_e^2)/(2n)) with fastLog and fastExp.
  */
 export const fastSersic: LightProfile = {
   kind: sersic.kind,
   parameterNames: sersic.parameterNames,
   basisCount: 1,
   writeBasis(p, offset, x, y, n, out, outOffset) {
-    const sersicIndex = p[offset + 1];
-    ellipticalQuadraticForm(p[offset], p[offset + 2], p[offset + 3], form);
-    const a = form[0];
-    const b = form[1];
-    const c = form[2];
+    // The quadratic form, b_n and the power table depend on the shape parameters only; a forward
+    // model calls this many times per evaluation with the same ones.
+    const shape = lastShape;
+    if (p[offset] !== shape[0] || p[offset + 1] !== shape[1] || p[offset + 2] !== shape[2] || p[offset + 3] !== shape[3]) {
+      ellipticalQuadraticForm(p[offset], p[offset + 2], p[offset + 3], form);
+      for (let k = 0; k < 4; k++) shape[k] = p[offset + k];
+      shape[4] = form[0];
+      shape[5] = form[1];
+      shape[6] = form[2];
+      shape[7] = sersicCoefficient(p[offset + 1]);
+      shape[8] = powers.setExponent(0.5 / p[offset + 1]) ? 1 : 0;
+    }
+    const a = shape[4];
+    const b = shape[5];
+    const c = shape[6];
+    const bn = shape[7];
     const centerX = p[offset + 4];
     const centerY = p[offset + 5];
-    const bn = sersicCoefficient(sersicIndex);
-    const halfInverseIndex = 0.5 / sersicIndex;
-    for (let i = 0; i < n; i++) {
-      const dx = x[i] - centerX;
-      const dy = y[i] - centerY;
-      const r2 = (a * dx + b * dy) * dx + c * dy * dy;
-      out[outOffset + i] = fastExp(bn - bn * fastExp(halfInverseIndex * Math.log(r2)));
+    const halfInverseIndex = 0.5 / shape[1];
+    // Passes over the points, each a short chain of dependent operations, so that successive
+    // points overlap in the processor (measured 2.2-fold faster than one nested expression on
+    // Node 20): (R^2/R_e^2)^(1/(2n)) by the power table, then the exponential.
+    if (shape[8] === 1) {
+      for (let i = 0; i < n; i++) {
+        const dx = x[i] - centerX;
+        const dy = y[i] - centerY;
+        out[outOffset + i] = (a * dx + b * dy) * dx + c * dy * dy;
+      }
+      powers.powerInPlace(out, outOffset, outOffset + n);
+      for (let i = outOffset; i < outOffset + n; i++) out[i] = bn - bn * out[i];
+    } else {
+      for (let i = 0; i < n; i++) {
+        const dx = x[i] - centerX;
+        const dy = y[i] - centerY;
+        out[outOffset + i] = halfInverseIndex * fastLog((a * dx + b * dy) * dx + c * dy * dy);
+      }
+      for (let i = outOffset; i < outOffset + n; i++) out[i] = bn - bn * fastExp(out[i]);
     }
+    for (let i = outOffset; i < outOffset + n; i++) out[i] = fastExp(out[i]);
   },
 };

@@ -4,6 +4,8 @@ import { sersic } from '../light/sersic.js';
 import { isothermalEllipsoid } from '../lens/isothermalEllipsoid.js';
 import { fastSersic } from './fastSersic.js';
 import { fastIsothermalEllipsoid } from './fastIsothermalEllipsoid.js';
+import { truncatedNfw } from '../perturber/truncatedNfw.js';
+import { fastTruncatedNfw } from './fastTruncatedNfw.js';
 
 
 /**
@@ -14,7 +16,11 @@ export function fasterLightProfile(profile: LightProfile): LightProfile {
   return profile === sersic ? fastSersic : profile;
 }
 
-/** As fasterLightProfile for mass profiles (fastIsothermalEllipsoid for isothermalEllipsoid). */
+/**
+ * As fasterLightProfile for mass profiles (fastIsothermalEllipsoid for isothermalEllipsoid,
+ * fastTruncatedNfw for truncatedNfw).
+ */
 export function fasterMassProfile(profile: MassProfile): MassProfile {
-  return profile === isothermalEllipsoid ? fastIsothermalEllipsoid : profile;
+  if (profile === isothermalEllipsoid) return fastIsothermalEllipsoid;
+  return profile === truncatedNfw ? fastTruncatedNfw : profile;
 }

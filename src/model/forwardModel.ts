@@ -38,7 +38,7 @@ export interface ForwardModelOptions {
    * peakBrightness, relative to each basis peak. A component of peak <= peakBrightness then errs
    * by about noiseFraction times the noise or less (default 0.003, a third of the 1% criterion
    * of test/model/forwardAccuracy.test.ts, where the largest error met, over the demo, a compact
-   * source and random draws from the demo's priors, is 0.29% of the noise).
+   * source and random draws from the demo's priors, is 0.13% of the noise).
    */
   readonly noise?: ArrayLike<number>;
   /** See `noise`; ignored (relativeTolerance used) unless finite and > 0. */
@@ -67,8 +67,9 @@ interface BoundLightTerm {
  *   their convolved basis kept until their profile-vector entries change;
  * - sub-pixel rays of pixels where the lens mapping is smooth are not traced: their source-plane
  *   positions are interpolated from the pixel-centre rays;
- * - the isothermal ellipsoid and the Sersic profile run with table-driven atan and exp
- *   (fasterProfiles.ts; errors below 1e-12 arcsec and 1e-13 relative, tested);
+ * - the isothermal ellipsoid, the truncated NFW and the Sersic profile run with table-driven
+ *   atan, log, exp and powers, the truncated NFW's radial factor from a table (fasterProfiles.ts;
+ *   errors below 1e-12 arcsec, 1e-12 and 1e-13 relative, tested);
  * - the PSF is cut to the box outside which |K| sums to 1/20 of the least relative tolerance
  *   (trimPsfKernel), convolved as two 1-D passes when separable to the same budget
  *   (separablePsf), and only at the `used` pixels (PixelSubsetConvolver); light is computed only
@@ -192,11 +193,16 @@ export class ForwardModel {
   image(model: Float64Array, amplitudes: Float64Array, out: Float64Array): Float64Array {
     const basis = this.computeBasis(model);
     const count = this.pixelCount;
+    const used = this.usedPixels;
+    // The basis is zero outside the used pixels.
     out.fill(0);
     for (let k = 0; k < this.amplitudeCount; k++) {
       const a = amplitudes[k];
       const row = k * count;
-      for (let q = 0; q < count; q++) out[q] += a * basis[row + q];
+      for (let e = 0; e < used.length; e++) {
+        const q = used[e];
+        out[q] += a * basis[row + q];
+      }
     }
     return out;
   }
