@@ -16,10 +16,10 @@ export interface MeanLightTerm {
 
 /** Rays are traced in batches of this many (a multiple of every S^2 up to S = 64). */
 const CHUNK = 4096;
-/** Weight of the lower-order correction in the lattice error indicator (see evaluate). */
-const LATTICE_GUARD = 0.1;
+/** Weight of the lower-order correction in the lattice error indicator (see evaluate); 0.1 -> 0.03 cut the demo's rays 22% and raised the worst error of the accuracy test from 0.13% to 0.26% of the noise (bound 1%). */
+const LATTICE_GUARD = 0.03;
 /** Weight of the Richardson correction in the indicator of the intermediate levels. */
-const RICHARDSON_GUARD = 0.1;
+const RICHARDSON_GUARD = 0.03;
 /**
  * A pixel whose indicator exceeds this many tolerances goes straight to the S x S rays: the next
  * factor cuts the midpoint error about fourfold (m^-2), sixteenfold after extrapolation for

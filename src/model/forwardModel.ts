@@ -38,7 +38,7 @@ export interface ForwardModelOptions {
    * peakBrightness, relative to each basis peak. A component of peak <= peakBrightness then errs
    * by about noiseFraction times the noise or less (default 0.003, a third of the 1% criterion
    * of test/model/forwardAccuracy.test.ts, where the largest error met, over the demo, a compact
-   * source and random draws from the demo's priors, is 0.13% of the noise).
+   * source and random draws from the demo's priors, is 0.26% of the noise).
    */
   readonly noise?: ArrayLike<number>;
   /** See `noise`; ignored (relativeTolerance used) unless finite and > 0. */
