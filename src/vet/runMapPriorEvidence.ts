@@ -46,7 +46,10 @@ export async function runMapPriorEvidence(
         livePoints: settings.livePoints,
         seed: settings.seed,
         method: lensModelMethod(settings.method, space.dim, 1),
-        slice: { steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? 2) * space.dim)) },
+        slice: {
+          steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? 2) * space.dim)),
+          pointsPerChain: settings.slicePointsPerChain,
+        },
         replacementsPerStep: settings.replacementsPerStep,
         lnZTolerance: settings.lnZTolerance,
         maxEvaluations: settings.maxEvaluations,
@@ -58,7 +61,7 @@ export async function runMapPriorEvidence(
     );
     return {
       label: 'map prior', perturberCount: 1, system, space, result,
-      seconds: (performance.now() - started) / 1000, threads: pool.threads, relabelled: false,
+      seconds: (performance.now() - started) / 1000, threads: pool.threads, relabelled: false, occupancy: pool.occupancy,
     };
   } finally {
     await pool.close();
