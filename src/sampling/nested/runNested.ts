@@ -45,7 +45,7 @@ export const shrinkageSimulations = 200;
  * lowest of N live points (expected ln X by order statistics, see batchLnVolumes), weights them
  * by the rectangle rule, and replaces them by k draws from the prior above the highest removed
  * likelihood: by rejection from a multi-ellipsoid bound (Feroz & Hobson 2008; Feroz, Hobson &
- * Bridges 2009) or by lock-step slice-sampling chains (Neal 2003; Handley, Hobson & Lasenby 2015).
+ * Bridges 2009) or by independent slice-sampling chains (Neal 2003; Handley, Hobson & Lasenby 2015).
  * The run stops when ln(Z + X_i max L_live) - ln Z < lnZTolerance (Skilling 2006); the final live
  * points are then added with X_final / N each. Ellipsoid candidates go to the likelihood in one call
  * per round; slice chains each send their own points and overlap. No random draw depends on
@@ -446,7 +446,7 @@ async function ellipsoidStep(state: NestedState, evaluator: BatchEvaluator): Pro
   insertNewPoints(state, slots, newUnit, newPhysical, newLnL);
 }
 
-/** One step with k lock-step slice-sampling chains started from random surviving live points. */
+/** One step with k slice-sampling chains (run side by side) started from random surviving live points. */
 async function sliceStep(state: NestedState, evaluator: BatchEvaluator): Promise<void> {
   const { dim, physicalDim, replacementsPerStep: k } = state.settings;
   const { slots, threshold } = removeLowest(state);
