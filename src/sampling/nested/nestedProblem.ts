@@ -55,8 +55,9 @@ export interface NestedOptions {
   readonly seed?: number;
   readonly method?: NestedMethod;
   /**
-   * k live points replaced per step in one batch, default 1. Set it to the likelihood's number of
-   * worker threads: results depend on (seed, k), never on timing.
+   * k live points replaced per step in one batch, default 1. Slice sampling runs k chains side by
+   * side, so k at least the number of worker threads keeps them busy; results depend on (seed, k),
+   * never on timing, so choose a fixed k, not one that follows the thread count.
    */
   readonly replacementsPerStep?: number;
   /** stop when ln(Z + Z_live) - ln Z < this; default 0.1. */
