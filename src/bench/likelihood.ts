@@ -36,13 +36,34 @@ async function poolMilliseconds(config: ArcsiftConfig, data: ObservedData, threa
   }
 }
 
-/** Seconds for a nested-sampling run of the perturbed model cut at a fixed number of evaluations. */
-async function nestedSeconds(config: ArcsiftConfig, data: ObservedData, threads: number): Promise<number> {
+/** A nested-sampling run of the perturbed model cut at a fixed number of evaluations. */
+interface NestedTiming {
+  readonly seconds: number;
+  /** likelihood evaluations per new live point (initial draws excluded). */
+  readonly evaluationsPerReplacement: number;
+  /** mean points per likelihood call. */
+  readonly pointsPerCall: number;
+  /** chain evaluations over each step's longest chain: the speed-up limit of one thread per chain. */
+  readonly chainParallelism: number;
+}
+
+/**
+ * Seconds for a nested-sampling run of the perturbed model with the command line's sampler
+ * settings (slice sampling, 25 live points as in the demo, 2 live points replaced per step, 1
+ * slice move per free parameter), cut at 4,000 evaluations, with the run's deterministic
+ * figures (the same for any thread count).
+ */
+async function nestedTiming(config: ArcsiftConfig, data: ObservedData, threads: number): Promise<NestedTiming> {
   const started = performance.now();
-  await runModelEvidence(config, data, config.perturbers.length, {
-    livePoints: 40, seed: 1, method: 'slice', replacementsPerStep: 6, lnZTolerance: 0.1, threads, maxEvaluations: 4000,
+  const run = await runModelEvidence(config, data, config.perturbers.length, {
+    livePoints: 25, seed: 1, method: 'slice', replacementsPerStep: 2, sliceStepsPerParameter: 1, lnZTolerance: 0.1, threads, maxEvaluations: 4000,
   });
-  return (performance.now() - started) / 1000;
+  return {
+    seconds: (performance.now() - started) / 1000,
+    evaluationsPerReplacement: 1 / run.result.efficiency,
+    pointsPerCall: run.occupancy.meanPoints(),
+    chainParallelism: run.result.chainParallelism,
+  };
 }
 
 /**
@@ -50,7 +71,7 @@ async function nestedSeconds(config: ArcsiftConfig, data: ObservedData, threads:
  * the config's perturbers, at the true parameters) on one thread, for the scenarios of the
  * forward benchmark (supersampling 8), each simulated to a temporary folder and read back as a
  * fit reads its data; "allThreads" gives the worker-pool figures (batches of 64, and a nested
- * run of the perturbed model cut at 4,000 evaluations) on every core and on one.
+ * run of the perturbed model cut at 4,000 evaluations, see nestedTiming) on every core and on one.
  */
 export async function run(_args: string[]): Promise<void> {
   for (const scenario of forwardScenarios()) {
@@ -67,8 +88,17 @@ export async function run(_args: string[]): Promise<void> {
       const threads = defaultThreadCount();
       const poolOne = await poolMilliseconds(scenario.config, data, 1, model);
       const poolAll = await poolMilliseconds(scenario.config, data, threads, model);
-      const nestedOne = await nestedSeconds(scenario.config, data, 1);
-      const nestedAll = await nestedSeconds(scenario.config, data, threads);
+      // Best of 2 each, alternating, as other work on a shared machine comes and goes.
+      let nestedOne = Number.POSITIVE_INFINITY;
+      let nestedAll = Number.POSITIVE_INFINITY;
+      let figures: NestedTiming | undefined;
+      for (let repeat = 0; repeat < 2; repeat++) {
+        const one = await nestedTiming(scenario.config, data, 1);
+        const all = await nestedTiming(scenario.config, data, threads);
+        nestedOne = Math.min(nestedOne, one.seconds);
+        nestedAll = Math.min(nestedAll, all.seconds);
+        figures = all;
+      }
       console.log(JSON.stringify({
         benchmark: 'likelihood',
         scenario: scenario.name,
@@ -88,6 +118,9 @@ export async function run(_args: string[]): Promise<void> {
           nestedSecondsOneThread: Number(nestedOne.toFixed(2)),
           nestedSecondsAllThreads: Number(nestedAll.toFixed(2)),
           nestedSpeedUp: Number((nestedOne / nestedAll).toFixed(2)),
+          nestedEvaluationsPerReplacement: Number(figures!.evaluationsPerReplacement.toFixed(2)),
+          nestedPointsPerCall: Number(figures!.pointsPerCall.toFixed(2)),
+          nestedChainParallelism: Number(figures!.chainParallelism.toFixed(3)),
         },
       }));
     } finally {

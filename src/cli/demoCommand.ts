@@ -32,7 +32,7 @@ export const demoCommand: CommandModule<object, DemoArguments> = {
     .option('noise-seed', { type: 'number', default: 1, describe: 'seed of the simulated noise' })
     .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
     .option('fresh', { type: 'boolean', default: true, describe: 'remove an earlier demo run in --out first (--no-fresh with --resume continues one)' }),
-  { livePoints: 25, sliceStepsPerParameter: 1 }),
+  { livePoints: 50, sliceStepsPerParameter: 1 }),
   handler: async (args) => {
     const started = performance.now();
     const configPath = args.config ?? demoConfigPath;

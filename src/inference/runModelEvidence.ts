@@ -1,6 +1,7 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
+import type { BatchOccupancy } from '../parallel/batchOccupancy.js';
 import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 import { runNested, type NestedMethod, type NestedProgress, type NestedResult } from '../sampling/nested/index.js';
 import type { ParameterSpace } from '../sampling/parameterSpace.js';
@@ -24,6 +25,11 @@ export interface EvidenceSettings {
   readonly sliceStepsPerParameter?: number;
   /** Slice moves per new live point in all; overrides sliceStepsPerParameter when given. */
   readonly sliceSteps?: number;
+  /**
+   * Points each slice chain sends per likelihood call (speculative slice sampling, exact for any
+   * value; default 1); fixed, never tied to the thread count, so results do not depend on it.
+   */
+  readonly slicePointsPerChain?: number;
   readonly maxEvaluations?: number;
   readonly threads: number;
   /** Evaluate in worker threads even with one thread, so that several runs can go side by side. */
@@ -49,6 +55,8 @@ export interface ModelEvidence {
   readonly threads: number;
   /** True when identical perturbers were ordered by x to remove label switching. */
   readonly relabelled: boolean;
+  /** Batch sizes of the run's likelihood calls. */
+  readonly occupancy: BatchOccupancy;
 }
 
 export const defaultEvidenceSettings = {
@@ -108,7 +116,10 @@ export async function runModelEvidence(
         livePoints: settings.livePoints,
         seed: settings.seed,
         method: lensModelMethod(settings.method, space.dim, perturberCount),
-        slice: { steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? 2) * space.dim)) },
+        slice: {
+          steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? 2) * space.dim)),
+          pointsPerChain: settings.slicePointsPerChain,
+        },
         replacementsPerStep: settings.replacementsPerStep,
         lnZTolerance: settings.lnZTolerance,
         maxEvaluations: settings.maxEvaluations,
@@ -127,6 +138,7 @@ export async function runModelEvidence(
       seconds: (performance.now() - started) / 1000,
       threads: pool.threads,
       relabelled: relabel !== undefined,
+      occupancy: pool.occupancy,
     };
   } finally {
     await pool.close();

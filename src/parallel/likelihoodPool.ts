@@ -2,11 +2,15 @@ import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../model/lensSystem.js';
+import { BatchOccupancy } from './batchOccupancy.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
 import { workerScriptUrl } from './workerScriptUrl.js';
 
-interface PendingBatch {
-  readonly resolve: (values: Float64Array) => void;
+/** A run of consecutive points of one call, waiting for or held by a worker. */
+interface Job {
+  readonly points: Float64Array<ArrayBuffer>;
+  readonly count: number;
+  readonly done: (values: Float64Array) => void;
   readonly reject: (error: Error) => void;
 }
 
@@ -17,9 +21,10 @@ export function defaultThreadCount(): number {
 
 /**
  * Evaluates batches of model vectors (row-major, one row per point, in the model's parameter
- * order) across worker threads. Idle workers take the next points of a batch from a queue and
- * every answer is stored at its point's index, so results never depend on the thread count or
- * on timing.
+ * order) across worker threads. Every call's points are cut into runs and put on one queue shared
+ * by all calls, so several callers (e.g. independent sampling chains, one point each) keep every
+ * worker busy; an idle worker takes the next run, and every answer is stored at its point's index
+ * in its call's result, so results never depend on the thread count or on timing.
  * With one thread everything runs in the calling thread.
  */
 export class LikelihoodPool {
@@ -27,23 +32,29 @@ export class LikelihoodPool {
   readonly width: number;
   private readonly workers: Worker[];
   private readonly local: PixelLikelihood | undefined;
-  private readonly pending = new Map<number, PendingBatch>();
-  private nextId = 0;
+  private readonly queue: Job[] = [];
+  private readonly idle: Worker[];
+  private readonly running = new Map<Worker, Job>();
   private failure: Error | undefined;
   /** Number of likelihood evaluations made so far. */
   evaluations = 0;
+  /** Batch sizes of the calls made so far. */
+  readonly occupancy = new BatchOccupancy();
 
   private constructor(threads: number, width: number, workers: Worker[], local: PixelLikelihood | undefined) {
     this.threads = threads;
     this.width = width;
     this.workers = workers;
     this.local = local;
+    this.idle = workers.slice();
     for (const worker of workers) {
-      worker.on('message', (message: { id?: number; values?: Float64Array }) => {
-        if (message.id === undefined) return;
-        const batch = this.pending.get(message.id);
-        this.pending.delete(message.id);
-        batch?.resolve(message.values!);
+      worker.on('message', (message: { values?: Float64Array }) => {
+        if (message.values === undefined) return;
+        const job = this.running.get(worker);
+        this.running.delete(worker);
+        this.idle.push(worker);
+        this.dispatch();
+        job?.done(message.values);
       });
       worker.on('error', (error) => this.fail(error));
     }
@@ -51,8 +62,20 @@ export class LikelihoodPool {
 
   private fail(error: Error): void {
     this.failure = error;
-    for (const batch of this.pending.values()) batch.reject(error);
-    this.pending.clear();
+    for (const job of this.running.values()) job.reject(error);
+    for (const job of this.queue) job.reject(error);
+    this.running.clear();
+    this.queue.length = 0;
+  }
+
+  /** Hands queued runs to idle workers. */
+  private dispatch(): void {
+    while (this.idle.length > 0 && this.queue.length > 0) {
+      const worker = this.idle.shift()!;
+      const job = this.queue.shift()!;
+      this.running.set(worker, job);
+      worker.postMessage({ points: job.points, count: job.count }, [job.points.buffer]);
+    }
   }
 
   /**
@@ -78,38 +101,41 @@ export class LikelihoodPool {
     return new LikelihoodPool(count, width, workers, undefined);
   }
 
-  /** ln L of `count` model vectors stored row-major in `points`. */
+  /**
+   * ln L of `count` model vectors stored row-major in `points`. The points are copied before
+   * this returns, so the caller may reuse `points` at once; calls may overlap.
+   */
   async evaluate(points: Float64Array, count: number): Promise<Float64Array> {
     if (this.failure !== undefined) throw this.failure;
     this.evaluations += count;
+    this.occupancy.record(count);
     const width = this.width;
+    const out = new Float64Array(count);
     if (this.local !== undefined) {
-      const out = new Float64Array(count);
       for (let r = 0; r < count; r++) out[r] = this.local.logLikelihood(points.subarray(r * width, (r + 1) * width));
       return out;
     }
-    // A work queue: each idle worker takes the next few points, so an expensive point does not
-    // hold the others up. Every value lands at its own index, so the result is the same
-    // whatever worker computed it and in whatever order.
-    const out = new Float64Array(count);
+    if (count === 0) return out;
+    // Runs of about count / (8 threads) points: an expensive point does not hold a whole
+    // half-batch up, and small calls go out one point per run.
     const piece = Math.max(1, Math.floor(count / (8 * this.workers.length)));
-    let next = 0;
-    const runWorker = async (worker: Worker): Promise<void> => {
-      while (next < count) {
-        const from = next;
+    return new Promise<Float64Array>((resolve, reject) => {
+      let outstanding = count;
+      for (let from = 0; from < count; from += piece) {
         const size = Math.min(piece, count - from);
-        next += size;
-        const chunk = points.slice(from * width, (from + size) * width);
-        const id = this.nextId++;
-        const values = await new Promise<Float64Array>((resolve, reject) => {
-          this.pending.set(id, { resolve, reject });
-          worker.postMessage({ id, points: chunk, count: size }, [chunk.buffer]);
+        this.queue.push({
+          points: points.slice(from * width, (from + size) * width),
+          count: size,
+          done: (values) => {
+            out.set(values, from);
+            outstanding -= size;
+            if (outstanding === 0) resolve(out);
+          },
+          reject,
         });
-        out.set(values, from);
       }
-    };
-    await Promise.all(this.workers.map(runWorker));
-    return out;
+      this.dispatch();
+    });
   }
 
   async close(): Promise<void> {

@@ -8,12 +8,12 @@ const likelihood = new PixelLikelihood(task.config, task.data, task.perturberCou
 const width = likelihood.system.parameters.length;
 const row = new Float64Array(width);
 
-parentPort!.on('message', (message: { id: number; points: Float64Array; count: number }) => {
+parentPort!.on('message', (message: { points: Float64Array; count: number }) => {
   const out = new Float64Array(message.count);
   for (let r = 0; r < message.count; r++) {
     for (let c = 0; c < width; c++) row[c] = message.points[r * width + c];
     out[r] = likelihood.logLikelihood(row);
   }
-  parentPort!.postMessage({ id: message.id, values: out }, [out.buffer]);
+  parentPort!.postMessage({ values: out }, [out.buffer]);
 });
 parentPort!.postMessage({ ready: true });

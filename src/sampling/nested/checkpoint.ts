@@ -43,6 +43,8 @@ export function readCheckpoint(path: string, expected: NestedSettings): NestedSt
     throw new InputError(`expected a "${checkpointFormat}" version ${checkpointVersion} file`, { file: path });
   }
   const found = parsed.state.settings as unknown as Record<string, unknown>;
+  // Settings added since version 1 was first written, at the values that reproduce older runs.
+  if (found.slicePointsPerChain === undefined) found.slicePointsPerChain = 1;
   for (const [key, value] of Object.entries(expected)) {
     if (JSON.stringify(found[key]) !== JSON.stringify(value)) {
       throw new InputError(

@@ -55,8 +55,9 @@ export interface NestedOptions {
   readonly seed?: number;
   readonly method?: NestedMethod;
   /**
-   * k live points replaced per step in one batch, default 1. Set it to the likelihood's number of
-   * worker threads: results depend on (seed, k), never on timing.
+   * k live points replaced per step in one batch, default 1. Slice sampling runs k chains side by
+   * side, so k at least the number of worker threads keeps them busy; results depend on (seed, k),
+   * never on timing, so choose a fixed k, not one that follows the thread count.
    */
   readonly replacementsPerStep?: number;
   /** stop when ln(Z + Z_live) - ln Z < this; default 0.1. */
@@ -66,8 +67,13 @@ export interface NestedOptions {
   readonly maxIterations?: number;
   /** ellipsoid volume enlargement factor, >= 1; default defaultEnlargement. */
   readonly enlargement?: number;
-  /** slice sampling: `steps` slice moves per new point, default 5 * dim. */
-  readonly slice?: { readonly steps?: number };
+  /**
+   * slice sampling: `steps` slice moves per new point, default 5 * dim; `pointsPerChain` points
+   * each chain evaluates per likelihood call (speculative stepping out and shrinkage, exact for
+   * any value), default 1. Like replacementsPerStep it is part of the random sequence: set it
+   * to a fixed number, never to the thread count.
+   */
+  readonly slice?: { readonly steps?: number; readonly pointsPerChain?: number };
   readonly checkpoint?: NestedCheckpointOptions;
   /** continue from checkpoint.path when the file exists. */
   readonly resume?: boolean;
@@ -98,6 +104,12 @@ export interface NestedResult {
   readonly iterations: number;
   readonly evaluations: number;
   readonly efficiency: number;
+  /**
+   * Slice sampling: evaluations of all chains over those of each step's longest chain, summed
+   * over steps; the speed-up of k threads, one per chain, if every point cost the same (1 for
+   * ellipsoids). A deterministic measure of how well the chains can share a worker pool.
+   */
+  readonly chainParallelism: number;
   readonly nonFiniteCount: number;
   /** physical points, rows of physicalDim: all dead points, then the final live points by ascending ln L. */
   readonly points: Float64Array;

@@ -16,6 +16,8 @@ export interface NestedSettings {
   readonly bootstraps: number;
   readonly boundUpdateInterval: number;
   readonly sliceSteps: number;
+  /** points each slice chain puts into one likelihood call (see SliceSettings.pointsPerChain). */
+  readonly slicePointsPerChain: number;
   readonly sliceWidthScale: number;
   readonly periodic: readonly boolean[];
   readonly boundVolumeFactorForTesting: number;
@@ -59,6 +61,9 @@ export interface NestedState {
   /** slice sampling: Cholesky factor of the live covariance and when it was computed. */
   whitening: Float64Array | null;
   whiteningBuiltAt: number;
+  /** slice sampling: evaluations of all chains, and of each step's longest chain, summed over steps. */
+  chainEvaluations: number;
+  longestChainEvaluations: number;
   elapsedSeconds: number;
 }
 
@@ -96,6 +101,8 @@ export function emptyState(settings: NestedSettings): NestedState {
     boundBuiltAt: -Infinity,
     whitening: null,
     whiteningBuiltAt: -Infinity,
+    chainEvaluations: 0,
+    longestChainEvaluations: 0,
     elapsedSeconds: 0,
   };
 }
@@ -138,6 +145,8 @@ const scalarNames = [
   'recentEvaluated',
   'boundBuiltAt',
   'whiteningBuiltAt',
+  'chainEvaluations',
+  'longestChainEvaluations',
   'elapsedSeconds',
 ] as const;
 
@@ -165,7 +174,8 @@ export function restoreState(record: NestedStateRecord): NestedState {
     const values = record.arrays[name];
     for (let offset = 0; offset + table.width <= values.length; offset += table.width) table.push(values, offset);
   }
-  for (const name of scalarNames) state[name] = record.scalars[name];
+  // Counters added after the first checkpoints were written start from 0 when missing.
+  for (const name of scalarNames) state[name] = record.scalars[name] ?? 0;
   state.stream = SeededStream.fromState(record.streamState);
   state.bound = record.bound === null ? null : restoreEllipsoidUnion(record.bound);
   state.whitening = record.whitening === null ? null : Float64Array.from(record.whitening);

@@ -45,10 +45,11 @@ export const shrinkageSimulations = 200;
  * lowest of N live points (expected ln X by order statistics, see batchLnVolumes), weights them
  * by the rectangle rule, and replaces them by k draws from the prior above the highest removed
  * likelihood: by rejection from a multi-ellipsoid bound (Feroz & Hobson 2008; Feroz, Hobson &
- * Bridges 2009) or by lock-step slice-sampling chains (Neal 2003; Handley, Hobson & Lasenby 2015).
+ * Bridges 2009) or by independent slice-sampling chains (Neal 2003; Handley, Hobson & Lasenby 2015).
  * The run stops when ln(Z + X_i max L_live) - ln Z < lnZTolerance (Skilling 2006); the final live
- * points are then added with X_final / N each. All candidates of a round go to the likelihood in one
- * call; the sampler's random stream never depends on timing, so (seed, k) fixes the result.
+ * points are then added with X_final / N each. Ellipsoid candidates go to the likelihood in one call
+ * per round; slice chains each send their own points and overlap. No random draw depends on
+ * timing, so (seed, k, and for slice sampling the points per chain s) fixes the result.
  */
 export async function runNested(problem: NestedProblem, options: NestedOptions = {}): Promise<NestedResult> {
   const settings = resolveSettings(problem, options);
@@ -143,6 +144,7 @@ function resolveSettings(problem: NestedProblem, options: NestedOptions): Nested
     throw new InputError(`nested sampling enlargement: ${expectedFound('a finite number >= 1', enlargement)}`);
   }
   const sliceSteps = positiveInteger(options.slice?.steps, 5 * dim, 'slice.steps');
+  const slicePointsPerChain = positiveInteger(options.slice?.pointsPerChain, 1, 'slice.pointsPerChain');
   const periodic = problem.periodic === undefined ? new Array<boolean>(dim).fill(false) : Array.from(problem.periodic);
   if (periodic.length !== dim) {
     throw new InputError(`nested sampling problem.periodic: ${expectedFound(`a list of ${dim} booleans`, problem.periodic)}`);
@@ -163,6 +165,7 @@ function resolveSettings(problem: NestedProblem, options: NestedOptions): Nested
     bootstraps: ellipsoidBootstraps,
     boundUpdateInterval: Math.max(1, Math.round(livePoints / 10)),
     sliceSteps,
+    slicePointsPerChain,
     sliceWidthScale: Math.sqrt(dim + 2),
     periodic,
     boundVolumeFactorForTesting,
@@ -443,7 +446,7 @@ async function ellipsoidStep(state: NestedState, evaluator: BatchEvaluator): Pro
   insertNewPoints(state, slots, newUnit, newPhysical, newLnL);
 }
 
-/** One step with k lock-step slice-sampling chains started from random surviving live points. */
+/** One step with k slice-sampling chains (run side by side) started from random surviving live points. */
 async function sliceStep(state: NestedState, evaluator: BatchEvaluator): Promise<void> {
   const { dim, physicalDim, replacementsPerStep: k } = state.settings;
   const { slots, threshold } = removeLowest(state);
@@ -466,6 +469,7 @@ async function sliceStep(state: NestedState, evaluator: BatchEvaluator): Promise
   const newUnit = new Float64Array(k * dim);
   const newPhysical = new Float64Array(k * physicalDim);
   const newLnL = new Float64Array(k);
+  const chainEvaluations = new Int32Array(k);
   await sliceChains(
     k,
     startUnit,
@@ -480,13 +484,21 @@ async function sliceStep(state: NestedState, evaluator: BatchEvaluator): Promise
       periodic: periodicFlags,
       widthScale: state.settings.sliceWidthScale,
       maxExpansions: 100,
+      pointsPerChain: state.settings.slicePointsPerChain,
     },
     state.stream,
     evaluator.evaluate,
     newUnit,
     newPhysical,
     newLnL,
+    chainEvaluations,
   );
+  let longest = 0;
+  for (let chain = 0; chain < k; chain++) {
+    state.chainEvaluations += chainEvaluations[chain];
+    if (chainEvaluations[chain] > longest) longest = chainEvaluations[chain];
+  }
+  state.longestChainEvaluations += longest;
   state.replacementsAccepted += k;
   state.replacementEvaluations += absorbCounts(state, evaluator);
   insertNewPoints(state, slots, newUnit, newPhysical, newLnL);
@@ -571,6 +583,7 @@ function finishedResult(state: NestedState, stopReason: NestedStopReason): Neste
     iterations: deadCount,
     evaluations: state.evaluations,
     efficiency: state.replacementEvaluations > 0 ? state.replacementsAccepted / state.replacementEvaluations : 1,
+    chainParallelism: state.longestChainEvaluations > 0 ? state.chainEvaluations / state.longestChainEvaluations : 1,
     nonFiniteCount: state.nonFiniteCount,
     points,
     unitPoints,

@@ -1,4 +1,4 @@
-import type { SeededStream } from './seededStream.js';
+import { SeededStream } from './seededStream.js';
 
 /** Evaluates unit-cube rows: writes their physical rows and returns sanitised ln L (-Infinity if impossible). */
 export type UnitBatchEvaluator = (unit: Float64Array, count: number, physicalOut: Float64Array) => Promise<Float64Array>;
@@ -14,22 +14,39 @@ export interface SliceSettings {
   readonly widthScale: number;
   /** Neal's cap m on stepping-out expansions per move. */
   readonly maxExpansions: number;
+  /**
+   * Points each chain puts into one round (s >= 1; default 1): bracket ends of both sides and the
+   * next expansions while stepping out, s candidates at once while shrinking. Only the number of
+   * evaluations and rounds depends on it, never the law of the draws.
+   */
+  readonly pointsPerChain?: number;
 }
 
-const left = 0;
-const right = 1;
-const shrink = 2;
-const done = 3;
+const stepping = 0;
+const shrinking = 1;
+const done = 2;
+
+const leftEnd = 0;
+const rightEnd = 1;
+const candidate = 2;
 
 /**
- * k independent slice-sampling chains run in lock-step inside the contour ln L > threshold
- * (Neal 2003, "Slice sampling", Section 4: stepping out with the cap m split at random, then
- * shrinkage; directions drawn isotropically in the space whitened by the live points' covariance,
- * after Handley, Hobson & Lasenby 2015). Each round gathers at most one pending point per chain
- * and evaluates them all in one call, so the evaluation order, and hence the result, does not
- * depend on the likelihood's parallelism. Chains start at `start*` (k rows) and end in `out*`.
- * `whitening` is the lower Cholesky factor of the live points' covariance (dim x dim). Returns the
- * number of points evaluated.
+ * k independent slice-sampling chains inside the contour ln L > threshold (Neal 2003, "Slice
+ * sampling", Section 4: stepping out with the cap m split at random, then shrinkage; directions
+ * drawn isotropically in the space whitened by the live points' covariance, after Handley, Hobson
+ * & Lasenby 2015). Each chain draws from its own stream, seeded from `stream` in chain order, and
+ * sends its points to `evaluate` as soon as its previous answer is back, so the chains keep a
+ * worker pool busy without waiting for each other, and each chain's path, hence the result,
+ * depends on s but never on the likelihood's parallelism or timing. Each call carries up to s
+ * points of one chain; with s > 1 they are speculative and the chain stays exact: stepping out
+ * tests the left and right ends (and further expansions) at once and keeps the first outside
+ * point on each side, as the sequential procedure would; shrinkage draws s candidates uniformly
+ * from the bracket and takes them in draw order, a rejected one shrinking the bracket, and a later
+ * one counting only if it lies inside the shrunk bracket, where it is a uniform draw from it
+ * (rejection sampling), else being discarded. With s = 1 each chain follows Neal's sequential
+ * procedure draw for draw. Chains start at `start*` (k rows) and end in `out*`. `whitening` is
+ * the lower Cholesky factor of the live points' covariance (dim x dim). Returns the number of
+ * points evaluated; `chainEvaluations`, when given, receives each chain's share.
  */
 export async function sliceChains(
   chains: number,
@@ -44,8 +61,10 @@ export async function sliceChains(
   outUnit: Float64Array,
   outPhysical: Float64Array,
   outLnL: Float64Array,
+  chainEvaluations?: Int32Array,
 ): Promise<number> {
   const { dim, physicalDim, steps, periodic, widthScale, maxExpansions } = settings;
+  const perChain = settings.pointsPerChain ?? 1;
   const position = Float64Array.from(startUnit.subarray(0, chains * dim));
   const positionPhysical = Float64Array.from(startPhysical.subarray(0, chains * physicalDim));
   const positionLnL = Float64Array.from(startLnL.subarray(0, chains));
@@ -56,15 +75,22 @@ export async function sliceChains(
   const rightBudget = new Int32Array(chains);
   const phase = new Uint8Array(chains);
   const moves = new Int32Array(chains);
-  const batchUnit = new Float64Array(chains * dim);
-  const batchPhysical = new Float64Array(chains * physicalDim);
-  const rowChain = new Int32Array(chains);
-  const rowStep = new Float64Array(chains);
+  // The round's entries of each chain in order: kind, step along the direction, batch row (-1:
+  // known to be outside without evaluation, because it leaves the cube).
+  const entryCount = new Int32Array(chains);
+  const entryKind = new Uint8Array(chains * perChain);
+  const entryStep = new Float64Array(chains * perChain);
+  const entryRow = new Int32Array(chains * perChain);
+  const batchUnit = new Float64Array(chains * perChain * dim);
+  const batchPhysical = new Float64Array(chains * perChain * physicalDim);
   const gaussian = new Float64Array(dim);
   const point = new Float64Array(dim);
+  const streams: SeededStream[] = [];
+  for (let chain = 0; chain < chains; chain++) streams.push(SeededStream.fromSeed(1 + Math.floor(stream.uniform() * 0xfffffffe)));
   let evaluations = 0;
 
   const startMove = (chain: number) => {
+    const stream = streams[chain];
     let norm = 0;
     for (let i = 0; i < dim; i++) {
       gaussian[i] = stream.normal();
@@ -82,7 +108,14 @@ export async function sliceChains(
     const budget = Math.floor(maxExpansions * stream.uniform());
     leftBudget[chain] = budget;
     rightBudget[chain] = maxExpansions - 1 - budget;
-    phase[chain] = left;
+    phase[chain] = stepping;
+  };
+
+  // The chain has accepted a point (or kept its own): next move, or done.
+  const endMove = (chain: number) => {
+    moves[chain]++;
+    if (moves[chain] === steps) phase[chain] = done;
+    else startMove(chain);
   };
 
   // Fills `point` with the chain's position moved by step * direction; false if it leaves the cube.
@@ -101,84 +134,138 @@ export async function sliceChains(
     else phase[chain] = done;
   }
 
-  for (;;) {
+  // One chain to the end of its moves: list its next points (entries), evaluate them in one
+  // call, take the answers in order. Listing and taking are synchronous, so the chains, which
+  // interleave only while awaiting, can share the scratch rows `point` and `gaussian`.
+  const runChain = async (chain: number): Promise<void> => {
+    const base = chain * perChain;
+    const chainUnit = batchUnit.subarray(base * dim, (base + perChain) * dim);
+    const chainPhysical = batchPhysical.subarray(base * physicalDim, (base + perChain) * physicalDim);
+    let entries = 0;
     let rows = 0;
-    for (let chain = 0; chain < chains; chain++) {
-      for (;;) {
-        const current = phase[chain];
-        if (current === done) break;
-        let step: number;
-        if (current === left) {
-          if (leftBudget[chain] === 0) {
-            phase[chain] = right;
-            continue;
+    // Lists a step as the chain's next entry; `evaluated`: `point` holds it and goes to the call.
+    const addEntry = (kind: number, step: number, evaluated: boolean) => {
+      entryKind[base + entries] = kind;
+      entryStep[base + entries] = step;
+      if (evaluated) {
+        chainUnit.set(point, rows * dim);
+        entryRow[base + entries] = rows++;
+      } else entryRow[base + entries] = -1;
+      entries++;
+    };
+    for (;;) {
+      entries = 0;
+      rows = 0;
+      // Known outcomes (an end or candidate off the cube) are applied at once while nothing is
+      // pending, and listed as unevaluated entries behind pending ones.
+      while (entries < perChain && phase[chain] !== done) {
+        if (phase[chain] === stepping) {
+          let listedLeft = 0;
+          let listedRight = 0;
+          let leftOpen = leftBudget[chain] > 0;
+          let rightOpen = rightBudget[chain] > 0;
+          let side = leftEnd;
+          while (entries < perChain && (leftOpen || rightOpen)) {
+            if (side === leftEnd && !leftOpen) side = rightEnd;
+            else if (side === rightEnd && !rightOpen) side = leftEnd;
+            if (side === leftEnd) {
+              const step = lower[chain] - listedLeft;
+              if (!place(chain, step)) {
+                leftOpen = false;
+                if (rows === 0) leftBudget[chain] = 0;
+                else addEntry(leftEnd, step, false);
+              } else {
+                addEntry(leftEnd, step, true);
+                listedLeft++;
+                if (listedLeft === leftBudget[chain]) leftOpen = false;
+              }
+              side = rightEnd;
+            } else {
+              const step = upper[chain] + listedRight;
+              if (!place(chain, step)) {
+                rightOpen = false;
+                if (rows === 0) rightBudget[chain] = 0;
+                else addEntry(rightEnd, step, false);
+              } else {
+                addEntry(rightEnd, step, true);
+                listedRight++;
+                if (listedRight === rightBudget[chain]) rightOpen = false;
+              }
+              side = leftEnd;
+            }
           }
-          step = lower[chain];
-          if (!place(chain, step)) {
-            phase[chain] = right;
-            continue;
-          }
-        } else if (current === right) {
-          if (rightBudget[chain] === 0) {
-            phase[chain] = shrink;
-            continue;
-          }
-          step = upper[chain];
-          if (!place(chain, step)) {
-            phase[chain] = shrink;
-            continue;
-          }
-        } else {
-          if (upper[chain] - lower[chain] < 1e-12) {
-            // The bracket has collapsed onto the current point: the move keeps it.
-            moves[chain]++;
-            if (moves[chain] === steps) phase[chain] = done;
-            else startMove(chain);
-            continue;
-          }
-          step = lower[chain] + stream.uniform() * (upper[chain] - lower[chain]);
-          if (!place(chain, step)) {
-            if (step < 0) lower[chain] = step;
-            else upper[chain] = step;
-            continue;
+          if (entries > 0) break;
+          // Both sides closed without an evaluation: the bracket is final.
+          phase[chain] = shrinking;
+          continue;
+        }
+        if (rows === 0 && upper[chain] - lower[chain] < 1e-12) {
+          // The bracket has collapsed onto the current point: the move keeps it.
+          endMove(chain);
+          continue;
+        }
+        const step = lower[chain] + streams[chain].uniform() * (upper[chain] - lower[chain]);
+        if (place(chain, step)) addEntry(candidate, step, true);
+        else if (rows === 0) {
+          if (step < 0) lower[chain] = step;
+          else upper[chain] = step;
+        } else addEntry(candidate, step, false);
+      }
+      if (rows === 0) return;
+      const lnL = await evaluate(chainUnit, rows, chainPhysical);
+      evaluations += rows;
+      if (chainEvaluations !== undefined) chainEvaluations[chain] += rows;
+      if (entryKind[base] !== candidate) {
+        let leftClosed = leftBudget[chain] === 0;
+        let rightClosed = rightBudget[chain] === 0;
+        for (let e = base; e < base + entries; e++) {
+          const row = entryRow[e];
+          const inside = row >= 0 && lnL[row] > threshold;
+          if (entryKind[e] === leftEnd) {
+            if (leftClosed) continue;
+            if (inside) {
+              lower[chain] -= 1;
+              leftClosed = --leftBudget[chain] === 0;
+            } else {
+              leftBudget[chain] = 0;
+              leftClosed = true;
+            }
+          } else {
+            if (rightClosed) continue;
+            if (inside) {
+              upper[chain] += 1;
+              rightClosed = --rightBudget[chain] === 0;
+            } else {
+              rightBudget[chain] = 0;
+              rightClosed = true;
+            }
           }
         }
-        batchUnit.set(point, rows * dim);
-        rowChain[rows] = chain;
-        rowStep[rows] = step;
-        rows++;
-        break;
+        if (leftClosed && rightClosed) phase[chain] = shrinking;
+        continue;
+      }
+      for (let e = base; e < base + entries; e++) {
+        const step = entryStep[e];
+        // A candidate outside the shrunk bracket is discarded (it was drawn from a wider one).
+        if (step < lower[chain] || step > upper[chain]) continue;
+        const row = entryRow[e];
+        if (row >= 0 && lnL[row] > threshold) {
+          position.set(chainUnit.subarray(row * dim, row * dim + dim), chain * dim);
+          positionPhysical.set(chainPhysical.subarray(row * physicalDim, row * physicalDim + physicalDim), chain * physicalDim);
+          positionLnL[chain] = lnL[row];
+          endMove(chain);
+          break;
+        }
+        if (step < 0) lower[chain] = step;
+        else upper[chain] = step;
       }
     }
-    if (rows === 0) break;
-    const lnL = await evaluate(batchUnit, rows, batchPhysical);
-    evaluations += rows;
-    for (let row = 0; row < rows; row++) {
-      const chain = rowChain[row];
-      const step = rowStep[row];
-      const inside = lnL[row] > threshold;
-      const current = phase[chain];
-      if (current === left) {
-        if (inside) {
-          lower[chain] -= 1;
-          leftBudget[chain]--;
-        } else phase[chain] = right;
-      } else if (current === right) {
-        if (inside) {
-          upper[chain] += 1;
-          rightBudget[chain]--;
-        } else phase[chain] = shrink;
-      } else if (inside) {
-        position.set(batchUnit.subarray(row * dim, row * dim + dim), chain * dim);
-        positionPhysical.set(batchPhysical.subarray(row * physicalDim, row * physicalDim + physicalDim), chain * physicalDim);
-        positionLnL[chain] = lnL[row];
-        moves[chain]++;
-        if (moves[chain] === steps) phase[chain] = done;
-        else startMove(chain);
-      } else if (step < 0) lower[chain] = step;
-      else upper[chain] = step;
-    }
-  }
+  };
+
+  chainEvaluations?.fill(0);
+  const running: Promise<void>[] = [];
+  for (let chain = 0; chain < chains; chain++) running.push(runChain(chain));
+  await Promise.all(running);
   outUnit.set(position);
   outPhysical.set(positionPhysical);
   outLnL.set(positionLnL);
