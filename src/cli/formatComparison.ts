@@ -4,7 +4,11 @@ import type { CountComparisonSummary } from '../inference/comparePerturberCounts
 
 const fixed = (v: number, digits = 2): string => (Number.isFinite(v) ? v.toFixed(digits) : String(v));
 
-function describePrior(p: PriorDescription): string {
+/** A prior bound as written: 12 significant digits hide the rounding of derived bounds (0.92 - 0.3). */
+const bound = (v: number | null | undefined): string => (typeof v === 'number' ? String(+v.toPrecision(12)) : String(v));
+
+function describePrior(prior: PriorDescription): string {
+  const p = { ...prior, lower: bound(prior.lower), upper: bound(prior.upper) };
   switch (p.kind) {
     case 'uniform': return `uniform [${p.lower}, ${p.upper}]`;
     case 'logUniform': return `log-uniform [${p.lower}, ${p.upper}]`;

@@ -6,11 +6,13 @@ import { parameterLabel } from './parameterLabel.js';
 
 /** A prior in interval notation, e.g. `uniform on [0.9, 1.3]`, `normal(0, 0.1) on [-1, 1]`. */
 export function priorText(p: PriorDescription): string {
-  const range = `[${p.lower ?? '-inf'}, ${p.upper ?? 'inf'}]`;
+  // 12 significant digits hide the rounding of derived bounds (0.92 - 0.3 = 0.6200000000000001).
+  const tidy = (v: number | null): string | null => (v === null ? null : String(+v.toPrecision(12)));
+  const range = `[${tidy(p.lower) ?? '-inf'}, ${tidy(p.upper) ?? 'inf'}]`;
   switch (p.kind) {
     case 'uniform': return `uniform on ${range}`;
     case 'logUniform': return `uniform in log on ${range}`;
-    case 'periodic': return `uniform, periodic on [${p.lower}, ${p.upper})`;
+    case 'periodic': return `uniform, periodic on [${tidy(p.lower)}, ${tidy(p.upper)})`;
     case 'normal': return `normal(mean ${p.mean}, sd ${p.sigma})`;
     case 'truncatedNormal': return `normal(mean ${p.mean}, sd ${p.sigma}) cut to ${range}`;
     case 'fixed': return `held at ${p.value}`;
