@@ -6,6 +6,7 @@ import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison, formatCountComparison } from './formatComparison.js';
+import { comparisonSideBySide } from '../inference/compareModels.js';
 import { comparePerturberCounts } from '../inference/comparePerturberCounts.js';
 
 interface CompareArguments extends DataArguments, SamplerArguments {
@@ -46,8 +47,9 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
     }
     checkOutputFolder(out, args.resume, ['smooth', 'perturbed']);
     const data = loadDataOf(args, config);
-    const smooth = evidenceSettingsOf(args, 'smooth');
-    const perturbed = evidenceSettingsOf(args, 'perturbed');
+    const plain = { plainLines: comparisonSideBySide({ smooth: evidenceSettingsOf(args, 'smooth').settings, perturbed: evidenceSettingsOf(args, 'perturbed').settings }) };
+    const smooth = evidenceSettingsOf(args, 'smooth', plain);
+    const perturbed = evidenceSettingsOf(args, 'perturbed', plain);
     const { summary } = await runComparisonToFolder(config, data, out, {
       smooth: smooth.settings,
       perturbed: perturbed.settings,

@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { loadObservedData } from '../data/index.js';
 import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
+import { comparisonSideBySide } from '../inference/compareModels.js';
 import { placeTruth } from '../inference/truthComparison.js';
 import { simulateToFolder } from '../model/simulateToFolder.js';
 import { buildLensSystem } from '../model/lensSystem.js';
@@ -45,9 +46,10 @@ export const demoCommand: CommandModule<object, DemoArguments> = {
     simulateToFolder(config, dataDir, { seed: args['noise-seed'], noiseless: false });
     process.stdout.write(`   wrote ${dataDir}/image.fits, noise.fits, psf.fits, mask.fits, truth.json\n`);
     const data = loadObservedData({ folder: dataDir }, { columns: config.observation.columns, rows: config.observation.rows, pixelScaleArcsec: config.observation.pixelScaleArcsec });
-    const smooth = evidenceSettingsOf(args, '   smooth');
-    const perturbed = evidenceSettingsOf(args, '   perturbed');
-    process.stdout.write(`2. nested sampling of the smooth and the perturbed model (${smooth.settings.livePoints} live points, ${smooth.settings.threads} threads)\n`);
+    const plain = { plainLines: comparisonSideBySide({ smooth: evidenceSettingsOf(args, 'smooth').settings, perturbed: evidenceSettingsOf(args, 'perturbed').settings }) };
+    const smooth = evidenceSettingsOf(args, '   smooth', plain);
+    const perturbed = evidenceSettingsOf(args, '   perturbed', plain);
+    process.stdout.write(`2. nested sampling of the smooth and the perturbed model (${smooth.settings.livePoints} live points, ${smooth.settings.threads} threads${plain.plainLines ? ", the two models side by side" : ""})\n`);
     const { comparison, summary } = await runComparisonToFolder(config, data, compareDir, {
       smooth: smooth.settings,
       perturbed: perturbed.settings,
