@@ -1,6 +1,7 @@
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { InputError } from '../errors.js';
 import { configHash } from '../inference/runComparisonToFolder.js';
+import { fillPixelCentres } from '../imaging/pixelGrid.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import { modelVectorFromRecord } from '../model/modelVectorFromRecord.js';
 import { criticalCurves, type LensCurves } from './criticalCurves.js';
@@ -9,6 +10,7 @@ import { imagePanelSvg, type ImageLine, type ImageMarker, type ImagePanel } from
 import { imagePng } from './imagePng.js';
 import { locate, type ModelName, type RunFolder } from './readRunFolder.js';
 import type { ReportFigure } from './reportFigures.js';
+import { perturberTruthMarkers } from './perturberTruthMarkers.js';
 import { reportPalette } from './reportPalette.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
 
@@ -109,18 +111,13 @@ function convergenceFigure(run: RunFolder, grid: LensingGrid, perturbed: ModelLe
   const n = columns * rows;
   const x = new Float64Array(n);
   const y = new Float64Array(n);
-  for (let j = 0; j < rows; j++) {
-    for (let i = 0; i < columns; i++) {
-      x[i + columns * j] = (i - (columns - 1) / 2) * scale;
-      y[i + columns * j] = (j - (rows - 1) / 2) * scale;
-    }
-  }
+  fillPixelCentres({ columns, rows, pixelScaleArcsec: scale }, x, y);
   const kappa = new Float64Array(n);
   for (const term of perturbed.system.massTerms) term.profile.addConvergence(perturbed.profile, term.offset, x, y, n, kappa);
   const logKappa = Float64Array.from(kappa, (k) => Math.log10(Math.max(k, KAPPA_FLOOR)));
   const [low, high] = sequentialRange([logKappa]);
   const markers: ImageMarker[] = [
-    ...truthPositions(run),
+    ...perturberTruthMarkers(run.summary.perturbers, new Map((run.truth?.parameters ?? []).map((p) => [p.name, p.value]))),
     ...perturbed.system.perturbers.map((p): ImageMarker => ({ kind: 'posterior', xArcsec: perturbed.vector[p.centerXIndex], yArcsec: perturbed.vector[p.centerYIndex] })),
   ];
   const lines: ImageLine[] = [
@@ -211,12 +208,7 @@ function sourceLight(lens: ModelLens, amplitudes: readonly number[], half: numbe
   const size = (2 * half) / cells;
   const x = new Float64Array(n);
   const y = new Float64Array(n);
-  for (let j = 0; j < cells; j++) {
-    for (let i = 0; i < cells; i++) {
-      x[i + cells * j] = (i - (cells - 1) / 2) * size;
-      y[i + cells * j] = (j - (cells - 1) / 2) * size;
-    }
-  }
+  fillPixelCentres({ columns: cells, rows: cells, pixelScaleArcsec: size }, x, y);
   const values = new Float64Array(n);
   for (const term of lens.system.sourceTerms) {
     const count = term.profile.basisCount;
@@ -230,14 +222,5 @@ function sourceLight(lens: ModelLens, amplitudes: readonly number[], half: numbe
   return { x, y, values };
 }
 
-/** Simulated perturber positions from truth.json, where it holds them. */
-function truthPositions(run: RunFolder): ImageMarker[] {
-  const truth = new Map((run.truth?.parameters ?? []).map((p) => [p.name, p.value]));
-  return run.summary.perturbers.flatMap((p) => {
-    const x = truth.get(`${p.key}.centerXArcsec`);
-    const y = truth.get(`${p.key}.centerYArcsec`);
-    return x === undefined || y === undefined ? [] : [{ kind: 'truth' as const, xArcsec: x, yArcsec: y }];
-  });
-}
 
 const formatArcsec = (v: number): string => (Math.round(v * 1e4) / 1e4).toString();

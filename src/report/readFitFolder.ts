@@ -1,10 +1,9 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { InputError, expectedFound } from '../errors.js';
 import type { FitSummary } from '../inference/runFitToFolder.js';
 import type { CornerData } from '../results/cornerData.js';
 import {
-  isList, isMapping, isNumber, isString, locateRunData, readCornerData, readJson, requireShape, type TruthRecord,
+  isList, isMapping, isNumber, isString, locateRunData, readCornerData, readKindOfSummary, requireShape, type TruthRecord,
 } from './readRunFolder.js';
 
 /** A finished `arcsift fit` run as the report reads it. */
@@ -21,12 +20,8 @@ export interface FitFolder {
 /** Reads summary.json (kind 'fit', checked key by key), corner.json and truth.json of a fit run folder. */
 export function readFitFolder(folder: string): FitFolder {
   const summaryFile = join(folder, 'summary.json');
-  const json = readJson(summaryFile);
-  if (!isMapping(json)) throw new InputError(expectedFound('a mapping (the summary of a fit)', json), { file: summaryFile });
-  requireShape(json, summaryFile, {
-    kind: [(v) => v === 'fit', '"fit" (a summary written by `arcsift fit`)'],
+  const json = readKindOfSummary(summaryFile, 'fit', 'fit', {
     sampler: [(v) => v === 'nested' || v === 'ensemble', '"nested" or "ensemble"'],
-    'data.image': [isString, 'the path of the observed image'],
     model: [isMapping, 'a mapping'],
     'model.parameters': [isList, 'a list of parameter summaries'],
     'model.bestLnLikelihood': [isNumber, 'a number'],
@@ -34,7 +29,7 @@ export function readFitFolder(folder: string): FitFolder {
     amplitudePrior: [isString, 'a string'],
     caution: [isString, 'a string'],
   });
-  const summary = json as FitSummary;
+  const summary = json as unknown as FitSummary;
   if (summary.sampler === 'nested') requireShape(json, summaryFile, { 'evidence.lnEvidence': [isNumber, 'a number'], perturbers: [isList, 'a list of perturber summaries'] });
   else requireShape(json, summaryFile, { 'model.walkers': [isNumber, 'a number'], 'model.diagnostics': [isList, 'a list of per-parameter diagnostics'] });
   const notices: string[] = [];

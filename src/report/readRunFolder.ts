@@ -79,6 +79,22 @@ export function requireShape(root: Json, file: string, shape: Readonly<Record<st
   }
 }
 
+/**
+ * Reads a run summary written by `arcsift COMMAND` and checks it key by key: a mapping whose
+ * `kind` is `kind`, with `data.image` and every key of `shape`. Throws an InputError naming the
+ * file and the first key that fails.
+ */
+export function readKindOfSummary(file: string, kind: string, command: string, shape: Readonly<Record<string, [Check, string]>>): Record<string, Json> {
+  const json = readJson(file);
+  if (!isMapping(json)) throw new InputError(expectedFound(`a mapping (the summary of \`arcsift ${command}\`)`, json), { file });
+  requireShape(json, file, {
+    kind: [(v) => v === kind, `"${kind}" (a summary written by \`arcsift ${command}\`)`],
+    'data.image': [isString, 'the path of the observed image'],
+    ...shape,
+  });
+  return json as Record<string, Json>;
+}
+
 const MODEL_SHAPE = (model: ModelName): Record<string, [Check, string]> => ({
   [`models.${model}`]: [isMapping, 'a mapping'],
   [`models.${model}.lnEvidence`]: [isNumber, 'a number'],

@@ -10,6 +10,9 @@ import { imagePng } from './imagePng.js';
 import { lensingFigures } from './lensingFigures.js';
 import { MODEL_NAMES, type ModelName, type RunFolder } from './readRunFolder.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
+import { perturberTruthMarkers } from './perturberTruthMarkers.js';
+
+export { perturberTruthMarkers };
 import { modelColours } from './reportPalette.js';
 import { readWeightedSamples } from './readWeightedSamples.js';
 import { nestedTraceSvg } from './samplerTraceSvg.js';
@@ -203,15 +206,6 @@ export function imageSetOf(observed: ObservedImages, models: readonly ModelImage
     mask: maskImage === null ? undefined : maskImage.data,
     outside: maskImage === null ? undefined : Uint8Array.from(maskImage.data, (v) => (v === 0 ? 1 : 0)),
   };
-}
-
-/** Simulated perturber positions (truth.json) as markers. */
-export function perturberTruthMarkers(perturbers: readonly { readonly key: string }[], truth: ReadonlyMap<string, number>): ImageMarker[] {
-  return perturbers.flatMap((p) => {
-    const x = truth.get(`${p.key}.centerXArcsec`);
-    const y = truth.get(`${p.key}.centerYArcsec`);
-    return x === undefined || y === undefined ? [] : [{ kind: 'truth' as const, xArcsec: x, yArcsec: y }];
-  });
 }
 
 /**

@@ -1,6 +1,5 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
-import { InputError, expectedFound } from '../errors.js';
 import { readFitsImage } from '../fits/index.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
@@ -11,25 +10,20 @@ import { htmlTable, numberCell } from './htmlTable.js';
 import { imagePanelSvg, type ImageMarker } from './imagePanelSvg.js';
 import { imagePng } from './imagePng.js';
 import { colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
-import { isList, isMapping, isNumber, isString, locateRunData, readJson, requireShape } from './readRunFolder.js';
+import { isList, isNumber, isString, locateRunData, readKindOfSummary } from './readRunFolder.js';
 import { perturberTruthMarkers, writeSvgFigure, type ReportFigure } from './reportFigures.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
 
 /** Reads and checks sensitivity.json of a sensitivity run folder. */
 function readSensitivitySummary(file: string): SensitivitySummary {
-  const json = readJson(file);
-  if (!isMapping(json)) throw new InputError(expectedFound('a mapping (the summary of a sensitivity map)', json), { file });
-  requireShape(json, file, {
-    kind: [(v) => v === 'sensitivity', '"sensitivity" (a summary written by `arcsift sensitivity`)'],
-    'data.image': [isString, 'the path of the observed image'],
+  return readKindOfSummary(file, 'sensitivity', 'sensitivity', {
     'perturber.kind': [isString, 'a string'],
     'perturber.log10MassPriorRange': [(v) => isList(v) && (v as unknown[]).length === 2, 'two numbers'],
     'settings.threshold': [isNumber, 'a number'],
     decades: [isList, 'a list of mass decades'],
     points: [isList, 'a list of grid points'],
     approximation: [isString, 'a string'],
-  });
-  return json as SensitivitySummary;
+  }) as unknown as SensitivitySummary;
 }
 
 /**

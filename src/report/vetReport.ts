@@ -1,6 +1,5 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
-import { InputError, expectedFound } from '../errors.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
 import type { VetRunRecord, VetSummary } from '../vet/runVetToFolder.js';
@@ -15,7 +14,7 @@ import { sequentialRange } from './displayRange.js';
 import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
 import { perturberMassName } from './perturberTable.js';
 import { priorColumnsTable } from './priorTable.js';
-import { isList, isMapping, isString, locateRunData, readJson, requireShape } from './readRunFolder.js';
+import { isList, isMapping, isString, locateRunData, readKindOfSummary } from './readRunFolder.js';
 import {
   imageFigures, imageSetOf, perturberTruthMarkers, readModelImages, readObservedImages, writeSvgFigure, type ReportFigure,
 } from './reportFigures.js';
@@ -26,11 +25,7 @@ const CONFIRMED_SHOWN = 3;
 
 /** Reads and checks vet.json of a vetting run folder. */
 function readVetSummary(file: string): VetSummary {
-  const json = readJson(file);
-  if (!isMapping(json)) throw new InputError(expectedFound('a mapping (the summary of a vetting)', json), { file });
-  requireShape(json, file, {
-    kind: [(v) => v === 'vet', '"vet" (a summary written by `arcsift vet`)'],
-    'data.image': [isString, 'the path of the observed image'],
+  return readKindOfSummary(file, 'vet', 'vet', {
     smooth: [isMapping, 'the smooth run record'],
     candidates: [isList, 'a list of candidate records'],
     thresholds: [isMapping, 'the verdict thresholds'],
@@ -38,8 +33,7 @@ function readVetSummary(file: string): VetSummary {
     'priors.perturbed': [isList, 'a list of priors'],
     'priors.positionPrior': [isString, 'a string'],
     caution: [isString, 'a string'],
-  });
-  return json as VetSummary;
+  }) as unknown as VetSummary;
 }
 
 const fixed = (v: number | null, digits = 2): string => (v === null || !Number.isFinite(v) ? '&ndash;' : formatNumber(v, digits));
