@@ -74,7 +74,8 @@ export class LikelihoodPool {
       const worker = this.idle.shift()!;
       const job = this.queue.shift()!;
       this.running.set(worker, job);
-      worker.postMessage({ points: job.points, count: job.count }, [job.points.buffer]);
+      // Copied, not transferred: see likelihoodWorker.ts.
+      worker.postMessage({ points: job.points, count: job.count });
     }
   }
 
