@@ -9,6 +9,7 @@ import { LikelihoodPool, defaultThreadCount } from '../parallel/likelihoodPool.j
 import { runModelEvidence } from '../inference/runModelEvidence.js';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
+import { machineParallelism } from './machineParallelism.js';
 
 /**
  * Wall-clock milliseconds per likelihood through the worker pool with `threads` threads: batches
@@ -41,8 +42,8 @@ interface NestedTiming {
   readonly seconds: number;
   /** likelihood evaluations per new live point (initial draws excluded). */
   readonly evaluationsPerReplacement: number;
-  /** mean points per likelihood call. */
-  readonly pointsPerCall: number;
+  /** messages to worker threads per likelihood evaluation (0 on one thread). */
+  readonly messagesPerEvaluation: number;
   /** chain evaluations over each step's longest chain: the speed-up limit of one thread per chain. */
   readonly chainParallelism: number;
 }
@@ -61,7 +62,7 @@ async function nestedTiming(config: ArcsiftConfig, data: ObservedData, threads: 
   return {
     seconds: (performance.now() - started) / 1000,
     evaluationsPerReplacement: 1 / run.result.efficiency,
-    pointsPerCall: run.occupancy.meanPoints(),
+    messagesPerEvaluation: run.messages / run.result.evaluations,
     chainParallelism: run.result.chainParallelism,
   };
 }
@@ -92,6 +93,7 @@ export async function run(_args: string[]): Promise<void> {
       let nestedOne = Number.POSITIVE_INFINITY;
       let nestedAll = Number.POSITIVE_INFINITY;
       let figures: NestedTiming | undefined;
+      const coresBefore = await machineParallelism(threads);
       for (let repeat = 0; repeat < 2; repeat++) {
         const one = await nestedTiming(scenario.config, data, 1);
         const all = await nestedTiming(scenario.config, data, threads);
@@ -99,6 +101,7 @@ export async function run(_args: string[]): Promise<void> {
         nestedAll = Math.min(nestedAll, all.seconds);
         figures = all;
       }
+      const coresAfter = await machineParallelism(threads);
       console.log(JSON.stringify({
         benchmark: 'likelihood',
         scenario: scenario.name,
@@ -118,8 +121,10 @@ export async function run(_args: string[]): Promise<void> {
           nestedSecondsOneThread: Number(nestedOne.toFixed(2)),
           nestedSecondsAllThreads: Number(nestedAll.toFixed(2)),
           nestedSpeedUp: Number((nestedOne / nestedAll).toFixed(2)),
+          // Cores that `threads` busy threads got just before and after the nested runs.
+          coresAvailable: [Number(coresBefore.toFixed(2)), Number(coresAfter.toFixed(2))],
           nestedEvaluationsPerReplacement: Number(figures!.evaluationsPerReplacement.toFixed(2)),
-          nestedPointsPerCall: Number(figures!.pointsPerCall.toFixed(2)),
+          nestedMessagesPerEvaluation: Number(figures!.messagesPerEvaluation.toFixed(3)),
           nestedChainParallelism: Number(figures!.chainParallelism.toFixed(3)),
         },
       }));

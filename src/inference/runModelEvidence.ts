@@ -6,8 +6,7 @@ import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 import { runNested, type NestedMethod, type NestedProgress, type NestedResult } from '../sampling/nested/index.js';
 import type { ParameterSpace } from '../sampling/parameterSpace.js';
 import { modelParameterSpace } from './modelParameterSpace.js';
-import { perturberRelabelling } from './perturberRelabelling.js';
-import { positionRegionTransform } from './positionRegion.js';
+import { modelPriorTransform } from './modelPriorTransform.js';
 
 /** Settings of one nested-sampling run of a lens model. */
 export interface EvidenceSettings {
@@ -55,8 +54,10 @@ export interface ModelEvidence {
   readonly threads: number;
   /** True when identical perturbers were ordered by x to remove label switching. */
   readonly relabelled: boolean;
-  /** Batch sizes of the run's likelihood calls. */
+  /** Batch sizes of the run's likelihood calls through the pool (slice chains run in workers are not calls). */
   readonly occupancy: BatchOccupancy;
+  /** Messages sent to worker threads (runs of points and slice chains; 0 on one thread). */
+  readonly messages: number;
 }
 
 export const defaultEvidenceSettings = {
@@ -93,9 +94,8 @@ export async function runModelEvidence(
 ): Promise<ModelEvidence> {
   const system = buildLensSystem(config, { perturberCount });
   const space = modelParameterSpace(system);
-  const relabel = perturberRelabelling(system, space);
-  const region = positionRegionTransform(system, space, data);
   const additional = extra.transform?.(system, space);
+  const prior = modelPriorTransform(system, space, data, additional);
   const started = performance.now();
   const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads, { inWorker: settings.inWorker });
   try {
@@ -103,14 +103,12 @@ export async function runModelEvidence(
       {
         dim: space.dim,
         physicalDim: space.physicalDim,
-        transform: (unit, out) => {
-          space.fromUnitCube(unit, out);
-          if (region !== undefined) region(unit, out);
-          if (relabel !== undefined) relabel(out);
-          if (additional !== undefined) additional(unit, out);
-        },
+        transform: prior.transform,
         periodic: space.periodic,
         logLikelihood: (points, count) => pool.evaluate(points, count),
+        // Chains run in the workers, next to the likelihood, unless a transform of the caller's
+        // own (which a worker cannot rebuild) is part of the prior.
+        runSliceChain: pool.inWorkers && additional === undefined ? (request) => pool.runSliceChain(request) : undefined,
       },
       {
         livePoints: settings.livePoints,
@@ -137,8 +135,9 @@ export async function runModelEvidence(
       result,
       seconds: (performance.now() - started) / 1000,
       threads: pool.threads,
-      relabelled: relabel !== undefined,
+      relabelled: prior.relabelled,
       occupancy: pool.occupancy,
+      messages: pool.messages,
     };
   } finally {
     await pool.close();

@@ -5,12 +5,18 @@ import { buildLensSystem } from '../model/lensSystem.js';
 import { BatchOccupancy } from './batchOccupancy.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
 import { workerScriptUrl } from './workerScriptUrl.js';
+import type { SliceChainRequest, SliceChainResult } from '../sampling/nested/sliceSampler.js';
 
-/** A run of consecutive points of one call, waiting for or held by a worker. */
+/** A worker's answer: the ln L of a run of points, or where a slice chain ended. */
+export type WorkerReply = { readonly values: Float64Array } | { readonly chain: SliceChainResult };
+
+/**
+ * What a worker is asked, waiting for or held by a worker: a run of consecutive points of one
+ * call, or one slice chain of a nested-sampling step.
+ */
 interface Job {
-  readonly points: Float64Array<ArrayBuffer>;
-  readonly count: number;
-  readonly done: (values: Float64Array) => void;
+  readonly message: { readonly points: Float64Array; readonly count: number } | { readonly chain: SliceChainRequest };
+  readonly done: (reply: WorkerReply) => void;
   readonly reject: (error: Error) => void;
 }
 
@@ -38,6 +44,8 @@ export class LikelihoodPool {
   private failure: Error | undefined;
   /** Number of likelihood evaluations made so far. */
   evaluations = 0;
+  /** Messages sent to workers so far (runs of points and slice chains). */
+  messages = 0;
   /** Batch sizes of the calls made so far. */
   readonly occupancy = new BatchOccupancy();
 
@@ -48,13 +56,13 @@ export class LikelihoodPool {
     this.local = local;
     this.idle = workers.slice();
     for (const worker of workers) {
-      worker.on('message', (message: { values?: Float64Array }) => {
-        if (message.values === undefined) return;
+      worker.on('message', (reply: WorkerReply | { ready: true }) => {
+        if ('ready' in reply) return;
         const job = this.running.get(worker);
         this.running.delete(worker);
         this.idle.push(worker);
         this.dispatch();
-        job?.done(message.values);
+        job?.done(reply);
       });
       worker.on('error', (error) => this.fail(error));
     }
@@ -74,8 +82,9 @@ export class LikelihoodPool {
       const worker = this.idle.shift()!;
       const job = this.queue.shift()!;
       this.running.set(worker, job);
+      this.messages++;
       // Copied, not transferred: see likelihoodWorker.ts.
-      worker.postMessage({ points: job.points, count: job.count });
+      worker.postMessage(job.message);
     }
   }
 
@@ -125,16 +134,43 @@ export class LikelihoodPool {
       for (let from = 0; from < count; from += piece) {
         const size = Math.min(piece, count - from);
         this.queue.push({
-          points: points.slice(from * width, (from + size) * width),
-          count: size,
-          done: (values) => {
-            out.set(values, from);
+          message: { points: points.slice(from * width, (from + size) * width), count: size },
+          done: (reply) => {
+            if (!('values' in reply)) return reject(new Error('likelihood worker: expected values, got a chain'));
+            out.set(reply.values, from);
             outstanding -= size;
             if (outstanding === 0) resolve(out);
           },
           reject,
         });
       }
+      this.dispatch();
+    });
+  }
+
+  /** True when the likelihood runs in worker threads (false: in the calling thread). */
+  get inWorkers(): boolean {
+    return this.local === undefined;
+  }
+
+  /**
+   * Runs one slice chain of a nested-sampling step in the next idle worker, which holds the
+   * model's prior transform and likelihood, so the chain's points need no message each. Workers
+   * only (inWorkers).
+   */
+  runSliceChain(request: SliceChainRequest): Promise<SliceChainResult> {
+    if (this.failure !== undefined) return Promise.reject(this.failure);
+    if (this.local !== undefined) return Promise.reject(new Error('runSliceChain needs worker threads'));
+    return new Promise<SliceChainResult>((resolve, reject) => {
+      this.queue.push({
+        message: { chain: request },
+        done: (reply) => {
+          if (!('chain' in reply)) return reject(new Error('likelihood worker: expected a chain, got values'));
+          this.evaluations += reply.chain.evaluations;
+          resolve(reply.chain);
+        },
+        reject,
+      });
       this.dispatch();
     });
   }

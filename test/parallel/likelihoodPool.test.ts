@@ -55,5 +55,19 @@ describe('the likelihood worker pool', () => {
     expect(double.result.lnZ).toBe(single.result.lnZ);
     expect(Array.from(double.result.points)).toEqual(Array.from(single.result.points));
     expect(double.result.chainParallelism).toBe(single.result.chainParallelism);
+    expect(double.result.evaluations).toBe(single.result.evaluations);
+    expect(double.result.nonFiniteCount).toBe(single.result.nonFiniteCount);
+    // On 2 threads each slice chain runs in a worker: one message per chain, not per point.
+    expect(double.messages).toBeLessThan(double.result.evaluations / 5);
+    expect(single.messages).toBe(0);
+  }, 180_000);
+
+  it('gives the same nested run with speculative chains (2 points per call) run in workers', async () => {
+    const settings = { livePoints: 12, seed: 9, method: 'slice' as const, replacementsPerStep: 3, lnZTolerance: 0.5, maxEvaluations: 400, sliceStepsPerParameter: 1, slicePointsPerChain: 2 };
+    const single = await runModelEvidence(config, data, 1, { ...settings, threads: 1 });
+    const double = await runModelEvidence(config, data, 1, { ...settings, threads: 2 });
+    expect(double.result.lnZ).toBe(single.result.lnZ);
+    expect(Array.from(double.result.points)).toEqual(Array.from(single.result.points));
+    expect(double.result.evaluations).toBe(single.result.evaluations);
   }, 180_000);
 });

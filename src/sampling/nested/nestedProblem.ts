@@ -1,4 +1,5 @@
 import type { InsertionRankCheck } from './insertionRank.js';
+import type { SliceChainRequest, SliceChainResult } from './sliceSampler.js';
 
 /**
  * A problem for the nested sampler, posed on the unit hypercube [0, 1]^dim: `transform` maps a
@@ -20,6 +21,12 @@ export interface NestedProblem {
    * `points` and reuses it after the call: copy it before keeping or transferring it.
    */
   logLikelihood(points: Float64Array, count: number): Promise<Float64Array> | Float64Array;
+  /**
+   * Optional, slice sampling: runs one whole chain where the likelihood lives (a worker thread
+   * holding this problem's transform and likelihood) and answers as runSliceChain would here. The
+   * sampler then sends one message per chain instead of one per point; the result is the same.
+   */
+  runSliceChain?(request: SliceChainRequest): Promise<SliceChainResult>;
 }
 
 /** How constrained draws are made. 'auto': ellipsoids for dim <= autoEllipsoidMaxDim, slice above. */

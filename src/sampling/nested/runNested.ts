@@ -18,7 +18,8 @@ import { emptyState, recordState, restoreState } from './nestedState.js';
 import type { NestedSettings, NestedState } from './nestedState.js';
 import { derivedSeed } from './seededStream.js';
 import { batchLnVolumes, lnInitialVolume, lnVolumeSlice } from './shrinkage.js';
-import { sliceChains } from './sliceSampler.js';
+import { sliceChainSeeds, sliceChains } from './sliceSampler.js';
+import { BatchEvaluator } from './batchEvaluator.js';
 
 /**
  * 'auto' uses ellipsoids up to this many dimensions and slice sampling above. From
@@ -91,7 +92,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
       break;
     }
     if (settings.method === 'ellipsoids') await ellipsoidStep(state, evaluator);
-    else await sliceStep(state, evaluator);
+    else await sliceStep(state, evaluator, problem);
     const iterations = iterationsOf(state);
     const block = Math.floor(iterations / settings.livePoints);
     if (block > lastProgressBlock) {
@@ -169,46 +170,6 @@ function resolveSettings(problem: NestedProblem, options: NestedOptions): Nested
     sliceWidthScale: Math.sqrt(dim + 2),
     periodic,
     boundVolumeFactorForTesting,
-  };
-}
-
-/** Transforms unit rows, calls the likelihood once per batch and sanitises the answers. */
-class BatchEvaluator {
-  private readonly problem: NestedProblem;
-  private readonly unitRow: Float64Array;
-  private readonly physicalRow: Float64Array;
-  nonFinite = 0;
-  evaluations = 0;
-
-  constructor(problem: NestedProblem) {
-    this.problem = problem;
-    this.unitRow = new Float64Array(problem.dim);
-    this.physicalRow = new Float64Array(problem.physicalDim);
-  }
-
-  /** Writes the physical rows of `unit[0..count)` into physicalOut and returns their ln L. */
-  readonly evaluate = async (unit: Float64Array, count: number, physicalOut: Float64Array): Promise<Float64Array> => {
-    const { dim, physicalDim } = this.problem;
-    for (let row = 0; row < count; row++) {
-      for (let i = 0; i < dim; i++) this.unitRow[i] = unit[row * dim + i];
-      this.problem.transform(this.unitRow, this.physicalRow);
-      for (let i = 0; i < physicalDim; i++) physicalOut[row * physicalDim + i] = this.physicalRow[i];
-    }
-    const answer = await this.problem.logLikelihood(physicalOut.subarray(0, count * physicalDim), count);
-    if (answer.length < count) {
-      throw new InputError(`nested sampling logLikelihood: ${expectedFound(`${count} values`, answer.length)}`);
-    }
-    const lnL = new Float64Array(count);
-    for (let row = 0; row < count; row++) {
-      const value = answer[row];
-      if (Number.isFinite(value)) lnL[row] = value;
-      else {
-        lnL[row] = -Infinity;
-        this.nonFinite++;
-      }
-    }
-    this.evaluations += count;
-    return lnL;
   };
 }
 
@@ -447,7 +408,7 @@ async function ellipsoidStep(state: NestedState, evaluator: BatchEvaluator): Pro
 }
 
 /** One step with k slice-sampling chains (run side by side) started from random surviving live points. */
-async function sliceStep(state: NestedState, evaluator: BatchEvaluator): Promise<void> {
+async function sliceStep(state: NestedState, evaluator: BatchEvaluator, problem: NestedProblem): Promise<void> {
   const { dim, physicalDim, replacementsPerStep: k } = state.settings;
   const { slots, threshold } = removeLowest(state);
   const survivors = survivorRows(state);
@@ -470,29 +431,44 @@ async function sliceStep(state: NestedState, evaluator: BatchEvaluator): Promise
   const newPhysical = new Float64Array(k * physicalDim);
   const newLnL = new Float64Array(k);
   const chainEvaluations = new Int32Array(k);
-  await sliceChains(
-    k,
-    startUnit,
-    startPhysical,
-    startLnL,
-    threshold,
-    state.whitening,
-    {
-      dim,
-      physicalDim,
-      steps: state.settings.sliceSteps,
-      periodic: periodicFlags,
-      widthScale: state.settings.sliceWidthScale,
-      maxExpansions: 100,
-      pointsPerChain: state.settings.slicePointsPerChain,
-    },
-    state.stream,
-    evaluator.evaluate,
-    newUnit,
-    newPhysical,
-    newLnL,
-    chainEvaluations,
-  );
+  const sliceSettings = {
+    dim,
+    physicalDim,
+    steps: state.settings.sliceSteps,
+    periodic: periodicFlags,
+    widthScale: state.settings.sliceWidthScale,
+    maxExpansions: 100,
+    pointsPerChain: state.settings.slicePointsPerChain,
+  };
+  let remoteEvaluations = 0;
+  if (problem.runSliceChain !== undefined) {
+    // Each chain runs where the likelihood is; the seeds are those sliceChains would draw.
+    const seeds = sliceChainSeeds(state.stream, k);
+    const whitening = state.whitening;
+    const results = await Promise.all(seeds.map((seed, chain) => problem.runSliceChain!({
+      seed,
+      startUnit: startUnit.slice(chain * dim, chain * dim + dim),
+      startPhysical: startPhysical.slice(chain * physicalDim, chain * physicalDim + physicalDim),
+      startLnL: startLnL[chain],
+      threshold,
+      whitening,
+      settings: sliceSettings,
+    })));
+    results.forEach((result, chain) => {
+      newUnit.set(result.unit, chain * dim);
+      newPhysical.set(result.physical, chain * physicalDim);
+      newLnL[chain] = result.lnL;
+      chainEvaluations[chain] = result.evaluations;
+      remoteEvaluations += result.evaluations;
+      state.nonFiniteCount += result.nonFinite;
+    });
+    state.evaluations += remoteEvaluations;
+  } else {
+    await sliceChains(
+      k, startUnit, startPhysical, startLnL, threshold, state.whitening, sliceSettings, state.stream, evaluator.evaluate,
+      newUnit, newPhysical, newLnL, chainEvaluations,
+    );
+  }
   let longest = 0;
   for (let chain = 0; chain < k; chain++) {
     state.chainEvaluations += chainEvaluations[chain];
@@ -500,7 +476,7 @@ async function sliceStep(state: NestedState, evaluator: BatchEvaluator): Promise
   }
   state.longestChainEvaluations += longest;
   state.replacementsAccepted += k;
-  state.replacementEvaluations += absorbCounts(state, evaluator);
+  state.replacementEvaluations += absorbCounts(state, evaluator) + remoteEvaluations;
   insertNewPoints(state, slots, newUnit, newPhysical, newLnL);
 }
 

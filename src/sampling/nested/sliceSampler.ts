@@ -30,6 +30,49 @@ const leftEnd = 0;
 const rightEnd = 1;
 const candidate = 2;
 
+/** Seeds of k slice chains' own streams, drawn from `stream` in chain order (as sliceChains does). */
+export function sliceChainSeeds(stream: SeededStream, chains: number): number[] {
+  const seeds: number[] = [];
+  for (let chain = 0; chain < chains; chain++) seeds.push(1 + Math.floor(stream.uniform() * 0xfffffffe));
+  return seeds;
+}
+
+/** One slice chain, as plain data that can be posted to a worker thread. */
+export interface SliceChainRequest {
+  readonly seed: number;
+  readonly startUnit: Float64Array;
+  readonly startPhysical: Float64Array;
+  readonly startLnL: number;
+  readonly threshold: number;
+  readonly whitening: Float64Array;
+  readonly settings: SliceSettings;
+}
+
+/** Where a slice chain ended, and what it cost. */
+export interface SliceChainResult {
+  readonly unit: Float64Array;
+  readonly physical: Float64Array;
+  readonly lnL: number;
+  readonly evaluations: number;
+  /** Evaluations whose ln L was NaN or infinite (counted by the evaluator that ran the chain). */
+  readonly nonFinite: number;
+}
+
+/** The chain of `request` run alone, exactly as it would run among others in sliceChains. */
+export async function runSliceChain(
+  request: SliceChainRequest, evaluate: UnitBatchEvaluator,
+): Promise<Omit<SliceChainResult, 'nonFinite'>> {
+  const { dim, physicalDim } = request.settings;
+  const unit = new Float64Array(dim);
+  const physical = new Float64Array(physicalDim);
+  const lnL = new Float64Array(1);
+  const evaluations = await sliceChains(
+    1, request.startUnit, request.startPhysical, Float64Array.of(request.startLnL), request.threshold, request.whitening,
+    request.settings, [request.seed], evaluate, unit, physical, lnL,
+  );
+  return { unit, physical, lnL: lnL[0], evaluations };
+}
+
 /**
  * k independent slice-sampling chains inside the contour ln L > threshold (Neal 2003, "Slice
  * sampling", Section 4: stepping out with the cap m split at random, then shrinkage; directions
@@ -44,7 +87,9 @@ const candidate = 2;
  * from the bracket and takes them in draw order, a rejected one shrinking the bracket, and a later
  * one counting only if it lies inside the shrunk bracket, where it is a uniform draw from it
  * (rejection sampling), else being discarded. With s = 1 each chain follows Neal's sequential
- * procedure draw for draw. Chains start at `start*` (k rows) and end in `out*`. `whitening` is
+ * procedure draw for draw. Instead of `stream`, the chains' seeds may be given (sliceChainSeeds):
+ * a chain then runs alone exactly as it would among others (runSliceChain).
+ * Chains start at `start*` (k rows) and end in `out*`. `whitening` is
  * the lower Cholesky factor of the live points' covariance (dim x dim). Returns the number of
  * points evaluated; `chainEvaluations`, when given, receives each chain's share.
  */
@@ -56,7 +101,7 @@ export async function sliceChains(
   threshold: number,
   whitening: Float64Array,
   settings: SliceSettings,
-  stream: SeededStream,
+  stream: SeededStream | readonly number[],
   evaluate: UnitBatchEvaluator,
   outUnit: Float64Array,
   outPhysical: Float64Array,
@@ -85,8 +130,8 @@ export async function sliceChains(
   const batchPhysical = new Float64Array(chains * perChain * physicalDim);
   const gaussian = new Float64Array(dim);
   const point = new Float64Array(dim);
-  const streams: SeededStream[] = [];
-  for (let chain = 0; chain < chains; chain++) streams.push(SeededStream.fromSeed(1 + Math.floor(stream.uniform() * 0xfffffffe)));
+  const seeds = stream instanceof SeededStream ? sliceChainSeeds(stream, chains) : stream;
+  const streams = Array.from({ length: chains }, (_, chain) => SeededStream.fromSeed(seeds[chain]));
   let evaluations = 0;
 
   const startMove = (chain: number) => {
