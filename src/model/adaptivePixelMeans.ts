@@ -445,43 +445,52 @@ export class AdaptivePixelMeans {
     if (traced < pendingCount) this.subPixelPass(p, m, traced, pendingCount, true);
   }
 
-  /** One pass of subPixelMeans over pending[from..to), in chunks of rays. */
+  /**
+   * One pass of subPixelMeans over pending[from..to), in chunks of rays (each loop over rays in
+   * a method of its own; see latticeLevel).
+   */
   private subPixelPass(p: Float64Array, m: number, from: number, to: number, interpolate: boolean): void {
-    const run = m * m;
-    const perChunk = Math.floor(CHUNK / run);
-    const count = this.pixels.length;
-    const out = this.chunkOut;
-    const current = this.current;
-    const chunkPixels = this.chunkPixels;
-    const inverseRun = 1 / run;
+    const perChunk = Math.floor(CHUNK / (m * m));
     const weights = this.lagrangeWeights(m);
     for (let start = from; start < to; start += perChunk) {
       const end = Math.min(to, start + perChunk);
-      let r = 0;
-      for (let t = start; t < end; t++) {
-        const e = this.pending[t];
-        chunkPixels[t - start] = e;
-        if (!interpolate || this.hasImagePlane) this.subPixelPositions(e, m, r);
-        if (interpolate) this.interpolatedBeta(e, m, weights, this.chunkBx, this.chunkBy, r);
-        r += run;
-      }
+      const r = this.fillChunk(m, weights, start, end, interpolate);
       if (!interpolate) {
         this.trace(p, this.chunkX, this.chunkY, r, this.chunkAx, this.chunkAy, this.chunkBx, this.chunkBy);
         this.raysTraced += r;
       } else {
         this.raysInterpolated += r;
       }
-      this.shine(p, this.chunkX, this.chunkY, this.chunkBx, this.chunkBy, r, out, CHUNK);
-      for (let k = 0; k < this.basisCount; k++) {
-        let index = k * CHUNK;
-        const into = k * count;
-        for (let t = 0; t < end - start; t++) {
-          let sum = 0;
-          for (let u = 0; u < run; u++) sum += out[index + u];
-          current[into + chunkPixels[t]] = sum * inverseRun;
-          index += run;
-        }
-      }
+      this.shine(p, this.chunkX, this.chunkY, this.chunkBx, this.chunkBy, r, this.chunkOut, CHUNK);
+      for (let k = 0; k < this.basisCount; k++) this.storeChunkMeans(k, m * m, end - start);
+    }
+  }
+
+  /** Rays of the m x m sub-pixels of pending[start..end) into the chunk; returns their number. */
+  private fillChunk(m: number, weights: Float64Array, start: number, end: number, interpolate: boolean): number {
+    const run = m * m;
+    let r = 0;
+    for (let t = start; t < end; t++) {
+      const e = this.pending[t];
+      this.chunkPixels[t - start] = e;
+      if (!interpolate || this.hasImagePlane) this.subPixelPositions(e, m, r);
+      if (interpolate) this.interpolatedBeta(e, m, weights, this.chunkBx, this.chunkBy, r);
+      r += run;
+    }
+    return r;
+  }
+
+  /** Means over runs of `run` rays of basis k in the chunk into `current`, for `pixels` pixels. */
+  private storeChunkMeans(k: number, run: number, pixels: number): void {
+    const out = this.chunkOut, current = this.current, chunkPixels = this.chunkPixels;
+    const inverseRun = 1 / run;
+    const into = k * this.pixels.length;
+    let index = k * CHUNK;
+    for (let t = 0; t < pixels; t++) {
+      let sum = 0;
+      for (let u = 0; u < run; u++) sum += out[index + u];
+      current[into + chunkPixels[t]] = sum * inverseRun;
+      index += run;
     }
   }
 
@@ -501,42 +510,56 @@ export class AdaptivePixelMeans {
    * every ray traced.)
    */
   private checkInterpolation(p: Float64Array, list: Int32Array, listCount: number): void {
-    const { columns, rows, pixelScaleArcsec: scale } = this.grid;
-    const width = this.width;
-    const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
-    const values = this.latticeValues;
-    const planeSize = this.rowSecond.length;
-    const out = this.chunkOut;
-    const x = this.chunkX, y = this.chunkY, bx = this.chunkBx, by = this.chunkBy;
     const perChunk = CHUNK / 2;
     for (let start = 0; start < listCount; start += perChunk) {
       const end = Math.min(listCount, start + perChunk);
-      let r = 0;
-      for (let t = start; t < end; t++) {
-        const e = list[t];
-        const q = this.pixelsPadded[e];
-        const pixel = this.pixels[e];
-        const i = pixel % columns;
-        x[r] = x[r + 1] = (i - (columns - 1) / 2) * scale;
-        y[r] = y[r + 1] = ((pixel - i) / columns - (rows - 1) / 2) * scale;
-        bx[r] = (4 * (betaX[q - 1] + betaX[q + 1]) - (betaX[q - 2] + betaX[q + 2])) / 6;
-        by[r] = (4 * (betaY[q - 1] + betaY[q + 1]) - (betaY[q - 2] + betaY[q + 2])) / 6;
-        bx[r + 1] = (4 * (betaX[q - width] + betaX[q + width]) - (betaX[q - 2 * width] + betaX[q + 2 * width])) / 6;
-        by[r + 1] = (4 * (betaY[q - width] + betaY[q + width]) - (betaY[q - 2 * width] + betaY[q + 2 * width])) / 6;
-        r += 2;
+      const r = this.predictCentres(list, start, end);
+      this.shine(p, this.chunkX, this.chunkY, this.chunkBx, this.chunkBy, r, this.chunkOut, CHUNK);
+      this.markInterpolable(list, start, end);
+    }
+  }
+
+  /**
+   * For list[start..end): the pixel centre twice in the chunk with the source-plane position
+   * predicted along x, then along y (see checkInterpolation); returns the number of rays.
+   */
+  private predictCentres(list: Int32Array, start: number, end: number): number {
+    const { columns, rows, pixelScaleArcsec: scale } = this.grid;
+    const width = this.width;
+    const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
+    const x = this.chunkX, y = this.chunkY, bx = this.chunkBx, by = this.chunkBy;
+    let r = 0;
+    for (let t = start; t < end; t++) {
+      const e = list[t];
+      const q = this.pixelsPadded[e];
+      const pixel = this.pixels[e];
+      const i = pixel % columns;
+      x[r] = x[r + 1] = (i - (columns - 1) / 2) * scale;
+      y[r] = y[r + 1] = ((pixel - i) / columns - (rows - 1) / 2) * scale;
+      bx[r] = (4 * (betaX[q - 1] + betaX[q + 1]) - (betaX[q - 2] + betaX[q + 2])) / 6;
+      by[r] = (4 * (betaY[q - 1] + betaY[q + 1]) - (betaY[q - 2] + betaY[q + 2])) / 6;
+      bx[r + 1] = (4 * (betaX[q - width] + betaX[q + width]) - (betaX[q - 2 * width] + betaX[q + 2 * width])) / 6;
+      by[r + 1] = (4 * (betaY[q - width] + betaY[q + width]) - (betaY[q - 2 * width] + betaY[q + 2 * width])) / 6;
+      r += 2;
+    }
+    return r;
+  }
+
+  /** interpolable[e] for list[start..end) from the light at the predicted centres in the chunk. */
+  private markInterpolable(list: Int32Array, start: number, end: number): void {
+    const values = this.latticeValues;
+    const planeSize = this.rowSecond.length;
+    const out = this.chunkOut;
+    for (let t = start, u = 0; t < end; t++, u += 2) {
+      const e = list[t];
+      const q = this.pixelsPadded[e];
+      let ok = true;
+      for (let k = 0; k < this.basisCount; k++) {
+        const centre = values[k * planeSize + q];
+        const worst = Math.max(Math.abs(out[k * CHUNK + u] - centre), Math.abs(out[k * CHUNK + u + 1] - centre));
+        if (worst > INTERPOLATION_GUARD * this.scale[k] * this.relativeTolerance[e]) ok = false;
       }
-      this.shine(p, x, y, bx, by, r, out, CHUNK);
-      for (let t = start, u = 0; t < end; t++, u += 2) {
-        const e = list[t];
-        const q = this.pixelsPadded[e];
-        let ok = true;
-        for (let k = 0; k < this.basisCount; k++) {
-          const centre = values[k * planeSize + q];
-          const worst = Math.max(Math.abs(out[k * CHUNK + u] - centre), Math.abs(out[k * CHUNK + u + 1] - centre));
-          if (worst > INTERPOLATION_GUARD * this.scale[k] * this.relativeTolerance[e]) ok = false;
-        }
-        this.interpolable[e] = ok ? 1 : 0;
-      }
+      this.interpolable[e] = ok ? 1 : 0;
     }
   }
 

@@ -45,27 +45,35 @@ export const fastSersic: LightProfile = {
     const b = shape[5];
     const c = shape[6];
     const bn = shape[7];
-    const centerX = p[offset + 4];
-    const centerY = p[offset + 5];
-    const halfInverseIndex = 0.5 / shape[1];
     // Passes over the points, each a short chain of dependent operations, so that successive
     // points overlap in the processor (measured 2.2-fold faster than one nested expression on
-    // Node 20): (R^2/R_e^2)^(1/(2n)) by the power table, then the exponential of b_n - b_n s.
-    if (shape[8] === 1) {
-      for (let i = 0; i < n; i++) {
-        const dx = x[i] - centerX;
-        const dy = y[i] - centerY;
-        out[outOffset + i] = (a * dx + b * dy) * dx + c * dy * dy;
-      }
-      powers.powerInPlace(out, outOffset, outOffset + n);
-    } else {
-      for (let i = 0; i < n; i++) {
-        const dx = x[i] - centerX;
-        const dy = y[i] - centerY;
-        out[outOffset + i] = halfInverseIndex * fastLog((a * dx + b * dy) * dx + c * dy * dy);
-      }
-      for (let i = outOffset; i < outOffset + n; i++) out[i] = fastExp(out[i]);
-    }
-    for (let i = outOffset; i < outOffset + n; i++) out[i] = fastExp(bn - bn * out[i]);
+    // Node 20), each a function of its own (see latticeLevel in adaptivePixelMeans.ts):
+    // R^2/R_e^2, its power 1/(2n) by the power table, then the exponential of b_n - b_n s.
+    quadraticForm(a, b, c, p[offset + 4], p[offset + 5], x, y, n, out, outOffset);
+    if (shape[8] === 1) powers.powerInPlace(out, outOffset, outOffset + n);
+    else powerByLogExp(0.5 / shape[1], out, outOffset, outOffset + n);
+    sersicOfPower(bn, out, outOffset, outOffset + n);
   },
 };
+
+/** out[outOffset + i] = A dx^2 + B dx dy + C dy^2 with (dx, dy) = (x_i, y_i) - centre, i < n. */
+function quadraticForm(
+  a: number, b: number, c: number, centerX: number, centerY: number, x: Float64Array, y: Float64Array, n: number,
+  out: Float64Array, outOffset: number,
+): void {
+  for (let i = 0; i < n; i++) {
+    const dx = x[i] - centerX;
+    const dy = y[i] - centerY;
+    out[outOffset + i] = (a * dx + b * dy) * dx + c * dy * dy;
+  }
+}
+
+/** values[i] = exp(h ln values[i]) for i in [from, to), with fastLog and fastExp. */
+function powerByLogExp(h: number, values: Float64Array, from: number, to: number): void {
+  for (let i = from; i < to; i++) values[i] = fastExp(h * fastLog(values[i]));
+}
+
+/** values[i] = exp(b_n - b_n values[i]) for i in [from, to): the Sersic profile of the power s. */
+function sersicOfPower(bn: number, values: Float64Array, from: number, to: number): void {
+  for (let i = from; i < to; i++) values[i] = fastExp(bn - bn * values[i]);
+}
