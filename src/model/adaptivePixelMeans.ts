@@ -107,7 +107,10 @@ export class AdaptivePixelMeans {
   private readonly previous: Float64Array;
   private readonly current: Float64Array;
   private readonly pending: Int32Array;
-  private readonly nextPending: Int32Array;
+  /** 0, 1, ..., pixels.length - 1. */
+  private readonly allPixels: Int32Array;
+  /** Per pixel, after a level: 0 done, 1 refine further, 2 straight to S x S (HOPELESS). */
+  private readonly flags: Int32Array;
   /** Pixels sent straight to the S x S rays (HOPELESS), and how many. */
   private readonly direct: Int32Array;
   private directCount = 0;
@@ -150,7 +153,8 @@ export class AdaptivePixelMeans {
     this.previous = new Float64Array(basisCount * count);
     this.current = new Float64Array(basisCount * count);
     this.pending = new Int32Array(count);
-    this.nextPending = new Int32Array(count);
+    this.allPixels = Int32Array.from({ length: count }, (_, e) => e);
+    this.flags = new Int32Array(count);
     this.direct = new Int32Array(count);
     this.scale = new Float64Array(basisCount);
     this.chunkOut = new Float64Array(Math.max(1, basisCount) * CHUNK);
@@ -260,95 +264,128 @@ export class AdaptivePixelMeans {
     }
   }
 
-  /** Lattice rays and the stencil prediction; returns how many pixels are left pending. */
+  /**
+   * Lattice rays and the stencil prediction; returns how many pixels are left pending. Each loop
+   * over points sits in a method of its own with nothing after it: when V8 compiles a long loop
+   * on first use (on-stack replacement), code after the loop that has not run yet becomes an
+   * exit to the interpreter, and on Node 20 that code was seen to be re-entered and left on
+   * every call (about 20% slower evaluations in some processes, none without OSR).
+   */
   private latticeLevel(p: Float64Array): number {
     const n = this.latticeCount;
     this.trace(p, this.latticeX, this.latticeY, n, this.latticeAx, this.latticeAy, this.latticeBx, this.latticeBy);
     this.shine(p, this.latticeX, this.latticeY, this.latticeBx, this.latticeBy, n, this.latticeOut, n);
     this.raysTraced += n;
-    const planeSize = this.rowSecond.length;
-    const values = this.latticeValues;
-    const padded = this.latticePadded;
-    for (let e = 0; e < n; e++) {
-      this.latticeBetaX[padded[e]] = this.latticeBx[e];
-      this.latticeBetaY[padded[e]] = this.latticeBy[e];
-    }
-    for (let k = 0; k < this.basisCount; k++) {
-      const from = k * n;
-      const to = k * planeSize;
-      for (let e = 0; e < n; e++) values[to + padded[e]] = this.latticeOut[from + e];
-    }
+    this.scatterLatticeBeta();
     const count = this.pixels.length;
-    const pixelsPadded = this.pixelsPadded;
-    const width = this.width;
-    const w30 = this.w3[1], w31 = this.w3[0];
-    const d0 = this.d5[0], d1 = this.d5[1], d2 = this.d5[2];
-    const rowSecond = this.rowSecond;
-    const rowFourth = this.rowFourth;
-    const rowPoints = this.rowFilterPadded;
-    const pending = this.pending;
-    const means = this.means;
-    const previous = this.previous;
-    const flagged = this.nextPending;
-    flagged.fill(0, 0, count);
-    const relativeTolerance = this.relativeTolerance;
+    this.flags.fill(0, 0, count);
+    const planeSize = this.rowSecond.length;
     for (let k = 0; k < this.basisCount; k++) {
       const base = k * planeSize;
+      this.scatterLatticeValues(k, base);
       const scale = this.convolvedPeak(base);
       this.scale[k] = scale;
-      // Separable stencils: along x first (3- and 5-point parts), then along y.
-      for (let e = 0; e < rowPoints.length; e++) {
-        const q = base + rowPoints[e];
-        const centre = values[q];
-        const near = values[q - 1] + values[q + 1];
-        rowSecond[rowPoints[e]] = w30 * centre + w31 * near;
-        rowFourth[rowPoints[e]] = d0 * centre + d1 * near + d2 * (values[q - 2] + values[q + 2]);
-      }
-      const out = k * count;
-      for (let e = 0; e < count; e++) {
-        const q = pixelsPadded[e];
-        const centre = values[base + q];
-        const s0 = rowSecond[q], s1 = rowSecond[q - width] + rowSecond[q + width];
-        const s2 = rowSecond[q - 2 * width] + rowSecond[q + 2 * width];
-        const f0 = rowFourth[q], f1 = rowFourth[q - width] + rowFourth[q + width];
-        const f2 = rowFourth[q - 2 * width] + rowFourth[q + 2 * width];
-        const second = w30 * s0 + w31 * s1;
-        const partX = w30 * f0 + w31 * f1;
-        const partY = d0 * s0 + d1 * s1 + d2 * s2;
-        const partXY = d0 * f0 + d1 * f1 + d2 * f2;
-        means[out + e] = second + partX + partY + partXY;
-        previous[out + e] = centre;
-        const indicator = Math.max(
-          Math.abs(partX) + Math.abs(partY) + Math.abs(partXY), LATTICE_GUARD * Math.abs(second - centre),
-        );
-        const tolerance = scale * relativeTolerance[e];
-        if (indicator > HOPELESS * tolerance) flagged[e] = 2;
-        else if (indicator > tolerance && flagged[e] === 0) flagged[e] = 1;
-      }
+      this.rowStencils(base);
+      this.pixelStencils(k, base, scale);
     }
-    let pendingCount = 0;
-    for (let e = 0; e < count; e++) {
-      if (flagged[e] === 1) pending[pendingCount++] = e;
-      else if (flagged[e] === 2) this.direct[this.directCount++] = e;
-    }
+    this.directCount = this.collectFlagged(2, this.allPixels, count, this.direct, this.directCount);
+    const pendingCount = this.collectFlagged(1, this.allPixels, count, this.pending, 0);
     this.pixelsByLevel[0] = count - pendingCount - this.directCount;
     return pendingCount;
   }
 
+  /** Source-plane positions of the lattice rays into the padded planes latticeBetaX, latticeBetaY. */
+  private scatterLatticeBeta(): void {
+    const padded = this.latticePadded;
+    const betaX = this.latticeBetaX, betaY = this.latticeBetaY, bx = this.latticeBx, by = this.latticeBy;
+    for (let e = 0; e < padded.length; e++) {
+      betaX[padded[e]] = bx[e];
+      betaY[padded[e]] = by[e];
+    }
+  }
+
+  /** Lattice light of basis k into its padded plane of latticeValues (at `base`). */
+  private scatterLatticeValues(k: number, base: number): void {
+    const padded = this.latticePadded;
+    const values = this.latticeValues, out = this.latticeOut;
+    const from = k * padded.length;
+    for (let e = 0; e < padded.length; e++) values[base + padded[e]] = out[from + e];
+  }
+
+  /** The stencils along x (3-point part and 5-point correction) at every row point (basis at `base`). */
+  private rowStencils(base: number): void {
+    const values = this.latticeValues;
+    const rowSecond = this.rowSecond, rowFourth = this.rowFourth;
+    const rowPoints = this.rowFilterPadded;
+    const w30 = this.w3[1], w31 = this.w3[0];
+    const d0 = this.d5[0], d1 = this.d5[1], d2 = this.d5[2];
+    for (let e = 0; e < rowPoints.length; e++) {
+      const r = rowPoints[e];
+      const q = base + r;
+      const centre = values[q];
+      const near = values[q - 1] + values[q + 1];
+      rowSecond[r] = w30 * centre + w31 * near;
+      rowFourth[r] = d0 * centre + d1 * near + d2 * (values[q - 2] + values[q + 2]);
+    }
+  }
+
+  /**
+   * The stencils along y of basis k: the predicted mean into `means`, the centre value into
+   * `previous`, and pixels whose error indicator exceeds the tolerance flagged in `flags`
+   * (1: refine, 2: HOPELESS, straight to S x S).
+   */
+  private pixelStencils(k: number, base: number, scale: number): void {
+    const values = this.latticeValues;
+    const pixelsPadded = this.pixelsPadded;
+    const count = pixelsPadded.length;
+    const width = this.width;
+    const w30 = this.w3[1], w31 = this.w3[0];
+    const d0 = this.d5[0], d1 = this.d5[1], d2 = this.d5[2];
+    const rowSecond = this.rowSecond, rowFourth = this.rowFourth;
+    const means = this.means, previous = this.previous, flagged = this.flags;
+    const relativeTolerance = this.relativeTolerance;
+    const out = k * count;
+    for (let e = 0; e < count; e++) {
+      const q = pixelsPadded[e];
+      const centre = values[base + q];
+      const s0 = rowSecond[q], s1 = rowSecond[q - width] + rowSecond[q + width];
+      const s2 = rowSecond[q - 2 * width] + rowSecond[q + 2 * width];
+      const f0 = rowFourth[q], f1 = rowFourth[q - width] + rowFourth[q + width];
+      const f2 = rowFourth[q - 2 * width] + rowFourth[q + 2 * width];
+      const second = w30 * s0 + w31 * s1;
+      const partX = w30 * f0 + w31 * f1;
+      const partY = d0 * s0 + d1 * s1 + d2 * s2;
+      const partXY = d0 * f0 + d1 * f1 + d2 * f2;
+      means[out + e] = second + partX + partY + partXY;
+      previous[out + e] = centre;
+      const indicator = Math.max(
+        Math.abs(partX) + Math.abs(partY) + Math.abs(partXY), LATTICE_GUARD * Math.abs(second - centre),
+      );
+      const tolerance = scale * relativeTolerance[e];
+      if (indicator > HOPELESS * tolerance) flagged[e] = 2;
+      else if (indicator > tolerance && flagged[e] === 0) flagged[e] = 1;
+    }
+  }
+
+  /**
+   * The pixels of list[0..listCount) flagged `flag` in `flags`, appended to `into` from index
+   * `start` (in place when `into` is `list`); returns the new end of `into`.
+   */
+  private collectFlagged(flag: number, list: Int32Array, listCount: number, into: Int32Array, start: number): number {
+    const flagged = this.flags;
+    let end = start;
+    for (let t = 0; t < listCount; t++) {
+      const e = list[t];
+      if (flagged[e] === flag) into[end++] = e;
+    }
+    return end;
+  }
+
   /** |PSF-convolved lattice values| at the listed pixel of largest |lattice value| (basis at `base`). */
   private convolvedPeak(base: number): number {
-    const values = this.latticeValues;
-    const padded = this.pixelsPadded;
-    let brightest = -1;
-    let peak = -1;
-    for (let e = 0; e < padded.length; e++) {
-      const value = Math.abs(values[base + padded[e]]);
-      if (value > peak) {
-        peak = value;
-        brightest = padded[e];
-      }
-    }
+    const brightest = this.brightestPixel(base);
     if (brightest < 0) return 0;
+    const values = this.latticeValues;
     const { columns, rows, values: weights } = this.kernel;
     const width = this.width;
     const i = (brightest % width) - 2;
@@ -365,6 +402,22 @@ export class AdaptivePixelMeans {
       }
     }
     return Math.abs(sum);
+  }
+
+  /** Padded index of the listed pixel of largest |lattice value| (basis at `base`), -1 if none. */
+  private brightestPixel(base: number): number {
+    const values = this.latticeValues;
+    const padded = this.pixelsPadded;
+    let brightest = -1;
+    let peak = -1;
+    for (let e = 0; e < padded.length; e++) {
+      const value = Math.abs(values[base + padded[e]]);
+      if (value > peak) {
+        peak = value;
+        brightest = padded[e];
+      }
+    }
+    return brightest;
   }
 
   /**
@@ -392,43 +445,52 @@ export class AdaptivePixelMeans {
     if (traced < pendingCount) this.subPixelPass(p, m, traced, pendingCount, true);
   }
 
-  /** One pass of subPixelMeans over pending[from..to), in chunks of rays. */
+  /**
+   * One pass of subPixelMeans over pending[from..to), in chunks of rays (each loop over rays in
+   * a method of its own; see latticeLevel).
+   */
   private subPixelPass(p: Float64Array, m: number, from: number, to: number, interpolate: boolean): void {
-    const run = m * m;
-    const perChunk = Math.floor(CHUNK / run);
-    const count = this.pixels.length;
-    const out = this.chunkOut;
-    const current = this.current;
-    const chunkPixels = this.chunkPixels;
-    const inverseRun = 1 / run;
+    const perChunk = Math.floor(CHUNK / (m * m));
     const weights = this.lagrangeWeights(m);
     for (let start = from; start < to; start += perChunk) {
       const end = Math.min(to, start + perChunk);
-      let r = 0;
-      for (let t = start; t < end; t++) {
-        const e = this.pending[t];
-        chunkPixels[t - start] = e;
-        if (!interpolate || this.hasImagePlane) this.subPixelPositions(e, m, r);
-        if (interpolate) this.interpolatedBeta(e, m, weights, this.chunkBx, this.chunkBy, r);
-        r += run;
-      }
+      const r = this.fillChunk(m, weights, start, end, interpolate);
       if (!interpolate) {
         this.trace(p, this.chunkX, this.chunkY, r, this.chunkAx, this.chunkAy, this.chunkBx, this.chunkBy);
         this.raysTraced += r;
       } else {
         this.raysInterpolated += r;
       }
-      this.shine(p, this.chunkX, this.chunkY, this.chunkBx, this.chunkBy, r, out, CHUNK);
-      for (let k = 0; k < this.basisCount; k++) {
-        let index = k * CHUNK;
-        const into = k * count;
-        for (let t = 0; t < end - start; t++) {
-          let sum = 0;
-          for (let u = 0; u < run; u++) sum += out[index + u];
-          current[into + chunkPixels[t]] = sum * inverseRun;
-          index += run;
-        }
-      }
+      this.shine(p, this.chunkX, this.chunkY, this.chunkBx, this.chunkBy, r, this.chunkOut, CHUNK);
+      for (let k = 0; k < this.basisCount; k++) this.storeChunkMeans(k, m * m, end - start);
+    }
+  }
+
+  /** Rays of the m x m sub-pixels of pending[start..end) into the chunk; returns their number. */
+  private fillChunk(m: number, weights: Float64Array, start: number, end: number, interpolate: boolean): number {
+    const run = m * m;
+    let r = 0;
+    for (let t = start; t < end; t++) {
+      const e = this.pending[t];
+      this.chunkPixels[t - start] = e;
+      if (!interpolate || this.hasImagePlane) this.subPixelPositions(e, m, r);
+      if (interpolate) this.interpolatedBeta(e, m, weights, this.chunkBx, this.chunkBy, r);
+      r += run;
+    }
+    return r;
+  }
+
+  /** Means over runs of `run` rays of basis k in the chunk into `current`, for `pixels` pixels. */
+  private storeChunkMeans(k: number, run: number, pixels: number): void {
+    const out = this.chunkOut, current = this.current, chunkPixels = this.chunkPixels;
+    const inverseRun = 1 / run;
+    const into = k * this.pixels.length;
+    let index = k * CHUNK;
+    for (let t = 0; t < pixels; t++) {
+      let sum = 0;
+      for (let u = 0; u < run; u++) sum += out[index + u];
+      current[into + chunkPixels[t]] = sum * inverseRun;
+      index += run;
     }
   }
 
@@ -448,42 +510,56 @@ export class AdaptivePixelMeans {
    * every ray traced.)
    */
   private checkInterpolation(p: Float64Array, list: Int32Array, listCount: number): void {
-    const { columns, rows, pixelScaleArcsec: scale } = this.grid;
-    const width = this.width;
-    const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
-    const values = this.latticeValues;
-    const planeSize = this.rowSecond.length;
-    const out = this.chunkOut;
-    const x = this.chunkX, y = this.chunkY, bx = this.chunkBx, by = this.chunkBy;
     const perChunk = CHUNK / 2;
     for (let start = 0; start < listCount; start += perChunk) {
       const end = Math.min(listCount, start + perChunk);
-      let r = 0;
-      for (let t = start; t < end; t++) {
-        const e = list[t];
-        const q = this.pixelsPadded[e];
-        const pixel = this.pixels[e];
-        const i = pixel % columns;
-        x[r] = x[r + 1] = (i - (columns - 1) / 2) * scale;
-        y[r] = y[r + 1] = ((pixel - i) / columns - (rows - 1) / 2) * scale;
-        bx[r] = (4 * (betaX[q - 1] + betaX[q + 1]) - (betaX[q - 2] + betaX[q + 2])) / 6;
-        by[r] = (4 * (betaY[q - 1] + betaY[q + 1]) - (betaY[q - 2] + betaY[q + 2])) / 6;
-        bx[r + 1] = (4 * (betaX[q - width] + betaX[q + width]) - (betaX[q - 2 * width] + betaX[q + 2 * width])) / 6;
-        by[r + 1] = (4 * (betaY[q - width] + betaY[q + width]) - (betaY[q - 2 * width] + betaY[q + 2 * width])) / 6;
-        r += 2;
+      const r = this.predictCentres(list, start, end);
+      this.shine(p, this.chunkX, this.chunkY, this.chunkBx, this.chunkBy, r, this.chunkOut, CHUNK);
+      this.markInterpolable(list, start, end);
+    }
+  }
+
+  /**
+   * For list[start..end): the pixel centre twice in the chunk with the source-plane position
+   * predicted along x, then along y (see checkInterpolation); returns the number of rays.
+   */
+  private predictCentres(list: Int32Array, start: number, end: number): number {
+    const { columns, rows, pixelScaleArcsec: scale } = this.grid;
+    const width = this.width;
+    const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
+    const x = this.chunkX, y = this.chunkY, bx = this.chunkBx, by = this.chunkBy;
+    let r = 0;
+    for (let t = start; t < end; t++) {
+      const e = list[t];
+      const q = this.pixelsPadded[e];
+      const pixel = this.pixels[e];
+      const i = pixel % columns;
+      x[r] = x[r + 1] = (i - (columns - 1) / 2) * scale;
+      y[r] = y[r + 1] = ((pixel - i) / columns - (rows - 1) / 2) * scale;
+      bx[r] = (4 * (betaX[q - 1] + betaX[q + 1]) - (betaX[q - 2] + betaX[q + 2])) / 6;
+      by[r] = (4 * (betaY[q - 1] + betaY[q + 1]) - (betaY[q - 2] + betaY[q + 2])) / 6;
+      bx[r + 1] = (4 * (betaX[q - width] + betaX[q + width]) - (betaX[q - 2 * width] + betaX[q + 2 * width])) / 6;
+      by[r + 1] = (4 * (betaY[q - width] + betaY[q + width]) - (betaY[q - 2 * width] + betaY[q + 2 * width])) / 6;
+      r += 2;
+    }
+    return r;
+  }
+
+  /** interpolable[e] for list[start..end) from the light at the predicted centres in the chunk. */
+  private markInterpolable(list: Int32Array, start: number, end: number): void {
+    const values = this.latticeValues;
+    const planeSize = this.rowSecond.length;
+    const out = this.chunkOut;
+    for (let t = start, u = 0; t < end; t++, u += 2) {
+      const e = list[t];
+      const q = this.pixelsPadded[e];
+      let ok = true;
+      for (let k = 0; k < this.basisCount; k++) {
+        const centre = values[k * planeSize + q];
+        const worst = Math.max(Math.abs(out[k * CHUNK + u] - centre), Math.abs(out[k * CHUNK + u + 1] - centre));
+        if (worst > INTERPOLATION_GUARD * this.scale[k] * this.relativeTolerance[e]) ok = false;
       }
-      this.shine(p, x, y, bx, by, r, out, CHUNK);
-      for (let t = start, u = 0; t < end; t++, u += 2) {
-        const e = list[t];
-        const q = this.pixelsPadded[e];
-        let ok = true;
-        for (let k = 0; k < this.basisCount; k++) {
-          const centre = values[k * planeSize + q];
-          const worst = Math.max(Math.abs(out[k * CHUNK + u] - centre), Math.abs(out[k * CHUNK + u + 1] - centre));
-          if (worst > INTERPOLATION_GUARD * this.scale[k] * this.relativeTolerance[e]) ok = false;
-        }
-        this.interpolable[e] = ok ? 1 : 0;
-      }
+      this.interpolable[e] = ok ? 1 : 0;
     }
   }
 
@@ -559,20 +635,38 @@ export class AdaptivePixelMeans {
 
   /** Accepts or keeps pending the pixels after factor m; returns how many stay pending. */
   private refine(m: number, level: number, pendingCount: number): number {
-    const count = this.pixels.length;
-    const means = this.means, previous = this.previous, current = this.current;
-    const pending = this.pending;
     if (m === this.supersampling) {
-      for (let t = 0; t < pendingCount; t++) {
-        const e = pending[t];
-        for (let k = 0; k < this.basisCount; k++) means[k * count + e] = current[k * count + e];
-      }
+      this.acceptExact(pendingCount);
       this.pixelsByLevel[level + 1] = pendingCount;
       return 0;
     }
-    const factor = this.richardsonByLevel[level];
-    let kept = 0;
+    this.extrapolate(this.richardsonByLevel[level], pendingCount);
     const directBefore = this.directCount;
+    this.directCount = this.collectFlagged(2, this.pending, pendingCount, this.direct, directBefore);
+    const kept = this.collectFlagged(1, this.pending, pendingCount, this.pending, 0);
+    this.pixelsByLevel[level + 1] = pendingCount - kept - (this.directCount - directBefore);
+    return kept;
+  }
+
+  /** The S x S means of the pending pixels are the model's values. */
+  private acceptExact(pendingCount: number): void {
+    const count = this.pixels.length;
+    const means = this.means, current = this.current, pending = this.pending;
+    for (let t = 0; t < pendingCount; t++) {
+      const e = pending[t];
+      for (let k = 0; k < this.basisCount; k++) means[k * count + e] = current[k * count + e];
+    }
+  }
+
+  /**
+   * Richardson extrapolation (factor `factor`) of the pending pixels into `means`; each is flagged
+   * in `flags`: 0 done, 1 still above the tolerance, 2 above HOPELESS tolerances.
+   */
+  private extrapolate(factor: number, pendingCount: number): void {
+    const count = this.pixels.length;
+    const means = this.means, previous = this.previous, current = this.current;
+    const pending = this.pending, flagged = this.flags;
+    const scale = this.scale, relativeTolerance = this.relativeTolerance;
     for (let t = 0; t < pendingCount; t++) {
       const e = pending[t];
       let refineFurther = false;
@@ -583,17 +677,14 @@ export class AdaptivePixelMeans {
         const step = (now - previous[index]) * factor;
         const predicted = now + step;
         const indicator = Math.max(Math.abs(predicted - means[index]), RICHARDSON_GUARD * Math.abs(step));
-        const tolerance = this.scale[k] * this.relativeTolerance[e];
+        const tolerance = scale[k] * relativeTolerance[e];
         if (indicator > tolerance) refineFurther = true;
         if (indicator > HOPELESS * tolerance) hopeless = true;
         means[index] = predicted;
         previous[index] = now;
       }
-      if (hopeless) this.direct[this.directCount++] = e;
-      else if (refineFurther) pending[kept++] = e;
+      flagged[e] = hopeless ? 2 : refineFurther ? 1 : 0;
     }
-    this.pixelsByLevel[level + 1] = pendingCount - kept - (this.directCount - directBefore);
-    return kept;
   }
 
   /** Deflection and source-plane positions b = x - alpha(x) of n rays (skipped without source light). */

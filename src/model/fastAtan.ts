@@ -35,3 +35,13 @@ const ATAN_TABLE = Float64Array.from({ length: 65 }, (_, j) => Math.atan(j / 64)
 /** pi/2 as the double nearest it plus the remainder (fdlibm's pio2_hi, pio2_lo). */
 const HALF_PI_HIGH = 1.57079632679489655800e+00;
 const HALF_PI_LOW = 6.12323399573676603587e-17;
+
+/** values[i] = fastAtan(values[i]) for i < n (a pass; see fastIsothermalEllipsoid.ts). */
+export function fastAtanInPlace(values: Float64Array, n: number): void {
+  for (let i = 0; i < n; i++) values[i] = fastAtan(values[i]);
+}
+
+/** values[i] = fastAtanh(values[i]) for i < n (a pass; see fastIsothermalEllipsoid.ts). */
+export function fastAtanhInPlace(values: Float64Array, n: number): void {
+  for (let i = 0; i < n; i++) values[i] = fastAtanh(values[i]);
+}

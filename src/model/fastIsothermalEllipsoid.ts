@@ -1,6 +1,6 @@
 import type { MassProfile } from '../lens/massProfile.js';
 import { isothermalEllipsoid } from '../lens/isothermalEllipsoid.js';
-import { fastAtan, fastAtanh } from './fastAtan.js';
+import { fastAtanhInPlace, fastAtanInPlace } from './fastAtan.js';
 import { passScratch } from './passScratch.js';
 
 const DEG = Math.PI / 180;
@@ -34,9 +34,9 @@ export const fastIsothermalEllipsoid: MassProfile = {
     const nearRound = e2 < SERIES_BELOW;
     const e = Math.sqrt(e2);
     const scaleOverE = nearRound ? 0 : scale / e;
-    // Without a core both denominators are psi: one division per point instead of two.
-    const coreless = sK === 0;
     if (nearRound) {
+      // Without a core both denominators are psi: one division per point instead of two.
+      const coreless = sK === 0;
       for (let i = 0; i < n; i++) {
         const dx = x[i] - cx, dy = y[i] - cy;
         const xr = cos * dx + sin * dy, yr = cos * dy - sin * dx;
@@ -53,29 +53,60 @@ export const fastIsothermalEllipsoid: MassProfile = {
       }
       return;
     }
-    // In passes (see passScratch.ts): the arguments e ux, e uy; atan; atanh; the rotation back.
-    // A point at the centre of a coreless profile gets arguments 0, i.e. no deflection.
+    // In passes (see passScratch.ts), each a function of its own (a loop compiled on first use
+    // must have nothing not yet run after it; see latticeLevel in adaptivePixelMeans.ts): the
+    // arguments e ux, e uy; atan; atanh; the rotation back.
     const argumentX = passScratch(0, n), argumentY = passScratch(1, n);
-    for (let i = 0; i < n; i++) {
-      const dx = x[i] - cx, dy = y[i] - cy;
-      const xr = cos * dx + sin * dy, yr = cos * dy - sin * dx;
-      const psi = Math.sqrt(q * q * xr * xr + yr * yr + qs2);
-      const dnx = psi + sK;
-      if (dnx === 0) {
-        argumentX[i] = 0;
-        argumentY[i] = 0;
-        continue;
-      }
-      const inverse = e / dnx;
-      argumentX[i] = xr * inverse;
-      argumentY[i] = coreless ? yr * inverse : (e * yr) / (psi + qqsK);
-    }
-    for (let i = 0; i < n; i++) argumentX[i] = fastAtan(argumentX[i]);
-    for (let i = 0; i < n; i++) argumentY[i] = fastAtanh(argumentY[i]);
-    for (let i = 0; i < n; i++) {
-      const ax = scaleOverE * argumentX[i], ay = scaleOverE * argumentY[i];
-      alphaX[i] += cos * ax - sin * ay;
-      alphaY[i] += sin * ax + cos * ay;
-    }
+    const shape = SHAPE;
+    shape[0] = cos; shape[1] = sin; shape[2] = cx; shape[3] = cy; shape[4] = q; shape[5] = qs2;
+    shape[6] = sK; shape[7] = qqsK; shape[8] = e;
+    writeArguments(shape, x, y, n, argumentX, argumentY);
+    fastAtanInPlace(argumentX, n);
+    fastAtanhInPlace(argumentY, n);
+    addRotated(scaleOverE, cos, sin, argumentX, argumentY, n, alphaX, alphaY);
   },
 };
+
+/** cos, sin, centre x, y, q, q s^2, s/sqrt(q), q^2 s/sqrt(q), e of the pass below. */
+const SHAPE = new Float64Array(9);
+
+/**
+ * The atan and atanh arguments e ux, e uy of the deflection (Kormann, Schneider & Bartelmann
+ * 1994) at n points; a point at the centre of a coreless profile gets 0, i.e. no deflection.
+ * The rotation and psi repeat those of the series branch of addDeflection on purpose: each
+ * branch keeps one loop with no per-point test of the branch.
+ */
+function writeArguments(
+  shape: Float64Array, x: Float64Array, y: Float64Array, n: number, argumentX: Float64Array, argumentY: Float64Array,
+): void {
+  const cos = shape[0], sin = shape[1], cx = shape[2], cy = shape[3], q = shape[4], qs2 = shape[5];
+  const sK = shape[6], qqsK = shape[7], e = shape[8];
+  // Without a core both denominators are psi: one division per point instead of two.
+  const coreless = sK === 0;
+  for (let i = 0; i < n; i++) {
+    const dx = x[i] - cx, dy = y[i] - cy;
+    const xr = cos * dx + sin * dy, yr = cos * dy - sin * dx;
+    const psi = Math.sqrt(q * q * xr * xr + yr * yr + qs2);
+    const dnx = psi + sK;
+    if (dnx === 0) {
+      argumentX[i] = 0;
+      argumentY[i] = 0;
+      continue;
+    }
+    const inverse = e / dnx;
+    argumentX[i] = xr * inverse;
+    argumentY[i] = coreless ? yr * inverse : (e * yr) / (psi + qqsK);
+  }
+}
+
+/** alpha += R(angle) (scale a_x, scale a_y): the deflection rotated back to the sky frame. */
+function addRotated(
+  scale: number, cos: number, sin: number, ax: Float64Array, ay: Float64Array, n: number,
+  alphaX: Float64Array, alphaY: Float64Array,
+): void {
+  for (let i = 0; i < n; i++) {
+    const u = scale * ax[i], v = scale * ay[i];
+    alphaX[i] += cos * u - sin * v;
+    alphaY[i] += sin * u + cos * v;
+  }
+}

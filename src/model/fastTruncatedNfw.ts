@@ -39,21 +39,11 @@ export const fastTruncatedNfw: MassProfile = {
     const logTau = Math.log(tau), scale = (4 * kappaS * tau2) / ((tau2 + 1) * (tau2 + 1));
     if (table.truncationRatio === tau || n >= TABLE_MINIMUM_POINTS) {
       if (table.truncationRatio !== tau) table.build(tau);
-      const invThetaS2 = invThetaS * invThetaS;
+      // Passes, each a function of its own (see latticeLevel in adaptivePixelMeans.ts).
       const factors = passScratch(0, n);
-      for (let i = 0; i < n; i++) {
-        const dx = x[i] - cx, dy = y[i] - cy;
-        factors[i] = (dx * dx + dy * dy) * invThetaS2;
-      }
+      writeScaledSquaredRadii(invThetaS * invThetaS, cx, cy, x, y, n, factors);
       table.lookupInPlace(factors, n);
-      for (let i = 0; i < n; i++) {
-        const dx = x[i] - cx, dy = y[i] - cy;
-        let g = factors[i];
-        // Outside the table (within theta_s/128 of the centre or beyond 256 theta_s): directly.
-        if (g !== g) g = radialFactor(Math.sqrt(dx * dx + dy * dy) * invThetaS, tau);
-        alphaX[i] += scale * g * dx;
-        alphaY[i] += scale * g * dy;
-      }
+      addRadialDeflection(scale, tau, invThetaS, cx, cy, x, y, n, factors, alphaX, alphaY);
       return;
     }
     // In passes (see passScratch.ts): u and 1/(tau + R); ln(u/(tau + R)); F(u); the sum.
@@ -110,4 +100,32 @@ function radialFactor(radiusRatio: number, tau: number): number {
     ? nfwProjectedMassShape(u) - Math.log1p(0.5 * d) + d * logRatio
     : f + Math.log(tau) + (1 + d) * logRatio;
   return ((tau - 1) * (tau + 1) * logarithms + 2 * u2 * f - (Math.PI * u2) / tauPlusR) / u2;
+}
+
+/** v_i = |theta_i - centre|^2 / theta_s^2 for i < n (invThetaS2 = 1/theta_s^2). */
+function writeScaledSquaredRadii(
+  invThetaS2: number, cx: number, cy: number, x: Float64Array, y: Float64Array, n: number, v: Float64Array,
+): void {
+  for (let i = 0; i < n; i++) {
+    const dx = x[i] - cx, dy = y[i] - cy;
+    v[i] = (dx * dx + dy * dy) * invThetaS2;
+  }
+}
+
+/**
+ * alpha += 4 kappa_s P G (theta - centre) (scale = 4 kappa_s P) with G from the table
+ * (`factors`), or directly where the table gave NaN (outside it).
+ */
+function addRadialDeflection(
+  scale: number, tau: number, invThetaS: number, cx: number, cy: number, x: Float64Array, y: Float64Array, n: number,
+  factors: Float64Array, alphaX: Float64Array, alphaY: Float64Array,
+): void {
+  for (let i = 0; i < n; i++) {
+    const dx = x[i] - cx, dy = y[i] - cy;
+    let g = factors[i];
+    // Outside the table (within theta_s/128 of the centre or beyond 256 theta_s): directly.
+    if (g !== g) g = radialFactor(Math.sqrt(dx * dx + dy * dy) * invThetaS, tau);
+    alphaX[i] += scale * g * dx;
+    alphaY[i] += scale * g * dy;
+  }
 }

@@ -219,16 +219,21 @@ export class ForwardModel {
   }
 
   private convolveMeans(means: AdaptivePixelMeans, amplitudes: Int32Array): void {
-    const input = this.convolver.input;
-    const padded = this.inputPadded;
-    const count = padded.length;
-    const values = means.means;
-    const area = this.pixelArea;
     for (let k = 0; k < amplitudes.length; k++) {
-      const from = k * count;
-      for (let e = 0; e < count; e++) input[padded[e]] = values[from + e] * area;
+      this.copyMeans(means.means, k * this.inputPadded.length);
       this.convolver.convolve(this.basis, amplitudes[k] * this.pixelCount);
     }
+  }
+
+  /**
+   * Pixel means (from `from` on) times the pixel area into the convolver's padded input (a loop
+   * in a method of its own; see latticeLevel in adaptivePixelMeans.ts).
+   */
+  private copyMeans(values: Float64Array, from: number): void {
+    const input = this.convolver.input;
+    const padded = this.inputPadded;
+    const area = this.pixelArea;
+    for (let e = 0; e < padded.length; e++) input[padded[e]] = values[from + e] * area;
   }
 }
 

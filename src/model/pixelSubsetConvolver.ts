@@ -19,6 +19,7 @@ export class PixelSubsetConvolver {
   /** The image to convolve, zero-padded; write pixel p at paddedIndex(p). Zeros elsewhere stay. */
   readonly input: Float64Array;
   private readonly outputs: Int32Array;
+  /** Padded indices of the outputs, of even length (see evenLength). */
   private readonly outputsPadded: Int32Array;
   private readonly alongX: Float64Array | undefined;
   private readonly alongY: Float64Array | undefined;
@@ -26,6 +27,8 @@ export class PixelSubsetConvolver {
   private readonly pass: Float64Array;
   private readonly offsets: Int32Array;
   private readonly weights: Float64Array;
+  /** The convolution at each output pixel, in the order of `outputs`. */
+  private readonly sums: Float64Array;
 
   constructor(columns: number, rows: number, kernel: PsfKernel, outputs: Int32Array, separable?: SeparablePsf) {
     this.columns = columns;
@@ -36,7 +39,8 @@ export class PixelSubsetConvolver {
     const paddedRows = rows + 2 * this.halfY;
     this.input = new Float64Array(this.paddedColumns * paddedRows);
     this.outputs = Int32Array.from(outputs);
-    this.outputsPadded = this.outputs.map((p) => this.paddedIndex(p));
+    this.outputsPadded = evenLength(this.outputs.map((p) => this.paddedIndex(p)));
+    this.sums = new Float64Array(this.outputsPadded.length);
     this.alongX = separable?.alongX;
     this.alongY = separable?.alongY;
     if (separable !== undefined) {
@@ -48,7 +52,7 @@ export class PixelSubsetConvolver {
       }
       const list: number[] = [];
       for (let p = 0; p < wanted.length; p++) if (wanted[p] === 1) list.push(this.paddedIndex(p));
-      this.passPadded = Int32Array.from(list);
+      this.passPadded = evenLength(Int32Array.from(list));
       this.pass = new Float64Array(this.input.length);
       this.offsets = new Int32Array(0);
       this.weights = new Float64Array(0);
@@ -78,43 +82,88 @@ export class PixelSubsetConvolver {
     return (j + this.halfY) * this.paddedColumns + i + this.halfX;
   }
 
-  /** Writes the convolution of `input` at each output pixel p into output[outputOffset + p]. */
+  /**
+   * Writes the convolution of `input` at each output pixel p into output[outputOffset + p]. The
+   * 1-D passes sum two points at a time (each point's sum in the same order as alone), so that
+   * their additions overlap instead of waiting on one sum: demo 152 -> 108 us per basis image on
+   * Node 20 (the loop tap by tap over all points was slower, 208 us). Each loop is a method of
+   * its own (see latticeLevel in adaptivePixelMeans.ts).
+   */
   convolve(output: Float64Array, outputOffset: number): void {
-    const input = this.input;
-    const outputs = this.outputs;
-    const outputsPadded = this.outputsPadded;
     const alongX = this.alongX;
     const alongY = this.alongY;
     if (alongX !== undefined && alongY !== undefined) {
-      const pass = this.pass;
-      const passPadded = this.passPadded;
-      const halfX = this.halfX;
-      const halfY = this.halfY;
-      const width = this.paddedColumns;
-      for (let e = 0; e < passPadded.length; e++) {
-        const q = passPadded[e] + halfX;
-        let sum = 0;
-        for (let a = 0; a < alongX.length; a++) sum += alongX[a] * input[q - a];
-        pass[passPadded[e]] = sum;
-      }
-      for (let e = 0; e < outputs.length; e++) {
-        let q = outputsPadded[e] + halfY * width;
-        let sum = 0;
-        for (let b = 0; b < alongY.length; b++) {
-          sum += alongY[b] * pass[q];
-          q -= width;
-        }
-        output[outputOffset + outputs[e]] = sum;
-      }
-      return;
+      this.firstPass(alongX);
+      this.secondPass(alongY);
+    } else {
+      this.directPass();
     }
-    const offsets = this.offsets;
-    const weights = this.weights;
-    for (let e = 0; e < outputs.length; e++) {
-      const q = outputsPadded[e];
-      let sum = 0;
-      for (let k = 0; k < offsets.length; k++) sum += weights[k] * input[q + offsets[k]];
-      output[outputOffset + outputs[e]] = sum;
+    this.scatter(output, outputOffset);
+  }
+
+  /** Along x at every point of passPadded, into `pass`, two points at a time (see evenLength). */
+  private firstPass(alongX: Float64Array): void {
+    const input = this.input, pass = this.pass, points = this.passPadded;
+    const taps = alongX.length;
+    const halfX = this.halfX;
+    for (let e = 0; e < points.length; e += 2) {
+      const q0 = points[e] + halfX, q1 = points[e + 1] + halfX;
+      let sum0 = 0, sum1 = 0;
+      for (let a = 0; a < taps; a++) {
+        const w = alongX[a];
+        sum0 += w * input[q0 - a];
+        sum1 += w * input[q1 - a];
+      }
+      pass[q0 - halfX] = sum0;
+      pass[q1 - halfX] = sum1;
     }
   }
+
+  /** Along y of `pass` at the output pixels, into `sums`, two pixels at a time. */
+  private secondPass(alongY: Float64Array): void {
+    const pass = this.pass, sums = this.sums, points = this.outputsPadded;
+    const taps = alongY.length;
+    const width = this.paddedColumns;
+    const top = this.halfY * width;
+    for (let e = 0; e < points.length; e += 2) {
+      let q0 = points[e] + top, q1 = points[e + 1] + top;
+      let sum0 = 0, sum1 = 0;
+      for (let b = 0; b < taps; b++) {
+        const w = alongY[b];
+        sum0 += w * pass[q0];
+        sum1 += w * pass[q1];
+        q0 -= width;
+        q1 -= width;
+      }
+      sums[e] = sum0;
+      sums[e + 1] = sum1;
+    }
+  }
+
+  /** The whole kernel at the output pixels, into `sums`. */
+  private directPass(): void {
+    const input = this.input, sums = this.sums, points = this.outputsPadded;
+    const offsets = this.offsets, weights = this.weights;
+    for (let e = 0; e < points.length; e++) {
+      const q = points[e];
+      let sum = 0;
+      for (let k = 0; k < offsets.length; k++) sum += weights[k] * input[q + offsets[k]];
+      sums[e] = sum;
+    }
+  }
+
+  /** `sums` into output[outputOffset + p] at the output pixels p. */
+  private scatter(output: Float64Array, outputOffset: number): void {
+    const sums = this.sums, outputs = this.outputs;
+    for (let e = 0; e < outputs.length; e++) output[outputOffset + outputs[e]] = sums[e];
+  }
+}
+
+/** The list, its last entry repeated once if its length is odd (so passes can go two points at a time; the repeat computes the same value twice). */
+function evenLength(list: Int32Array): Int32Array {
+  if (list.length % 2 === 0) return list;
+  const even = new Int32Array(list.length + 1);
+  even.set(list);
+  even[list.length] = list.length > 0 ? list[list.length - 1] : 0;
+  return even;
 }
