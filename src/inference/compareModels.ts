@@ -7,6 +7,7 @@ import { summarisePerturbers, type PerturberSummary } from './perturberSummary.j
 import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
 import { modelParameterSpace } from './modelParameterSpace.js';
 import { buildLensSystem } from '../model/lensSystem.js';
+import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 
 /** ln B above which the perturbed model is called favoured (Kass & Raftery 1995: 2 ln B > 2). */
 export const favouredLnBayesFactor = 1;
@@ -57,18 +58,24 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
   const perturbedDim = modelParameterSpace(buildLensSystem(config, { perturberCount })).dim;
   const method = lensModelMethod(settings.perturbed.method, perturbedDim, perturberCount);
   // The two runs do not depend on each other: with two threads or more they go side by side,
-  // each on half of them in workers of its own (measured on the vet benchmark: 1.56x on 2 threads,
-  // against 1.31x for one run spread over both). Each result depends on its seed alone.
+  // sharing one pool of workers that hold both models, so a worker freed by one run's slice
+  // chain takes the other's, and the run that finishes last gets every worker. Each result
+  // depends on its seed alone.
   let smooth: ModelEvidence;
   let perturbed: ModelEvidence;
   if (comparisonSideBySide(settings)) {
-    const half = (run: EvidenceSettings): EvidenceSettings => ({ ...run, method, threads: Math.max(1, Math.floor(run.threads / 2)), inWorker: true });
-    settings.onModelStart?.('smooth');
-    settings.onModelStart?.('perturbed');
-    [smooth, perturbed] = await Promise.all([
-      runModelEvidence(config, data, 0, half(settings.smooth)),
-      runModelEvidence(config, data, perturberCount, half(settings.perturbed)),
-    ]);
+    const threads = Math.max(settings.smooth.threads, settings.perturbed.threads);
+    const pool = await LikelihoodPool.start([{ config, data, perturberCount: 0 }, { config, data, perturberCount }], threads);
+    try {
+      settings.onModelStart?.('smooth');
+      settings.onModelStart?.('perturbed');
+      [smooth, perturbed] = await Promise.all([
+        runModelEvidence(config, data, 0, { ...settings.smooth, method }, { pool: pool.model(0) }),
+        runModelEvidence(config, data, perturberCount, { ...settings.perturbed, method }, { pool: pool.model(1) }),
+      ]);
+    } finally {
+      await pool.close();
+    }
   } else {
     settings.onModelStart?.('smooth');
     smooth = await runModelEvidence(config, data, 0, { ...settings.smooth, method });

@@ -2,7 +2,7 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import type { BatchOccupancy } from '../parallel/batchOccupancy.js';
-import { LikelihoodPool } from '../parallel/likelihoodPool.js';
+import { LikelihoodPool, type ModelPool } from '../parallel/likelihoodPool.js';
 import { runNested, type NestedMethod, type NestedProgress, type NestedResult } from '../sampling/nested/index.js';
 import type { ParameterSpace } from '../sampling/parameterSpace.js';
 import { modelParameterSpace } from './modelParameterSpace.js';
@@ -90,14 +90,25 @@ export type ExtraTransform = (system: LensSystem, space: ParameterSpace) => (uni
  */
 export async function runModelEvidence(
   config: ArcsiftConfig, data: ObservedData, perturberCount: number, settings: EvidenceSettings,
-  extra: { readonly label?: string; readonly transform?: ExtraTransform } = {},
+  extra: {
+    readonly label?: string;
+    readonly transform?: ExtraTransform;
+    /** A pool shared with other runs, holding this model (settings.threads is then its own). */
+    readonly pool?: ModelPool;
+  } = {},
 ): Promise<ModelEvidence> {
   const system = buildLensSystem(config, { perturberCount });
   const space = modelParameterSpace(system);
   const additional = extra.transform?.(system, space);
   const prior = modelPriorTransform(system, space, data, additional);
   const started = performance.now();
-  const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads, { inWorker: settings.inWorker });
+  const own = extra.pool === undefined
+    ? await LikelihoodPool.start({ config, data, perturberCount }, settings.threads, { inWorker: settings.inWorker })
+    : undefined;
+  const pool: ModelPool = extra.pool ?? own!;
+  if (pool.width !== system.parameters.length) {
+    throw new RangeError(`runModelEvidence: the pool's model has ${pool.width} parameters, this one ${system.parameters.length}`);
+  }
   try {
     const result = await runNested(
       {
@@ -140,6 +151,6 @@ export async function runModelEvidence(
       messages: pool.messages,
     };
   } finally {
-    await pool.close();
+    await own?.close();
   }
 }

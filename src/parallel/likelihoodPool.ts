@@ -15,7 +15,9 @@ export type WorkerReply = { readonly values: Float64Array } | { readonly chain: 
  * call, or one slice chain of a nested-sampling step.
  */
 interface Job {
-  readonly message: { readonly points: Float64Array; readonly count: number } | { readonly chain: SliceChainRequest };
+  readonly message:
+    | { readonly model: number; readonly points: Float64Array; readonly count: number }
+    | { readonly model: number; readonly chain: SliceChainRequest };
   readonly done: (reply: WorkerReply) => void;
   readonly reject: (error: Error) => void;
 }
@@ -26,35 +28,62 @@ export function defaultThreadCount(): number {
 }
 
 /**
+ * What a nested-sampling run needs of a likelihood pool for its model: batches of points, whole
+ * slice chains (workers only), and counters of what it asked.
+ */
+export interface ModelPool {
+  readonly threads: number;
+  /** Length of a model vector. */
+  readonly width: number;
+  /** True when the likelihood runs in worker threads (false: in the calling thread). */
+  readonly inWorkers: boolean;
+  /** Likelihood evaluations so far. */
+  readonly evaluations: number;
+  /** Messages sent to workers so far (runs of points and slice chains). */
+  readonly messages: number;
+  /** Batch sizes of the calls made so far. */
+  readonly occupancy: BatchOccupancy;
+  evaluate(points: Float64Array, count: number): Promise<Float64Array>;
+  runSliceChain(request: SliceChainRequest): Promise<SliceChainResult>;
+}
+
+/** Counters of one model of a pool. */
+class ModelCounters {
+  evaluations = 0;
+  messages = 0;
+  readonly occupancy = new BatchOccupancy();
+}
+
+/**
  * Evaluates batches of model vectors (row-major, one row per point, in the model's parameter
  * order) across worker threads. Every call's points are cut into runs and put on one queue shared
- * by all calls, so several callers (e.g. independent sampling chains, one point each) keep every
- * worker busy; an idle worker takes the next run, and every answer is stored at its point's index
- * in its call's result, so results never depend on the thread count or on timing.
- * With one thread everything runs in the calling thread.
+ * by all calls, so several callers (e.g. independent sampling chains) keep every worker busy; an
+ * idle worker takes the next run, and every answer is stored at its point's index in its call's
+ * result, so results never depend on the thread count or on timing. A pool may hold several
+ * models (`start` with a list of tasks; every worker builds each model's likelihood when first
+ * asked): runs of different models then share the workers through the one queue (`model(k)`),
+ * and a worker freed by one run serves the other. With one thread everything runs in the calling
+ * thread. The pool itself is the ModelPool of its first model.
  */
-export class LikelihoodPool {
+export class LikelihoodPool implements ModelPool {
   readonly threads: number;
-  readonly width: number;
+  /** Length of a model vector of each model. */
+  readonly widths: readonly number[];
   private readonly workers: Worker[];
-  private readonly local: PixelLikelihood | undefined;
+  private readonly locals: PixelLikelihood[] | undefined;
   private readonly queue: Job[] = [];
   private readonly idle: Worker[];
   private readonly running = new Map<Worker, Job>();
+  private readonly counters: ModelCounters[];
   private failure: Error | undefined;
-  /** Number of likelihood evaluations made so far. */
-  evaluations = 0;
-  /** Messages sent to workers so far (runs of points and slice chains). */
-  messages = 0;
-  /** Batch sizes of the calls made so far. */
-  readonly occupancy = new BatchOccupancy();
 
-  private constructor(threads: number, width: number, workers: Worker[], local: PixelLikelihood | undefined) {
+  private constructor(threads: number, widths: number[], workers: Worker[], locals: PixelLikelihood[] | undefined) {
     this.threads = threads;
-    this.width = width;
+    this.widths = widths;
     this.workers = workers;
-    this.local = local;
+    this.locals = locals;
     this.idle = workers.slice();
+    this.counters = widths.map(() => new ModelCounters());
     for (const worker of workers) {
       worker.on('message', (reply: WorkerReply | { ready: true }) => {
         if ('ready' in reply) return;
@@ -66,6 +95,26 @@ export class LikelihoodPool {
       });
       worker.on('error', (error) => this.fail(error));
     }
+  }
+
+  get width(): number {
+    return this.widths[0];
+  }
+
+  get evaluations(): number {
+    return this.counters[0].evaluations;
+  }
+
+  get messages(): number {
+    return this.counters[0].messages;
+  }
+
+  get occupancy(): BatchOccupancy {
+    return this.counters[0].occupancy;
+  }
+
+  get inWorkers(): boolean {
+    return this.locals === undefined;
   }
 
   private fail(error: Error): void {
@@ -82,47 +131,83 @@ export class LikelihoodPool {
       const worker = this.idle.shift()!;
       const job = this.queue.shift()!;
       this.running.set(worker, job);
-      this.messages++;
+      this.counters[job.message.model].messages++;
       // Copied, not transferred: see likelihoodWorker.ts.
       worker.postMessage(job.message);
     }
   }
 
   /**
-   * Starts `threads` workers. One thread runs in the calling thread unless `inWorker` is set: runs
-   * that share the process (vetting candidates side by side) each need a worker of their own.
+   * Starts `threads` workers for one model, or for several (a list of tasks; see the class
+   * comment). One thread runs in the calling thread unless `inWorker` is set: runs that share the
+   * process (vetting candidates side by side) each need a worker of their own.
    */
-  static async start(task: LikelihoodTask, threads = defaultThreadCount(), options: { inWorker?: boolean } = {}): Promise<LikelihoodPool> {
+  static async start(
+    task: LikelihoodTask | readonly LikelihoodTask[], threads = defaultThreadCount(), options: { inWorker?: boolean } = {},
+  ): Promise<LikelihoodPool> {
+    const tasks = Array.isArray(task) ? task as readonly LikelihoodTask[] : [task as LikelihoodTask];
     const count = Math.max(1, Math.floor(threads));
     if (count === 1 && options.inWorker !== true) {
-      const local = new PixelLikelihood(task.config, task.data, task.perturberCount);
-      return new LikelihoodPool(1, local.system.parameters.length, [], local);
+      const locals = tasks.map((t) => new PixelLikelihood(t.config, t.data, t.perturberCount));
+      return new LikelihoodPool(1, locals.map((local) => local.system.parameters.length), [], locals);
     }
-    const width = buildLensSystem(task.config, { perturberCount: task.perturberCount }).parameters.length;
+    const widths = tasks.map((t) => buildLensSystem(t.config, { perturberCount: t.perturberCount }).parameters.length);
     const url = workerScriptUrl(import.meta.url, './likelihoodWorker.js');
     const workers = await Promise.all(Array.from({ length: count }, () => new Promise<Worker>((resolve, reject) => {
-      const worker = new Worker(url, { workerData: task });
+      const worker = new Worker(url, { workerData: tasks });
       worker.once('error', reject);
       worker.once('message', () => {
         worker.off('error', reject);
         resolve(worker);
       });
     })));
-    return new LikelihoodPool(count, width, workers, undefined);
+    return new LikelihoodPool(count, widths, workers, undefined);
+  }
+
+  /** The ModelPool of model k (the k-th task given to `start`), with counters of its own. */
+  model(k: number): ModelPool {
+    if (!(k >= 0 && k < this.widths.length)) throw new RangeError(`no model ${k} in a pool of ${this.widths.length}`);
+    const pool = this;
+    const counters = this.counters[k];
+    return {
+      threads: this.threads,
+      width: this.widths[k],
+      inWorkers: this.inWorkers,
+      get evaluations() {
+        return counters.evaluations;
+      },
+      get messages() {
+        return counters.messages;
+      },
+      occupancy: counters.occupancy,
+      evaluate: (points, count) => pool.evaluateModel(k, points, count),
+      runSliceChain: (request) => pool.runModelSliceChain(k, request),
+    };
   }
 
   /**
    * ln L of `count` model vectors stored row-major in `points`. The points are copied before
    * this returns, so the caller may reuse `points` at once; calls may overlap.
    */
-  async evaluate(points: Float64Array, count: number): Promise<Float64Array> {
+  evaluate(points: Float64Array, count: number): Promise<Float64Array> {
+    return this.evaluateModel(0, points, count);
+  }
+
+  /** Runs one slice chain of a nested-sampling step in the next idle worker (see runModelSliceChain). */
+  runSliceChain(request: SliceChainRequest): Promise<SliceChainResult> {
+    return this.runModelSliceChain(0, request);
+  }
+
+  private async evaluateModel(model: number, points: Float64Array, count: number): Promise<Float64Array> {
     if (this.failure !== undefined) throw this.failure;
-    this.evaluations += count;
-    this.occupancy.record(count);
-    const width = this.width;
+    const counters = this.counters[model];
+    counters.evaluations += count;
+    counters.occupancy.record(count);
+    const width = this.widths[model];
     const out = new Float64Array(count);
-    if (this.local !== undefined) {
-      for (let r = 0; r < count; r++) out[r] = this.local.logLikelihood(points.subarray(r * width, (r + 1) * width));
+    if (this.locals !== undefined) {
+      const local = this.locals[model];
+      for (let r = 0; r < count; r++) out[r] = local.logLikelihood(points.subarray(r * width, (r + 1) * width));
       return out;
     }
     if (count === 0) return out;
@@ -134,7 +219,7 @@ export class LikelihoodPool {
       for (let from = 0; from < count; from += piece) {
         const size = Math.min(piece, count - from);
         this.queue.push({
-          message: { points: points.slice(from * width, (from + size) * width), count: size },
+          message: { model, points: points.slice(from * width, (from + size) * width), count: size },
           done: (reply) => {
             if (!('values' in reply)) return reject(new Error('likelihood worker: expected values, got a chain'));
             out.set(reply.values, from);
@@ -148,25 +233,20 @@ export class LikelihoodPool {
     });
   }
 
-  /** True when the likelihood runs in worker threads (false: in the calling thread). */
-  get inWorkers(): boolean {
-    return this.local === undefined;
-  }
-
   /**
-   * Runs one slice chain of a nested-sampling step in the next idle worker, which holds the
-   * model's prior transform and likelihood, so the chain's points need no message each. Workers
-   * only (inWorkers).
+   * Runs one slice chain of a nested-sampling step of model `model` in the next idle worker,
+   * which holds the model's prior transform and likelihood, so the chain's points need no
+   * message each. Workers only (inWorkers).
    */
-  runSliceChain(request: SliceChainRequest): Promise<SliceChainResult> {
+  private runModelSliceChain(model: number, request: SliceChainRequest): Promise<SliceChainResult> {
     if (this.failure !== undefined) return Promise.reject(this.failure);
-    if (this.local !== undefined) return Promise.reject(new Error('runSliceChain needs worker threads'));
+    if (this.locals !== undefined) return Promise.reject(new Error('runSliceChain needs worker threads'));
     return new Promise<SliceChainResult>((resolve, reject) => {
       this.queue.push({
-        message: { chain: request },
+        message: { model, chain: request },
         done: (reply) => {
           if (!('chain' in reply)) return reject(new Error('likelihood worker: expected a chain, got values'));
-          this.evaluations += reply.chain.evaluations;
+          this.counters[model].evaluations += reply.chain.evaluations;
           resolve(reply.chain);
         },
         reject,

@@ -6,41 +6,57 @@ import { BatchEvaluator } from '../sampling/nested/batchEvaluator.js';
 import { runSliceChain, type SliceChainRequest } from '../sampling/nested/sliceSampler.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
 
-// One worker thread: builds its PixelLikelihood once, then answers runs of model vectors, or runs
-// whole slice chains of a nested-sampling step with the model's prior transform.
-const task = workerData as LikelihoodTask;
-const likelihood = new PixelLikelihood(task.config, task.data, task.perturberCount);
-const width = likelihood.system.parameters.length;
-const row = new Float64Array(width);
-let chainEvaluator: BatchEvaluator | undefined;
+// One worker thread: builds the PixelLikelihood of each model it is given, then answers runs of
+// model vectors, or runs whole slice chains of a nested-sampling step with the model's prior
+// transform.
+const tasks = workerData as readonly LikelihoodTask[];
 
-/** ln L of `count` rows of `points` into a new array. */
-function logLikelihoods(points: Float64Array, count: number): Float64Array {
-  const out = new Float64Array(count);
-  for (let r = 0; r < count; r++) {
-    for (let c = 0; c < width; c++) row[c] = points[r * width + c];
-    out[r] = likelihood.logLikelihood(row);
+/** One model held by this worker. */
+class HeldModel {
+  readonly likelihood: PixelLikelihood;
+  private readonly row: Float64Array;
+  private chainEvaluator: BatchEvaluator | undefined;
+
+  constructor(private readonly task: LikelihoodTask) {
+    this.likelihood = new PixelLikelihood(task.config, task.data, task.perturberCount);
+    this.row = new Float64Array(this.likelihood.system.parameters.length);
   }
-  return out;
+
+  /** ln L of `count` rows of `points` into a new array. */
+  readonly logLikelihoods = (points: Float64Array, count: number): Float64Array => {
+    const width = this.row.length;
+    const out = new Float64Array(count);
+    for (let r = 0; r < count; r++) {
+      for (let c = 0; c < width; c++) this.row[c] = points[r * width + c];
+      out[r] = this.likelihood.logLikelihood(this.row);
+    }
+    return out;
+  };
+
+  /** The evaluator of slice chains: the same transform as the sampler's thread, then ln L here. */
+  evaluatorOfChains(): BatchEvaluator {
+    if (this.chainEvaluator === undefined) {
+      const space = modelParameterSpace(this.likelihood.system);
+      const { transform } = modelPriorTransform(this.likelihood.system, space, this.task.data);
+      this.chainEvaluator = new BatchEvaluator({ dim: space.dim, physicalDim: space.physicalDim, transform, logLikelihood: this.logLikelihoods });
+    }
+    return this.chainEvaluator;
+  }
 }
 
-/** The evaluator of slice chains: the same transform as the sampler's thread, then ln L here. */
-function evaluatorOfChains(): BatchEvaluator {
-  if (chainEvaluator === undefined) {
-    const space = modelParameterSpace(likelihood.system);
-    const { transform } = modelPriorTransform(likelihood.system, space, task.data);
-    chainEvaluator = new BatchEvaluator({ dim: space.dim, physicalDim: space.physicalDim, transform, logLikelihood: logLikelihoods });
-  }
-  return chainEvaluator;
-}
+// Every model is built at once, so that a bad task fails at start, not inside a run.
+const held = tasks.map((task) => new HeldModel(task));
 
-parentPort!.on('message', (message: { points: Float64Array; count: number } | { chain: SliceChainRequest }) => {
+type Message = { model: number; points: Float64Array; count: number } | { model: number; chain: SliceChainRequest };
+
+parentPort!.on('message', (message: Message) => {
   // Answers are copied, not transferred. Transferring detaches the sender's ArrayBuffer, and the
   // first detach in a thread makes V8 check for detached buffers at every typed-array access in
   // optimised code from then on: measured 20-30% slower likelihoods in both the worker and the
   // main thread (1.36 -> 1.75 ms per demo likelihood in a worker), against microseconds to copy.
+  const model = held[message.model];
   if ('chain' in message) {
-    const evaluator = evaluatorOfChains();
+    const evaluator = model.evaluatorOfChains();
     evaluator.evaluations = 0;
     evaluator.nonFinite = 0;
     runSliceChain(message.chain, evaluator.evaluate).then(
@@ -51,6 +67,6 @@ parentPort!.on('message', (message: { points: Float64Array; count: number } | { 
     );
     return;
   }
-  parentPort!.postMessage({ values: logLikelihoods(message.points, message.count) });
+  parentPort!.postMessage({ values: model.logLikelihoods(message.points, message.count) });
 });
 parentPort!.postMessage({ ready: true });

@@ -8,9 +8,9 @@ import { loadObservedData } from '../../src/data/index.js';
 import { comparisonSideBySide, compareModels } from '../../src/inference/compareModels.js';
 import { simulateToFolder } from '../../src/model/simulateToFolder.js';
 
-// Own determinism contract: with two threads the smooth and perturbed runs go side by side, each
-// in a worker of its own; one after another on one thread, every evidence must be the same
-// number, since each run's path depends on its seed alone. Invented scenario of
+// Own determinism contract: with two threads the smooth and perturbed runs go side by side,
+// sharing one pool of workers that hold both models; one after another on one thread, every
+// evidence must be the same number, since each run's path depends on its seed alone. Invented scenario of
 // test/fixtures/inference/small-lens.yaml, runs cut at 600 evaluations to stay quick.
 const fixture = fileURLToPath(new URL('../fixtures/inference/small-lens.yaml', import.meta.url));
 
@@ -27,8 +27,11 @@ describe('compare with the two models side by side', () => {
     const sequential = await compareModels(config, data, { smooth: run(1), perturbed: run(1) });
     const sideBySide = await compareModels(config, data, { smooth: run(2), perturbed: run(2), onModelStart: (label) => started.push(label) });
     expect(started).toEqual(['smooth', 'perturbed']);
-    expect(sideBySide.smooth.threads).toBe(1);
-    expect(sideBySide.perturbed.threads).toBe(1);
+    expect(sideBySide.smooth.threads).toBe(2);
+    expect(sideBySide.perturbed.threads).toBe(2);
+    // Slice chains went to the shared workers, a message per chain rather than per point.
+    expect(sideBySide.perturbed.messages).toBeGreaterThan(0);
+    expect(sideBySide.perturbed.messages).toBeLessThan(sideBySide.perturbed.result.evaluations / 3);
     expect(sideBySide.smooth.result.lnZ).toBe(sequential.smooth.result.lnZ);
     expect(sideBySide.perturbed.result.lnZ).toBe(sequential.perturbed.result.lnZ);
     expect(sideBySide.lnBayesFactor).toBe(sequential.lnBayesFactor);

@@ -47,6 +47,31 @@ describe('the likelihood worker pool', () => {
     }
   }, 120_000);
 
+  it('holds several models: each answers as a pool of that model alone, counted apart', async () => {
+    const tasks = [{ config, data, perturberCount: 0 }, { config, data, perturberCount: 1 }];
+    const alone = await Promise.all(tasks.map((task) => LikelihoodPool.start(task, 1)));
+    const shared = await LikelihoodPool.start(tasks, 2);
+    try {
+      const answers = await Promise.all(tasks.map(async (task, k) => {
+        const truth = buildLensSystem(config, { perturberCount: task.perturberCount }).configuredValues();
+        const width = truth.length;
+        const points = new Float64Array(5 * width);
+        for (let r = 0; r < 5; r++) {
+          points.set(truth, r * width);
+          points[r * width] *= 1 + 1e-3 * r;
+        }
+        expect(shared.model(k).width).toBe(width);
+        return [await alone[k].evaluate(points, 5), await shared.model(k).evaluate(points, 5)];
+      }));
+      for (const [expected, found] of answers) expect(Array.from(found)).toEqual(Array.from(expected));
+      expect(shared.model(0).evaluations).toBe(5);
+      expect(shared.model(1).evaluations).toBe(5);
+      expect(() => shared.model(2)).toThrow(RangeError);
+    } finally {
+      await Promise.all([...alone, shared].map((pool) => pool.close()));
+    }
+  }, 120_000);
+
   it('gives a nested run bit-identical on 1 and 2 threads', async () => {
     const settings = { livePoints: 15, seed: 5, method: 'slice' as const, replacementsPerStep: 2, lnZTolerance: 0.3, maxEvaluations: 600, sliceStepsPerParameter: 1 };
     const single = await runModelEvidence(config, data, 1, { ...settings, threads: 1 });
