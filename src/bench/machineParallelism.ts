@@ -3,9 +3,13 @@ import { Worker } from 'node:worker_threads';
 /** A fixed arithmetic loop that touches no memory, run in a worker; answers its milliseconds. */
 const SPIN = `
 const { parentPort } = require('node:worker_threads');
+function loop() {
+  let sum = 0;
+  for (let i = 0; i < 2e8; i++) sum += Math.sqrt(i);
+  return sum;
+}
 const started = performance.now();
-let sum = 0;
-for (let i = 0; i < 1e8; i++) sum += Math.sqrt(i);
+const sum = loop();
 parentPort.postMessage({ ms: performance.now() - started, sum });
 `;
 
