@@ -283,10 +283,9 @@ export class AdaptivePixelMeans {
     for (let k = 0; k < this.basisCount; k++) {
       const base = k * planeSize;
       this.scatterLatticeValues(k, base);
-      const scale = this.convolvedPeak(base);
-      this.scale[k] = scale;
+      this.writeConvolvedPeak(k, base);
       this.rowStencils(base);
-      this.pixelStencils(k, base, scale);
+      this.pixelStencils(k, base);
     }
     this.directCount = this.collectFlagged(2, this.allPixels, count, this.direct, this.directCount);
     const pendingCount = this.collectFlagged(1, this.allPixels, count, this.pending, 0);
@@ -334,7 +333,8 @@ export class AdaptivePixelMeans {
    * `previous`, and pixels whose error indicator exceeds the tolerance flagged in `flags`
    * (1: refine, 2: HOPELESS, straight to S x S).
    */
-  private pixelStencils(k: number, base: number, scale: number): void {
+  private pixelStencils(k: number, base: number): void {
+    const scale = this.scale[k];
     const values = this.latticeValues;
     const pixelsPadded = this.pixelsPadded;
     const count = pixelsPadded.length;
@@ -381,10 +381,17 @@ export class AdaptivePixelMeans {
     return end;
   }
 
-  /** |PSF-convolved lattice values| at the listed pixel of largest |lattice value| (basis at `base`). */
-  private convolvedPeak(base: number): number {
+  /**
+   * scale[k]: |PSF-convolved lattice values| at the listed pixel of largest |lattice value| (basis
+   * at `base`). Written, not returned: a double returned from a call V8 does not inline is boxed,
+   * one allocation per evaluation.
+   */
+  private writeConvolvedPeak(k: number, base: number): void {
     const brightest = this.brightestPixel(base);
-    if (brightest < 0) return 0;
+    if (brightest < 0) {
+      this.scale[k] = 0;
+      return;
+    }
     const values = this.latticeValues;
     const { columns, rows, values: weights } = this.kernel;
     const width = this.width;
@@ -401,7 +408,7 @@ export class AdaptivePixelMeans {
         sum += weights[b * columns + a] * values[base + (jj + 2) * width + ii + 2];
       }
     }
-    return Math.abs(sum);
+    this.scale[k] = Math.abs(sum);
   }
 
   /** Padded index of the listed pixel of largest |lattice value| (basis at `base`), -1 if none. */
@@ -640,7 +647,7 @@ export class AdaptivePixelMeans {
       this.pixelsByLevel[level + 1] = pendingCount;
       return 0;
     }
-    this.extrapolate(this.richardsonByLevel[level], pendingCount);
+    this.extrapolate(level, pendingCount);
     const directBefore = this.directCount;
     this.directCount = this.collectFlagged(2, this.pending, pendingCount, this.direct, directBefore);
     const kept = this.collectFlagged(1, this.pending, pendingCount, this.pending, 0);
@@ -659,10 +666,11 @@ export class AdaptivePixelMeans {
   }
 
   /**
-   * Richardson extrapolation (factor `factor`) of the pending pixels into `means`; each is flagged
-   * in `flags`: 0 done, 1 still above the tolerance, 2 above HOPELESS tolerances.
+   * Richardson extrapolation (the factor of `level`) of the pending pixels into `means`; each is
+   * flagged in `flags`: 0 done, 1 still above the tolerance, 2 above HOPELESS tolerances.
    */
-  private extrapolate(factor: number, pendingCount: number): void {
+  private extrapolate(level: number, pendingCount: number): void {
+    const factor = this.richardsonByLevel[level];
     const count = this.pixels.length;
     const means = this.means, previous = this.previous, current = this.current;
     const pending = this.pending, flagged = this.flags;
