@@ -283,10 +283,9 @@ export class AdaptivePixelMeans {
     for (let k = 0; k < this.basisCount; k++) {
       const base = k * planeSize;
       this.scatterLatticeValues(k, base);
-      const scale = this.convolvedPeak(base);
-      this.scale[k] = scale;
+      this.writeConvolvedPeak(k, base);
       this.rowStencils(base);
-      this.pixelStencils(k, base, scale);
+      this.pixelStencils(k, base);
     }
     this.directCount = this.collectFlagged(2, this.allPixels, count, this.direct, this.directCount);
     const pendingCount = this.collectFlagged(1, this.allPixels, count, this.pending, 0);
@@ -334,7 +333,8 @@ export class AdaptivePixelMeans {
    * `previous`, and pixels whose error indicator exceeds the tolerance flagged in `flags`
    * (1: refine, 2: HOPELESS, straight to S x S).
    */
-  private pixelStencils(k: number, base: number, scale: number): void {
+  private pixelStencils(k: number, base: number): void {
+    const scale = this.scale[k];
     const values = this.latticeValues;
     const pixelsPadded = this.pixelsPadded;
     const count = pixelsPadded.length;
@@ -381,10 +381,17 @@ export class AdaptivePixelMeans {
     return end;
   }
 
-  /** |PSF-convolved lattice values| at the listed pixel of largest |lattice value| (basis at `base`). */
-  private convolvedPeak(base: number): number {
+  /**
+   * scale[k]: |PSF-convolved lattice values| at the listed pixel of largest |lattice value| (basis
+   * at `base`). Written, not returned: a double returned from a call V8 does not inline is boxed,
+   * one allocation per evaluation.
+   */
+  private writeConvolvedPeak(k: number, base: number): void {
     const brightest = this.brightestPixel(base);
-    if (brightest < 0) return 0;
+    if (brightest < 0) {
+      this.scale[k] = 0;
+      return;
+    }
     const values = this.latticeValues;
     const { columns, rows, values: weights } = this.kernel;
     const width = this.width;
@@ -401,7 +408,7 @@ export class AdaptivePixelMeans {
         sum += weights[b * columns + a] * values[base + (jj + 2) * width + ii + 2];
       }
     }
-    return Math.abs(sum);
+    this.scale[k] = Math.abs(sum);
   }
 
   /** Padded index of the listed pixel of largest |lattice value| (basis at `base`), -1 if none. */
@@ -586,48 +593,74 @@ export class AdaptivePixelMeans {
   /**
    * Source-plane positions of the m x m sub-pixels of pixels[e] by tensor-product Lagrange
    * interpolation of degree 4 (Abramowitz & Stegun 1964, 25.2.2) of the traced lattice positions
-   * over the pixel's 5 x 5 neighbourhood, into bx, by from index r on.
+   * over the pixel's 5 x 5 neighbourhood, into bx, by from index r on. The sub-pixel offsets come
+   * in pairs +-t and the weights satisfy w_k(-t) = w_-k(t), so each 1-D interpolation is split
+   * into the part even in t, from f_0 and the sums f_k + f_-k, and the odd part, from the
+   * differences f_k - f_-k (see lagrangeWeights): one pair of offsets for about the work of one.
    */
   private interpolatedBeta(e: number, m: number, weights: Float64Array, bx: Float64Array, by: Float64Array, r: number): void {
     const width = this.width;
     const q = this.pixelsPadded[e];
     const rowX = this.rowX, rowY = this.rowY;
     const betaX = this.latticeBetaX, betaY = this.latticeBetaY;
+    const pairs = (m + 1) >> 1;
     // Along x for the five lattice rows: rowX[b * m + a] at sub-column a.
-    for (let b = 0; b < 5; b++) {
+    for (let b = 0, row = 0; b < 5; b++, row += m) {
       const c = q + (b - 2) * width;
-      const x0 = betaX[c - 2], x1 = betaX[c - 1], x2 = betaX[c], x3 = betaX[c + 1], x4 = betaX[c + 2];
-      const y0 = betaY[c - 2], y1 = betaY[c - 1], y2 = betaY[c], y3 = betaY[c + 1], y4 = betaY[c + 2];
-      for (let a = 0, w = 0; a < m; a++, w += 5) {
+      const x0 = betaX[c], x1 = betaX[c + 1] + betaX[c - 1], x2 = betaX[c + 2] + betaX[c - 2];
+      const u1 = betaX[c + 1] - betaX[c - 1], u2 = betaX[c + 2] - betaX[c - 2];
+      const y0 = betaY[c], y1 = betaY[c + 1] + betaY[c - 1], y2 = betaY[c + 2] + betaY[c - 2];
+      const v1 = betaY[c + 1] - betaY[c - 1], v2 = betaY[c + 2] - betaY[c - 2];
+      for (let h = 0, w = 0; h < pairs; h++, w += 5) {
         const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
-        rowX[b * m + a] = w0 * x0 + w1 * x1 + w2 * x2 + w3 * x3 + w4 * x4;
-        rowY[b * m + a] = w0 * y0 + w1 * y1 + w2 * y2 + w3 * y3 + w4 * y4;
+        const evenX = w0 * x0 + w1 * x1 + w2 * x2, oddX = w3 * u1 + w4 * u2;
+        const evenY = w0 * y0 + w1 * y1 + w2 * y2, oddY = w3 * v1 + w4 * v2;
+        rowX[row + h] = evenX - oddX;
+        rowY[row + h] = evenY - oddY;
+        rowX[row + m - 1 - h] = evenX + oddX;
+        rowY[row + m - 1 - h] = evenY + oddY;
       }
     }
     // Along y: column a of the m x m block from the five row values of that column.
+    const last = r + (m - 1) * m;
     for (let a = 0; a < m; a++) {
-      const x0 = rowX[a], x1 = rowX[m + a], x2 = rowX[2 * m + a], x3 = rowX[3 * m + a], x4 = rowX[4 * m + a];
-      const y0 = rowY[a], y1 = rowY[m + a], y2 = rowY[2 * m + a], y3 = rowY[3 * m + a], y4 = rowY[4 * m + a];
-      for (let c = 0, w = 0, out = r + a; c < m; c++, w += 5, out += m) {
+      const x0 = rowX[2 * m + a], x1 = rowX[3 * m + a] + rowX[m + a], x2 = rowX[4 * m + a] + rowX[a];
+      const u1 = rowX[3 * m + a] - rowX[m + a], u2 = rowX[4 * m + a] - rowX[a];
+      const y0 = rowY[2 * m + a], y1 = rowY[3 * m + a] + rowY[m + a], y2 = rowY[4 * m + a] + rowY[a];
+      const v1 = rowY[3 * m + a] - rowY[m + a], v2 = rowY[4 * m + a] - rowY[a];
+      for (let h = 0, w = 0, low = r + a, high = last + a; h < pairs; h++, w += 5, low += m, high -= m) {
         const w0 = weights[w], w1 = weights[w + 1], w2 = weights[w + 2], w3 = weights[w + 3], w4 = weights[w + 4];
-        bx[out] = w0 * x0 + w1 * x1 + w2 * x2 + w3 * x3 + w4 * x4;
-        by[out] = w0 * y0 + w1 * y1 + w2 * y2 + w3 * y3 + w4 * y4;
+        const evenX = w0 * x0 + w1 * x1 + w2 * x2, oddX = w3 * u1 + w4 * u2;
+        const evenY = w0 * y0 + w1 * y1 + w2 * y2, oddY = w3 * v1 + w4 * v2;
+        bx[low] = evenX - oddX;
+        by[low] = evenY - oddY;
+        bx[high] = evenX + oddX;
+        by[high] = evenY + oddY;
       }
     }
   }
 
-  /** Lagrange weights on the nodes -2..2 at the m sub-pixel offsets (a + 1/2)/m - 1/2, 5 per offset. */
+  /**
+   * Lagrange weights w_k(t) on the nodes k = -2..2 (Abramowitz & Stegun 1964, 25.2.2) at the
+   * sub-pixel offsets t = (a + 1/2)/m - 1/2 >= 0, a = m - 1 - h for h = 0..ceil(m/2) - 1, as five
+   * numbers per offset: w_0, (w_1 + w_-1)/2, (w_2 + w_-2)/2, (w_1 - w_-1)/2, (w_2 - w_-2)/2, the
+   * weights of f_0, f_1 + f_-1, f_2 + f_-2 (even part) and f_1 - f_-1, f_2 - f_-2 (odd part). At
+   * -t the even part is the same and the odd part changes sign.
+   */
   private lagrangeWeights(m: number): Float64Array {
     const cached = this.weightsByFactor.get(m);
     if (cached !== undefined) return cached;
-    const weights = new Float64Array(5 * m);
-    for (let a = 0; a < m; a++) {
-      const t = (a + 0.5) / m - 0.5;
+    const pairs = (m + 1) >> 1;
+    const weights = new Float64Array(5 * pairs);
+    const w = new Float64Array(5);
+    for (let h = 0; h < pairs; h++) {
+      const t = (m - 1 - h + 0.5) / m - 0.5;
       for (let k = -2; k <= 2; k++) {
-        let w = 1;
-        for (let j = -2; j <= 2; j++) if (j !== k) w *= (t - j) / (k - j);
-        weights[5 * a + k + 2] = w;
+        let product = 1;
+        for (let j = -2; j <= 2; j++) if (j !== k) product *= (t - j) / (k - j);
+        w[k + 2] = product;
       }
+      weights.set([w[2], (w[3] + w[1]) / 2, (w[4] + w[0]) / 2, (w[3] - w[1]) / 2, (w[4] - w[0]) / 2], 5 * h);
     }
     this.weightsByFactor.set(m, weights);
     return weights;
@@ -640,7 +673,7 @@ export class AdaptivePixelMeans {
       this.pixelsByLevel[level + 1] = pendingCount;
       return 0;
     }
-    this.extrapolate(this.richardsonByLevel[level], pendingCount);
+    this.extrapolate(level, pendingCount);
     const directBefore = this.directCount;
     this.directCount = this.collectFlagged(2, this.pending, pendingCount, this.direct, directBefore);
     const kept = this.collectFlagged(1, this.pending, pendingCount, this.pending, 0);
@@ -659,10 +692,11 @@ export class AdaptivePixelMeans {
   }
 
   /**
-   * Richardson extrapolation (factor `factor`) of the pending pixels into `means`; each is flagged
-   * in `flags`: 0 done, 1 still above the tolerance, 2 above HOPELESS tolerances.
+   * Richardson extrapolation (the factor of `level`) of the pending pixels into `means`; each is
+   * flagged in `flags`: 0 done, 1 still above the tolerance, 2 above HOPELESS tolerances.
    */
-  private extrapolate(factor: number, pendingCount: number): void {
+  private extrapolate(level: number, pendingCount: number): void {
+    const factor = this.richardsonByLevel[level];
     const count = this.pixels.length;
     const means = this.means, previous = this.previous, current = this.current;
     const pending = this.pending, flagged = this.flags;

@@ -10,10 +10,10 @@ const SERIES_BELOW = 1e-6;
 /**
  * The singular isothermal ellipsoid of src/lens/isothermalEllipsoid.ts (Kormann, Schneider &
  * Bartelmann 1994; Keeton 2001 for the core), same parameters, same formulas, with the
- * deflection's atan and atanh from fastAtan.ts (atanh by fastLog). The atanh argument z = e u_y
- * has |z| <= e, so its absolute error is below 2e-16 (1 + 2 artanh e) plus a rounding, and the
- * deflection's below (b/e) 5e-16 for e < 1/2 (<= 1.2e3 b 5e-16, since e >= 1e-3 outside the series
- * branch) and 2 b 2e-16 (2 + 2 artanh e) < 3e-15 b for 1/2 <= e, q >= 0.1: under 1e-12 arcsec for
+ * deflection's atan and atanh from fastAtan.ts. The atanh argument z = e u_y has |z| <= e: for
+ * e <= 7/8 fastAtanh errs below 1e-15 relative, so the deflection below (b/e) 1e-15 artanh e
+ * < 1.6e-15 b; beyond (by fastLog) below 2e-16 (1 + 2 artanh e) plus a rounding absolute, the
+ * deflection below 2 b 2e-16 (2 + 2 artanh e) < 3e-15 b for q >= 0.1: under 1e-12 arcsec for
  * any Einstein radius below 300 arcsec (tested against isothermalEllipsoid.ts in
  * test/model/fastElementary.test.ts). Convergence and potential are the plain ones.
  */

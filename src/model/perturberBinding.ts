@@ -3,8 +3,8 @@ import type { ComponentConfig } from '../config/arcsiftConfig.js';
 import type { LensingContext } from '../cosmology/index.js';
 import type { MassProfile } from '../lens/massProfile.js';
 import {
-  duffy2008Concentration, nfwEnclosedMassFactor, perturberProfiles, pointMassEinsteinRadiusArcsec,
-  pseudoJaffeStrengthArcsec, subhaloFromMass, nfwFromMass,
+  duffy2008Concentration, perturberProfiles, pointMassEinsteinRadiusArcsec, pseudoJaffeStrengthArcsec,
+  subhaloFromMass, nfwFromMass, writeNfwLensingParameters,
 } from '../perturber/index.js';
 import type { ParameterCollector } from './componentBinding.js';
 
@@ -43,8 +43,8 @@ const massNames = ['log10MassSolar', 'centerXArcsec', 'centerYArcsec'];
 /**
  * Binds a perturber: its sampled mass is log10 of M200 in solar masses for NFW and truncated
  * NFW (concentration from Duffy et al. 2008 unless the config gives `concentration`), and log10
- * of the total mass for the point mass and the pseudo-Jaffe. The mass-to-lensing conversion runs
- * inline through Sigma_crit of the lensing context.
+ * of the total mass for the point mass and the pseudo-Jaffe. The mass-to-lensing conversion is
+ * subhaloLensing.ts's allocation-free writeNfwLensingParameters.
  */
 export function bindPerturber(
   component: ComponentConfig, collector: ParameterCollector, lensing: LensingContext, offset: number, file: string,
@@ -70,8 +70,6 @@ export function bindPerturber(
   const base = { kind, key: component.key, profile, massIndex, centerXIndex, centerYIndex, positionPrior: component.positionPrior };
   const z = lensing.lensRedshift;
   const littleH = lensing.littleH;
-  // r200 = (3 M / (800 pi rho_crit))^(1/3) (Navarro, Frenk & White 1996 with Delta = 200).
-  const r200Factor = 3 / (800 * Math.PI * lensing.criticalDensitySolarPerMpc3);
   const concentrationIndex = hasConcentration ? indices[names.indexOf('concentration')] : -1;
 
   if (kind === 'truncatedNfw' || kind === 'nfw') {
@@ -79,10 +77,7 @@ export function bindPerturber(
     const write = (model: Float64Array, p: Float64Array): void => {
       const mass = Math.pow(10, model[massIndex]);
       const c = concentrationIndex >= 0 ? model[concentrationIndex] : duffy2008Concentration(mass, z, littleH);
-      const rsMpc = Math.cbrt(mass * r200Factor) / c;
-      const rhoS = mass / (4 * Math.PI * rsMpc * rsMpc * rsMpc * nfwEnclosedMassFactor(c));
-      p[offset] = (rhoS * rsMpc) / lensing.criticalSurfaceDensitySolarPerMpc2;
-      p[offset + 1] = rsMpc / lensing.mpcPerArcsec;
+      writeNfwLensingParameters(mass, c, lensing, p, offset);
       if (tauIndex >= 0) {
         p[offset + 2] = model[tauIndex];
         p[offset + 3] = model[centerXIndex];
