@@ -7,6 +7,7 @@ import { loadObservedData } from '../data/loadObservedData.js';
 import { simulateToFolder } from '../model/simulateToFolder.js';
 import { defaultThreadCount } from '../parallel/likelihoodPool.js';
 import { compareModels } from '../inference/compareModels.js';
+import { wholeNumberOption } from './benchOptions.js';
 import { machineParallelism } from './machineParallelism.js';
 
 const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.url));
@@ -19,15 +20,8 @@ const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.ur
  * job as a user runs it. The cut runs are the same on any thread count (same ln Z printed).
  */
 export async function run(args: string[]): Promise<void> {
-  const option = (name: string, fallback: number): number => {
-    const at = args.indexOf(name);
-    if (at < 0) return fallback;
-    const value = Number(args[at + 1]);
-    if (!(Number.isInteger(value) && value >= 1)) throw new Error(`${name}: expected a whole number >= 1, found ${args[at + 1]}`);
-    return value;
-  };
-  const maxEvaluations = option('--evaluations', 10_000);
-  const pairs = option('--pairs', 2);
+  const maxEvaluations = wholeNumberOption(args, '--evaluations', 10_000);
+  const pairs = wholeNumberOption(args, '--pairs', 2);
   const config = loadConfig(demoPath);
   const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-compare-'));
   try {

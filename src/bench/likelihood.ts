@@ -9,6 +9,7 @@ import { LikelihoodPool, defaultThreadCount } from '../parallel/likelihoodPool.j
 import { runModelEvidence } from '../inference/runModelEvidence.js';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
+import { benchOption, wholeNumberOption } from './benchOptions.js';
 import { machineParallelism } from './machineParallelism.js';
 
 /**
@@ -78,9 +79,8 @@ async function nestedTiming(config: ArcsiftConfig, data: ObservedData, threads: 
  * one timed run to the next, so short runs understate the speed-up of a real fit.
  */
 export async function run(args: string[]): Promise<void> {
-  const only = args.indexOf('--only') >= 0 ? args[args.indexOf('--only') + 1] : undefined;
-  const evaluations = args.indexOf('--evaluations') >= 0 ? Number(args[args.indexOf('--evaluations') + 1]) : 20_000;
-  if (!(Number.isInteger(evaluations) && evaluations >= 100)) throw new Error(`--evaluations: expected a whole number >= 100, found ${evaluations}`);
+  const only = benchOption(args, '--only');
+  const evaluations = wholeNumberOption(args, '--evaluations', 20_000, 100);
   for (const scenario of forwardScenarios().filter((s) => only === undefined || s.name === only)) {
     const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-'));
     try {

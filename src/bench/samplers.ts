@@ -8,6 +8,7 @@ import { gaussianShellsLnEvidence, gaussianShellsProblem } from '../sampling/nes
 import { twistedGaussianLnEvidence, twistedGaussianProblem } from '../sampling/nested/problems/twistedGaussian.js';
 import { autoEllipsoidMaxDim, runNested } from '../sampling/nested/runNested.js';
 import type { NestedProblem } from '../sampling/nested/nestedProblem.js';
+import { benchOption } from './benchOptions.js';
 
 interface Scenario {
   readonly problem: string;
@@ -17,15 +18,10 @@ interface Scenario {
   readonly methods: ReadonlyArray<'auto' | 'ellipsoids' | 'slice'>;
 }
 
-function option(args: string[], name: string): string | undefined {
-  const at = args.indexOf(name);
-  return at >= 0 ? args[at + 1] : undefined;
-}
-
 export async function run(args: string[]): Promise<void> {
-  const seed = Number(option(args, '--seed') ?? 1);
-  const livePoints = Number(option(args, '--live') ?? 400);
-  const only = option(args, '--only');
+  const seed = Number(benchOption(args, '--seed') ?? 1);
+  const livePoints = Number(benchOption(args, '--live') ?? 400);
+  const only = benchOption(args, '--only');
   const scenarios: Scenario[] = [];
   if (only === undefined || only === 'shells') {
     for (const dim of [2, 5, 10, 20]) {

@@ -8,6 +8,7 @@ import { simulateToFolder } from '../model/simulateToFolder.js';
 import { defaultThreadCount } from '../parallel/likelihoodPool.js';
 import { vetFlags } from '../vet/vetFlags.js';
 import type { FlagCandidate } from '../vet/flagCandidate.js';
+import { benchOption, wholeNumberOption } from './benchOptions.js';
 
 const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.url));
 
@@ -18,9 +19,7 @@ const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.ur
  * planted subhalo, three other places on the arc and one off it.
  */
 export async function run(args: string[]): Promise<void> {
-  const at = args.indexOf('--threads');
-  const only = at < 0 ? undefined : Number(args[at + 1]);
-  if (only !== undefined && !(Number.isInteger(only) && only >= 1)) throw new Error(`--threads: expected a whole number >= 1, found ${args[at + 1]}`);
+  const only = benchOption(args, '--threads') === undefined ? undefined : wholeNumberOption(args, '--threads', 1);
   const config = loadConfig(demoPath);
   const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-vet-'));
   try {

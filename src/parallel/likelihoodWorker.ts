@@ -61,6 +61,7 @@ parentPort!.on('message', (message: Message) => {
     evaluator.nonFinite = 0;
     runSliceChain(message.chain, evaluator.evaluate).then(
       (result) => parentPort!.postMessage({ chain: { ...result, nonFinite: evaluator.nonFinite } }),
+      // Thrown again outside the promise: the worker's 'error' event fails the pool's calls.
       (error: unknown) => {
         throw error;
       },

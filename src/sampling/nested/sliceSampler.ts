@@ -130,6 +130,9 @@ export async function sliceChains(
   const batchPhysical = new Float64Array(chains * perChain * physicalDim);
   const gaussian = new Float64Array(dim);
   const point = new Float64Array(dim);
+  // Stepping out: expansions listed this round and whether each side is still open (by side).
+  const listed = new Int32Array(2);
+  const open = new Uint8Array(2);
   const seeds = stream instanceof SeededStream ? sliceChainSeeds(stream, chains) : stream;
   const streams = Array.from({ length: chains }, (_, chain) => SeededStream.fromSeed(seeds[chain]));
   let evaluations = 0;
@@ -181,7 +184,7 @@ export async function sliceChains(
 
   // One chain to the end of its moves: list its next points (entries), evaluate them in one
   // call, take the answers in order. Listing and taking are synchronous, so the chains, which
-  // interleave only while awaiting, can share the scratch rows `point` and `gaussian`.
+  // interleave only while awaiting, can share the scratch `point`, `gaussian`, `listed`, `open`.
   const runChain = async (chain: number): Promise<void> => {
     const base = chain * perChain;
     const chainUnit = batchUnit.subarray(base * dim, (base + perChain) * dim);
@@ -205,39 +208,26 @@ export async function sliceChains(
       // pending, and listed as unevaluated entries behind pending ones.
       while (entries < perChain && phase[chain] !== done) {
         if (phase[chain] === stepping) {
-          let listedLeft = 0;
-          let listedRight = 0;
-          let leftOpen = leftBudget[chain] > 0;
-          let rightOpen = rightBudget[chain] > 0;
+          // Alternate the sides, listing each side's next expansions until it is closed (its
+          // budget used, or a step off the cube).
+          listed[leftEnd] = listed[rightEnd] = 0;
+          open[leftEnd] = leftBudget[chain] > 0 ? 1 : 0;
+          open[rightEnd] = rightBudget[chain] > 0 ? 1 : 0;
           let side = leftEnd;
-          while (entries < perChain && (leftOpen || rightOpen)) {
-            if (side === leftEnd && !leftOpen) side = rightEnd;
-            else if (side === rightEnd && !rightOpen) side = leftEnd;
-            if (side === leftEnd) {
-              const step = lower[chain] - listedLeft;
-              if (!place(chain, step)) {
-                leftOpen = false;
-                if (rows === 0) leftBudget[chain] = 0;
-                else addEntry(leftEnd, step, false);
-              } else {
-                addEntry(leftEnd, step, true);
-                listedLeft++;
-                if (listedLeft === leftBudget[chain]) leftOpen = false;
-              }
-              side = rightEnd;
+          while (entries < perChain && (open[leftEnd] === 1 || open[rightEnd] === 1)) {
+            if (open[side] === 0) side = 1 - side;
+            const budget = side === leftEnd ? leftBudget : rightBudget;
+            const step = side === leftEnd ? lower[chain] - listed[side] : upper[chain] + listed[side];
+            if (!place(chain, step)) {
+              open[side] = 0;
+              if (rows === 0) budget[chain] = 0;
+              else addEntry(side, step, false);
             } else {
-              const step = upper[chain] + listedRight;
-              if (!place(chain, step)) {
-                rightOpen = false;
-                if (rows === 0) rightBudget[chain] = 0;
-                else addEntry(rightEnd, step, false);
-              } else {
-                addEntry(rightEnd, step, true);
-                listedRight++;
-                if (listedRight === rightBudget[chain]) rightOpen = false;
-              }
-              side = leftEnd;
+              addEntry(side, step, true);
+              listed[side]++;
+              if (listed[side] === budget[chain]) open[side] = 0;
             }
+            side = 1 - side;
           }
           if (entries > 0) break;
           // Both sides closed without an evaluation: the bracket is final.
