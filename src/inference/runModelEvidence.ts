@@ -119,7 +119,8 @@ export async function runModelEvidence(
         logLikelihood: (points, count) => pool.evaluate(points, count),
         // Chains run in the workers, next to the likelihood, unless a transform of the caller's
         // own (which a worker cannot rebuild) is part of the prior.
-        runSliceChain: pool.inWorkers && additional === undefined ? (request) => pool.runSliceChain(request) : undefined,
+        runSliceChain: pool.inWorkers && additional === undefined ? (request, stop) => pool.runSliceChain(request, stop) : undefined,
+        idleThreads: () => pool.idleThreads,
       },
       {
         livePoints: settings.livePoints,

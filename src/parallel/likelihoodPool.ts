@@ -7,8 +7,8 @@ import type { LikelihoodTask } from './likelihoodTask.js';
 import { workerScriptUrl } from './workerScriptUrl.js';
 import type { SliceChainRequest, SliceChainResult } from '../sampling/nested/sliceSampler.js';
 
-/** A worker's answer: the ln L of a run of points, or where a slice chain ended. */
-export type WorkerReply = { readonly values: Float64Array } | { readonly chain: SliceChainResult };
+/** A worker's answer: the ln L of a run of points, where a slice chain ended, or that it was stopped. */
+export type WorkerReply = { readonly values: Float64Array } | { readonly chain: SliceChainResult } | { readonly stopped: true };
 
 /**
  * What a worker is asked, waiting for or held by a worker: a run of consecutive points of one
@@ -17,7 +17,7 @@ export type WorkerReply = { readonly values: Float64Array } | { readonly chain: 
 interface Job {
   readonly message:
     | { readonly model: number; readonly points: Float64Array; readonly count: number }
-    | { readonly model: number; readonly chain: SliceChainRequest };
+    | { readonly model: number; readonly chain: SliceChainRequest; readonly stop?: Int32Array };
   readonly done: (reply: WorkerReply) => void;
   readonly reject: (error: Error) => void;
 }
@@ -43,8 +43,14 @@ export interface ModelPool {
   readonly messages: number;
   /** Batch sizes of the calls made so far. */
   readonly occupancy: BatchOccupancy;
+  /** Worker threads with nothing to do right now (nothing queued), for any model of the pool. */
+  readonly idleThreads: number;
   evaluate(points: Float64Array, count: number): Promise<Float64Array>;
-  runSliceChain(request: SliceChainRequest): Promise<SliceChainResult>;
+  /**
+   * `stop`, if given: an Int32Array on a SharedArrayBuffer; once its first entry is set
+   * (Atomics.store), the worker stops the chain before its next evaluation and the call rejects.
+   */
+  runSliceChain(request: SliceChainRequest, stop?: Int32Array): Promise<SliceChainResult>;
 }
 
 /** Counters of one model of a pool. */
@@ -117,6 +123,10 @@ export class LikelihoodPool implements ModelPool {
     return this.locals === undefined;
   }
 
+  get idleThreads(): number {
+    return this.queue.length === 0 ? this.idle.length : 0;
+  }
+
   private fail(error: Error): void {
     this.failure = error;
     for (const job of this.running.values()) job.reject(error);
@@ -180,8 +190,11 @@ export class LikelihoodPool implements ModelPool {
         return counters.messages;
       },
       occupancy: counters.occupancy,
+      get idleThreads() {
+        return pool.idleThreads;
+      },
       evaluate: (points, count) => pool.evaluateModel(k, points, count),
-      runSliceChain: (request) => pool.runModelSliceChain(k, request),
+      runSliceChain: (request, stop) => pool.runModelSliceChain(k, request, stop),
     };
   }
 
@@ -194,8 +207,8 @@ export class LikelihoodPool implements ModelPool {
   }
 
   /** Runs one slice chain of a nested-sampling step in the next idle worker (see runModelSliceChain). */
-  runSliceChain(request: SliceChainRequest): Promise<SliceChainResult> {
-    return this.runModelSliceChain(0, request);
+  runSliceChain(request: SliceChainRequest, stop?: Int32Array): Promise<SliceChainResult> {
+    return this.runModelSliceChain(0, request, stop);
   }
 
   private async evaluateModel(model: number, points: Float64Array, count: number): Promise<Float64Array> {
@@ -236,15 +249,16 @@ export class LikelihoodPool implements ModelPool {
   /**
    * Runs one slice chain of a nested-sampling step of model `model` in the next idle worker,
    * which holds the model's prior transform and likelihood, so the chain's points need no
-   * message each. Workers only (inWorkers).
+   * message each. Workers only (inWorkers). See ModelPool.runSliceChain for `stop`.
    */
-  private runModelSliceChain(model: number, request: SliceChainRequest): Promise<SliceChainResult> {
+  private runModelSliceChain(model: number, request: SliceChainRequest, stop?: Int32Array): Promise<SliceChainResult> {
     if (this.failure !== undefined) return Promise.reject(this.failure);
     if (this.locals !== undefined) return Promise.reject(new Error('runSliceChain needs worker threads'));
     return new Promise<SliceChainResult>((resolve, reject) => {
       this.queue.push({
-        message: { model, chain: request },
+        message: stop === undefined ? { model, chain: request } : { model, chain: request, stop },
         done: (reply) => {
+          if ('stopped' in reply) return reject(new Error('slice chain stopped on request'));
           if (!('chain' in reply)) return reject(new Error('likelihood worker: expected a chain, got values'));
           this.counters[model].evaluations += reply.chain.evaluations;
           resolve(reply.chain);

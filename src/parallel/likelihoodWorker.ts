@@ -47,7 +47,10 @@ class HeldModel {
 // Every model is built at once, so that a bad task fails at start, not inside a run.
 const held = tasks.map((task) => new HeldModel(task));
 
-type Message = { model: number; points: Float64Array; count: number } | { model: number; chain: SliceChainRequest };
+type Message = { model: number; points: Float64Array; count: number } | { model: number; chain: SliceChainRequest; stop?: Int32Array };
+
+/** Thrown inside a chain whose stop flag was set (see ModelPool.runSliceChain). */
+class ChainStopped extends Error {}
 
 parentPort!.on('message', (message: Message) => {
   // Answers are copied, not transferred. Transferring detaches the sender's ArrayBuffer, and the
@@ -59,10 +62,19 @@ parentPort!.on('message', (message: Message) => {
     const evaluator = model.evaluatorOfChains();
     evaluator.evaluations = 0;
     evaluator.nonFinite = 0;
-    runSliceChain(message.chain, evaluator.evaluate).then(
+    const stop = message.stop;
+    const evaluate: typeof evaluator.evaluate = stop === undefined ? evaluator.evaluate : (unit, count, physicalOut) => {
+      if (Atomics.load(stop, 0) !== 0) throw new ChainStopped();
+      return evaluator.evaluate(unit, count, physicalOut);
+    };
+    runSliceChain(message.chain, evaluate).then(
       (result) => parentPort!.postMessage({ chain: { ...result, nonFinite: evaluator.nonFinite } }),
-      // Thrown again outside the promise: the worker's 'error' event fails the pool's calls.
       (error: unknown) => {
+        if (error instanceof ChainStopped) {
+          parentPort!.postMessage({ stopped: true });
+          return;
+        }
+        // Thrown again outside the promise: the worker's 'error' event fails the pool's calls.
         throw error;
       },
     );

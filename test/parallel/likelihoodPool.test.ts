@@ -87,6 +87,22 @@ describe('the likelihood worker pool', () => {
     expect(single.messages).toBe(0);
   }, 180_000);
 
+  it('gives the same nested run when the next step\'s chains start early on an idle thread', async () => {
+    // A thread freed by one of a step's two chains starts the next step's chains early
+    // (earlyChains.ts); an early chain is used only if its request is exactly the step's own.
+    const settings = { livePoints: 40, seed: 11, method: 'slice' as const, replacementsPerStep: 2, lnZTolerance: 0.3, maxEvaluations: 1500, sliceStepsPerParameter: 1 };
+    const single = await runModelEvidence(config, data, 1, { ...settings, threads: 1 });
+    const double = await runModelEvidence(config, data, 1, { ...settings, threads: 2 });
+    expect(double.result.lnZ).toBe(single.result.lnZ);
+    expect(Array.from(double.result.points)).toEqual(Array.from(single.result.points));
+    expect(double.result.evaluations).toBe(single.result.evaluations);
+    expect(single.result.earlyChains).toEqual({ used: 0, discarded: 0 });
+    // Early chains were started and the guesses held: a wrong guess of the next step's inputs
+    // would leave the result intact but drop every early chain.
+    expect(double.result.earlyChains.used).toBeGreaterThan(5);
+    expect(double.result.earlyChains.used).toBeGreaterThan(5 * double.result.earlyChains.discarded);
+  }, 180_000);
+
   it('gives the same nested run with speculative chains (2 points per call) run in workers', async () => {
     const settings = { livePoints: 12, seed: 9, method: 'slice' as const, replacementsPerStep: 3, lnZTolerance: 0.5, maxEvaluations: 400, sliceStepsPerParameter: 1, slicePointsPerChain: 2 };
     const single = await runModelEvidence(config, data, 1, { ...settings, threads: 1 });

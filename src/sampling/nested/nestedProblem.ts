@@ -25,8 +25,16 @@ export interface NestedProblem {
    * Optional, slice sampling: runs one whole chain where the likelihood lives (a worker thread
    * holding this problem's transform and likelihood) and answers as runSliceChain would here. The
    * sampler then sends one message per chain instead of one per point; the result is the same.
+   * `stop`, if given, is an Int32Array on a SharedArrayBuffer: once its first entry is set, the
+   * chain ends before its next evaluation and the call rejects (an early chain not needed).
    */
-  runSliceChain?(request: SliceChainRequest): Promise<SliceChainResult>;
+  runSliceChain?(request: SliceChainRequest, stop?: Int32Array): Promise<SliceChainResult>;
+  /**
+   * Optional, with runSliceChain: how many threads are idle now. When one is while a step's last
+   * chain runs, the next step's chains start early (EarlyChains in earlyChains.ts); the result is
+   * the same, only sooner.
+   */
+  idleThreads?(): number;
 }
 
 /** How constrained draws are made. 'auto': ellipsoids for dim <= autoEllipsoidMaxDim, slice above. */
@@ -117,6 +125,12 @@ export interface NestedResult {
    * ellipsoids). A deterministic measure of how well the chains can share a worker pool.
    */
   readonly chainParallelism: number;
+  /**
+   * Slice chains in worker threads: chains of a step started before it (see earlyChains.ts) and
+   * used, and dropped because the step turned out otherwise (their evaluations are not counted
+   * in `evaluations`). Timing decides these counts, never the result.
+   */
+  readonly earlyChains: { readonly used: number; readonly discarded: number };
   readonly nonFiniteCount: number;
   /** physical points, rows of physicalDim: all dead points, then the final live points by ascending ln L. */
   readonly points: Float64Array;

@@ -18,8 +18,10 @@ import { emptyState, recordState, restoreState } from './nestedState.js';
 import type { NestedSettings, NestedState } from './nestedState.js';
 import { derivedSeed } from './seededStream.js';
 import { batchLnVolumes, lnInitialVolume, lnVolumeSlice } from './shrinkage.js';
-import { sliceChainSeeds, sliceChains } from './sliceSampler.js';
+import { sliceChainSeeds, sliceChains, type SliceChainRequest, type SliceSettings } from './sliceSampler.js';
+import { chainStartSlots, EarlyChains, nextStepChains } from './earlyChains.js';
 import { BatchEvaluator } from './batchEvaluator.js';
+import { lowestSlots } from './lowestSlots.js';
 
 /**
  * 'auto' uses ellipsoids up to this many dimensions and slice sampling above. From
@@ -62,6 +64,9 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   }
   const record = options.resume === true && checkpointPath !== undefined ? readCheckpoint(checkpointPath, settings) : null;
   const evaluator = new BatchEvaluator(problem);
+  const early = problem.runSliceChain !== undefined && problem.idleThreads !== undefined
+    ? new EarlyChains((request, stop) => problem.runSliceChain!(request, stop), () => problem.idleThreads!())
+    : null;
   let state: NestedState;
   if (record !== null) {
     state = restoreState(record);
@@ -92,7 +97,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
       break;
     }
     if (settings.method === 'ellipsoids') await ellipsoidStep(state, evaluator);
-    else await sliceStep(state, evaluator, problem);
+    else await sliceStep(state, evaluator, problem, early);
     const iterations = iterationsOf(state);
     const block = Math.floor(iterations / settings.livePoints);
     if (block > lastProgressBlock) {
@@ -110,7 +115,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   }
   saveCheckpoint();
   report();
-  return finishedResult(state, stopReason);
+  return finishedResult(state, stopReason, early);
 }
 
 function iterationsOf(state: NestedState): number {
@@ -267,29 +272,6 @@ function removeLowest(state: NestedState): { slots: Int32Array; threshold: numbe
   return { slots, threshold };
 }
 
-/** Indices of the k lowest values, ascending (ties by index): k scans for small k, else a sort. */
-function lowestSlots(values: Float64Array, k: number): Int32Array {
-  const slots = new Int32Array(k);
-  if (k <= 8) {
-    for (let j = 0; j < k; j++) {
-      let best = -1;
-      for (let i = 0; i < values.length; i++) {
-        if (best !== -1 && !(values[i] < values[best])) continue;
-        let taken = false;
-        for (let previous = 0; previous < j; previous++) if (slots[previous] === i) taken = true;
-        if (!taken) best = i;
-      }
-      slots[j] = best;
-    }
-    return slots;
-  }
-  const order = new Int32Array(values.length);
-  for (let i = 0; i < values.length; i++) order[i] = i;
-  order.sort((a, b) => values[a] - values[b] || a - b);
-  slots.set(order.subarray(0, k));
-  return slots;
-}
-
 /** Puts new points into the freed slots in order, recording each one's insertion rank. */
 function insertNewPoints(state: NestedState, slots: Int32Array, unit: Float64Array, physical: Float64Array, lnL: Float64Array): void {
   const { dim, physicalDim, livePoints } = state.settings;
@@ -408,44 +390,37 @@ async function ellipsoidStep(state: NestedState, evaluator: BatchEvaluator): Pro
 }
 
 /** One step with k slice-sampling chains (run side by side) started from random surviving live points. */
-async function sliceStep(state: NestedState, evaluator: BatchEvaluator, problem: NestedProblem): Promise<void> {
+async function sliceStep(state: NestedState, evaluator: BatchEvaluator, problem: NestedProblem, early: EarlyChains | null): Promise<void> {
   const { dim, physicalDim, replacementsPerStep: k } = state.settings;
   const { slots, threshold } = removeLowest(state);
-  const survivors = survivorRows(state);
   const iterations = iterationsOf(state);
-  if (state.whitening === null || iterations - state.whiteningBuiltAt >= state.settings.boundUpdateInterval) {
-    state.whitening = liveCovarianceFactor(survivors.rows, survivors.count, dim);
-    state.whiteningBuiltAt = iterations;
-  }
+  // The chains use the whitening as it stood when the step began (built now only in the first
+  // step); a rebuild due now is made from this step's survivors for the next step on. So the
+  // next step's chains depend on nothing this step's chains produce except their end points,
+  // which lets EarlyChains start them before this step ends.
+  if (state.whitening === null) rebuildWhitening(state, iterations);
+  const whitening = state.whitening!;
+  if (iterations - state.whiteningBuiltAt >= state.settings.boundUpdateInterval) rebuildWhitening(state, iterations);
+  const starts = chainStartSlots(state.liveLnL, k, state.stream);
   const startUnit = new Float64Array(k * dim);
   const startPhysical = new Float64Array(k * physicalDim);
   const startLnL = new Float64Array(k);
   for (let chain = 0; chain < k; chain++) {
-    const slot = survivors.slots[state.stream.integer(survivors.count)];
+    const slot = starts[chain];
     startUnit.set(state.liveUnit.subarray(slot * dim, slot * dim + dim), chain * dim);
     startPhysical.set(state.livePhysical.subarray(slot * physicalDim, slot * physicalDim + physicalDim), chain * physicalDim);
     startLnL[chain] = state.liveLnL[slot];
   }
-  const periodicFlags = state.settings.periodic.some((flag) => flag) ? Uint8Array.from(state.settings.periodic, (flag) => (flag ? 1 : 0)) : null;
   const newUnit = new Float64Array(k * dim);
   const newPhysical = new Float64Array(k * physicalDim);
   const newLnL = new Float64Array(k);
   const chainEvaluations = new Int32Array(k);
-  const sliceSettings = {
-    dim,
-    physicalDim,
-    steps: state.settings.sliceSteps,
-    periodic: periodicFlags,
-    widthScale: state.settings.sliceWidthScale,
-    maxExpansions: 100,
-    pointsPerChain: state.settings.slicePointsPerChain,
-  };
+  const sliceSettings = sliceSettingsOf(state);
   let remoteEvaluations = 0;
   if (problem.runSliceChain !== undefined) {
     // Each chain runs where the likelihood is; the seeds are those sliceChains would draw.
     const seeds = sliceChainSeeds(state.stream, k);
-    const whitening = state.whitening;
-    const results = await Promise.all(seeds.map((seed, chain) => problem.runSliceChain!({
+    const requests: SliceChainRequest[] = seeds.map((seed, chain) => ({
       seed,
       startUnit: startUnit.slice(chain * dim, chain * dim + dim),
       startPhysical: startPhysical.slice(chain * physicalDim, chain * physicalDim + physicalDim),
@@ -453,7 +428,13 @@ async function sliceStep(state: NestedState, evaluator: BatchEvaluator, problem:
       threshold,
       whitening,
       settings: sliceSettings,
-    })));
+    }));
+    const results = early === null
+      ? await Promise.all(requests.map((request) => problem.runSliceChain!(request)))
+      : await early.runStep(state.steps, requests, (partial, pending) => nextStepChains({
+        liveLnL: state.liveLnL, liveUnit: state.liveUnit, livePhysical: state.livePhysical, slots, stream: state.stream,
+        whitening: state.whitening!, settings: sliceSettings,
+      }, partial, pending));
     results.forEach((result, chain) => {
       newUnit.set(result.unit, chain * dim);
       newPhysical.set(result.physical, chain * physicalDim);
@@ -465,7 +446,7 @@ async function sliceStep(state: NestedState, evaluator: BatchEvaluator, problem:
     state.evaluations += remoteEvaluations;
   } else {
     await sliceChains(
-      k, startUnit, startPhysical, startLnL, threshold, state.whitening, sliceSettings, state.stream, evaluator.evaluate,
+      k, startUnit, startPhysical, startLnL, threshold, whitening, sliceSettings, state.stream, evaluator.evaluate,
       newUnit, newPhysical, newLnL, chainEvaluations,
     );
   }
@@ -478,6 +459,27 @@ async function sliceStep(state: NestedState, evaluator: BatchEvaluator, problem:
   state.replacementsAccepted += k;
   state.replacementEvaluations += absorbCounts(state, evaluator) + remoteEvaluations;
   insertNewPoints(state, slots, newUnit, newPhysical, newLnL);
+}
+
+/** The whitening (liveCovarianceFactor) of the surviving live points, built at `iterations`. */
+function rebuildWhitening(state: NestedState, iterations: number): void {
+  const survivors = survivorRows(state);
+  state.whitening = liveCovarianceFactor(survivors.rows, survivors.count, state.settings.dim);
+  state.whiteningBuiltAt = iterations;
+}
+
+/** The slice settings of a run (the same every step). */
+function sliceSettingsOf(state: NestedState): SliceSettings {
+  const { dim, physicalDim } = state.settings;
+  return {
+    dim,
+    physicalDim,
+    steps: state.settings.sliceSteps,
+    periodic: state.settings.periodic.some((flag) => flag) ? Uint8Array.from(state.settings.periodic, (flag) => (flag ? 1 : 0)) : null,
+    widthScale: state.settings.sliceWidthScale,
+    maxExpansions: 100,
+    pointsPerChain: state.settings.slicePointsPerChain,
+  };
 }
 
 /** Lower Cholesky factor of the sample covariance of `count` rows (ridge-loaded if singular). */
@@ -497,7 +499,7 @@ function liveCovarianceFactor(rows: Float64Array, count: number, dim: number): F
 }
 
 /** Assembles the result: dead points, then the final live points at X_final / N each. */
-function finishedResult(state: NestedState, stopReason: NestedStopReason): NestedResult {
+function finishedResult(state: NestedState, stopReason: NestedStopReason, early: EarlyChains | null): NestedResult {
   const { dim, physicalDim, livePoints, seed, method } = state.settings;
   const deadCount = iterationsOf(state);
   const count = deadCount + livePoints;
@@ -560,6 +562,7 @@ function finishedResult(state: NestedState, stopReason: NestedStopReason): Neste
     evaluations: state.evaluations,
     efficiency: state.replacementEvaluations > 0 ? state.replacementsAccepted / state.replacementEvaluations : 1,
     chainParallelism: state.longestChainEvaluations > 0 ? state.chainEvaluations / state.longestChainEvaluations : 1,
+    earlyChains: { used: early?.used ?? 0, discarded: early?.discarded ?? 0 },
     nonFiniteCount: state.nonFiniteCount,
     points,
     unitPoints,
