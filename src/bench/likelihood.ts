@@ -1,4 +1,7 @@
+import { execFile } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { promisify } from 'node:util';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { loadObservedData } from '../data/loadObservedData.js';
@@ -6,11 +9,14 @@ import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { simulateToFolder } from '../model/simulateToFolder.js';
 import { bestMillisecondsPerCall, forwardScenarios } from './forward.js';
 import { LikelihoodPool, defaultThreadCount } from '../parallel/likelihoodPool.js';
-import { runModelEvidence } from '../inference/runModelEvidence.js';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { benchOption, wholeNumberOption } from './benchOptions.js';
 import { machineParallelism } from './machineParallelism.js';
+import { fitDefaultNestedSettings } from './nestedRun.js';
+
+const execFileAsync = promisify(execFile);
+const benchMain = fileURLToPath(new URL('./main.js', import.meta.url));
 
 /**
  * Wall-clock milliseconds per likelihood through the worker pool with `threads` threads: batches
@@ -38,49 +44,45 @@ async function poolMilliseconds(config: ArcsiftConfig, data: ObservedData, threa
   }
 }
 
-/** A nested-sampling run of the perturbed model cut at a fixed number of evaluations. */
+/** A nested-sampling run of the perturbed model cut at a fixed number of evaluations (see nestedRun.ts). */
 interface NestedTiming {
   readonly seconds: number;
+  /** CPU seconds of the whole process (every thread). */
+  readonly cpuSeconds: number;
+  readonly lnZ: number;
   /** likelihood evaluations per new live point (initial draws excluded). */
   readonly evaluationsPerReplacement: number;
   /** messages to worker threads per likelihood evaluation (0 on one thread). */
   readonly messagesPerEvaluation: number;
-  /** chain evaluations over each step's longest chain: the speed-up limit of one thread per chain. */
+  /** chain evaluations over each step's longest chain: the speed-up limit of one thread per chain without early chains. */
   readonly chainParallelism: number;
+  readonly earlyChains: { readonly used: number; readonly discarded: number };
+}
+
+/** A nested run of `scenario` on the data in `folder`, in a fresh process (nestedRun.ts). */
+async function nestedTiming(scenario: string, folder: string, threads: number, evaluations: number): Promise<NestedTiming> {
+  const { stdout } = await execFileAsync(process.execPath, [
+    benchMain, 'nestedRun', '--folder', folder, '--only', scenario, '--threads', String(threads), '--evaluations', String(evaluations),
+  ], { maxBuffer: 1 << 20 });
+  const lines = stdout.trim().split('\n');
+  return JSON.parse(lines[lines.length - 1]) as NestedTiming;
 }
 
 /**
- * Seconds for a nested-sampling run of the perturbed model with the command line's sampler
- * settings (slice sampling, 25 live points as in the demo, 2 live points replaced per step, 1
- * slice move per free parameter), cut at `evaluations`, with the run's deterministic
- * figures (the same for any thread count).
- */
-async function nestedTiming(config: ArcsiftConfig, data: ObservedData, threads: number, evaluations: number): Promise<NestedTiming> {
-  const started = performance.now();
-  const run = await runModelEvidence(config, data, config.perturbers.length, {
-    livePoints: 25, seed: 1, method: 'slice', replacementsPerStep: 2, sliceStepsPerParameter: 1, lnZTolerance: 0.1, threads, maxEvaluations: evaluations,
-  });
-  return {
-    seconds: (performance.now() - started) / 1000,
-    evaluationsPerReplacement: 1 / run.result.efficiency,
-    messagesPerEvaluation: run.messages / run.result.evaluations,
-    chainParallelism: run.result.chainParallelism,
-  };
-}
-
-/**
- * `npm run bench -- likelihood`: milliseconds per PixelLikelihood.logLikelihood (the model with
- * the config's perturbers, at the true parameters) on one thread, for the scenarios of the
- * forward benchmark (supersampling 8), each simulated to a temporary folder and read back as a
- * fit reads its data (`--only demo` for one scenario); "allThreads" gives the worker-pool
- * figures (batches of 64, and a nested run of the perturbed model cut at `--evaluations N`,
- * default 20,000, see nestedTiming) on every core and on one. Worker threads start cold (~0.7 s
- * to start two, then unoptimised code for a while) while the calling thread stays warm from
- * one timed run to the next, so short runs understate the speed-up of a real fit.
+ * `npm run bench -- likelihood [--only NAME] [--evaluations N] [--pairs P]`: milliseconds per
+ * PixelLikelihood.logLikelihood (the model with the config's perturbers, at the true parameters)
+ * on one thread, for the scenarios of the forward benchmark (supersampling 8), each simulated to a
+ * temporary folder and read back as a fit reads its data; "allThreads" gives the worker-pool
+ * figures: batches of 64 on every core and on one, and a nested run of the perturbed model with
+ * the settings of `arcsift fit` (200 live points, 2 replaced per step, 2 slice moves per free
+ * parameter), cut at N evaluations (default 20,000), on one thread and on every core, in P
+ * alternating pairs (default 3), each run in a fresh process (nestedRun.ts): both start cold, as
+ * a user's fit does. Starting two worker threads costs about 0.5 s, which weighs on short runs.
  */
 export async function run(args: string[]): Promise<void> {
   const only = benchOption(args, '--only');
   const evaluations = wholeNumberOption(args, '--evaluations', 20_000, 100);
+  const pairs = wholeNumberOption(args, '--pairs', 3);
   for (const scenario of forwardScenarios().filter((s) => only === undefined || s.name === only)) {
     const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-'));
     try {
@@ -95,19 +97,21 @@ export async function run(args: string[]): Promise<void> {
       const threads = defaultThreadCount();
       const poolOne = await poolMilliseconds(scenario.config, data, 1, model);
       const poolAll = await poolMilliseconds(scenario.config, data, threads, model);
-      // Two pairs, one thread then all, alternating, as other work on a shared machine comes
-      // and goes: the best of each, and each pair's ratio (sorted).
+      // Pairs of runs, one thread then all, alternating, as other work on a shared machine comes
+      // and goes: the best of each, and each pair's ratio (sorted). Each run in a fresh process.
       let nestedOne = Number.POSITIVE_INFINITY;
       let nestedAll = Number.POSITIVE_INFINITY;
       let figures: NestedTiming | undefined;
       const pairRatios: number[] = [];
+      const lnZ = new Set<number>();
       const coresBefore = await machineParallelism(threads);
-      for (let repeat = 0; repeat < 2; repeat++) {
-        const one = await nestedTiming(scenario.config, data, 1, evaluations);
-        const all = await nestedTiming(scenario.config, data, threads, evaluations);
+      for (let repeat = 0; repeat < pairs; repeat++) {
+        const one = await nestedTiming(scenario.name, folder, 1, evaluations);
+        const all = await nestedTiming(scenario.name, folder, threads, evaluations);
         nestedOne = Math.min(nestedOne, one.seconds);
         nestedAll = Math.min(nestedAll, all.seconds);
         pairRatios.push(one.seconds / all.seconds);
+        lnZ.add(one.lnZ).add(all.lnZ);
         figures = all;
       }
       pairRatios.sort((a, b) => a - b);
@@ -135,9 +139,14 @@ export async function run(args: string[]): Promise<void> {
           nestedSpeedUpPairs: pairRatios.map((ratio) => Number(ratio.toFixed(2))),
           // Cores that `threads` busy threads got just before and after the nested runs.
           coresAvailable: [Number(coresBefore.toFixed(2)), Number(coresAfter.toFixed(2))],
+          nestedSettings: { ...fitDefaultNestedSettings, maxEvaluations: evaluations },
+          // One value when every run gave the same ln Z (results do not depend on threads).
+          nestedLnZ: [...lnZ],
           nestedEvaluationsPerReplacement: Number(figures!.evaluationsPerReplacement.toFixed(2)),
           nestedMessagesPerEvaluation: Number(figures!.messagesPerEvaluation.toFixed(3)),
           nestedChainParallelism: Number(figures!.chainParallelism.toFixed(3)),
+          nestedEarlyChains: figures!.earlyChains,
+          nestedCpuSecondsAllThreads: Number(figures!.cpuSeconds.toFixed(2)),
         },
       }));
     } finally {
