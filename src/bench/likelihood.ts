@@ -75,11 +75,12 @@ async function nestedTiming(scenario: string, folder: string, threads: number, e
  * temporary folder and read back as a fit reads its data; "allThreads" gives the worker-pool
  * figures: batches of 64 on every core and on one, and a nested run of the perturbed model with
  * the settings of `arcsift fit` (200 live points, 2 replaced per step, 2 slice moves per free
- * parameter), cut at N evaluations (default 100,000: about two minutes on one thread; the demo's
- * own perturbed run, with a quarter of the live points, takes about 170,000), on one thread and on every core, in P alternating pairs
- * (default 2), each run in a fresh process (nestedRun.ts): both start cold, as a user's fit does.
- * Starting two worker threads costs about 0.5 s (mostly loading modules), which weighs on short
- * runs: measured 1.73x at 20,000 evaluations, 1.81x at 60,000, 1.89-2.19x at 100,000.
+ * parameter), cut at N evaluations (default 100,000: about two minutes on one thread; the
+ * demo's own perturbed run, with a quarter of the live points, takes about 170,000), on one
+ * thread and on every core, in P alternating pairs (default 2), each run in a fresh process
+ * (nestedRun.ts): both start cold, as a user's fit does. Starting two worker threads costs about
+ * 0.5 s (mostly loading modules), which weighs on short runs: measured 1.73x at 20,000
+ * evaluations, 1.81x at 60,000, 1.89-2.19x at 100,000.
  */
 export async function run(args: string[]): Promise<void> {
   const only = benchOption(args, '--only');
