@@ -1,11 +1,13 @@
 import { loadObservedData } from '../data/loadObservedData.js';
 import { runModelEvidence } from '../inference/runModelEvidence.js';
+import { fitLivePoints } from '../cli/fitCommand.js';
+import { defaultSliceStepsPerParameter, replacementsPerStep } from '../cli/samplerOptions.js';
 import { benchOption, wholeNumberOption } from './benchOptions.js';
 import { forwardScenarios } from './forward.js';
 
 /** The settings `arcsift fit` runs nested sampling with by default (fitCommand.ts, samplerOptions.ts). */
 export const fitDefaultNestedSettings = {
-  livePoints: 200, seed: 1, method: 'auto', replacementsPerStep: 2, sliceStepsPerParameter: 2, lnZTolerance: 0.1,
+  livePoints: fitLivePoints, seed: 1, method: 'auto', replacementsPerStep, sliceStepsPerParameter: defaultSliceStepsPerParameter, lnZTolerance: 0.1,
 } as const;
 
 /**

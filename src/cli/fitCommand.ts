@@ -145,6 +145,9 @@ function ensembleSettingsOf(args: FitArguments, seed: number, threads: number, o
   };
 }
 
+/** Live points of `fit`'s nested sampling unless --live-points says otherwise. */
+export const fitLivePoints = 200;
+
 export const fitCommand: CommandModule<object, FitArguments> = {
   command: 'fit',
   describe: 'Fit one lens model (smooth, or with the config\'s perturbers) by nested sampling or ensemble MCMC',
@@ -158,7 +161,7 @@ export const fitCommand: CommandModule<object, FitArguments> = {
     .option('steps', { type: 'number', default: defaultEnsembleFitSettings.maxSteps, describe: 'ensemble: largest number of iterations' })
     .option('target-autocorrelation-times', { type: 'number', default: defaultEnsembleFitSettings.targetAutocorrelationTimes, describe: 'ensemble: stop once the chain after burn-in is this many autocorrelation times long' })
     .option('move', { choices: ['stretch', 'differentialEvolution'] as const, default: 'stretch' as const, describe: 'ensemble: proposal move' })
-    .option('start-from', { type: 'string', describe: 'ensemble: start the walkers from the equal-weight samples of an earlier nested fit (its folder, or a samples CSV such as an ensemble fit\'s chain.csv) [default: a small ball around the config\'s values]' })), { livePoints: 200 })
+    .option('start-from', { type: 'string', describe: 'ensemble: start the walkers from the equal-weight samples of an earlier nested fit (its folder, or a samples CSV such as an ensemble fit\'s chain.csv) [default: a small ball around the config\'s values]' })), { livePoints: fitLivePoints })
     .example('$0 fit --config configs/demo.yaml --data chains/mock --perturbers 0', 'nested-sampling fit of the smooth model')
     .example('$0 fit --config configs/demo.yaml --data chains/mock --sampler ensemble --start-from chains/demo-fit --out chains/demo-mcmc', 'ensemble MCMC started from a nested fit'),
   handler: async (args) => {

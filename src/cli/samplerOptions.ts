@@ -8,6 +8,11 @@ import type { NestedMethod } from '../sampling/nested/index.js';
 import { wholeNumberOption } from './dataOptions.js';
 import { progressPrinter } from './progressPrinter.js';
 
+/** Live points each nested-sampling step replaces, in every command (the result depends on it, never on --threads). */
+export const replacementsPerStep = 2;
+/** Slice moves per new live point, per free parameter, unless a command sets its own default. */
+export const defaultSliceStepsPerParameter = 2;
+
 export interface SamplerArguments {
   threads?: number;
   seed: number;
@@ -28,7 +33,7 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
     .option('seed', { type: 'number', default: 1, describe: 'seed of the sampler (results do not depend on --threads)' })
     .option('live-points', { type: 'number', default: defaults.livePoints, describe: 'live points of each nested-sampling run' })
     .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: 'auto', describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters, slice otherwise)' })
-    .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? 2, describe: 'slice moves per new live point, per free parameter' })
+    .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? defaultSliceStepsPerParameter, describe: 'slice moves per new live point, per free parameter' })
     .option('tolerance', { type: 'number', default: 0.1, describe: 'stop when the live points could add less than this to ln Z' })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
     .option('checkpoint-seconds', { type: 'number', default: 30, describe: 'seconds between checkpoints of the sampler state' })
@@ -54,7 +59,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string, option
       livePoints, seed, threads, maxEvaluations,
       method: args.method as NestedMethod,
       sliceStepsPerParameter: positiveOption('slice-steps', args['slice-steps']),
-      replacementsPerStep: 2,
+      replacementsPerStep,
       lnZTolerance: args.tolerance,
       resume: args.resume,
       checkpointSeconds: positiveOption('checkpoint-seconds', args['checkpoint-seconds']),

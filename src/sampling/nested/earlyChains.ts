@@ -76,9 +76,13 @@ export function nextStepChains(
 /** Whether two chain requests would run the same chain (the settings are those of one run). */
 function sameRequest(a: SliceChainRequest, b: SliceChainRequest): boolean {
   if (a.seed !== b.seed || a.threshold !== b.threshold || a.startLnL !== b.startLnL || a.whitening !== b.whitening) return false;
-  for (let i = 0; i < a.startUnit.length; i++) if (a.startUnit[i] !== b.startUnit[i]) return false;
-  for (let i = 0; i < a.startPhysical.length; i++) if (a.startPhysical[i] !== b.startPhysical[i]) return false;
-  return a.startUnit.length === b.startUnit.length && a.startPhysical.length === b.startPhysical.length;
+  return sameValues(a.startUnit, b.startUnit) && sameValues(a.startPhysical, b.startPhysical);
+}
+
+function sameValues(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /** A chain of a later step, started before its step, and what it was started on. */

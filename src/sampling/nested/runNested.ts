@@ -51,8 +51,10 @@ export const shrinkageSimulations = 200;
  * Bridges 2009) or by independent slice-sampling chains (Neal 2003; Handley, Hobson & Lasenby 2015).
  * The run stops when ln(Z + X_i max L_live) - ln Z < lnZTolerance (Skilling 2006); the final live
  * points are then added with X_final / N each. Ellipsoid candidates go to the likelihood in one call
- * per round; slice chains each send their own points and overlap. No random draw depends on
- * timing, so (seed, k, and for slice sampling the points per chain s) fixes the result.
+ * per round; slice chains each send their own points and overlap, or run whole in worker threads,
+ * where a thread freed during a step starts the next step's chains early (earlyChains.ts). No
+ * random draw depends on timing, so (seed, k, and for slice sampling the points per chain s)
+ * fixes the result.
  */
 export async function runNested(problem: NestedProblem, options: NestedOptions = {}): Promise<NestedResult> {
   const settings = resolveSettings(problem, options);
