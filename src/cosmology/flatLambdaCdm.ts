@@ -1,5 +1,5 @@
 import { InputError, expectedFound } from '../errors.js';
-import { integrateAdaptiveGaussLegendre } from './adaptiveGaussLegendre.js';
+import { integrateAdaptiveGaussLegendre } from '../numeric/quadrature/adaptiveGaussLegendre.js';
 import {
   arcsecRadians, megaparsecMetres, solarMassParameterSi, speedOfLightMetresPerSecond,
 } from './physicalConstants.js';

@@ -1,5 +1,4 @@
 export * from './physicalConstants.js';
-export { integrateAdaptiveGaussLegendre } from './adaptiveGaussLegendre.js';
 export {
   flatLambdaCdm, distanceRelativeAccuracy, type FlatLambdaCdm, type FlatLambdaCdmParameters,
 } from './flatLambdaCdm.js';

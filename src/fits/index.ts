@@ -34,7 +34,7 @@ export { iterateHdus, listHdus, type FitsHduInfo } from './scanHdus.js';
 export { decodePixels } from './decodePixels.js';
 export { encodePixels, type PixelEncoding } from './encodePixels.js';
 export { pixelScaleFromHeader, requireSquarePixelScaleArcsec, SQUARE_PIXEL_TOLERANCE, type PixelScale } from './pixelScale.js';
-export { readFileBytes } from './readFileBytes.js';
+export { readFileBytes } from '../io/readFileBytes.js';
 export { decodeFitsImage, readFitsImage, type FitsImage, type FitsImageSelection } from './readFits.js';
 export {
   encodeFits,

@@ -2,7 +2,7 @@ import { InputError } from '../errors.js';
 import type { Bitpix } from './bitpix.js';
 import { decodePixels } from './decodePixels.js';
 import type { FitsHeader } from './header.js';
-import { readFileBytes } from './readFileBytes.js';
+import { readFileBytes } from '../io/readFileBytes.js';
 import { pixelScaleFromHeader, type PixelScale } from './pixelScale.js';
 import { iterateHdus, type FitsHduInfo } from './scanHdus.js';
 

@@ -1,10 +1,6 @@
-import { createRequire } from 'node:module';
-import type erfType from '@stdlib/math/base/special/erf';
+import { erf } from '../numeric/special/stdlibSpecial.js';
 import { InputError, expectedFound } from '../errors.js';
 import { checkKernelSize, normaliseInPlace, type PsfKernel, type PsfSampling } from './psfKernel.js';
-
-const require = createRequire(import.meta.url);
-const erf = require('@stdlib/math/base/special/erf') as typeof erfType;
 
 /** FWHM = 2 sqrt(2 ln 2) sigma for a Gaussian (common practice). */
 export const GAUSSIAN_FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);

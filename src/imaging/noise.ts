@@ -1,9 +1,5 @@
-import { createRequire } from 'node:module';
-import type normalType from '@stdlib/random/base/normal';
 import { InputError, expectedFound } from '../errors.js';
-
-const require = createRequire(import.meta.url);
-const normal = require('@stdlib/random/base/normal') as typeof normalType;
+import { SeededStream } from '../numeric/random/seededStream.js';
 
 /**
  * Per-pixel 1-sigma noise of an image in counts (electrons) per second:
@@ -29,14 +25,13 @@ export function noiseSigmaMap(
 }
 
 /**
- * Writes image + sigma * N(0, 1) into out (out may be image), with the normal deviates of
- * @stdlib/random/base/normal on its MT19937 generator seeded by `seed`: the same seed gives
- * the same noise on every run and platform.
+ * Writes image + sigma * N(0, 1) into out (out may be image), with the normal deviates of the
+ * seeded stream (SeededStream): the same seed gives the same noise on every run and platform.
  */
 export function addGaussianNoise(image: Float64Array, sigma: Float64Array, seed: number, out: Float64Array): void {
   if (!Number.isInteger(seed) || seed < 1 || seed > 0xffffffff) {
     throw new InputError(expectedFound('a whole-number seed from 1 to 4294967295', seed), { key: 'seed' });
   }
-  const draw = normal.factory(0, 1, { seed });
-  for (let k = 0; k < image.length; k++) out[k] = image[k] + sigma[k] * draw();
+  const stream = SeededStream.fromSeed(seed);
+  for (let k = 0; k < image.length; k++) out[k] = image[k] + sigma[k] * stream.normal();
 }

@@ -1,5 +1,6 @@
 import type { ModelEvidence } from './runModelEvidence.js';
-import { parameterColumn, parameterSummary, upperLimit, weightsFromLogWeights, type ParameterSummary } from '../results/index.js';
+import { weightsFromLogWeights } from '../numeric/statistics/weightsFromLogWeights.js';
+import { parameterColumn, parameterSummary, upperLimit, type ParameterSummary } from '../results/index.js';
 
 /** Posterior summary of one perturber: mass, position and derived masses. */
 export interface PerturberSummary {

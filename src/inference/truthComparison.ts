@@ -1,5 +1,6 @@
 import type { Comparison } from './compareModels.js';
-import { parameterColumn, weightsFromLogWeights } from '../results/index.js';
+import { weightsFromLogWeights } from '../numeric/statistics/weightsFromLogWeights.js';
+import { parameterColumn } from '../results/index.js';
 
 /** Where a planted (true) value falls in a weighted posterior. */
 export interface TruthPlacement {

@@ -2,9 +2,10 @@ import { join } from 'node:path';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
+import { equalWeightResample } from '../numeric/resampling/equalWeightResample.js';
+import { weightsFromLogWeights } from '../numeric/statistics/weightsFromLogWeights.js';
 import {
-  cornerData, equalWeightResample, parameterColumn, parameterSummary, weightsFromLogWeights,
-  writeEqualWeightSamplesCsv, writeWeightedSamplesCsv,
+  cornerData, parameterColumn, parameterSummary, writeEqualWeightSamplesCsv, writeWeightedSamplesCsv,
 } from '../results/index.js';
 import type { ModelEvidence } from './runModelEvidence.js';
 import { writeFitImages } from './writeFitImages.js';

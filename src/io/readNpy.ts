@@ -1,5 +1,5 @@
 import { InputError } from '../errors.js';
-import { readFileBytes } from '../fits/readFileBytes.js';
+import { readFileBytes } from './readFileBytes.js';
 
 /**
  * A 2-D array read from an NPY file, laid out as arcsift's images: index i + nx * j is column i

@@ -1,8 +1,4 @@
-import { createRequire } from 'node:module';
-import type gammaincinvType from '@stdlib/math/base/special/gammaincinv';
-
-const require = createRequire(import.meta.url);
-const gammaincinv = require('@stdlib/math/base/special/gammaincinv') as typeof gammaincinvType;
+import { gammaincinv } from '../numeric/special/stdlibSpecial.js';
 
 /**
  * Below this Sersic index the asymptotic expansion is not used. Ciotti & Bertin (1999) give it

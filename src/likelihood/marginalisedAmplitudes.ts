@@ -1,4 +1,4 @@
-import { choleskyFactor, choleskySolveInPlace } from './choleskySolve.js';
+import { choleskyFactor, choleskySolveInPlace } from '../numeric/linearAlgebra/choleskyFactor.js';
 
 /**
  * Gaussian pixel likelihood with the linear light amplitudes integrated out analytically.

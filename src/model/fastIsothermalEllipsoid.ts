@@ -1,7 +1,7 @@
 import type { MassProfile } from '../lens/massProfile.js';
 import { isothermalEllipsoid } from '../lens/isothermalEllipsoid.js';
-import { fastAtanhInPlace, fastAtanInPlace } from './fastAtan.js';
-import { passScratch } from './passScratch.js';
+import { fastAtanhInPlace, fastAtanInPlace } from '../numeric/elementary/fastAtan.js';
+import { passScratch } from '../numeric/elementary/passScratch.js';
 
 const DEG = Math.PI / 180;
 /** As in isothermalEllipsoid.ts: below this 1 - q^2 the deflection uses the series of atan(z)/z, atanh(z)/z. */

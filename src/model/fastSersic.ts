@@ -2,9 +2,9 @@ import type { LightProfile } from '../light/lightProfile.js';
 import { sersic } from '../light/sersic.js';
 import { ellipticalQuadraticForm } from '../light/ellipticalQuadraticForm.js';
 import { sersicCoefficient } from '../light/sersicCoefficient.js';
-import { fastExp } from './fastExp.js';
-import { fastLog } from './fastLog.js';
-import { PowerTable } from './powerTable.js';
+import { fastExp } from '../numeric/elementary/fastExp.js';
+import { fastLog } from '../numeric/elementary/fastLog.js';
+import { PowerTable } from '../numeric/elementary/powerTable.js';
 
 const form = new Float64Array(3);
 const powers = new PowerTable();

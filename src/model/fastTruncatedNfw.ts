@@ -1,9 +1,9 @@
 import type { MassProfile } from '../lens/massProfile.js';
 import { truncatedNfw } from '../perturber/truncatedNfw.js';
 import { nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio } from '../perturber/nfwProjection.js';
-import { fastAtan } from './fastAtan.js';
-import { fastLog } from './fastLog.js';
-import { passScratch } from './passScratch.js';
+import { fastAtan } from '../numeric/elementary/fastAtan.js';
+import { fastLog } from '../numeric/elementary/fastLog.js';
+import { passScratch } from '../numeric/elementary/passScratch.js';
 import { TruncatedNfwDeflectionTable } from './truncatedNfwDeflectionTable.js';
 
 /** Calls with at least this many points build the table for a new truncation ratio (about 0.1 ms). */

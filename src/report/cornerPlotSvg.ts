@@ -1,6 +1,6 @@
 import type { CornerData, CornerPair, CornerParameter } from '../results/cornerData.js';
 import { cornerPairRegions } from './cornerPairRegions.js';
-import type { ContourRegion } from './contourRegion.js';
+import type { ContourRegion } from '../numeric/contour/contourRegion.js';
 import { escapeMarkup } from './escapeMarkup.js';
 import { digitsForSpread, formatNumber } from './formatNumber.js';
 import { formatTick, niceTicks } from './niceTicks.js';

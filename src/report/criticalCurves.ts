@@ -1,5 +1,5 @@
 import type { MassTerm } from '../model/lensSystem.js';
-import { contourRegion } from './contourRegion.js';
+import { contourRegion } from '../numeric/contour/contourRegion.js';
 
 /** Critical curves and caustics of a lens, as polylines of flat (x0, y0, x1, y1, ...) arcsec. */
 export interface LensCurves {

@@ -1,8 +1,6 @@
 export { bayesFactorTable } from './bayesFactorTable.js';
 export { colourHex, colourIndex, colourMapFromStops, COLOUR_MAP_SIZE } from './colourMap.js';
 export type { ColourMap, ColourStop } from './colourMap.js';
-export { binCentres, contourRegion } from './contourRegion.js';
-export type { ContourRegion, GridValues } from './contourRegion.js';
 export { cornerPairRegions, REFINEMENT } from './cornerPairRegions.js';
 export type { PairRegions } from './cornerPairRegions.js';
 export { cornerPlotSvg } from './cornerPlotSvg.js';
@@ -10,7 +8,6 @@ export type { CornerLayer, CornerPlotOptions } from './cornerPlotSvg.js';
 export { diagnosticsTable } from './diagnosticsTable.js';
 export { pixelQuantile, sequentialRange, symmetricRange } from './displayRange.js';
 export { divergingColourMap, DIVERGING_MAP_SIZE } from './divergingColourMap.js';
-export { enclosingLevels } from './enclosingLevels.js';
 export { escapeMarkup } from './escapeMarkup.js';
 export { evidenceTable, LN_EVIDENCE_DIGITS } from './evidenceTable.js';
 export { digitsForSpread, formatCount, formatNumber } from './formatNumber.js';

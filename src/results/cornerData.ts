@@ -2,7 +2,7 @@ import { InputError, expectedFound } from '../errors.js';
 import { densityLevels, MASS_ONE_SIGMA_2D, MASS_TWO_SIGMA_2D } from './densityLevels.js';
 import { parameterColumn } from './parameterColumn.js';
 import { parameterSummary, type ParameterSummary } from './parameterSummary.js';
-import { checkRows, checkWeightedValues } from './sampleChecks.js';
+import { checkRows, checkWeightedValues } from '../numeric/statistics/sampleChecks.js';
 import { smoothHistogram2d } from './smoothHistogram2d.js';
 import { weightedHistogram1d, weightedHistogram2d, type AxisRange } from './weightedHistogram.js';
 import { weightedQuantiles } from './weightedQuantile.js';

@@ -1,4 +1,4 @@
-import { checkProbability } from './sampleChecks.js';
+import { checkProbability } from '../numeric/statistics/sampleChecks.js';
 import { weightedQuantiles } from './weightedQuantile.js';
 
 /** A central credible interval: equal posterior mass (1 - mass) / 2 below `lower` and above `upper`. */

@@ -1,4 +1,5 @@
-import { checkProbability } from './sampleChecks.js';
+import { checkProbability } from '../numeric/statistics/sampleChecks.js';
+import { enclosingLevels } from '../numeric/statistics/enclosingLevels.js';
 import { smoothHistogram2d } from './smoothHistogram2d.js';
 import type { Histogram2d } from './weightedHistogram.js';
 
@@ -29,23 +30,5 @@ export function densityLevels(histogram: Histogram2d, options: DensityLevelOptio
   for (const mass of masses) checkProbability(mass, 'enclosed mass of a density level');
   const smoothing = options.smoothingSigmaBins ?? 0;
   const densities = smoothing > 0 ? smoothHistogram2d(histogram, smoothing).densities : histogram.densities;
-  const descending = Float64Array.from(densities).sort().reverse();
-  const running = new Float64Array(descending.length);
-  let total = 0;
-  for (let i = 0; i < descending.length; i++) {
-    total += descending[i];
-    running[i] = total;
-  }
-  return masses.map((mass) => {
-    if (!(total > 0)) return NaN;
-    const target = mass * total;
-    let low = 0;
-    let high = running.length - 1;
-    while (low < high) {
-      const middle = (low + high) >>> 1;
-      if (running[middle] >= target) high = middle;
-      else low = middle + 1;
-    }
-    return descending[low];
-  });
+  return enclosingLevels(densities, densities, masses);
 }

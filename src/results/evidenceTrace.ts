@@ -1,3 +1,5 @@
+import { logAddExp } from '../numeric/statistics/logSumExp.js';
+
 /** How a nested-sampling run built up its evidence, point by point in the order of the run. */
 export interface EvidenceTrace {
   /** ln of the evidence accumulated up to and including each point. */
@@ -28,11 +30,4 @@ export function evidenceTrace(lnWeight: ArrayLike<number>, lnLikelihood: ArrayLi
     if (Number.isFinite(lnVolume)) later = logAddExp(later, lnVolume);
   }
   return { accumulatedLnZ, lnX };
-}
-
-/** ln(e^a + e^b) without overflow. */
-function logAddExp(a: number, b: number): number {
-  if (a === -Infinity) return b;
-  if (b === -Infinity) return a;
-  return a > b ? a + Math.log1p(Math.exp(b - a)) : b + Math.log1p(Math.exp(a - b));
 }

@@ -8,9 +8,6 @@ export { credibleInterval } from './credibleInterval.js';
 export type { CredibleInterval } from './credibleInterval.js';
 export { densityLevels, MASS_ONE_SIGMA_2D, MASS_TWO_SIGMA_2D } from './densityLevels.js';
 export type { DensityLevelOptions } from './densityLevels.js';
-export { equalWeightResample } from './equalWeightResample.js';
-export { kishEffectiveSampleSize } from './kishEffectiveSampleSize.js';
-export type { EqualWeightSamples } from './equalWeightResample.js';
 export { parameterColumn } from './parameterColumn.js';
 export { CREDIBLE_MASS_68, CREDIBLE_MASS_95, parameterSummary } from './parameterSummary.js';
 export type { ParameterSummary } from './parameterSummary.js';
@@ -21,7 +18,6 @@ export { upperLimit } from './upperLimit.js';
 export { weightedHistogram1d, weightedHistogram2d } from './weightedHistogram.js';
 export type { AxisRange, Histogram1d, Histogram2d } from './weightedHistogram.js';
 export { weightedQuantile, weightedQuantiles } from './weightedQuantile.js';
-export { weightsFromLogWeights } from './weightsFromLogWeights.js';
 export {
   EQUAL_WEIGHT_SAMPLES_TITLE,
   formatEqualWeightSamplesCsv,

@@ -1,12 +1,5 @@
-import { createRequire } from 'node:module';
-import type erfcinvType from '@stdlib/math/base/special/erfcinv';
-import type erfcxType from '@stdlib/math/base/special/erfcx';
+import { erfcinv, erfcx } from '../numeric/special/stdlibSpecial.js';
 import { InputError, expectedFound } from '../errors.js';
-
-// @stdlib packages are CommonJS folders without an exports map: Node's ESM loader needs require.
-const require = createRequire(import.meta.url);
-const erfcinv = require('@stdlib/math/base/special/erfcinv') as typeof erfcinvType;
-const erfcx = require('@stdlib/math/base/special/erfcx') as typeof erfcxType;
 
 /** Below this ln p the p-value itself would leave the normal double range; sigma is found from ln p. */
 const LN_P_DIRECT_FLOOR = -700;

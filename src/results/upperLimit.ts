@@ -1,4 +1,4 @@
-import { checkProbability } from './sampleChecks.js';
+import { checkProbability } from '../numeric/statistics/sampleChecks.js';
 import { weightedQuantile } from './weightedQuantile.js';
 
 /**

@@ -1,5 +1,5 @@
 import { InputError, expectedFound } from '../errors.js';
-import { checkWeightedValues } from './sampleChecks.js';
+import { checkWeightedValues } from '../numeric/statistics/sampleChecks.js';
 
 /** A range [low, high] of one axis, low < high. */
 export type AxisRange = readonly [number, number];

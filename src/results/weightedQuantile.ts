@@ -1,4 +1,4 @@
-import { checkProbability, checkWeightedValues } from './sampleChecks.js';
+import { checkProbability, checkWeightedValues } from '../numeric/statistics/sampleChecks.js';
 
 /**
  * Quantiles of weighted samples, all from one sort.

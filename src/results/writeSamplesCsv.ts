@@ -1,6 +1,6 @@
 import { InputError, expectedFound } from '../errors.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { checkRows } from './sampleChecks.js';
+import { checkRows } from '../numeric/statistics/sampleChecks.js';
 
 /**
  * arcsift's sample tables (CSV, RFC 4180 quoting, lines ending in "\n"):

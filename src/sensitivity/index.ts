@@ -1,5 +1,4 @@
 // Detection-sensitivity maps: the smallest perturber mass the data would detect, over a grid of positions.
-export { nelderMead, type NelderMeadOptions, type NelderMeadResult } from './nelderMead.js';
 export { LinearAmplitudeChiSquare } from './linearAmplitudeChiSquare.js';
 export {
   defaultRefitSettings, PlantedPerturberStatistic, type RefitSettings, type SmoothBestFit,

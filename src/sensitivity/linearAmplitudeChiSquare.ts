@@ -1,4 +1,4 @@
-import { choleskyFactor, choleskySolveInPlace } from '../likelihood/choleskySolve.js';
+import { choleskyFactor, choleskySolveInPlace } from '../numeric/linearAlgebra/choleskyFactor.js';
 
 /**
  * chi^2 of a target image against a linear combination of basis images, minimised over the

@@ -7,7 +7,7 @@ import type { ParameterSpace } from '../sampling/parameterSpace.js';
 import { makePrior } from '../sampling/priors/makePrior.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { LinearAmplitudeChiSquare } from './linearAmplitudeChiSquare.js';
-import { nelderMead } from './nelderMead.js';
+import { nelderMead } from '../numeric/optimisation/nelderMead.js';
 
 /** How the smooth model is refitted to a planted image. */
 export interface RefitSettings {

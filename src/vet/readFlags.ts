@@ -1,5 +1,4 @@
-import type { ObservedData } from '../data/observedData.js';
-import { pixelOfPosition, type FlagCandidate } from './flagCandidate.js';
+import { pixelOfPosition, type FlagCandidate, type FlagGrid } from './flagCandidate.js';
 import { defaultMapCandidateSettings, mapCandidates, type MapCandidateSettings } from './mapCandidates.js';
 import { readFlagList } from './readFlagList.js';
 import { isProbabilityMapFile, readProbabilityMap, type ProbabilityMap } from './readProbabilityMap.js';
@@ -22,7 +21,7 @@ export interface FlagSet {
  * image (readProbabilityMap, then mapCandidates), chosen by the file's extension.
  */
 export function readFlags(
-  file: string, data: Pick<ObservedData, 'columns' | 'rows' | 'pixelScaleArcsec' | 'mask'>, mapSettings: MapCandidateSettings = defaultMapCandidateSettings,
+  file: string, data: FlagGrid & { readonly mask: Uint8Array }, mapSettings: MapCandidateSettings = defaultMapCandidateSettings,
 ): FlagSet {
   const notices: string[] = [];
   if (isProbabilityMapFile(file)) {

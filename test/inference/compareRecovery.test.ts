@@ -9,7 +9,8 @@ import { simulateToFolder } from '../../src/model/simulateToFolder.js';
 import { compareModels, type Comparison } from '../../src/inference/compareModels.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
 import { placeTruth } from '../../src/inference/truthComparison.js';
-import { parameterColumn, parameterSummary, weightsFromLogWeights } from '../../src/results/index.js';
+import { weightsFromLogWeights } from '../../src/numeric/index.js';
+import { parameterColumn, parameterSummary } from '../../src/results/index.js';
 
 // Recovery on mock images made by `simulate` (an invented scenario: test/fixtures/inference/
 // small-lens.yaml). The reference is the truth the mock was made from; a sound inference puts

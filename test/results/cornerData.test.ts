@@ -6,12 +6,12 @@ import { describe, expect, it } from 'vitest';
 import {
   cornerData,
   densityLevels,
-  kishEffectiveSampleSize,
   parameterColumn,
   parameterSummary,
   smoothHistogram2d,
   weightedHistogram2d,
 } from '../../src/results/index.js';
+import { kishEffectiveSampleSize } from '../../src/numeric/index.js';
 
 // Importance-weighted samples of independent normals N(mean_j, sigma_j^2): drawn from normals 1.5
 // times wider, weighted by the density ratio exp(-t^2/2 + t^2/(2 * 1.5^2)) with t in proposal sigmas.

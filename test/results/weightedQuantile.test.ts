@@ -9,8 +9,8 @@ import {
   upperLimit,
   weightedQuantile,
   weightedQuantiles,
-  weightsFromLogWeights,
 } from '../../src/results/index.js';
+import { weightsFromLogWeights } from '../../src/numeric/index.js';
 import { readResultsFixture } from './fixtureFile.js';
 
 interface QuantileSet {

@@ -3,12 +3,12 @@ import {
   AutocovariancePlan, bulkEffectiveSampleSize, chainEffectiveSampleSize, ensembleAutocorrelationTimes,
   integratedAutocorrelationTime, splitRHat, tailEffectiveSampleSize, type Draws,
 } from '../../src/sampling/diagnostics/index.js';
-import { Random } from '../../src/sampling/random.js';
+import { SeededStream } from '../../src/numeric/random/seededStream.js';
 
 // Independent AR(1) series x_t = phi x_{t-1} + e_t, e_t ~ N(0, 1), started in equilibrium,
 // stored as an ensemble chain (steps x walkers x 1).
 function ar1Ensemble(phi: number, steps: number, walkers: number, seed: number): Float64Array {
-  const random = new Random(seed);
+  const random = SeededStream.fromSeed(seed);
   const chain = new Float64Array(steps * walkers);
   for (let w = 0; w < walkers; w++) {
     let x = random.normal() / Math.sqrt(1 - phi * phi);
@@ -21,7 +21,7 @@ function ar1Ensemble(phi: number, steps: number, walkers: number, seed: number):
 }
 
 function normalDraws(chains: number, drawsPerChain: number, seed: number, shift = (_chain: number) => 0, scale = (_chain: number) => 1): Draws {
-  const random = new Random(seed);
+  const random = SeededStream.fromSeed(seed);
   const values = new Float64Array(chains * drawsPerChain);
   for (let j = 0; j < chains; j++) {
     for (let i = 0; i < drawsPerChain; i++) values[j * drawsPerChain + i] = shift(j) + scale(j) * random.normal();
@@ -31,7 +31,7 @@ function normalDraws(chains: number, drawsPerChain: number, seed: number, shift 
 
 describe('autocovariance by FFT', () => {
   it('equals the direct sum (1/n) sum (x_i - mean)(x_{i+t} - mean)', () => {
-    const random = new Random(7);
+    const random = SeededStream.fromSeed(7);
     const n = 37;
     const x = Float64Array.from({ length: n }, () => random.normal());
     const mean = x.reduce((a, b) => a + b, 0) / n;

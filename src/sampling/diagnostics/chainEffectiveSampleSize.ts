@@ -1,7 +1,7 @@
 import { AutocovariancePlan } from './autocovariance.js';
 import { chainMoments } from './chainMoments.js';
 import { rankNormalize } from './rankNormalize.js';
-import { quantileOfSorted } from './sampleQuantile.js';
+import { quantileOfSorted } from '../../numeric/statistics/quantileOfSorted.js';
 import { splitChains, type Draws } from './splitChains.js';
 
 // Effective sample size of several chains (Vehtari, Gelman, Simpson, Carpenter & Buerkner 2021,

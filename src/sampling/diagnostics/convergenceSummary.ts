@@ -1,7 +1,7 @@
 import { chainEffectiveSampleSize } from './chainEffectiveSampleSize.js';
 import { firstAtLeast, rankNormalize } from './rankNormalize.js';
 import { potentialScaleReduction } from './rHat.js';
-import { quantileOfSorted } from './sampleQuantile.js';
+import { quantileOfSorted } from '../../numeric/statistics/quantileOfSorted.js';
 import { splitChains, type Draws } from './splitChains.js';
 
 export interface ConvergenceSummary {

@@ -11,6 +11,5 @@ export { chainMoments } from './chainMoments.js';
 export type { ChainMoments } from './chainMoments.js';
 export { potentialScaleReduction, splitRHat } from './rHat.js';
 export { chainEffectiveSampleSize, bulkEffectiveSampleSize, tailEffectiveSampleSize } from './chainEffectiveSampleSize.js';
-export { quantileOfSorted } from './sampleQuantile.js';
 export { convergenceSummary } from './convergenceSummary.js';
 export type { ConvergenceSummary } from './convergenceSummary.js';

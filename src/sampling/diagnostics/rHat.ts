@@ -1,6 +1,6 @@
 import { chainMoments } from './chainMoments.js';
 import { rankNormalize } from './rankNormalize.js';
-import { quantileOfSorted } from './sampleQuantile.js';
+import { quantileOfSorted } from '../../numeric/statistics/quantileOfSorted.js';
 import { splitChains, type Draws } from './splitChains.js';
 
 // Potential scale reduction R-hat = sqrt(var+ / W) (Gelman & Rubin 1992; BDA3 eq. 11.4).

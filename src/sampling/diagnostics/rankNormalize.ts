@@ -1,4 +1,4 @@
-import { standardNormalQuantile } from '../priors/standardNormal.js';
+import { standardNormalQuantile } from '../../numeric/special/standardNormal.js';
 import type { Draws } from './splitChains.js';
 
 // Rank normalisation (Vehtari, Gelman, Simpson, Carpenter & Buerkner 2021, eq. 14): pooled ranks r

@@ -1,4 +1,4 @@
-import type { Random } from '../random.js';
+import type { SeededStream } from '../../numeric/random/seededStream.js';
 
 // Differential-evolution move (ter Braak 2006, eq. 2): Y = X_i + gamma (X_j - X_k) + e with j != k
 // drawn from the complementary half, gamma = 2.38 / sqrt(2 d) by default, and e a small normal
@@ -7,7 +7,7 @@ import type { Random } from '../random.js';
 export function proposeDifferentialEvolution(
   positions: Float64Array, dim: number,
   first: number, count: number, other: number, otherCount: number,
-  random: Random, gamma: number, jitter: number,
+  random: SeededStream, gamma: number, jitter: number,
   proposals: Float64Array, logCorrection: Float64Array, jitterScale: Float64Array,
 ): void {
   complementSpread(positions, dim, other, otherCount, jitterScale);

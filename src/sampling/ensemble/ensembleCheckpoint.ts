@@ -1,7 +1,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { InputError, expectedFound } from '../../errors.js';
 import { writeJsonAtomic } from '../../io/writeFileAtomic.js';
-import { Random, type RandomState } from '../random.js';
+import { SeededStream } from '../../numeric/random/seededStream.js';
 import type { SettledEnsembleOptions } from './ensembleOptions.js';
 import type { EnsembleState } from './ensembleState.js';
 import { decodeFloat64, encodeFloat64 } from './float64Encoding.js';
@@ -43,7 +43,7 @@ export function saveEnsembleCheckpoint(
     converged: state.converged,
     autocorrelationTimeMax: encodeFloat64(Float64Array.of(state.autocorrelationTimeMax)),
     previousTau: state.previousTau === null ? null : encodeFloat64(state.previousTau),
-    random: state.random.getState(),
+    random: state.random.savedState(),
     positions: encodeFloat64(state.positions),
     logDensities: encodeFloat64(state.logDensities),
     accepted: encodeFloat64(state.accepted),
@@ -76,8 +76,7 @@ export function loadEnsembleCheckpoint(
       );
     }
   }
-  const random = new Random(settled.seed);
-  random.setState(saved.random as RandomState);
+  const random = SeededStream.fromSavedState(saved.random, 'random generator state');
   const count = (key: string): number => {
     const value = saved[key];
     if (typeof value !== 'number' || !Number.isInteger(value) || value < 0) {

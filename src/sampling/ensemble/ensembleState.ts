@@ -1,4 +1,4 @@
-import type { Random } from '../random.js';
+import type { SeededStream } from '../../numeric/random/seededStream.js';
 import type { GrowableChain } from './growableChain.js';
 
 /** Everything a run carries from one iteration to the next (and so everything a checkpoint holds). */
@@ -17,5 +17,5 @@ export interface EnsembleState {
   autocorrelationTimeMax: number;
   converged: boolean;
   readonly chain: GrowableChain;
-  readonly random: Random;
+  readonly random: SeededStream;
 }

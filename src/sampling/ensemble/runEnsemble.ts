@@ -1,5 +1,5 @@
 import { ensembleAutocorrelationTimes } from '../diagnostics/integratedAutocorrelationTime.js';
-import { Random } from '../random.js';
+import { SeededStream } from '../../numeric/random/seededStream.js';
 import { proposeDifferentialEvolution } from './differentialEvolutionMove.js';
 import { loadEnsembleCheckpoint, saveEnsembleCheckpoint } from './ensembleCheckpoint.js';
 import { settleEnsembleOptions, type EnsembleOptions, type SettledEnsembleOptions } from './ensembleOptions.js';
@@ -84,7 +84,7 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
 async function freshState(
   problem: EnsembleProblem, options: EnsembleOptions, settled: SettledEnsembleOptions,
 ): Promise<EnsembleState> {
-  const random = new Random(settled.seed);
+  const random = SeededStream.fromSeed(settled.seed);
   const start = await startingEnsemble(problem, settled.walkers, options.start, random, periodicTable(problem));
   return {
     iteration: 0,
@@ -101,7 +101,7 @@ async function freshState(
   };
 }
 
-function pickMove(settled: SettledEnsembleOptions, random: Random): string {
+function pickMove(settled: SettledEnsembleOptions, random: SeededStream): string {
   const { kinds, cumulative } = settled.moves;
   if (kinds.length === 1) return kinds[0];
   const u = random.uniform();

@@ -1,5 +1,5 @@
 import { InputError, expectedFound } from '../../errors.js';
-import type { Random } from '../random.js';
+import type { SeededStream } from '../../numeric/random/seededStream.js';
 import type { EnsembleProblem } from './ensembleProblem.js';
 import type { EnsembleStart } from './ensembleOptions.js';
 import { evaluateBatch } from './evaluateBatch.js';
@@ -20,7 +20,7 @@ export interface StartingEnsemble {
  * are wrapped into their periods.
  */
 export async function startingEnsemble(
-  problem: EnsembleProblem, walkers: number, start: EnsembleStart, random: Random,
+  problem: EnsembleProblem, walkers: number, start: EnsembleStart, random: SeededStream,
   periodic: PeriodicTable | null,
 ): Promise<StartingEnsemble> {
   const dim = problem.dim;

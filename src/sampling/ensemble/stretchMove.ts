@@ -1,7 +1,7 @@
-import type { Random } from '../random.js';
+import type { SeededStream } from '../../numeric/random/seededStream.js';
 
 /** Draws z from g(z) proportional to 1/sqrt(z) on [1/a, a] by inverting its CDF. */
-export function stretchFactor(random: Random, a: number): number {
+export function stretchFactor(random: SeededStream, a: number): number {
   const root = (a - 1) * random.uniform() + 1;
   return (root * root) / a;
 }
@@ -13,7 +13,7 @@ export function stretchFactor(random: Random, a: number): number {
 export function proposeStretch(
   positions: Float64Array, dim: number,
   first: number, count: number, other: number, otherCount: number,
-  random: Random, a: number,
+  random: SeededStream, a: number,
   proposals: Float64Array, logCorrection: Float64Array,
 ): void {
   for (let i = 0; i < count; i++) {

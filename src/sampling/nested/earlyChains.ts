@@ -1,5 +1,5 @@
 import { lowestSlots } from './lowestSlots.js';
-import { SeededStream } from './seededStream.js';
+import { SeededStream } from '../../numeric/random/seededStream.js';
 import { sliceChainSeeds, type SliceChainRequest, type SliceChainResult, type SliceSettings } from './sliceSampler.js';
 
 /**

@@ -1,10 +1,7 @@
-import { createRequire } from 'node:module';
-import type gammalnType from '@stdlib/math/base/special/gammaln';
-import { choleskyWithRidge, forwardSubstitute } from './choleskyFactor.js';
-import type { SeededStream } from './seededStream.js';
-
-const require = createRequire(import.meta.url);
-const gammaln = require('@stdlib/math/base/special/gammaln') as typeof gammalnType;
+import { gammaln } from '../../numeric/special/stdlibSpecial.js';
+import { forwardSubstitute } from '../../numeric/linearAlgebra/choleskyFactor.js';
+import { choleskyWithRidge } from '../../numeric/linearAlgebra/choleskyWithRidge.js';
+import type { SeededStream } from '../../numeric/random/seededStream.js';
 
 /**
  * The region {x : (x - c)^T A^{-1} (x - c) <= 1} in the unit cube's coordinates. `shape` is A

@@ -1,7 +1,7 @@
 import { createRequire } from 'node:module';
 import type betaType from '@stdlib/random/base/beta';
-import { logAddExp, logOneMinusExpNegative, logSumExp } from './logSumExp.js';
-import { SeededStream } from './seededStream.js';
+import { logAddExp, logOneMinusExpNegative, logSumExp } from '../../numeric/statistics/logSumExp.js';
+import { SeededStream } from '../../numeric/random/seededStream.js';
 
 const require = createRequire(import.meta.url);
 const beta = require('@stdlib/random/base/beta') as typeof betaType;

@@ -9,10 +9,9 @@ export type {
   NestedStopReason,
   NestedCheckpointOptions,
 } from './nestedProblem.js';
-export { equalWeightSamples, effectiveSampleSize } from './equalWeightSamples.js';
+
 export { insertionRankTest, insertionRankThreshold } from './insertionRank.js';
 export type { InsertionRankCheck } from './insertionRank.js';
-export { kolmogorovSmirnovUniform, kolmogorovSmirnovPValue } from './kolmogorovSmirnov.js';
 export { simulatedLnZSpread } from './evidenceError.js';
 export type { ShrinkageRecord } from './evidenceError.js';
 export { batchLnVolumes, lnVolumeSlice, lnInitialVolume } from './shrinkage.js';
@@ -23,9 +22,6 @@ export type { EllipsoidUnion, EllipsoidUnionSettings } from './multiEllipsoid.js
 export { sliceChains } from './sliceSampler.js';
 export type { SliceSettings, UnitBatchEvaluator } from './sliceSampler.js';
 export { checkpointFormat, checkpointVersion } from './checkpoint.js';
-export { gaussLegendre } from './gaussLegendre.js';
-export { logAddExp, logSumExp } from './logSumExp.js';
-export { SeededStream } from './seededStream.js';
 export { gaussianShellsProblem, gaussianShellsLnEvidence } from './problems/gaussianShells.js';
 export { eggBoxProblem, eggBoxLnEvidence } from './problems/eggBox.js';
 export { twistedGaussianProblem, twistedGaussianLnEvidence } from './problems/twistedGaussian.js';

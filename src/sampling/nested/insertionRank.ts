@@ -1,5 +1,5 @@
-import { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from './kolmogorovSmirnov.js';
-import { SeededStream } from './seededStream.js';
+import { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from '../../numeric/statistics/kolmogorovSmirnov.js';
+import { SeededStream } from '../../numeric/random/seededStream.js';
 
 /** Outcome of the insertion-rank check. */
 export interface InsertionRankCheck {

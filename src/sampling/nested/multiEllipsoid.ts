@@ -1,8 +1,8 @@
 import { boundingEllipsoid, mahalanobisSquared, sampleInEllipsoid, scaleEllipsoidVolume } from './ellipsoid.js';
 import type { Ellipsoid } from './ellipsoid.js';
 import { kMeansTwo } from './kMeansTwo.js';
-import { logSumExp } from './logSumExp.js';
-import type { SeededStream } from './seededStream.js';
+import { logSumExp } from '../../numeric/statistics/logSumExp.js';
+import type { SeededStream } from '../../numeric/random/seededStream.js';
 
 /** A union of ellipsoids bounding the live points, with the volume-proportional choice table. */
 export interface EllipsoidUnion {

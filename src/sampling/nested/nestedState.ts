@@ -1,7 +1,7 @@
 import { GrowableRows } from './growableRows.js';
 import { recordEllipsoidUnion, restoreEllipsoidUnion } from './multiEllipsoid.js';
 import type { EllipsoidUnion, EllipsoidUnionRecord } from './multiEllipsoid.js';
-import { SeededStream } from './seededStream.js';
+import { SeededStream } from '../../numeric/random/seededStream.js';
 
 /** Settings that fix a run's random sequence; a checkpoint resumes only with the same ones. */
 export interface NestedSettings {

@@ -1,10 +1,11 @@
 import { InputError, expectedFound } from '../../errors.js';
 import { readCheckpoint, writeCheckpoint } from './checkpoint.js';
-import { choleskyWithRidge } from './choleskyFactor.js';
-import { effectiveSampleSize, equalWeightSamples } from './equalWeightSamples.js';
+import { choleskyWithRidge } from '../../numeric/linearAlgebra/choleskyWithRidge.js';
+import { equalWeightResample } from '../../numeric/resampling/equalWeightResample.js';
+import { weightsFromLogWeights } from '../../numeric/statistics/weightsFromLogWeights.js';
 import { simulatedLnZSpread } from './evidenceError.js';
 import { insertionRankTest } from './insertionRank.js';
-import { logAddExp, logSumExp } from './logSumExp.js';
+import { logAddExp, logSumExp } from '../../numeric/statistics/logSumExp.js';
 import { buildEllipsoidUnion, sampleFromUnion } from './multiEllipsoid.js';
 import type {
   NestedMethod,
@@ -16,7 +17,7 @@ import type {
 } from './nestedProblem.js';
 import { emptyState, recordState, restoreState } from './nestedState.js';
 import type { NestedSettings, NestedState } from './nestedState.js';
-import { derivedSeed } from './seededStream.js';
+import { derivedSeed } from '../../numeric/random/derivedSeed.js';
 import { batchLnVolumes, lnInitialVolume, lnVolumeSlice } from './shrinkage.js';
 import { sliceChainSeeds, sliceChains, type SliceChainRequest, type SliceSettings } from './sliceSampler.js';
 import { chainStartSlots, EarlyChains, nextStepChains } from './earlyChains.js';
@@ -577,6 +578,6 @@ function finishedResult(state: NestedState, stopReason: NestedStopReason, early:
     stopReason,
     livePoints,
     equalWeight: (samples?: number, sampleSeed: number = derivedSeed(seed, 3)) =>
-      equalWeightSamples(points, physicalDim, lnWeight, count, samples ?? Math.max(1, Math.floor(effectiveSampleSize(lnWeight, count))), sampleSeed),
+      equalWeightResample(points, physicalDim, weightsFromLogWeights(lnWeight), sampleSeed, samples).points,
   };
 }

@@ -1,4 +1,4 @@
-import { logOneMinusExpNegative } from './logSumExp.js';
+import { logOneMinusExpNegative } from '../../numeric/statistics/logSumExp.js';
 
 /**
  * Expected ln X of the k lowest of n live points removed together (Skilling 2006, Section 3; the

@@ -1,4 +1,4 @@
-import { SeededStream } from './seededStream.js';
+import { SeededStream } from '../../numeric/random/seededStream.js';
 
 /** Evaluates unit-cube rows: writes their physical rows and returns sanitised ln L (-Infinity if impossible). */
 export type UnitBatchEvaluator = (unit: Float64Array, count: number, physicalOut: Float64Array) => Promise<Float64Array>;

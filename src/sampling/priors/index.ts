@@ -7,6 +7,3 @@ export { normalPrior } from './normal.js';
 export { truncatedNormalPrior } from './truncatedNormal.js';
 export { fixedPrior } from './fixed.js';
 export { periodicPrior, wrapIntoPeriod } from './periodic.js';
-export {
-  standardNormalQuantile, upperTail, logUpperTail, upperTailQuantileFromLog,
-} from './standardNormal.js';

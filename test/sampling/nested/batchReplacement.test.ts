@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { logSumExp } from '../../../src/sampling/nested/logSumExp.js';
+import { logSumExp } from '../../../src/numeric/statistics/logSumExp.js';
 import type { NestedProblem } from '../../../src/sampling/nested/nestedProblem.js';
 import { runNested } from '../../../src/sampling/nested/runNested.js';
 

@@ -5,7 +5,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { InputError } from '../../../src/errors.js';
 import { readCheckpoint, writeCheckpoint } from '../../../src/sampling/nested/checkpoint.js';
 import type { NestedSettings, NestedStateRecord } from '../../../src/sampling/nested/nestedState.js';
-import { SeededStream } from '../../../src/sampling/nested/seededStream.js';
+import { SeededStream } from '../../../src/numeric/random/seededStream.js';
 
 const folder = mkdtempSync(join(tmpdir(), 'arcsift-nested-checkpoint-'));
 afterAll(() => rmSync(folder, { recursive: true, force: true }));
@@ -25,6 +25,7 @@ const settings: NestedSettings = {
   sliceWidthScale: 2,
   periodic: [false, true],
   boundVolumeFactorForTesting: 1,
+  slicePointsPerChain: 1,
 };
 
 describe('checkpoint files', () => {

@@ -7,7 +7,7 @@ import {
   sampleInEllipsoid,
 } from '../../../src/sampling/nested/ellipsoid.js';
 import { buildEllipsoidUnion, sampleFromUnion, unionOfEllipsoids } from '../../../src/sampling/nested/multiEllipsoid.js';
-import { SeededStream } from '../../../src/sampling/nested/seededStream.js';
+import { SeededStream } from '../../../src/numeric/random/seededStream.js';
 
 describe('ellipsoids', () => {
   it('unit-ball volumes: pi in 2-D, 4 pi / 3 in 3-D, pi^5 / 120 in 10-D (closed forms)', () => {

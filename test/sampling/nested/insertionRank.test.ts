@@ -1,10 +1,10 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { insertionRankTest } from '../../../src/sampling/nested/insertionRank.js';
-import { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from '../../../src/sampling/nested/kolmogorovSmirnov.js';
+import { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from '../../../src/numeric/statistics/kolmogorovSmirnov.js';
 import type { NestedProblem } from '../../../src/sampling/nested/nestedProblem.js';
 import { runNested } from '../../../src/sampling/nested/runNested.js';
-import { SeededStream } from '../../../src/sampling/nested/seededStream.js';
+import { SeededStream } from '../../../src/numeric/random/seededStream.js';
 
 const fixture = JSON.parse(readFileSync(new URL('./fixtures/kolmogorov_pvalues.json', import.meta.url), 'utf8')) as {
   rows: Array<{ n: number; statistic: number; pValue: number }>;

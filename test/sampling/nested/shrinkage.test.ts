@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { simulatedLnZSpread } from '../../../src/sampling/nested/evidenceError.js';
-import { SeededStream } from '../../../src/sampling/nested/seededStream.js';
+import { SeededStream } from '../../../src/numeric/random/seededStream.js';
 import { batchLnVolumes, lnInitialVolume, lnVolumeSlice } from '../../../src/sampling/nested/shrinkage.js';
 
 /** Trigamma psi_1(x) for x >= 6 by its asymptotic series (Abramowitz & Stegun 1972, 6.4.12). */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { SeededStream } from '../../../src/sampling/nested/seededStream.js';
+import { SeededStream } from '../../../src/numeric/random/seededStream.js';
 import { sliceChains } from '../../../src/sampling/nested/sliceSampler.js';
 
 // The slice {ln L > 0} is the band u in [0.95, 1) U [0, 0.05) across the seam of a periodic

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from '../../../src/sampling/nested/kolmogorovSmirnov.js';
+import { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from '../../../src/numeric/statistics/kolmogorovSmirnov.js';
 import type { NestedProblem } from '../../../src/sampling/nested/nestedProblem.js';
 import { runNested } from '../../../src/sampling/nested/runNested.js';
-import { SeededStream } from '../../../src/sampling/nested/seededStream.js';
+import { SeededStream } from '../../../src/numeric/random/seededStream.js';
 import { sliceChains } from '../../../src/sampling/nested/sliceSampler.js';
 
 // Slice sampling leaves the uniform law on the slice invariant (Neal 2003, Section 4), so chains

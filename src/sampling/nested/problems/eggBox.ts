@@ -1,5 +1,5 @@
-import { gaussLegendre } from '../gaussLegendre.js';
-import { logSumExp } from '../logSumExp.js';
+import { gaussLegendre } from '../../../numeric/quadrature/gaussLegendre.js';
+import { logSumExp } from '../../../numeric/statistics/logSumExp.js';
 import type { NestedProblem } from '../nestedProblem.js';
 
 /** Side of the egg-box prior square [0, 10 pi]. */

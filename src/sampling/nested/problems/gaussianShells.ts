@@ -1,10 +1,6 @@
-import { createRequire } from 'node:module';
-import type gammalnType from '@stdlib/math/base/special/gammaln';
-import { gaussLegendre } from '../gaussLegendre.js';
+import { gammaln } from '../../../numeric/special/stdlibSpecial.js';
+import { gaussLegendre } from '../../../numeric/quadrature/gaussLegendre.js';
 import type { NestedProblem } from '../nestedProblem.js';
-
-const require = createRequire(import.meta.url);
-const gammaln = require('@stdlib/math/base/special/gammaln') as typeof gammalnType;
 
 /** Shell radius r, width w, centre offset and prior half-width of Feroz & Hobson 2008, Section 6.2. */
 export const shellRadius = 2;

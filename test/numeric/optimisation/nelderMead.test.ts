@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { nelderMead } from '../../src/sensitivity/nelderMead.js';
+import { nelderMead } from '../../../src/numeric/optimisation/nelderMead.js';
 
 describe('nelderMead', () => {
   it("finds the minimum of Rosenbrock's function, 0 at (1, 1), from the classic start (-1.2, 1)", () => {

@@ -1,12 +1,7 @@
-import { createRequire } from 'node:module';
-import type randuType from '@stdlib/random/base/randu';
-import { InputError, expectedFound } from '../errors.js';
-import { kishEffectiveSampleSize } from './kishEffectiveSampleSize.js';
-import { checkRows } from './sampleChecks.js';
-
-// @stdlib packages are CommonJS folders without an exports map: Node's ESM loader needs require.
-const require = createRequire(import.meta.url);
-const randu = require('@stdlib/random/base/randu') as typeof randuType;
+import { InputError, expectedFound } from '../../errors.js';
+import { SeededStream } from '../random/seededStream.js';
+import { kishEffectiveSampleSize } from '../statistics/kishEffectiveSampleSize.js';
+import { checkRows } from '../statistics/sampleChecks.js';
 
 /** Equal-weight samples drawn from weighted ones. */
 export interface EqualWeightSamples {
@@ -19,7 +14,7 @@ export interface EqualWeightSamples {
 
 /**
  * Systematic resampling (Kitagawa 1996; Carpenter, Clifford & Fearnhead 1999): one uniform U from
- * a Mersenne Twister seeded with `seed` (@stdlib/random randu), then output k takes the row whose
+ * the seeded stream (SeededStream), then output k takes the row whose
  * cumulative-weight step contains (k + U) / count of the total, so row i is copied floor(count w_i)
  * or ceil(count w_i) times and count w_i times on average. `points` are weights.length rows of
  * `dim`; weights non-negative, any normalisation. `count` defaults to the Kish effective sample
@@ -54,8 +49,7 @@ export function equalWeightResample(
   if (!Number.isInteger(samples) || samples < 1) {
     throw new InputError(`resampling: sample count: ${expectedFound('an integer >= 1', samples)}`);
   }
-  const uniform = randu.factory({ name: 'mt19937', seed });
-  const offset = uniform();
+  const offset = SeededStream.fromSeed(seed).uniform();
   const sourceRows = new Uint32Array(samples);
   const out = new Float64Array(samples * dim);
   let source = 0;

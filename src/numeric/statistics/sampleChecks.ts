@@ -1,4 +1,4 @@
-import { InputError, expectedFound } from '../errors.js';
+import { InputError, expectedFound } from '../../errors.js';
 
 /**
  * Checks shared by the posterior summaries: a weight array of non-negative finite numbers with a

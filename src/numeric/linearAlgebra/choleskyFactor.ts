@@ -27,14 +27,19 @@ export function choleskyFactor(a: Float64Array, k: number): number {
  * substitution; Golub & Van Loan 2013, section 4.2).
  */
 export function choleskySolveInPlace(l: Float64Array, k: number, b: Float64Array): void {
-  for (let i = 0; i < k; i++) {
-    let s = b[i];
-    for (let m = 0; m < i; m++) s -= l[i * k + m] * b[m];
-    b[i] = s / l[i * k + i];
-  }
+  forwardSubstitute(l, k, b, b);
   for (let i = k - 1; i >= 0; i--) {
     let s = b[i];
     for (let m = i + 1; m < k; m++) s -= l[m * k + i] * b[m];
     b[i] = s / l[i * k + i];
+  }
+}
+
+/** Solves L y = b for lower-triangular row-major L by forward substitution (Golub & Van Loan 2013, Algorithm 3.1.1); y may alias b. */
+export function forwardSubstitute(lower: Float64Array, k: number, b: ArrayLike<number>, y: Float64Array): void {
+  for (let i = 0; i < k; i++) {
+    let s = b[i];
+    for (let m = 0; m < i; m++) s -= lower[i * k + m] * y[m];
+    y[i] = s / lower[i * k + i];
   }
 }

@@ -1,7 +1,7 @@
-// Tests of src/results/equalWeightResample.ts and src/results/kishEffectiveSampleSize.ts.
+// Tests of src/numeric/resampling/equalWeightResample.ts and src/numeric/statistics/kishEffectiveSampleSize.ts.
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../src/errors.js';
-import { equalWeightResample, kishEffectiveSampleSize } from '../../src/results/index.js';
+import { InputError } from '../../../src/errors.js';
+import { equalWeightResample, kishEffectiveSampleSize } from '../../../src/numeric/index.js';
 
 // Seven rows of dim 2 (row i holds [i, 10 i]) with uneven weights, one of them zero.
 const WEIGHTS = [0.05, 0.3, 0, 0.125, 0.2, 0.3, 0.025];

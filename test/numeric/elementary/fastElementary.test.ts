@@ -1,14 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { fastExp } from '../../src/model/fastExp.js';
-import { fastSersic } from '../../src/model/fastSersic.js';
-import { sersic } from '../../src/light/sersic.js';
-import { fastAtan, fastAtanh } from '../../src/model/fastAtan.js';
-import { fastIsothermalEllipsoid } from '../../src/model/fastIsothermalEllipsoid.js';
-import { isothermalEllipsoid } from '../../src/lens/isothermalEllipsoid.js';
-import { fastLog } from '../../src/model/fastLog.js';
-import { PowerTable } from '../../src/model/powerTable.js';
-import { fastTruncatedNfw } from '../../src/model/fastTruncatedNfw.js';
-import { truncatedNfw } from '../../src/perturber/truncatedNfw.js';
+import { fastExp } from '../../../src/numeric/elementary/fastExp.js';
+import { fastSersic } from '../../../src/model/fastSersic.js';
+import { sersic } from '../../../src/light/sersic.js';
+import { fastAtan, fastAtanh } from '../../../src/numeric/elementary/fastAtan.js';
+import { fastIsothermalEllipsoid } from '../../../src/model/fastIsothermalEllipsoid.js';
+import { isothermalEllipsoid } from '../../../src/lens/isothermalEllipsoid.js';
+import { fastLog } from '../../../src/numeric/elementary/fastLog.js';
+import { PowerTable } from '../../../src/numeric/elementary/powerTable.js';
+import { fastTruncatedNfw } from '../../../src/model/fastTruncatedNfw.js';
+import { truncatedNfw } from '../../../src/perturber/truncatedNfw.js';
 
 /** A reproducible uniform generator (Park & Miller 1988 minimal standard), for sample points. */
 function uniformSequence(seed: number): () => number {
