@@ -1,5 +1,5 @@
 import type { ComparisonSummary } from '../inference/runComparisonToFolder.js';
-import type { PriorDescription } from '../sampling/parameterSpace.js';
+import type { PriorDescription } from '../priors/parameterSpace.js';
 import type { CountComparisonSummary } from '../inference/comparePerturberCounts.js';
 
 const fixed = (v: number, digits = 2): string => (Number.isFinite(v) ? v.toFixed(digits) : String(v));

@@ -2,10 +2,10 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
 import { bayesFactorReading, significanceBound, type BayesFactorReading, type SignificanceBound } from '../results/index.js';
-import type { PriorDescription } from '../sampling/parameterSpace.js';
+import type { PriorDescription } from '../priors/parameterSpace.js';
 import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
 import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
-import { modelParameterSpace } from './modelParameterSpace.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 

@@ -5,11 +5,11 @@ import { InputError } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
 import { bayesFactorReading } from '../results/index.js';
-import type { PriorDescription } from '../sampling/parameterSpace.js';
+import type { PriorDescription } from '../priors/parameterSpace.js';
 import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
 import { configHash, priorCaution } from './runComparisonToFolder.js';
 import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
-import { modelParameterSpace } from './modelParameterSpace.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
 

@@ -3,8 +3,8 @@ import { join } from 'node:path';
 import { InputError, describeValue } from '../errors.js';
 import type { LensSystem } from '../model/lensSystem.js';
 import type { EnsembleStart } from '../sampling/ensemble/index.js';
-import type { ParameterSpace } from '../sampling/parameterSpace.js';
-import type { Prior } from '../sampling/priors/prior.js';
+import type { ParameterSpace } from '../priors/parameterSpace.js';
+import type { Prior } from '../priors/prior.js';
 import { readSamplesTable } from './readSamplesTable.js';
 
 /** Radius of the starting ball as a fraction of each prior's width (sigma for normal priors). */

@@ -4,7 +4,7 @@ import type { ObservedData } from '../data/observedData.js';
 import { InputError, expectedFound } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../model/packageVersion.js';
-import type { PriorDescription } from '../sampling/parameterSpace.js';
+import type { PriorDescription } from '../priors/parameterSpace.js';
 import { amplitudePriorText } from './amplitudePriorText.js';
 import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
 import { configHash, priorCaution } from './runComparisonToFolder.js';

@@ -5,9 +5,9 @@ import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 import {
   posteriorOnSpace, runEnsemble, type EnsembleMoveOption, type EnsembleProgress, type EnsembleResult,
 } from '../sampling/ensemble/index.js';
-import type { ParameterSpace } from '../sampling/parameterSpace.js';
+import type { ParameterSpace } from '../priors/parameterSpace.js';
 import { ballAroundConfiguredValues, startFromSamples, startSamplesFile } from './ensembleStart.js';
-import { modelParameterSpace } from './modelParameterSpace.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
 
 /** Settings of one ensemble-MCMC run of a lens model. */
 export interface EnsembleFitSettings {

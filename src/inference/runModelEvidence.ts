@@ -4,9 +4,9 @@ import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import type { BatchOccupancy } from '../parallel/batchOccupancy.js';
 import { LikelihoodPool, type ModelPool } from '../parallel/likelihoodPool.js';
 import { runNested, type NestedMethod, type NestedProgress, type NestedResult } from '../sampling/nested/index.js';
-import type { ParameterSpace } from '../sampling/parameterSpace.js';
-import { modelParameterSpace } from './modelParameterSpace.js';
-import { modelPriorTransform } from './modelPriorTransform.js';
+import type { ParameterSpace } from '../priors/parameterSpace.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
+import { modelPriorTransform } from '../model/modelPriorTransform.js';
 
 /** Settings of one nested-sampling run of a lens model. */
 export interface EvidenceSettings {

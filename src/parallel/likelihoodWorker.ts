@@ -1,7 +1,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
-import { modelParameterSpace } from '../inference/modelParameterSpace.js';
-import { modelPriorTransform } from '../inference/modelPriorTransform.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
+import { modelPriorTransform } from '../model/modelPriorTransform.js';
 import { BatchEvaluator } from '../sampling/nested/batchEvaluator.js';
 import { runSliceChain, type SliceChainRequest } from '../sampling/nested/sliceSampler.js';
 import type { LikelihoodTask } from './likelihoodTask.js';

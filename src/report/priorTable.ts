@@ -1,5 +1,5 @@
 import type { ComparisonSummary } from '../inference/runComparisonToFolder.js';
-import type { PriorDescription } from '../sampling/parameterSpace.js';
+import type { PriorDescription } from '../priors/parameterSpace.js';
 import { escapeMarkup } from './escapeMarkup.js';
 import { htmlTable, type TableCell } from './htmlTable.js';
 import { parameterLabel } from './parameterLabel.js';

@@ -1,10 +1,10 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
-import { modelParameterSpace } from '../inference/modelParameterSpace.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
-import type { ParameterSpace } from '../sampling/parameterSpace.js';
-import { makePrior } from '../sampling/priors/makePrior.js';
+import type { ParameterSpace } from '../priors/parameterSpace.js';
+import { makePrior } from '../priors/makePrior.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { LinearAmplitudeChiSquare } from './linearAmplitudeChiSquare.js';
 import { nelderMead } from '../numeric/optimisation/nelderMead.js';

@@ -8,7 +8,7 @@ import { packageVersion } from '../model/packageVersion.js';
 import { amplitudePriorText } from '../inference/amplitudePriorText.js';
 import { configHash, priorCaution } from '../inference/runComparisonToFolder.js';
 import { writeModelOutputs, type ModelRecord } from '../inference/writeModelOutputs.js';
-import type { PriorDescription } from '../sampling/parameterSpace.js';
+import type { PriorDescription } from '../priors/parameterSpace.js';
 import type { FlagSet } from './readFlags.js';
 import { vetFlags, type PerturbedVetting, type VetResult, type VetSettings } from './vetFlags.js';
 import type { VetThresholds, VetVerdict } from './vetVerdict.js';

@@ -64,7 +64,7 @@ describe('example configs', () => {
   it('every config in configs/ loads and assembles into a model with priors', async () => {
     const { readdirSync } = await import('node:fs');
     const { buildLensSystem } = await import('../../src/model/lensSystem.js');
-    const { modelParameterSpace } = await import('../../src/inference/modelParameterSpace.js');
+    const { modelParameterSpace } = await import('../../src/model/modelParameterSpace.js');
     const folder = fileURLToPath(new URL('../../configs/', import.meta.url));
     const files = readdirSync(folder).filter((f) => f.endsWith('.yaml'));
     expect(files.length).toBeGreaterThanOrEqual(2);

@@ -10,7 +10,7 @@ import { loadObservedData, type ObservedData } from '../../src/data/index.js';
 import { InputError } from '../../src/errors.js';
 import { readFitsImage } from '../../src/fits/index.js';
 import { ballAroundConfiguredValues } from '../../src/inference/ensembleStart.js';
-import { modelParameterSpace } from '../../src/inference/modelParameterSpace.js';
+import { modelParameterSpace } from '../../src/model/modelParameterSpace.js';
 import { readSamplesTable } from '../../src/inference/readSamplesTable.js';
 import { runFitToFolder, type EnsembleFitSummary, type NestedFitSummary } from '../../src/inference/runFitToFolder.js';
 import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';

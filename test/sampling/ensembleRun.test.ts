@@ -6,7 +6,7 @@ import { InputError } from '../../src/errors.js';
 import {
   decodeFloat64, encodeFloat64, posteriorOnSpace, runEnsemble, type EnsembleOptions, type EnsembleResult,
 } from '../../src/sampling/ensemble/index.js';
-import { ParameterSpace } from '../../src/sampling/parameterSpace.js';
+import { ParameterSpace } from '../../src/priors/parameterSpace.js';
 
 // Behaviour of the run itself: reproducibility, checkpoints, rejections, starts, options.
 const folder = mkdtempSync(join(tmpdir(), 'arcsift-ensemble-'));

@@ -1,4 +1,4 @@
-import { wrapIntoPeriod } from '../priors/periodic.js';
+import { wrapIntoPeriod } from '../../priors/periodic.js';
 import type { EnsembleProblem } from './ensembleProblem.js';
 
 /** The periodic dimensions of a problem, ready for wrapping rows of points. */

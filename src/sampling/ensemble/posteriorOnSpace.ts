@@ -1,4 +1,4 @@
-import type { ParameterSpace } from '../parameterSpace.js';
+import type { ParameterSpace } from '../../priors/parameterSpace.js';
 import type { EnsembleProblem, PeriodicRange } from './ensembleProblem.js';
 
 /**

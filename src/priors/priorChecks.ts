@@ -1,4 +1,4 @@
-import { InputError, expectedFound } from '../../errors.js';
+import { InputError, expectedFound } from '../errors.js';
 
 /** Where a prior came from, so a mistake can be reported against the config key. */
 export interface PriorPlace {

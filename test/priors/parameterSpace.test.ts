@@ -1,7 +1,7 @@
 import normalLogPdf from '@stdlib/stats/base/dists/normal/logpdf';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
-import { ParameterSpace } from '../../src/sampling/parameterSpace.js';
+import { ParameterSpace } from '../../src/priors/parameterSpace.js';
 
 // Reference log densities: @stdlib/stats normal logpdf and the closed-form uniform and
 // log-uniform densities 1 / width and 1 / (x ln(upper / lower)).

@@ -4,7 +4,7 @@ import truncatedNormalPdf from '@stdlib/stats/base/dists/truncated-normal/pdf';
 import uniformCdf from '@stdlib/stats/base/dists/uniform/cdf';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
-import { makePrior, type PriorSpec } from '../../src/sampling/priors/index.js';
+import { makePrior, type PriorSpec } from '../../src/priors/index.js';
 
 // Reference CDFs come from @stdlib/stats (npm registry), a general-purpose library independent
 // of the erfcinv/erfcx code the priors use. Where stdlib has no distribution of that kind the

@@ -2,7 +2,7 @@ import type { Prior, PriorSpec } from './prior.js';
 import { finiteField, orderedBounds, positiveSigma, priorError, type PriorPlace } from './priorChecks.js';
 import {
   LOG_SQRT_2PI, logUpperTail, standardNormalQuantile, upperTail, upperTailQuantileFromLog,
-} from '../../numeric/special/standardNormal.js';
+} from '../numeric/special/standardNormal.js';
 
 // Normal N(mean, sigma^2) truncated to [lower, upper], sampled by inverting the CDF on the window
 // [Phi(alpha), Phi(beta)] (inverse-transform method, Devroye 1986 ch. 2). When the window lies

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { fileURLToPath } from 'node:url';
 import { loadConfig } from '../../src/config/arcsiftConfig.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
-import { modelParameterSpace } from '../../src/inference/modelParameterSpace.js';
-import { perturberRelabelling } from '../../src/inference/perturberRelabelling.js';
+import { modelParameterSpace } from '../../src/model/modelParameterSpace.js';
+import { perturberRelabelling } from '../../src/model/perturberRelabelling.js';
 import { withPerturberCount } from '../../src/inference/comparePerturberCounts.js';
 import { runNested } from '../../src/sampling/nested/index.js';
 

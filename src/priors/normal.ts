@@ -1,6 +1,6 @@
 import type { Prior, PriorSpec } from './prior.js';
 import { finiteField, positiveSigma, type PriorPlace } from './priorChecks.js';
-import { LOG_SQRT_2PI, standardNormalQuantile } from '../../numeric/special/standardNormal.js';
+import { LOG_SQRT_2PI, standardNormalQuantile } from '../numeric/special/standardNormal.js';
 
 // Normal distribution N(mean, sigma^2): inverse CDF mean + sigma Phi^{-1}(u), Gaussian log density.
 export function normalPrior(

@@ -1,6 +1,6 @@
 import type { ObservedData } from '../data/observedData.js';
-import type { LensSystem } from '../model/lensSystem.js';
-import type { ParameterSpace } from '../sampling/parameterSpace.js';
+import type { LensSystem } from './lensSystem.js';
+import type { ParameterSpace } from '../priors/parameterSpace.js';
 import { perturberRelabelling } from './perturberRelabelling.js';
 import { positionRegionTransform } from './positionRegion.js';
 

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { fileURLToPath } from 'node:url';
 import { loadConfig, type ArcsiftConfig } from '../../src/config/arcsiftConfig.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
-import { modelParameterSpace } from '../../src/inference/modelParameterSpace.js';
-import { positionRegionTransform } from '../../src/inference/positionRegion.js';
+import { modelParameterSpace } from '../../src/model/modelParameterSpace.js';
+import { positionRegionTransform } from '../../src/model/positionRegion.js';
 import { sharedInt32Array, sharedUint8Array, type ObservedData } from '../../src/data/index.js';
 
 const configPath = fileURLToPath(new URL('../fixtures/inference/small-lens.yaml', import.meta.url));

@@ -1,7 +1,7 @@
 import { InputError, expectedFound } from '../errors.js';
-import { makePrior } from './priors/makePrior.js';
-import { wrapIntoPeriod } from './priors/periodic.js';
-import type { Prior, PriorSpec } from './priors/prior.js';
+import { makePrior } from './makePrior.js';
+import { wrapIntoPeriod } from './periodic.js';
+import type { Prior, PriorSpec } from './prior.js';
 
 /** One named parameter and its prior, as a config lists it. */
 export interface ParameterEntry {

@@ -1,4 +1,4 @@
-import { expectedFound } from '../../errors.js';
+import { expectedFound } from '../errors.js';
 import { fixedPrior } from './fixed.js';
 import { logUniformPrior } from './logUniform.js';
 import { normalPrior } from './normal.js';

@@ -1,6 +1,6 @@
 import type { ObservedData } from '../data/observedData.js';
-import type { LensSystem } from '../model/lensSystem.js';
-import type { ParameterSpace } from '../sampling/parameterSpace.js';
+import type { LensSystem } from './lensSystem.js';
+import type { ParameterSpace } from '../priors/parameterSpace.js';
 
 /**
  * Unit-square maps onto a perturber's position region, applied after the usual unit-cube

@@ -1,5 +1,5 @@
-import type { LensSystem } from '../model/lensSystem.js';
-import type { ParameterSpace } from '../sampling/parameterSpace.js';
+import type { LensSystem } from './lensSystem.js';
+import type { ParameterSpace } from '../priors/parameterSpace.js';
 
 /**
  * Removes label switching between identical perturbers: after the unit-cube transform, the

@@ -7,3 +7,5 @@ export { normalPrior } from './normal.js';
 export { truncatedNormalPrior } from './truncatedNormal.js';
 export { fixedPrior } from './fixed.js';
 export { periodicPrior, wrapIntoPeriod } from './periodic.js';
+export { ParameterSpace } from './parameterSpace.js';
+export type { ParameterEntry, PriorDescription } from './parameterSpace.js';

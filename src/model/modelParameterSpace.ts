@@ -1,7 +1,7 @@
 import { InputError } from '../errors.js';
-import type { LensSystem } from '../model/lensSystem.js';
-import { ParameterSpace } from '../sampling/parameterSpace.js';
-import type { PriorSpec } from '../sampling/priors/prior.js';
+import type { LensSystem } from './lensSystem.js';
+import { ParameterSpace } from '../priors/parameterSpace.js';
+import type { PriorSpec } from '../priors/prior.js';
 
 /**
  * The sampling space of an assembled model: every parameter with a prior in the config is
