@@ -27,3 +27,19 @@ export interface MassProfile {
     psi: Float64Array,
   ): void;
 }
+
+/**
+ * A mass profile as the profile tables register it: the reference formula, and the evaluation
+ * the forward model runs (the same function with cheaper elementary functions, kept in the
+ * profile's folder and tested against the reference there; the reference itself where there is
+ * no such twin).
+ */
+export interface MassProfilePair {
+  readonly reference: MassProfile;
+  readonly fast: MassProfile;
+}
+
+/** The pair of a profile with no fast twin. */
+export function referenceOnly(profile: MassProfile): MassProfilePair {
+  return Object.freeze({ reference: profile, fast: profile });
+}

@@ -1,31 +1,35 @@
-export type { LightProfile } from './lightProfile.js';
-export { sersic } from './sersic.js';
+// Surface-brightness profiles: the contract, the profiles, and the table configs name them by.
+import { ellipticalGaussian } from './ellipticalGaussian.js';
+import { referenceLightOnly, type LightProfilePair } from './lightProfile.js';
+import { fastSersic } from './sersic/fastSersic.js';
+import { sersic } from './sersic/sersic.js';
+import { shapelets } from './shapelets.js';
+
+export { referenceLightOnly, type LightProfile, type LightProfilePair } from './lightProfile.js';
+export { sersic } from './sersic/sersic.js';
+export { fastSersic } from './sersic/fastSersic.js';
 export {
   sersicCoefficient, sersicCoefficientExact, sersicCoefficientExpansion, SERSIC_EXPANSION_MIN_INDEX,
-} from './sersicCoefficient.js';
+} from './sersic/sersicCoefficient.js';
 export { ellipticalGaussian } from './ellipticalGaussian.js';
 export { ellipticalQuadraticForm } from './ellipticalQuadraticForm.js';
 export { shapelets, shapeletOrders } from './shapelets.js';
 export { hermiteFunctions } from './hermiteFunctions.js';
-import type { LightProfile } from './lightProfile.js';
-import { sersic } from './sersic.js';
-import { ellipticalGaussian } from './ellipticalGaussian.js';
-import { shapelets } from './shapelets.js';
 
-/** Light profiles with a fixed number of basis functions, by config kind. */
-export const lightProfiles: Readonly<Record<'sersic' | 'ellipticalGaussian', LightProfile>> = {
-  sersic,
-  ellipticalGaussian,
-};
+/** Light profiles with a fixed number of basis functions, by config kind: reference and fast evaluation. */
+export const lightProfiles: Readonly<Record<'sersic' | 'ellipticalGaussian', LightProfilePair>> = Object.freeze({
+  sersic: Object.freeze({ reference: sersic, fast: fastSersic }),
+  ellipticalGaussian: referenceLightOnly(ellipticalGaussian),
+});
 
-const shapeletsByOrder = new Map<number, LightProfile>();
+const shapeletsByOrder = new Map<number, LightProfilePair>();
 
 /** The shapelet profile of the given maximum order (one shared instance per order). */
-export function shapeletsOfOrder(maxOrder: number): LightProfile {
-  let profile = shapeletsByOrder.get(maxOrder);
-  if (profile === undefined) {
-    profile = shapelets(maxOrder);
-    shapeletsByOrder.set(maxOrder, profile);
+export function shapeletsOfOrder(maxOrder: number): LightProfilePair {
+  let pair = shapeletsByOrder.get(maxOrder);
+  if (pair === undefined) {
+    pair = referenceLightOnly(shapelets(maxOrder));
+    shapeletsByOrder.set(maxOrder, pair);
   }
-  return profile;
+  return pair;
 }

@@ -22,3 +22,18 @@ export interface LightProfile {
     out: Float64Array, outOffset: number, stride: number,
   ): void;
 }
+
+/**
+ * A light profile as the light table registers it: the reference formula, and the evaluation the
+ * forward model runs (the same function with cheaper elementary functions, kept in the profile's
+ * folder and tested against the reference there; the reference itself where there is no twin).
+ */
+export interface LightProfilePair {
+  readonly reference: LightProfile;
+  readonly fast: LightProfile;
+}
+
+/** The pair of a profile with no fast twin. */
+export function referenceLightOnly(profile: LightProfile): LightProfilePair {
+  return Object.freeze({ reference: profile, fast: profile });
+}

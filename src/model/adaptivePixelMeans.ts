@@ -1,7 +1,8 @@
 import type { PixelGrid } from '../imaging/pixelGrid.js';
 import type { PsfKernel } from '../imaging/psfKernel.js';
 import type { LightProfile } from '../light/lightProfile.js';
-import type { MassTerm } from './lensSystem.js';
+import { traceRays } from '../lensing/lensEquation.js';
+import type { MassTerm } from '../lensing/massTerm.js';
 import { midpointStencilWeights, richardsonFactor } from './midpointStencil.js';
 
 /** A light component as the pixel-mean evaluator sees it. */
@@ -740,15 +741,7 @@ export class AdaptivePixelMeans {
     p: Float64Array, x: Float64Array, y: Float64Array, n: number,
     ax: Float64Array, ay: Float64Array, bx: Float64Array, by: Float64Array,
   ): void {
-    if (!this.hasSource) return;
-    ax.fill(0, 0, n);
-    ay.fill(0, 0, n);
-    const massTerms = this.massTerms;
-    for (let t = 0; t < massTerms.length; t++) massTerms[t].profile.addDeflection(p, massTerms[t].offset, x, y, n, ax, ay);
-    for (let i = 0; i < n; i++) {
-      bx[i] = x[i] - ax[i];
-      by[i] = y[i] - ay[i];
-    }
+    if (this.hasSource) traceRays(this.massTerms, p, x, y, n, ax, ay, bx, by);
   }
 
   /** Unit-amplitude light of every basis at n rays into out[k * stride + i]. */

@@ -5,7 +5,6 @@ import { AdaptivePixelMeans, type MeanLightTerm } from './adaptivePixelMeans.js'
 import { PixelSubsetConvolver } from './pixelSubsetConvolver.js';
 import { separablePsf } from './separablePsf.js';
 import { trimPsfKernel } from './trimPsfKernel.js';
-import { fasterLightProfile, fasterMassProfile } from './fasterProfiles.js';
 
 /** Default relative tolerance of the adaptive pixel means (see AdaptivePixelMeans). */
 export const FORWARD_MODEL_RELATIVE_TOLERANCE = 1e-5;
@@ -67,9 +66,10 @@ interface BoundLightTerm {
  *   their convolved basis kept until their profile-vector entries change;
  * - sub-pixel rays of pixels where the lens mapping is smooth are not traced: their source-plane
  *   positions are interpolated from the pixel-centre rays;
- * - the isothermal ellipsoid, the truncated NFW and the Sersic profile run with table-driven
- *   atan, log, exp and powers, the truncated NFW's radial factor from a table (fasterProfiles.ts;
- *   errors below 1e-12 arcsec, 1e-12 and 1e-13 relative, tested);
+ * - each profile runs as its registered fast evaluation (MassProfilePair, LightProfilePair): the
+ *   isothermal ellipsoid, the truncated NFW and the Sersic profile with table-driven atan, log,
+ *   exp and powers, the truncated NFW's radial factor from a table (each tested against its
+ *   reference beside it);
  * - the PSF is cut to the box outside which |K| sums to 1/20 of the least relative tolerance
  *   (trimPsfKernel), convolved as two 1-D passes when separable to the same budget
  *   (separablePsf), and only at the `used` pixels (PixelSubsetConvolver); light is computed only
@@ -139,13 +139,13 @@ export class ForwardModel {
     this.basis = new Float64Array(this.amplitudeCount * this.pixelCount);
 
     const bound = bindLightTerms(system);
-    const massTerms = system.massTerms.map((term) => ({ profile: fasterMassProfile(term.profile), offset: term.offset }));
+    const massTerms = system.massTerms.map((term) => ({ profile: term.fast ?? term.profile, offset: term.offset }));
     const build = (terms: BoundLightTerm[], uniform: boolean): [AdaptivePixelMeans, Int32Array] => {
       const amplitudes: number[] = [];
       const meanTerms: MeanLightTerm[] = terms.map(({ term, imagePlane }) => {
         const firstBasis = amplitudes.length;
         for (let b = 0; b < term.profile.basisCount; b++) amplitudes.push(term.amplitudeOffset + b);
-        return { profile: fasterLightProfile(term.profile), offset: term.offset, firstBasis, imagePlane };
+        return { profile: term.fast, offset: term.offset, firstBasis, imagePlane };
       });
       const means = new AdaptivePixelMeans(
         grid, supersampling, this.computedPixels, massTerms, meanTerms, amplitudes.length, this.relativeTolerance,

@@ -1,9 +1,10 @@
 import { InputError } from '../errors.js';
 import type { ArcsiftConfig, ComponentConfig } from '../config/arcsiftConfig.js';
-import type { MassProfile } from '../lens/massProfile.js';
-import type { LightProfile } from '../light/lightProfile.js';
+import type { MassProfilePair } from '../lens/massProfile.js';
+import type { LightProfile, LightProfilePair } from '../light/lightProfile.js';
 import { mainLensProfiles, multipole } from '../lens/index.js';
 import { lightProfiles, shapeletsOfOrder } from '../light/index.js';
+import type { MassTerm } from '../lensing/massTerm.js';
 import { ParameterCollector, copyWriter } from './componentBinding.js';
 import type { ModelParameter } from './modelParameter.js';
 import { bindPerturber, type PerturberBinding } from './perturberBinding.js';
@@ -12,14 +13,13 @@ import type { LensingContext } from '../cosmology/index.js';
 
 type VectorWriter = (model: Float64Array, profile: Float64Array) => void;
 
-export interface MassTerm {
-  readonly profile: MassProfile;
-  /** Offset of this term's parameters in the profile vector. */
-  readonly offset: number;
-}
+export type { MassTerm } from '../lensing/massTerm.js';
 
 export interface LightTerm {
+  /** The reference formula. */
   readonly profile: LightProfile;
+  /** The evaluation the forward model runs (see LightProfilePair). */
+  readonly fast: LightProfile;
   readonly offset: number;
   /** Index of this component's first amplitude among all amplitudes. */
   readonly amplitudeOffset: number;
@@ -56,14 +56,14 @@ export interface LensSystemOptions {
   readonly perturberCount?: number;
 }
 
-function lightProfileOf(component: ComponentConfig, file: string): LightProfile {
+function lightProfileOf(component: ComponentConfig, file: string): LightProfilePair {
   if (component.kind === 'shapelets') {
     if (component.order === undefined) {
       throw new InputError('a shapelets component needs `order` (the maximum n1 + n2), e.g. order: 6', { file, key: component.key });
     }
     return shapeletsOfOrder(component.order);
   }
-  const profile = (lightProfiles as Record<string, LightProfile>)[component.kind];
+  const profile = (lightProfiles as Record<string, LightProfilePair>)[component.kind];
   if (profile === undefined) {
     throw new InputError(
       `unknown light kind ${JSON.stringify(component.kind)} (known: ${[...Object.keys(lightProfiles), 'shapelets'].join(', ')})`,
@@ -107,26 +107,26 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
 
   const mainIndices: number[][] = [];
   config.lensMass.forEach((component) => {
-    const profile = (mainLensProfiles as Record<string, MassProfile>)[component.kind];
-    if (profile === undefined || component.kind === 'externalShear') {
+    const pair = (mainLensProfiles as Record<string, MassProfilePair>)[component.kind];
+    if (pair === undefined || component.kind === 'externalShear') {
       throw new InputError(
         `unknown main-lens mass kind ${JSON.stringify(component.kind)} (known: isothermalEllipsoid, powerLawEllipsoid)`,
         { file, key: `${component.key}.kind` },
       );
     }
     const defaults: Record<string, number> = component.kind === 'isothermalEllipsoid' ? { coreRadiusArcsec: 0 } : {};
-    const indices = collector.bind(component, profile.parameterNames, defaults);
+    const indices = collector.bind(component, pair.reference.parameterNames, defaults);
     mainIndices.push(indices);
     writers.push(copyWriter(indices, profileLength));
-    massTerms.push({ profile, offset: profileLength });
-    profileLength += profile.parameterNames.length;
+    massTerms.push({ profile: pair.reference, fast: pair.fast, offset: profileLength });
+    profileLength += pair.reference.parameterNames.length;
   });
 
   if (config.shear !== undefined) {
-    const profile = mainLensProfiles.externalShear;
+    const { reference: profile, fast } = mainLensProfiles.externalShear;
     const indices = collector.bind(config.shear, profile.parameterNames);
     writers.push(copyWriter(indices, profileLength));
-    massTerms.push({ profile, offset: profileLength });
+    massTerms.push({ profile, fast, offset: profileLength });
     profileLength += profile.parameterNames.length;
   }
 
@@ -151,7 +151,7 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
       p[offset + 4] = model[links[2]];
       p[offset + 5] = slopeIndex >= 0 ? model[slopeIndex] : 2;
     });
-    massTerms.push({ profile, offset });
+    massTerms.push({ profile, fast: profile, offset });
     profileLength += profile.parameterNames.length;
   }
 
@@ -162,16 +162,16 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
     const binding = bindPerturber(withRegionBounds(config.perturbers[k], config, file), collector, lensing, profileLength, file);
     perturbers.push(binding);
     writers.push(binding.write);
-    massTerms.push({ profile: binding.profile, offset: profileLength });
+    massTerms.push({ profile: binding.profile, fast: binding.fast, offset: profileLength });
     profileLength += binding.profile.parameterNames.length;
   }
 
   const amplitudeNames: string[] = [];
   const amplitudeValues: (number | undefined)[] = [];
   const bindLight = (components: readonly ComponentConfig[]): LightTerm[] => components.map((component) => {
-    const profile = lightProfileOf(component, file);
+    const { reference: profile, fast } = lightProfileOf(component, file);
     const indices = collector.bind(component, profile.parameterNames, {}, ['amplitude']);
-    const term: LightTerm = { profile, offset: profileLength, amplitudeOffset: amplitudeNames.length, key: component.key };
+    const term: LightTerm = { profile, fast, offset: profileLength, amplitudeOffset: amplitudeNames.length, key: component.key };
     writers.push(copyWriter(indices, profileLength));
     profileLength += profile.parameterNames.length;
     if (profile.basisCount === 1) {

@@ -1,7 +1,7 @@
 import { InputError } from '../errors.js';
 import type { ComponentConfig } from '../config/arcsiftConfig.js';
 import type { LensingContext } from '../cosmology/index.js';
-import type { MassProfile } from '../lens/massProfile.js';
+import type { MassProfile, MassProfilePair } from '../lens/massProfile.js';
 import {
   duffy2008Concentration, perturberProfiles, pointMassEinsteinRadiusArcsec, pseudoJaffeStrengthArcsec,
   subhaloFromMass, nfwFromMass, writeNfwLensingParameters,
@@ -26,7 +26,9 @@ export interface PerturberDerived {
 export interface PerturberBinding {
   readonly kind: string;
   readonly key: string;
+  /** The reference formula, and the evaluation the forward model runs (see MassProfilePair). */
   readonly profile: MassProfile;
+  readonly fast: MassProfile;
   /** Model indices of log10 mass, centre x and centre y. */
   readonly massIndex: number;
   readonly centerXIndex: number;
@@ -50,8 +52,8 @@ export function bindPerturber(
   component: ComponentConfig, collector: ParameterCollector, lensing: LensingContext, offset: number, file: string,
 ): PerturberBinding {
   const kind = component.kind;
-  const profile = (perturberProfiles as Record<string, MassProfile>)[kind];
-  if (profile === undefined) {
+  const pair = (perturberProfiles as Record<string, MassProfilePair>)[kind];
+  if (pair === undefined) {
     throw new InputError(
       `unknown perturber kind ${JSON.stringify(kind)} (known: ${Object.keys(perturberProfiles).join(', ')})`,
       { file, key: `${component.key}.kind` },
@@ -67,7 +69,7 @@ export function bindPerturber(
         : massNames;
   const indices = collector.bind(component, names, { truncationRatio: 10 });
   const [massIndex, centerXIndex, centerYIndex] = indices;
-  const base = { kind, key: component.key, profile, massIndex, centerXIndex, centerYIndex, positionPrior: component.positionPrior };
+  const base = { kind, key: component.key, profile: pair.reference, fast: pair.fast, massIndex, centerXIndex, centerYIndex, positionPrior: component.positionPrior };
   const z = lensing.lensRedshift;
   const littleH = lensing.littleH;
   const concentrationIndex = hasConcentration ? indices[names.indexOf('concentration')] : -1;

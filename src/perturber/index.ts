@@ -1,10 +1,11 @@
-import type { MassProfile } from '../lens/massProfile.js';
+import { referenceOnly, type MassProfilePair } from '../lens/massProfile.js';
+import { fastTruncatedNfw } from './truncatedNfw/fastTruncatedNfw.js';
 import { nfw } from './nfw.js';
 import { pointMass } from './pointMass.js';
 import { pseudoJaffe } from './pseudoJaffe.js';
-import { truncatedNfw } from './truncatedNfw.js';
+import { truncatedNfw } from './truncatedNfw/truncatedNfw.js';
 
-export { nfw, truncatedNfw, pseudoJaffe, pointMass };
+export { nfw, truncatedNfw, fastTruncatedNfw, pseudoJaffe, pointMass };
 export {
   nfwProjectionF, nfwConvergenceShape, nfwProjectedMassShape, nfwSmallestRadiusRatio,
 } from './nfwProjection.js';
@@ -17,6 +18,11 @@ export {
   type NfwMassFromLensing,
 } from './subhaloLensing.js';
 
-/** Perturber profiles by the kind name a config uses. */
-export const perturberProfiles: Readonly<Record<'nfw' | 'truncatedNfw' | 'pseudoJaffe' | 'pointMass', MassProfile>> =
-  Object.freeze({ nfw, truncatedNfw, pseudoJaffe, pointMass });
+/** Perturber profiles by the kind name a config uses: each reference formula and its fast evaluation. */
+export const perturberProfiles: Readonly<Record<'nfw' | 'truncatedNfw' | 'pseudoJaffe' | 'pointMass', MassProfilePair>> =
+  Object.freeze({
+    nfw: referenceOnly(nfw),
+    truncatedNfw: Object.freeze({ reference: truncatedNfw, fast: fastTruncatedNfw }),
+    pseudoJaffe: referenceOnly(pseudoJaffe),
+    pointMass: referenceOnly(pointMass),
+  });

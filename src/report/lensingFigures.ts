@@ -4,7 +4,7 @@ import { configHash } from '../inference/runComparisonToFolder.js';
 import { fillPixelCentres } from '../imaging/pixelGrid.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import { modelVectorFromRecord } from '../model/modelVectorFromRecord.js';
-import { criticalCurves, type LensCurves } from './criticalCurves.js';
+import { criticalCurves, type LensCurves } from '../lensing/criticalCurves.js';
 import { sequentialRange } from './displayRange.js';
 import { imagePanelSvg, type ImageLine, type ImageMarker, type ImagePanel } from './imagePanelSvg.js';
 import { imagePng } from './imagePng.js';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { isothermalEllipsoid } from '../../src/lens/isothermalEllipsoid.js';
+import { isothermalEllipsoid } from '../../src/lens/isothermalEllipsoid/isothermalEllipsoid.js';
 import { powerLawEllipsoid } from '../../src/lens/powerLawEllipsoid.js';
 import { homoeoidDeflection } from './homoeoidDeflection.js';
 import {

@@ -4,7 +4,11 @@ import { perturberProfiles } from '../../src/perturber/index.js';
 describe('perturberProfiles table', () => {
   it('maps each kind name to the profile of that kind', () => {
     expect(Object.keys(perturberProfiles).sort()).toEqual(['nfw', 'pointMass', 'pseudoJaffe', 'truncatedNfw']);
-    for (const [kind, profile] of Object.entries(perturberProfiles)) expect(profile.kind).toBe(kind);
+    for (const [kind, pair] of Object.entries(perturberProfiles)) {
+      expect(pair.reference.kind).toBe(kind);
+      expect(pair.fast.kind).toBe(kind);
+      expect(pair.fast.parameterNames).toEqual(pair.reference.parameterNames);
+    }
   });
 
   it('every method adds into its outputs and reads parameters at the offset (MassProfile contract)', () => {
@@ -16,7 +20,7 @@ describe('perturberProfiles table', () => {
       coreRadiusArcsec: 0.01, truncationRadiusArcsec: 0.6, einsteinRadiusArcsec: 0.05,
       centerXArcsec: 0.05, centerYArcsec: -0.02,
     };
-    for (const profile of Object.values(perturberProfiles)) {
+    for (const profile of Object.values(perturberProfiles).flatMap((pair) => [pair.reference, pair.fast])) {
       const p = Float64Array.from([99, -99, ...profile.parameterNames.map((name) => values[name])]);
       const once = [new Float64Array(3), new Float64Array(3)];
       profile.addDeflection(p, 2, x, y, 3, once[0], once[1]);

@@ -5,7 +5,7 @@ import { fastLog } from './fastLog.js';
  * 17, 26): for |x| <= 1, c = j/64 the nearest table point, atan|x| = atan c + atan d with
  * d = (|x| - c)/(1 + |x| c), |d| <= 1/128, and atan d = d - d^3/3 + d^5/5 - d^7/7 (truncation
  * |d|^9/9 < 1.2e-20); for |x| > 1, atan|x| = pi/2 - atan(1/|x|). Error a few ulp (checked
- * against Math.atan in test/model/fastElementary.test.ts); NaN stays NaN.
+ * against Math.atan in test/numeric/elementary/fastElementary.test.ts); NaN stays NaN.
  */
 export function fastAtan(x: number): number {
   const magnitude = Math.abs(x);
@@ -28,7 +28,7 @@ export function fastAtan(x: number): number {
  * |d| <= (1/256)/(1 - (7/8)^2) < 0.0167 (|z| - c is exact), and artanh d = d + d^3/3 + ... + d^9/9
  * (A&S 4.6.33; truncation below d^11/10 < 2e-19 |d|). Both terms have the sign of z, so the
  * relative error is a few ulp (below 1e-15, checked against Math.atanh in
- * test/model/fastElementary.test.ts). Beyond 7/8 (and for NaN), ln((1 + z)/(1 - z)) / 2
+ * test/numeric/elementary/fastElementary.test.ts). Beyond 7/8 (and for NaN), ln((1 + z)/(1 - z)) / 2
  * (A&S 4.6.22) with fastLog: absolute error < 4e-16 (1 + |ln|).
  */
 export function fastAtanh(z: number): number {

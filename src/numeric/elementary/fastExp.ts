@@ -5,7 +5,7 @@
  * (its tolerance is about 1e-5 of a basis peak). The reduction uses ln2/64 rounded once, so r
  * errs by about 2.2e-16 |x| absolute; the tables hold correctly rounded values. Relative error
  * below 3.7e-11 + 2.3e-16 |x| (< 3.9e-11 on the whole range; checked against Math.exp in
- * test/model/fastElementary.test.ts). Outside (-708, 709), where results are subnormal or
+ * test/numeric/elementary/fastElementary.test.ts). Outside (-708, 709), where results are subnormal or
  * overflow, and for NaN it falls back to Math.exp.
  */
 export function fastExp(x: number): number {

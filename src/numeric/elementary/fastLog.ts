@@ -4,7 +4,7 @@
  * ln x = k ln2 + ln c + ln(1 + r) with r = (m - c)/c in [0, 2^-8), ln(1 + r) by its Taylor
  * polynomial of degree 6 (truncation r^7/7 < 2.1e-18). m - c is exact (same binade); the tables
  * hold k ln2 and ln c rounded once. Absolute error below 4e-16 (1 + |ln x|) (checked against
- * Math.log in test/model/fastElementary.test.ts). Zero, negative, subnormal, infinite and NaN
+ * Math.log in test/numeric/elementary/fastElementary.test.ts). Zero, negative, subnormal, infinite and NaN
  * arguments fall back to Math.log.
  */
 export function fastLog(x: number): number {

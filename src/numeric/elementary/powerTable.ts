@@ -7,7 +7,7 @@
  * for h <= 1 (|C(h, 4)| <= 0.042 there), ample for the Sersic profile (see fastSersic.ts). The
  * tables hold exp(h k ln2) and exp(h ln c) rounded once, so the relative error is below
  * T(h) + (1.5 |h ln x| + 8) 2.2e-16 (checked against Math.pow in
- * test/model/fastElementary.test.ts). x outside [2^-100, 2^101) (zero, infinite, negative and
+ * test/numeric/elementary/fastElementary.test.ts). x outside [2^-100, 2^101) (zero, infinite, negative and
  * NaN included) falls back to Math.pow. Building the tables costs about 460 exponentials;
  * `setExponent` rebuilds them only when h changes.
  */

@@ -1,23 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { fastExp } from '../../../src/numeric/elementary/fastExp.js';
-import { fastSersic } from '../../../src/model/fastSersic.js';
-import { sersic } from '../../../src/light/sersic.js';
 import { fastAtan, fastAtanh } from '../../../src/numeric/elementary/fastAtan.js';
-import { fastIsothermalEllipsoid } from '../../../src/model/fastIsothermalEllipsoid.js';
-import { isothermalEllipsoid } from '../../../src/lens/isothermalEllipsoid.js';
 import { fastLog } from '../../../src/numeric/elementary/fastLog.js';
 import { PowerTable } from '../../../src/numeric/elementary/powerTable.js';
-import { fastTruncatedNfw } from '../../../src/model/fastTruncatedNfw.js';
-import { truncatedNfw } from '../../../src/perturber/truncatedNfw.js';
-
-/** A reproducible uniform generator (Park & Miller 1988 minimal standard), for sample points. */
-function uniformSequence(seed: number): () => number {
-  let state = seed;
-  return () => {
-    state = (state * 16807) % 2147483647;
-    return state / 2147483647;
-  };
-}
+import { uniformSequence } from '../../support/uniformSequence.js';
 
 describe('fast elementary functions', () => {
   it('fastExp agrees with Math.exp to 3.7e-11 + 2.3e-16 |x| relative on [-708, 709], and is Math.exp outside', () => {
@@ -95,29 +81,6 @@ describe('fast elementary functions', () => {
     expect(table.setExponent(7.5)).toBe(false);
   });
 
-  it('fastSersic agrees with the Sersic profile of src/light to 3.3e-10 relative where I > 1e-12 of its peak (n >= 1/2)', () => {
-    // Reference: sersic.ts (Math.exp, Math.log). The bound stated in fastSersic.ts for
-    // 1/2 <= n <= 8 is 27.7 T(h) + 4e-11 < 3.3e-10, met near I = 1e-12 of the peak.
-    const next = uniformSequence(11);
-    const n = 5000;
-    const x = new Float64Array(n), y = new Float64Array(n);
-    const a = new Float64Array(n), b = new Float64Array(n);
-    let worst = 0;
-    for (const [radius, index, q, angle] of [[0.16, 1.3, 0.7, 115], [0.05, 4, 0.4, 10], [0.9, 0.5, 1, 0], [0.3, 8, 0.9, 75]]) {
-      for (let k = 0; k < n; k++) {
-        x[k] = (next() - 0.5) * 12 * radius;
-        y[k] = (next() - 0.5) * 12 * radius;
-      }
-      x[0] = 0.02; y[0] = -0.01; // the centre itself: R = 0
-      const p = Float64Array.from([radius, index, q, angle, 0.02, -0.01]);
-      sersic.writeBasis(p, 0, x, y, n, a, 0, n);
-      fastSersic.writeBasis(p, 0, x, y, n, b, 0, n);
-      const peak = a[0];
-      for (let k = 0; k < n; k++) if (a[k] > 1e-12 * peak) worst = Math.max(worst, Math.abs(a[k] - b[k]) / a[k]);
-    }
-    expect(worst).toBeLessThan(3.3e-10);
-  });
-
   it('fastAtan agrees with Math.atan to 1e-15 relative, fastAtanh with Math.atanh to 1e-15 absolute', () => {
     // Reference: Math.atan, Math.atanh (fdlibm ports, within 1 ulp). fastAtan: truncation
     // 1.2e-20 plus roundings; fastAtanh = ln((1+z)/(1-z))/2 has an absolute error of a few
@@ -158,71 +121,4 @@ describe('fast elementary functions', () => {
     expect(fastAtanh(Number.NaN)).toBeNaN();
   });
 
-  it('fastIsothermalEllipsoid deflects as the isothermal ellipsoid of src/lens to 1e-12 arcsec', () => {
-    // Reference: isothermalEllipsoid.ts (Math.atan, Math.atanh); bound stated in
-    // fastIsothermalEllipsoid.ts. Cases: the demo lens, a flat one with a core, a nearly round
-    // one (series branch) and one just outside the series branch (e^2 = 2e-6).
-    const next = uniformSequence(3);
-    const n = 20000;
-    const x = new Float64Array(n), y = new Float64Array(n);
-    for (let k = 0; k < n; k++) {
-      x[k] = (next() - 0.5) * 6;
-      y[k] = (next() - 0.5) * 6;
-    }
-    let worst = 0;
-    for (const parameters of [
-      [1.18, 0.82, 32, 0.02, -0.015, 0], [0.8, 0.3, 100, -0.1, 0.2, 0.05], [1.5, 1 - 1e-8, 0, 0, 0, 0], [1, Math.sqrt(1 - 2e-6), 45, 0, 0, 0],
-    ]) {
-      const p = Float64Array.from(parameters);
-      const ax = new Float64Array(n), ay = new Float64Array(n), bx = new Float64Array(n), by = new Float64Array(n);
-      isothermalEllipsoid.addDeflection(p, 0, x, y, n, ax, ay);
-      fastIsothermalEllipsoid.addDeflection(p, 0, x, y, n, bx, by);
-      for (let k = 0; k < n; k++) worst = Math.max(worst, Math.abs(ax[k] - bx[k]), Math.abs(ay[k] - by[k]));
-    }
-    expect(worst).toBeLessThan(1e-12);
-  });
-
-  it('fastTruncatedNfw deflects as the truncated NFW of src/perturber to 1e-12 relative, by table and directly', () => {
-    // Reference: truncatedNfw.ts (Math.log, Math.atan); bound stated in fastTruncatedNfw.ts and
-    // truncatedNfwDeflectionTable.ts. Radii over x = 1e-4..300 scale radii (inside the table's
-    // 1/128..256 and outside), both sides of x = 1/2 and of the series near x = 1; truncation
-    // ratios of the demo (3), a tight (0.5) and a wide (15) halo. 20000 points use the table;
-    // the same points in calls of 500 (fewer than TABLE_MINIMUM_POINTS, a new ratio each time)
-    // use the direct formulas.
-    const next = uniformSequence(17);
-    const n = 20000;
-    const x = new Float64Array(n), y = new Float64Array(n);
-    let worstTable = 0;
-    let worstDirect = 0;
-    for (const tau of [0.5, 3, 15]) {
-      const thetaS = 0.2;
-      for (let k = 0; k < n; k++) {
-        const radius = thetaS * Math.exp(Math.log(1e-4) + (Math.log(300) - Math.log(1e-4)) * next());
-        const angle = 2 * Math.PI * next();
-        x[k] = 0.78 + radius * Math.cos(angle);
-        y[k] = 0.98 + radius * Math.sin(angle);
-      }
-      const ax = new Float64Array(n), ay = new Float64Array(n), bx = new Float64Array(n), by = new Float64Array(n);
-      const p = Float64Array.of(0.4, thetaS, tau, 0.78, 0.98);
-      truncatedNfw.addDeflection(p, 0, x, y, n, ax, ay);
-      fastTruncatedNfw.addDeflection(p, 0, x, y, n, bx, by);
-      for (let k = 0; k < n; k++) {
-        worstTable = Math.max(worstTable, Math.hypot(ax[k] - bx[k], ay[k] - by[k]) / Math.hypot(ax[k], ay[k]));
-      }
-      const m = 500;
-      // A ratio the table does not hold, so that the small calls take the direct path.
-      const q = Float64Array.of(0.4, thetaS, tau * (1 + 1e-8), 0.78, 0.98);
-      for (let start = 0; start < n; start += m) {
-        const cx = new Float64Array(m), cy = new Float64Array(m), dx = new Float64Array(m), dy = new Float64Array(m);
-        const px = x.slice(start, start + m), py = y.slice(start, start + m);
-        truncatedNfw.addDeflection(q, 0, px, py, m, cx, cy);
-        fastTruncatedNfw.addDeflection(q, 0, px, py, m, dx, dy);
-        for (let k = 0; k < m; k++) {
-          worstDirect = Math.max(worstDirect, Math.hypot(cx[k] - dx[k], cy[k] - dy[k]) / Math.hypot(cx[k], cy[k]));
-        }
-      }
-    }
-    expect(worstTable).toBeLessThan(1e-12);
-    expect(worstDirect).toBeLessThan(1e-12);
-  });
 });

@@ -1,5 +1,5 @@
-import type { LightProfile } from './lightProfile.js';
-import { ellipticalQuadraticForm } from './ellipticalQuadraticForm.js';
+import type { LightProfile } from '../lightProfile.js';
+import { ellipticalQuadraticForm } from '../ellipticalQuadraticForm.js';
 import { sersicCoefficient } from './sersicCoefficient.js';
 
 const form = new Float64Array(3);
@@ -11,6 +11,8 @@ const form = new Float64Array(3);
  * ellipticalQuadraticForm.ts), so `effectiveRadiusArcsec` is the radius of the circle with the
  * same area as the half-light isophote; the semi-major axis of that isophote is R_e / sqrt(q).
  * Total flux 2 pi n R_e^2 I_e e^(b_n) b_n^(-2n) Gamma(2n) (Graham & Driver 2005, eq. 2), for any q.
+ * The reference formula; its fast twin, fastSersic.ts beside it, is what the forward model runs
+ * (the two are compared in test/light/sersic/fastSersic.test.ts).
  */
 export const sersic: LightProfile = {
   kind: 'sersic',

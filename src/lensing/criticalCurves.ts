@@ -1,4 +1,5 @@
-import type { MassTerm } from '../model/lensSystem.js';
+import { totalDeflection } from './lensEquation.js';
+import type { MassTerm } from './massTerm.js';
 import { contourRegion } from '../numeric/contour/contourRegion.js';
 
 /** Critical curves and caustics of a lens, as polylines of flat (x0, y0, x1, y1, ...) arcsec. */
@@ -18,16 +19,6 @@ export interface LensCurves {
  * disc stays inside one cell, while rounding (1e-16 |alpha| / h) stays negligible.
  */
 const STEP_FRACTION = 1 / 100;
-
-/** The deflection of all mass terms at n points, written (not added) into alphaX, alphaY. */
-function totalDeflection(
-  massTerms: readonly MassTerm[], profile: Float64Array,
-  x: Float64Array, y: Float64Array, n: number, alphaX: Float64Array, alphaY: Float64Array,
-): void {
-  alphaX.fill(0, 0, n);
-  alphaY.fill(0, 0, n);
-  for (const term of massTerms) term.profile.addDeflection(profile, term.offset, x, y, n, alphaX, alphaY);
-}
 
 /**
  * Critical curves of the lens mapping beta = theta - alpha(theta) where det A = 0, A its Jacobian

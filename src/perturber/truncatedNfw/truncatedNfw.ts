@@ -1,7 +1,7 @@
-import type { MassProfile } from '../lens/massProfile.js';
+import type { MassProfile } from '../../lens/massProfile.js';
 import {
   nfwConvergenceShape, nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio,
-} from './nfwProjection.js';
+} from '../nfwProjection.js';
 
 /**
  * Truncated NFW halo of Baltz, Marshall & Oguri 2009 (JCAP 01, 015), n = 1 case:
@@ -20,6 +20,8 @@ import {
  * 1 + d/2 = (R + tau)/(2 tau)), which saves two logarithms per point. Nothing is
  * singular at x = tau. A point exactly at the centre is evaluated at x = 1e-20 (finite kappa,
  * zero deflection), as for the NFW. No potential is provided (image fitting needs none).
+ * The reference formula; its fast twin, fastTruncatedNfw.ts beside it, is what the forward model runs
+ * (the two are compared in test/perturber/truncatedNfw/fastTruncatedNfw.test.ts).
  */
 export const truncatedNfw: MassProfile = {
   kind: 'truncatedNfw',

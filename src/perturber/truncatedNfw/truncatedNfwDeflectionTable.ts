@@ -1,4 +1,4 @@
-import { truncatedNfw } from '../perturber/truncatedNfw.js';
+import { truncatedNfw } from './truncatedNfw.js';
 
 /** Octaves of v = u^2 covered: [2^LOWEST_OCTAVE, 2^(LOWEST_OCTAVE + OCTAVES)), u = 1/128 .. 256. */
 const LOWEST_OCTAVE = -14;
@@ -19,7 +19,7 @@ const NODES_PER_OCTAVE = INTERVALS + DEGREE;
  * truncatedNfw.ts itself. Interpolation error |omega(t)| h^8 |G^(8)| / 8! with |omega| < 43 on
  * [0, 1] and h/v <= 1/64: for G ~ 1/v (outside the truncation radius) that is below
  * 43 (1/64)^8 = 1.5e-13 relative; with the roundings of the coefficients the test
- * (test/model/fastElementary.test.ts) measures 6e-13 and checks the deflection against
+ * (test/perturber/truncatedNfw/fastTruncatedNfw.test.ts) measures 6e-13 and checks the deflection against
  * truncatedNfw.ts to 1e-12 relative for tau = 0.5, 3 and 15 over u = 1e-4..300 (inside and
  * outside the table). `build` evaluates the profile at 2130 points (about 0.1 ms).
  */

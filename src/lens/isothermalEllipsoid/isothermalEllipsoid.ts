@@ -1,5 +1,5 @@
-import { zeroedDeflectionScratch } from './deflectionScratch.js';
-import type { MassProfile } from './massProfile.js';
+import { zeroedDeflectionScratch } from '../deflectionScratch.js';
+import type { MassProfile } from '../massProfile.js';
 
 /**
  * Singular isothermal ellipsoid with an optional core.
@@ -20,6 +20,8 @@ import type { MassProfile } from './massProfile.js';
  *   alpha_x' = (b/e) atan(e x' / (w + sK)),  alpha_y' = (b/e) atanh(e y' / (w + q^2 sK)),
  *   e = sqrt(1 - q^2),  w = sqrt(q^2 (sK^2 + x'^2) + y'^2).
  * Cost per point: one sqrt, one atan, one atanh (sin and cos of the angle are hoisted).
+ * The reference formula; its fast twin, fastIsothermalEllipsoid.ts beside it, is what the forward model runs
+ * (the two are compared in test/lens/isothermalEllipsoid/fastIsothermalEllipsoid.test.ts).
  */
 export const isothermalEllipsoid: MassProfile = {
   kind: 'isothermalEllipsoid',

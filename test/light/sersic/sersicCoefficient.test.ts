@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import gammainc from '@stdlib/math/base/special/gammainc';
 import {
   SERSIC_EXPANSION_MIN_INDEX, sersicCoefficient, sersicCoefficientExact, sersicCoefficientExpansion,
-} from '../../src/light/sersicCoefficient.js';
+} from '../../../src/light/sersic/sersicCoefficient.js';
 
 // The exact b_n: root of P(2n, b) = 1/2 (Ciotti 1991; Graham & Driver 2005), P the regularised
 // lower incomplete gamma function of @stdlib/math (a general-purpose reference library; note its

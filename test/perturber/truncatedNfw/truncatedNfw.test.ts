@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { truncatedNfw } from '../../src/perturber/truncatedNfw.js';
-import { truncatedNfwTotalMassFactor } from '../../src/perturber/subhaloLensing.js';
+import { truncatedNfw } from '../../../src/perturber/truncatedNfw/truncatedNfw.js';
+import { truncatedNfwTotalMassFactor } from '../../../src/perturber/subhaloLensing.js';
 import {
   annulusPoints, convergenceAt, deflectionAt, halfDivergence,
-} from '../lens/profileProbes.js';
-import { integrateExpSinh } from './doubleExponential.js';
+} from '../../lens/profileProbes.js';
+import { integrateExpSinh } from '../doubleExponential.js';
 import {
   convergenceAtRadius, deflectionFromConvergence, radialDeflection, transverseToleranceFor, type RadialProbe,
-} from './radialChecks.js';
+} from '../radialChecks.js';
 
 const kappaS = 0.31, thetaS = 0.45, cx = -0.37, cy = 0.08;
 

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { isothermalEllipsoid } from '../../src/lens/index.js';
-import type { MassTerm } from '../../src/model/lensSystem.js';
+import type { MassTerm } from '../../src/lensing/massTerm.js';
 import { pointMass } from '../../src/perturber/index.js';
-import { criticalCurves } from '../../src/report/criticalCurves.js';
+import { criticalCurves } from '../../src/lensing/criticalCurves.js';
 
 // Critical curves and caustics traced on a grid of spacing SPACING against closed forms.
 // Tolerance (common practice for a grid-traced contour, argued here): a vertex is the zero of the

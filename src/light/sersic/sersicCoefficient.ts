@@ -1,4 +1,4 @@
-import { gammaincinv } from '../numeric/special/stdlibSpecial.js';
+import { gammaincinv } from '../../numeric/special/stdlibSpecial.js';
 
 /**
  * Below this Sersic index the asymptotic expansion is not used. Ciotti & Bertin (1999) give it
@@ -9,7 +9,7 @@ export const SERSIC_EXPANSION_MIN_INDEX = 0.36;
 
 /**
  * Ciotti & Bertin 1999 (A&A 352, 447), eq. 18: asymptotic expansion of b_n in powers of 1/n.
- * Relative error against the exact root (test/light/sersicCoefficient.test.ts): 3.6e-4 at
+ * Relative error against the exact root (test/light/sersic/sersicCoefficient.test.ts): 3.6e-4 at
  * n = 0.5, 2.5e-5 at n = 1, 1.3e-6 at n = 2, 7.1e-8 at n = 4, 4.2e-9 at n = 8.
  * The error falls as n^-3, not n^-5: the exact root's n^-3 coefficient, measured out to n = 200,
  * is 8.1e-5 (the gamma-median series of Choi 1994 with a = 2n gives 281/3444525 = 8.16e-5, from

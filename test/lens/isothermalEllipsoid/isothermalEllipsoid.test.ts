@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { isothermalEllipsoid } from '../../src/lens/isothermalEllipsoid.js';
-import { homoeoidDeflection } from './homoeoidDeflection.js';
-import { gaussLegendre } from './gaussLegendre.js';
+import { isothermalEllipsoid } from '../../../src/lens/isothermalEllipsoid/isothermalEllipsoid.js';
+import { homoeoidDeflection } from '../homoeoidDeflection.js';
+import { gaussLegendre } from '../gaussLegendre.js';
 import {
   annulusPoints, convergenceAt, deflectionAt, lensJacobian, poissonErrors,
   relativeVectorError,
-} from './profileProbes.js';
+} from '../profileProbes.js';
 
 // Parameters in the order of parameterNames:
 // einsteinRadiusArcsec, axisRatio, positionAngleDeg, centerXArcsec, centerYArcsec, coreRadiusArcsec

@@ -1,7 +1,7 @@
-import type { MassProfile } from '../lens/massProfile.js';
-import { isothermalEllipsoid } from '../lens/isothermalEllipsoid.js';
-import { fastAtanhInPlace, fastAtanInPlace } from '../numeric/elementary/fastAtan.js';
-import { passScratch } from '../numeric/elementary/passScratch.js';
+import type { MassProfile } from '../massProfile.js';
+import { isothermalEllipsoid } from './isothermalEllipsoid.js';
+import { fastAtanhInPlace, fastAtanInPlace } from '../../numeric/elementary/fastAtan.js';
+import { passScratch } from '../../numeric/elementary/passScratch.js';
 
 const DEG = Math.PI / 180;
 /** As in isothermalEllipsoid.ts: below this 1 - q^2 the deflection uses the series of atan(z)/z, atanh(z)/z. */
@@ -15,7 +15,7 @@ const SERIES_BELOW = 1e-6;
  * < 1.6e-15 b; beyond (by fastLog) below 2e-16 (1 + 2 artanh e) plus a rounding absolute, the
  * deflection below 2 b 2e-16 (2 + 2 artanh e) < 3e-15 b for q >= 0.1: under 1e-12 arcsec for
  * any Einstein radius below 300 arcsec (tested against isothermalEllipsoid.ts in
- * test/model/fastElementary.test.ts). Convergence and potential are the plain ones.
+ * test/lens/isothermalEllipsoid/fastIsothermalEllipsoid.test.ts). Convergence and potential are the plain ones.
  */
 export const fastIsothermalEllipsoid: MassProfile = {
   kind: isothermalEllipsoid.kind,

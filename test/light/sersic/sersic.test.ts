@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import gammainc from '@stdlib/math/base/special/gammainc';
 import gamma from '@stdlib/math/base/special/gamma';
-import { sersic } from '../../src/light/sersic.js';
-import { valueAt } from './valueAt.js';
-import { sersicCoefficient } from '../../src/light/sersicCoefficient.js';
-import { integrateOverEllipse } from './ellipticalQuadrature.js';
+import { sersic } from '../../../src/light/sersic/sersic.js';
+import { valueAt } from '../valueAt.js';
+import { sersicCoefficient } from '../../../src/light/sersic/sersicCoefficient.js';
+import { integrateOverEllipse } from '../ellipticalQuadrature.js';
 
 const geometry = { axisRatio: 0.6, positionAngleDeg: 35, centerXArcsec: 0.3, centerYArcsec: -0.2 };
 const effectiveRadius = 0.7;

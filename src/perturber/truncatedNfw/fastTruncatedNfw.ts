@@ -1,9 +1,9 @@
-import type { MassProfile } from '../lens/massProfile.js';
-import { truncatedNfw } from '../perturber/truncatedNfw.js';
-import { nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio } from '../perturber/nfwProjection.js';
-import { fastAtan } from '../numeric/elementary/fastAtan.js';
-import { fastLog } from '../numeric/elementary/fastLog.js';
-import { passScratch } from '../numeric/elementary/passScratch.js';
+import type { MassProfile } from '../../lens/massProfile.js';
+import { truncatedNfw } from './truncatedNfw.js';
+import { nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio } from '../nfwProjection.js';
+import { fastAtan } from '../../numeric/elementary/fastAtan.js';
+import { fastLog } from '../../numeric/elementary/fastLog.js';
+import { passScratch } from '../../numeric/elementary/passScratch.js';
 import { TruncatedNfwDeflectionTable } from './truncatedNfwDeflectionTable.js';
 
 /** Calls with at least this many points build the table for a new truncation ratio (about 0.1 ms). */
@@ -25,7 +25,7 @@ const SERIES_HALF_WIDTH = 0.02;
  * fastLog and fastAtan (relative error < 1e-15); from x = 1/2 on no term cancels, so the
  * deflection keeps a relative error of a few 1e-15 times (tau^2 + 1); below x = 1/2 the plain
  * h(x) and log1p are kept. Both paths are tested against truncatedNfw.ts to 1e-12 relative in
- * test/model/fastElementary.test.ts (a 1e9 solar-mass subhalo deflects by < 0.1 arcsec, so
+ * test/perturber/truncatedNfw/fastTruncatedNfw.test.ts (a 1e9 solar-mass subhalo deflects by < 0.1 arcsec, so
  * < 1e-13 arcsec). Convergence is the plain one.
  */
 export const fastTruncatedNfw: MassProfile = {

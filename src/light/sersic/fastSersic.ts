@@ -1,10 +1,10 @@
-import type { LightProfile } from '../light/lightProfile.js';
-import { sersic } from '../light/sersic.js';
-import { ellipticalQuadraticForm } from '../light/ellipticalQuadraticForm.js';
-import { sersicCoefficient } from '../light/sersicCoefficient.js';
-import { fastExp } from '../numeric/elementary/fastExp.js';
-import { fastLog } from '../numeric/elementary/fastLog.js';
-import { PowerTable } from '../numeric/elementary/powerTable.js';
+import type { LightProfile } from '../lightProfile.js';
+import { sersic } from './sersic.js';
+import { ellipticalQuadraticForm } from '../ellipticalQuadraticForm.js';
+import { sersicCoefficient } from './sersicCoefficient.js';
+import { fastExp } from '../../numeric/elementary/fastExp.js';
+import { fastLog } from '../../numeric/elementary/fastLog.js';
+import { PowerTable } from '../../numeric/elementary/powerTable.js';
 
 const form = new Float64Array(3);
 const powers = new PowerTable();
@@ -20,7 +20,7 @@ const lastShape = new Float64Array(9).fill(Number.NaN);
  * where I is above 1e-12 of its peak exp(b_n), b_n s < 27.7. So the relative error of I there is
  * below 27.7 T + 4e-11: under 3.3e-10 for 1/2 <= n <= 8 (T <= 1.0e-11) and 2.4e-7 for
  * 1/14 <= n < 1/2 (T <= 8.3e-9), against a forward-model tolerance of about 1e-5 of the peak
- * (checked against sersic.ts in test/model/fastElementary.test.ts). For n < 1/14, outside the
+ * (checked against sersic.ts in test/light/sersic/fastSersic.test.ts). For n < 1/14, outside the
  * power table's range, s is exp(ln(R^2/R_e^2)/(2n)) with fastLog and fastExp (relative error of
  * I below 27.7 x 3.9e-11 + 3.9e-11 < 1.2e-9).
  */
