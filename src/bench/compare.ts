@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { loadObservedData } from '../data/loadObservedData.js';
-import { simulateToFolder } from '../model/simulateToFolder.js';
+import { simulateToFolder } from '../simulate/simulateToFolder.js';
 import { defaultThreadCount } from '../parallel/likelihoodPool.js';
 import { compareModels } from '../inference/compareModels.js';
 import { wholeNumberOption } from './benchOptions.js';

@@ -3,8 +3,8 @@ import { parseConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { readConfigFile } from '../config/readConfigFile.js';
 import { usedPixelIndices } from '../imaging/mask.js';
 import { growMaskByKernel } from '../likelihood/growMaskByKernel.js';
-import { ForwardModel } from '../model/forwardModel.js';
-import { simulateObservation, type Simulation } from '../model/simulateObservation.js';
+import { ForwardModel } from '../forward/forwardModel.js';
+import { simulateObservation, type Simulation } from '../simulate/simulateObservation.js';
 
 /** The supersampling whose brute-force image the fast model reproduces in these scenarios. */
 export const BENCH_SUPERSAMPLING = 8;

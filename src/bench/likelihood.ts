@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { loadObservedData } from '../data/loadObservedData.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
-import { simulateToFolder } from '../model/simulateToFolder.js';
+import { simulateToFolder } from '../simulate/simulateToFolder.js';
 import { bestMillisecondsPerCall, forwardScenarios } from './forward.js';
 import { LikelihoodPool, defaultThreadCount } from '../parallel/likelihoodPool.js';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';

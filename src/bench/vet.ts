@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { loadObservedData } from '../data/loadObservedData.js';
-import { simulateToFolder } from '../model/simulateToFolder.js';
+import { simulateToFolder } from '../simulate/simulateToFolder.js';
 import { defaultThreadCount } from '../parallel/likelihoodPool.js';
 import { vetFlags } from '../vet/vetFlags.js';
 import type { FlagCandidate } from '../vet/flagCandidate.js';

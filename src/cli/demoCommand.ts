@@ -7,7 +7,7 @@ import { loadObservedData } from '../data/index.js';
 import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
 import { comparisonSideBySide } from '../inference/compareModels.js';
 import { placeTruth } from '../inference/truthComparison.js';
-import { simulateToFolder } from '../model/simulateToFolder.js';
+import { simulateToFolder } from '../simulate/simulateToFolder.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison } from './formatComparison.js';

@@ -1,6 +1,6 @@
 import type { CommandModule } from 'yargs';
 import { loadConfig } from '../config/arcsiftConfig.js';
-import { simulateToFolder } from '../model/simulateToFolder.js';
+import { simulateToFolder } from '../simulate/simulateToFolder.js';
 
 interface SimulateArguments {
   config: string;

@@ -3,7 +3,7 @@ import type { ArcsiftConfig, ComponentConfig } from '../config/arcsiftConfig.js'
 import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import { bayesFactorReading } from '../results/index.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import type { LensSystem } from '../model/lensSystem.js';
 import { compareModels, favouredLnBayesFactor, type Comparison, type ComparisonSettings } from './compareModels.js';
 import { amplitudePriorText } from './amplitudePriorText.js';

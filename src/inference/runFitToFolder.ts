@@ -3,7 +3,7 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError, expectedFound } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { amplitudePriorText } from './amplitudePriorText.js';
 import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';

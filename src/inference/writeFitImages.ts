@@ -3,7 +3,7 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeFits } from '../fits/index.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
-import { gridCards } from '../model/simulateToFolder.js';
+import { gridCards } from '../simulate/simulateToFolder.js';
 
 /** The images of one model vector and the amplitudes they were made with. */
 export interface FitImages {

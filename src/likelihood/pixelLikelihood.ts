@@ -2,7 +2,7 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
 import { pixelGrid } from '../imaging/pixelGrid.js';
-import { ForwardModel } from '../model/forwardModel.js';
+import { ForwardModel } from '../forward/forwardModel.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import { MarginalisedAmplitudes } from './marginalisedAmplitudes.js';
 import { growMaskByKernel } from './growMaskByKernel.js';

@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import type { EnsembleFitSummary, NestedFitSummary } from '../inference/runFitToFolder.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import { cornerPlotSvg } from './cornerPlotSvg.js';
 import { nestedDiagnosticsTable } from './diagnosticsTable.js';
 import { escapeMarkup } from './escapeMarkup.js';

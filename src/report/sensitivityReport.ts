@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { readFitsImage } from '../fits/index.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import type { SensitivitySummary } from '../sensitivity/runSensitivityToFolder.js';
 import { escapeMarkup } from './escapeMarkup.js';
 import { formatCount, formatNumber } from './formatNumber.js';

@@ -1,7 +1,7 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import type { VetRunRecord, VetSummary } from '../vet/runVetToFolder.js';
 import { nestedDiagnosticsTable } from './diagnosticsTable.js';
 import { escapeMarkup } from './escapeMarkup.js';

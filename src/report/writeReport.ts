@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import { writeFitReport } from './fitReport.js';
 import { isMapping, readJson, readRunFolder } from './readRunFolder.js';
 import { writeReportFigures } from './reportFigures.js';

@@ -4,7 +4,7 @@ import type { ObservedData } from '../data/observedData.js';
 import { writeFileAtomic, writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { ParameterSummary } from '../results/index.js';
 import { bayesFactorReading } from '../results/index.js';
-import { packageVersion } from '../model/packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 import { amplitudePriorText } from '../inference/amplitudePriorText.js';
 import { configHash, priorCaution } from '../inference/runComparisonToFolder.js';
 import { writeModelOutputs, type ModelRecord } from '../inference/writeModelOutputs.js';

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { loadConfig, type ArcsiftConfig } from '../../src/config/arcsiftConfig.js';
 import { loadObservedData, type ObservedData } from '../../src/data/index.js';
-import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { compareModels, type Comparison } from '../../src/inference/compareModels.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
 import { placeTruth } from '../../src/inference/truthComparison.js';

@@ -6,7 +6,7 @@ import { fileURLToPath } from 'node:url';
 import { loadConfig } from '../../src/config/arcsiftConfig.js';
 import { loadObservedData } from '../../src/data/index.js';
 import { comparisonSideBySide, compareModels } from '../../src/inference/compareModels.js';
-import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 
 // Own determinism contract: with two threads the smooth and perturbed runs go side by side,
 // sharing one pool of workers that hold both models; one after another on one thread, every

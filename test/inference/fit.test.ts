@@ -15,7 +15,7 @@ import { readSamplesTable } from '../../src/inference/readSamplesTable.js';
 import { runFitToFolder, type EnsembleFitSummary, type NestedFitSummary } from '../../src/inference/runFitToFolder.js';
 import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
-import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { weightedQuantiles } from '../../src/results/index.js';
 
 // `fit` on a mock made by `simulate` from an invented small scenario (test/fixtures/inference/

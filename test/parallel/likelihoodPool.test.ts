@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { loadConfig } from '../../src/config/arcsiftConfig.js';
 import { loadObservedData } from '../../src/data/index.js';
-import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
 import { LikelihoodPool } from '../../src/parallel/likelihoodPool.js';
 import { runModelEvidence } from '../../src/inference/runModelEvidence.js';

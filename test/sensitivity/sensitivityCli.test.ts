@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadConfig } from '../../src/config/arcsiftConfig.js';
-import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { runCli as run } from '../vet/runCli.js';
 
 // Bad options of `sensitivity` must stop it before any fit with a message and exit status 2

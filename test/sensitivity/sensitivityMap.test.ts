@@ -8,7 +8,7 @@ import { loadConfig, type ArcsiftConfig } from '../../src/config/arcsiftConfig.j
 import { loadObservedData, type ObservedData } from '../../src/data/index.js';
 import { readFitsImage } from '../../src/fits/index.js';
 import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';
-import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { compareModels } from '../../src/inference/compareModels.js';
 import { PlantedPerturberStatistic } from '../../src/sensitivity/plantedPerturberStatistic.js';
 import { runSensitivityToFolder, type SensitivitySummary } from '../../src/sensitivity/runSensitivityToFolder.js';

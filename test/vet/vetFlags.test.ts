@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadConfig, type ArcsiftConfig, type ComponentConfig } from '../../src/config/arcsiftConfig.js';
 import { loadObservedData, type ObservedData } from '../../src/data/index.js';
-import { simulateToFolder } from '../../src/model/simulateToFolder.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { summarisePerturbers } from '../../src/inference/perturberSummary.js';
 import { formatVetTable } from '../../src/cli/vetCommand.js';
 import { MapPositionPrior } from '../../src/vet/mapPositionPrior.js';

@@ -3,10 +3,10 @@ import { InputError } from '../errors.js';
 import type { PixelGrid } from '../imaging/pixelGrid.js';
 import type { PsfKernel } from '../imaging/psfKernel.js';
 import { noiseSigmaMap, addGaussianNoise } from '../imaging/noise.js';
-import { ForwardModel } from './forwardModel.js';
-import { buildLensSystem, type LensSystem } from './lensSystem.js';
-import { gridOfObservation, maskOfObservation, psfOfObservation } from './observationSetup.js';
-import type { PerturberDerived } from './perturberBinding.js';
+import { ForwardModel } from '../forward/forwardModel.js';
+import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
+import { gridOfObservation, maskOfObservation, psfOfObservation } from '../model/observationSetup.js';
+import type { PerturberDerived } from '../model/perturberBinding.js';
 
 export interface SimulationOptions {
   readonly seed: number;

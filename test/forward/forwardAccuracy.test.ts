@@ -3,11 +3,11 @@ import { createRequire } from 'node:module';
 import type erfType from '@stdlib/math/base/special/erf';
 import { parseConfig } from '../../src/config/arcsiftConfig.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
-import { ForwardModel } from '../../src/model/forwardModel.js';
+import { ForwardModel } from '../../src/forward/forwardModel.js';
 import { gridOfObservation, psfOfObservation } from '../../src/model/observationSetup.js';
 import { gaussianPsfKernel } from '../../src/imaging/gaussianPsf.js';
 import { growMaskByKernel } from '../../src/likelihood/growMaskByKernel.js';
-import { simulateObservation, type Simulation } from '../../src/model/simulateObservation.js';
+import { simulateObservation, type Simulation } from '../../src/simulate/simulateObservation.js';
 import { BENCH_SUPERSAMPLING, fitForwardModel, forwardScenarios } from '../../src/bench/forward.js';
 import { bruteForceImage } from './bruteForceImage.js';
 

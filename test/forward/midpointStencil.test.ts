@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { midpointStencilWeights, richardsonFactor } from '../../src/model/midpointStencil.js';
-import { EXTRAPOLATED_CONVERGENCE } from '../../src/model/adaptivePixelMeans.js';
+import { midpointStencilWeights, richardsonFactor } from '../../src/forward/midpointStencil.js';
+import { EXTRAPOLATED_CONVERGENCE } from '../../src/forward/adaptivePixelMeans.js';
 
 /** Mean of g over the m-point midpoint rule on [-1/2, 1/2] (the definition the model uses). */
 function midpointMean(g: (t: number) => number, m: number): number {

@@ -2,9 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { fileURLToPath } from 'node:url';
 import { loadConfig, parseConfig } from '../../src/config/arcsiftConfig.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
-import { ForwardModel } from '../../src/model/forwardModel.js';
+import { ForwardModel } from '../../src/forward/forwardModel.js';
 import { gridOfObservation, psfOfObservation } from '../../src/model/observationSetup.js';
-import { simulateObservation } from '../../src/model/simulateObservation.js';
+import { simulateObservation } from '../../src/simulate/simulateObservation.js';
 
 const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.url));
 

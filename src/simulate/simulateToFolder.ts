@@ -5,7 +5,7 @@ import type { HeaderCard } from '../fits/headerCard.js';
 import type { PixelGrid } from '../imaging/pixelGrid.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { simulateObservation, type Simulation, type SimulationOptions } from './simulateObservation.js';
-import { packageVersion } from './packageVersion.js';
+import { packageVersion } from '../records/packageVersion.js';
 
 /** Cards saying what a pixel is: the pixel scale as CDELT in degrees, centred reference pixel. */
 export function gridCards(grid: PixelGrid, unit: string, what: string): HeaderCard[] {

@@ -26,7 +26,7 @@ const RICHARDSON_GUARD = 0.03;
  * the earlier one; the later one's error is taken as that change over this factor. For light
  * smooth on the sub-pixel scale the extrapolated midpoint error falls as m^-4 (the midpoint
  * rule's error runs in even powers of 1/m), 17-fold from m = 2 to 4 towards S = 8, so 4 leaves
- * a factor of four (test/model/midpointStencil.test.ts). Measured on every pixel of the demo and
+ * a factor of four (test/forward/midpointStencil.test.ts). Measured on every pixel of the demo and
  * compact-source scenarios at their truths: accepted this way, the worst m = 4 error was 0.28 and
  * 0.29 tolerances (0.45 and 0.50 with 8); the demo evaluation went from 1.045 to 0.985 ms
  * (rays after the lattice 23.5 k -> 18.2 k) with the accuracy test's worst errors unchanged to
@@ -69,7 +69,7 @@ const INTERPOLATION_GUARD = 5;
  * PSF-convolved lattice image at the brightest lattice pixel (a lower bound of the convolved
  * peak for light >= 0, the same up to the lattice's own error), so the criterion is scale-free
  * and refers to what is compared with data, the convolved image. The indicators
- * are estimates of the error, not bounds: test/model/forwardAccuracy.test.ts compares the
+ * are estimates of the error, not bounds: test/forward/forwardAccuracy.test.ts compares the
  * result with the brute-force S x S model. With `uniform` every pixel gets the S x S rays.
  * Buffers are allocated here; evaluate() creates no arrays or objects.
  */
@@ -527,7 +527,7 @@ export class AdaptivePixelMeans {
    * (r the distance to the nearest mass centre): at least 20-fold for r >= 0.35 arcsec and
    * h = 0.05 arcsec, so 5 tolerances at the prediction mean at most a quarter of one at the
    * sub-pixels. The check fails near the centre of a cuspy perturber, where interpolation would.
-   * (In test/model/forwardAccuracy.test.ts the errors are the same to three digits as with
+   * (In test/forward/forwardAccuracy.test.ts the errors are the same to three digits as with
    * every ray traced.)
    */
   private checkInterpolation(p: Float64Array, list: Int32Array, listCount: number): void {

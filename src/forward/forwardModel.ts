@@ -1,6 +1,6 @@
 import type { PixelGrid } from '../imaging/pixelGrid.js';
 import type { PsfKernel } from '../imaging/psfKernel.js';
-import type { LensSystem, LightTerm } from './lensSystem.js';
+import type { LensSystem, LightTerm } from '../model/lensSystem.js';
 import { AdaptivePixelMeans, type MeanLightTerm } from './adaptivePixelMeans.js';
 import { PixelSubsetConvolver } from './pixelSubsetConvolver.js';
 import { separablePsf } from './separablePsf.js';
@@ -36,7 +36,7 @@ export interface ForwardModelOptions {
    * noiseFraction * (least noise of the used pixels the PSF carries its light to) /
    * peakBrightness, relative to each basis peak. A component of peak <= peakBrightness then errs
    * by about noiseFraction times the noise or less (default 0.003, a third of the 1% criterion
-   * of test/model/forwardAccuracy.test.ts, where the largest error met, over the demo, a compact
+   * of test/forward/forwardAccuracy.test.ts, where the largest error met, over the demo, a compact
    * source and random draws from the demo's priors, is 0.26% of the noise).
    */
   readonly noise?: ArrayLike<number>;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { PixelSubsetConvolver } from '../../src/model/pixelSubsetConvolver.js';
-import { separablePsf } from '../../src/model/separablePsf.js';
+import { PixelSubsetConvolver } from '../../src/forward/pixelSubsetConvolver.js';
+import { separablePsf } from '../../src/forward/separablePsf.js';
 import type { PsfKernel } from '../../src/imaging/psfKernel.js';
 
 /**
