@@ -10,6 +10,7 @@ export * from './data/index.js';
 export * from './priors/index.js';
 export * from './sampling/index.js';
 export * from './results/index.js';
+export * from './records/index.js';
 export { loadConfig, parseConfig, type ArcsiftConfig } from './config/arcsiftConfig.js';
 export { buildLensSystem, type LensSystem } from './model/lensSystem.js';
 export { ForwardModel, FORWARD_MODEL_RELATIVE_TOLERANCE, FORWARD_MODEL_NOISE_FRACTION, type ForwardModelOptions } from './forward/forwardModel.js';
@@ -21,7 +22,7 @@ export { LikelihoodPool, defaultThreadCount } from './parallel/likelihoodPool.js
 export { modelParameterSpace } from './model/modelParameterSpace.js';
 export { runModelEvidence, type ModelEvidence, type EvidenceSettings } from './inference/runModelEvidence.js';
 export { compareModels, type Comparison } from './inference/compareModels.js';
-export { runComparisonToFolder, type ComparisonSummary } from './inference/runComparisonToFolder.js';
+export { runComparisonToFolder } from './inference/runComparisonToFolder.js';
 export { runFitToFolder, fitPerturberCount, type FitSettings, type FitOutcome } from './inference/runFitToFolder.js';
 export { runModelEnsemble } from './inference/runModelEnsemble.js';
 export * from './report/index.js';

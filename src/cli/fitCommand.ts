@@ -3,13 +3,14 @@ import { basename, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
-import { fitPerturberCount, runFitToFolder, type EnsembleFitSummary, type NestedFitSummary } from '../inference/runFitToFolder.js';
+import { fitPerturberCount, runFitToFolder } from '../inference/runFitToFolder.js';
 import { defaultEnsembleFitSettings, type EnsembleFitSettings } from '../inference/runModelEnsemble.js';
-import type { ModelRecord } from '../inference/writeModelOutputs.js';
 import type { EnsembleMoveKind, EnsembleProgress } from '../sampling/ensemble/index.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
+import type { ModelRecord } from '../records/modelRecord.js';
 
 interface FitArguments extends DataArguments, SamplerArguments {
   config: string;

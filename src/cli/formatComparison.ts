@@ -1,6 +1,6 @@
-import type { ComparisonSummary } from '../inference/runComparisonToFolder.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
-import type { CountComparisonSummary } from '../inference/comparePerturberCounts.js';
+import type { ComparisonSummary } from '../records/comparisonSummary.js';
+import type { CountComparisonSummary } from '../records/countComparisonSummary.js';
 
 const fixed = (v: number, digits = 2): string => (Number.isFinite(v) ? v.toFixed(digits) : String(v));
 

@@ -5,11 +5,12 @@ import { loadConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { defaultDetectionThreshold } from '../sensitivity/minimumDetectableMass.js';
-import { runSensitivityToFolder, type SensitivitySummary } from '../sensitivity/runSensitivityToFolder.js';
+import { runSensitivityToFolder } from '../sensitivity/runSensitivityToFolder.js';
 import { smoothBestFitFromFolder, smoothBestFitFromRun } from '../sensitivity/smoothBestFit.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import type { SensitivitySummary } from '../records/sensitivitySummary.js';
 
 interface SensitivityArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -82,6 +83,7 @@ export const sensitivityCommand: CommandModule<object, SensitivityArguments> = {
       threshold: args.threshold,
       toleranceDex: args['mass-tolerance'],
       threads: run.settings.threads,
+      seed: run.settings.seed,
       bestFit,
       onPoint: terminal ? (done, total) => process.stderr.write(`\r\x1b[2Ksensitivity: ${done} of ${total} grid points`) : undefined,
     });

@@ -6,12 +6,13 @@ import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { defaultMapCandidateSettings } from '../vet/mapCandidates.js';
 import { readFlags } from '../vet/readFlags.js';
-import { runVetToFolder, type VetRunRecord, type VetSummary } from '../vet/runVetToFolder.js';
+import { runVetToFolder } from '../vet/runVetToFolder.js';
 import { defaultVetWindowArcsec, vetConcurrency } from '../vet/vetFlags.js';
 import { defaultVetThresholds } from '../vet/vetVerdict.js';
 import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
 
 interface VetArguments extends DataArguments, SamplerArguments {
   config: string;

@@ -3,11 +3,12 @@ import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
 import { bayesFactorReading, significanceBound, type BayesFactorReading, type SignificanceBound } from '../results/index.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
-import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
+import { summarisePerturbers } from './perturberSummary.js';
 import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { LikelihoodPool } from '../parallel/likelihoodPool.js';
+import type { PerturberSummary } from '../records/perturberSummary.js';
 
 /** ln B above which the perturbed model is called favoured (Kass & Raftery 1995: 2 ln B > 2). */
 export const favouredLnBayesFactor = 1;

@@ -3,15 +3,18 @@ import type { ArcsiftConfig, ComponentConfig } from '../config/arcsiftConfig.js'
 import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../records/packageVersion.js';
 import { bayesFactorReading } from '../results/index.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
-import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
-import { configHash, priorCaution } from './runComparisonToFolder.js';
+import { summarisePerturbers } from './perturberSummary.js';
 import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { buildLensSystem } from '../model/lensSystem.js';
-import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
+import { writeModelOutputs } from './writeModelOutputs.js';
+import { priorCaution } from '../records/cautions.js';
+import type { CountComparisonSummary, CountRow } from '../records/countComparisonSummary.js';
+import type { ModelRecord } from '../records/modelRecord.js';
+import type { PerturberSummary } from '../records/perturberSummary.js';
+import { runProvenance } from '../records/provenance.js';
 
 /** The config with exactly `count` perturbers: the listed ones, then copies of the last listed. */
 export function withPerturberCount(config: ArcsiftConfig, count: number): ArcsiftConfig {
@@ -26,34 +29,6 @@ export function withPerturberCount(config: ArcsiftConfig, count: number): Arcsif
     perturbers.push({ ...template, key, entries });
   }
   return { ...config, perturbers };
-}
-
-export interface CountRow {
-  readonly perturbers: number;
-  readonly lnEvidence: number;
-  readonly lnEvidenceError: number;
-  /** ln Z(k) - ln Z(k - 1); null for k = 0. */
-  readonly lnBayesFactorToPrevious: number | null;
-  readonly lnBayesFactorToSmooth: number;
-  readonly reading: string;
-  readonly relabelled: boolean;
-}
-
-export interface CountComparisonSummary {
-  readonly arcsiftVersion: string;
-  readonly kind: 'perturberCount';
-  readonly config: string;
-  readonly configSha256: string;
-  readonly data: ObservedData['files'];
-  readonly seed: number;
-  readonly runSeconds: number;
-  readonly rows: readonly CountRow[];
-  readonly preferredCount: number;
-  readonly models: readonly ModelRecord[];
-  readonly perturbers: readonly PerturberSummary[];
-  readonly priors: readonly PriorDescription[];
-  readonly labelSwitching: string;
-  readonly caution: string;
 }
 
 /**
@@ -90,13 +65,8 @@ export async function comparePerturberCounts(
   let preferred = 0;
   for (let k = 1; k < runs.length; k++) if (runs[k].result.lnZ > runs[preferred].result.lnZ) preferred = k;
   const summary: CountComparisonSummary = {
-    arcsiftVersion: packageVersion(),
     kind: 'perturberCount',
-    config: config.file,
-    configSha256: configHash(config),
-    data: data.files,
-    seed: settings.seed,
-    runSeconds: (performance.now() - started) / 1000,
+    ...runProvenance(config, data, settings.seed, started),
     rows,
     preferredCount: preferred,
     models,

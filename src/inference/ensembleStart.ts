@@ -5,7 +5,7 @@ import type { LensSystem } from '../model/lensSystem.js';
 import type { EnsembleStart } from '../sampling/ensemble/index.js';
 import type { ParameterSpace } from '../priors/parameterSpace.js';
 import type { Prior } from '../priors/prior.js';
-import { readSamplesTable } from './readSamplesTable.js';
+import { readSamplesTable } from '../records/readSamplesTable.js';
 
 /** Radius of the starting ball as a fraction of each prior's width (sigma for normal priors). */
 export const startBallFraction = 1e-3;

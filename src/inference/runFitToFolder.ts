@@ -3,15 +3,19 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError, expectedFound } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../records/packageVersion.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { amplitudePriorText } from './amplitudePriorText.js';
-import { summarisePerturbers, type PerturberSummary } from './perturberSummary.js';
-import { configHash, priorCaution } from './runComparisonToFolder.js';
+import { summarisePerturbers } from './perturberSummary.js';
 import { runModelEnsemble, type EnsembleFitSettings, type ModelEnsemble } from './runModelEnsemble.js';
 import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
-import { writeEnsembleOutputs, type EnsembleRecord } from './writeEnsembleOutputs.js';
-import { writeModelOutputs, type ModelRecord } from './writeModelOutputs.js';
+import { writeEnsembleOutputs } from './writeEnsembleOutputs.js';
+import { writeModelOutputs } from './writeModelOutputs.js';
+import { priorCaution } from '../records/cautions.js';
+import type { EnsembleRecord } from '../records/ensembleRecord.js';
+import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
+import type { ModelRecord } from '../records/modelRecord.js';
+import type { PerturberSummary } from '../records/perturberSummary.js';
+import { runProvenance } from '../records/provenance.js';
 
 /** How one model is fitted: nested sampling (evidence and posterior) or ensemble MCMC (posterior only). */
 export type FitSettings =
@@ -27,39 +31,6 @@ export type FitSettings =
     readonly ensemble: EnsembleFitSettings;
   };
 
-/** What every fit summary holds, whichever the sampler. */
-interface FitSummaryBase {
-  readonly arcsiftVersion: string;
-  readonly kind: 'fit';
-  readonly config: string;
-  readonly configSha256: string;
-  readonly data: ObservedData['files'];
-  readonly dataNotices: readonly string[];
-  readonly seed: number;
-  readonly perturberCount: number;
-  readonly settings: Record<string, unknown>;
-  readonly runSeconds: number;
-  /** The priors of every parameter (fixed ones included): every posterior and ln Z depends on them. */
-  readonly priors: readonly PriorDescription[];
-  readonly amplitudePrior: string;
-  readonly caution: string;
-}
-
-/** The summary.json of a nested-sampling fit. */
-export interface NestedFitSummary extends FitSummaryBase {
-  readonly sampler: 'nested';
-  readonly evidence: { readonly lnEvidence: number; readonly lnEvidenceError: number; readonly lnEvidenceErrorSimulated: number };
-  readonly model: ModelRecord;
-  readonly perturbers: readonly PerturberSummary[];
-}
-
-/** The summary.json of an ensemble-MCMC fit (no evidence). */
-export interface EnsembleFitSummary extends FitSummaryBase {
-  readonly sampler: 'ensemble';
-  readonly model: EnsembleRecord;
-}
-
-export type FitSummary = NestedFitSummary | EnsembleFitSummary;
 
 export type FitOutcome =
   | { readonly sampler: 'nested'; readonly summary: NestedFitSummary; readonly run: ModelEvidence }
@@ -105,12 +76,7 @@ export async function runFitToFolder(
   const perturberCount = fitPerturberCount(config, settings.perturberCount);
   const checkpointPath = fitCheckpointPath(folder);
   const common = {
-    arcsiftVersion: packageVersion(),
     kind: 'fit' as const,
-    config: config.file,
-    configSha256: configHash(config),
-    data: data.files,
-    dataNotices: data.notices,
     perturberCount,
     amplitudePrior: amplitudePriorText(config),
     caution: priorCaution,
@@ -120,10 +86,9 @@ export async function runFitToFolder(
     const model = writeModelOutputs(run, config, data, folder, settings.nested.seed);
     const summary: NestedFitSummary = {
       ...common,
+      ...runProvenance(config, data, settings.nested.seed, started),
       sampler: 'nested',
-      seed: settings.nested.seed,
       settings: { ...plainSettings(settings.nested), checkpointPath },
-      runSeconds: (performance.now() - started) / 1000,
       priors: run.space.describe(),
       evidence: { lnEvidence: model.lnEvidence, lnEvidenceError: model.lnEvidenceError, lnEvidenceErrorSimulated: model.lnEvidenceErrorSimulated },
       model,
@@ -136,10 +101,9 @@ export async function runFitToFolder(
   const model = writeEnsembleOutputs(run, config, data, folder);
   const summary: EnsembleFitSummary = {
     ...common,
+    ...runProvenance(config, data, settings.ensemble.seed, started),
     sampler: 'ensemble',
-    seed: settings.ensemble.seed,
     settings: { ...plainSettings(settings.ensemble), walkers: run.result.walkers, checkpointPath },
-    runSeconds: (performance.now() - started) / 1000,
     priors: run.space.describe(),
     model,
   };

@@ -4,39 +4,11 @@ import type { ObservedData } from '../data/observedData.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { equalWeightResample } from '../numeric/resampling/equalWeightResample.js';
 import { weightsFromLogWeights } from '../numeric/statistics/weightsFromLogWeights.js';
-import {
-  cornerData, parameterColumn, parameterSummary, writeEqualWeightSamplesCsv, writeWeightedSamplesCsv,
-} from '../results/index.js';
+import { cornerData, parameterColumn, parameterSummary } from '../results/index.js';
+import { writeEqualWeightSamplesCsv, writeWeightedSamplesCsv } from '../records/samplesCsv.js';
 import type { ModelEvidence } from './runModelEvidence.js';
 import { writeFitImages } from './writeFitImages.js';
-
-/** What a summary says of one model's run. */
-export interface ModelRecord {
-  readonly label: string;
-  readonly lnEvidence: number;
-  readonly lnEvidenceError: number;
-  readonly lnEvidenceErrorSimulated: number;
-  readonly informationNats: number;
-  readonly livePoints: number;
-  readonly method: string;
-  readonly iterations: number;
-  readonly evaluations: number;
-  readonly efficiency: number;
-  readonly nonFiniteLikelihoods: number;
-  readonly insertionRankPValue: number;
-  readonly insertionRankWarning: boolean;
-  readonly stopReason: string;
-  readonly bestLnLikelihood: number;
-  readonly bestFit: Record<string, number>;
-  readonly bestFitAmplitudes: Record<string, number>;
-  readonly seconds: number;
-  readonly threads: number;
-  readonly parameters: readonly {
-    name: string; unit: string; median: number;
-    interval68: readonly [number, number]; interval95: readonly [number, number];
-  }[];
-  readonly files: Record<string, string>;
-}
+import type { ModelRecord } from '../records/modelRecord.js';
 
 /**
  * Writes one model's samples (weighted and equal-weight CSV), corner-plot data, and the best-fit

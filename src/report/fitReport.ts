@@ -1,6 +1,5 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
-import type { EnsembleFitSummary, NestedFitSummary } from '../inference/runFitToFolder.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../records/packageVersion.js';
 import { cornerPlotSvg } from './cornerPlotSvg.js';
@@ -16,13 +15,14 @@ import { parameterLabel } from './parameterLabel.js';
 import { perturberTable } from './perturberTable.js';
 import { priorColumnsTable } from './priorTable.js';
 import { readFitFolder, type FitFolder } from './readFitFolder.js';
-import { readWeightedSamples } from './readWeightedSamples.js';
+import { readWeightedSamples } from '../records/readWeightedSamples.js';
 import {
   imageFigures, imageSetOf, nestedTraceFigure, perturberTruthMarkers, readModelImages, readObservedImages, writeSvgFigure,
   type ReportFigure,
 } from './reportFigures.js';
 import { modelColours, type ModelTone } from './reportPalette.js';
 import { ensembleTraceSvg } from './samplerTraceSvg.js';
+import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 
 /** Gaussian smoothing of the 2-D histograms' outlines, in bins (as on the comparison page). */
 const DISPLAY_SMOOTHING_BINS = 1;

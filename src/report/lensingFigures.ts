@@ -1,6 +1,5 @@
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { InputError } from '../errors.js';
-import { configHash } from '../inference/runComparisonToFolder.js';
 import { fillPixelCentres } from '../imaging/pixelGrid.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import { modelVectorFromRecord } from '../model/modelVectorFromRecord.js';
@@ -13,6 +12,7 @@ import type { ReportFigure } from './reportFigures.js';
 import { perturberTruthMarkers } from './perturberTruthMarkers.js';
 import { reportPalette } from './reportPalette.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
+import { configHash } from '../records/configHash.js';
 
 /** The observed image's grid (x right, y up, origin at the centre; DEVELOPERS.md) and its mask. */
 export interface LensingGrid {

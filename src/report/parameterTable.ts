@@ -1,11 +1,11 @@
-import type { ComparisonSummary } from '../inference/runComparisonToFolder.js';
-import type { ModelRecord } from '../inference/writeModelOutputs.js';
 import { escapeMarkup } from './escapeMarkup.js';
 import { digitsForSpread, formatNumber } from './formatNumber.js';
 import { htmlTable, numberCell, type TableCell } from './htmlTable.js';
 import { parameterLabel } from './parameterLabel.js';
 import { summaryCells } from './perturberTable.js';
 import { MODEL_NAMES, type TruthRecord } from './readRunFolder.js';
+import type { ComparisonSummary } from '../records/comparisonSummary.js';
+import type { ModelRecord } from '../records/modelRecord.js';
 
 type ParameterRecord = ModelRecord['parameters'][number];
 

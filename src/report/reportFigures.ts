@@ -14,7 +14,7 @@ import { perturberTruthMarkers } from './perturberTruthMarkers.js';
 
 export { perturberTruthMarkers };
 import { modelColours } from './reportPalette.js';
-import { readWeightedSamples } from './readWeightedSamples.js';
+import { readWeightedSamples } from '../records/readWeightedSamples.js';
 import { nestedTraceSvg } from './samplerTraceSvg.js';
 
 /** One figure of the report: its inline SVG and the files written for it. */

@@ -3,7 +3,6 @@ import { join, relative, resolve } from 'node:path';
 import { readFitsImage } from '../fits/index.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../records/packageVersion.js';
-import type { SensitivitySummary } from '../sensitivity/runSensitivityToFolder.js';
 import { escapeMarkup } from './escapeMarkup.js';
 import { formatCount, formatNumber } from './formatNumber.js';
 import { htmlTable, numberCell } from './htmlTable.js';
@@ -13,6 +12,7 @@ import { colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './p
 import { isList, isNumber, isString, locateRunData, readKindOfSummary } from './readRunFolder.js';
 import { perturberTruthMarkers, writeSvgFigure, type ReportFigure } from './reportFigures.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
+import type { SensitivitySummary } from '../records/sensitivitySummary.js';
 
 /** Reads and checks sensitivity.json of a sensitivity run folder. */
 function readSensitivitySummary(file: string): SensitivitySummary {

@@ -2,7 +2,6 @@ import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../records/packageVersion.js';
-import type { VetRunRecord, VetSummary } from '../vet/runVetToFolder.js';
 import { nestedDiagnosticsTable } from './diagnosticsTable.js';
 import { escapeMarkup } from './escapeMarkup.js';
 import { LN_EVIDENCE_DIGITS } from './evidenceTable.js';
@@ -19,6 +18,7 @@ import {
   imageFigures, imageSetOf, perturberTruthMarkers, readModelImages, readObservedImages, writeSvgFigure, type ReportFigure,
 } from './reportFigures.js';
 import { sequentialColourMap } from './sequentialColourMap.js';
+import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
 
 /** Confirmed candidates whose best-fit images the page shows, at most. */
 const CONFIRMED_SHOWN = 3;

@@ -18,12 +18,3 @@ export { upperLimit } from './upperLimit.js';
 export { weightedHistogram1d, weightedHistogram2d } from './weightedHistogram.js';
 export type { AxisRange, Histogram1d, Histogram2d } from './weightedHistogram.js';
 export { weightedQuantile, weightedQuantiles } from './weightedQuantile.js';
-export {
-  EQUAL_WEIGHT_SAMPLES_TITLE,
-  formatEqualWeightSamplesCsv,
-  formatWeightedSamplesCsv,
-  WEIGHTED_SAMPLES_TITLE,
-  writeEqualWeightSamplesCsv,
-  writeWeightedSamplesCsv,
-} from './writeSamplesCsv.js';
-export type { EqualWeightSamplesTable, WeightedSamplesTable } from './writeSamplesCsv.js';

@@ -1,16 +1,14 @@
 // Detection-sensitivity maps: the smallest perturber mass the data would detect, over a grid of positions.
 export { LinearAmplitudeChiSquare } from './linearAmplitudeChiSquare.js';
 export {
-  defaultRefitSettings, PlantedPerturberStatistic, type RefitSettings, type SmoothBestFit,
+  defaultRefitSettings, PlantedPerturberStatistic, type SmoothBestFit,
 } from './plantedPerturberStatistic.js';
 export {
-  defaultDetectionThreshold, minimumDetectableMass, type DetectableMassLimit, type DetectableMassSearch, type MinimumDetectableMass,
+  defaultDetectionThreshold, minimumDetectableMass, type DetectableMassSearch, type MinimumDetectableMass,
 } from './minimumDetectableMass.js';
 export { nearestGridIndex, sensitivityGrid, type SensitivityGrid, type SensitivityPoint } from './sensitivityGrid.js';
 export { searchOf, type SensitivityAnswer, type SensitivityTask } from './sensitivityTask.js';
 export { computeSensitivity } from './computeSensitivity.js';
 export { smoothBestFitFromFolder, smoothBestFitFromRun, type SmoothBestFitSource } from './smoothBestFit.js';
-export { massDecadeFractions, type MassDecadeFraction } from './massDecadeFractions.js';
-export {
-  runSensitivityToFolder, sensitivityApproximation, type SensitivityRecord, type SensitivitySettings, type SensitivitySummary,
-} from './runSensitivityToFolder.js';
+export { massDecadeFractions } from './massDecadeFractions.js';
+export { runSensitivityToFolder, type SensitivitySettings } from './runSensitivityToFolder.js';

@@ -1,9 +1,4 @@
-/** The fraction of grid points where a perturber of 10^log10Mass solar masses is detectable. */
-export interface MassDecadeFraction {
-  readonly log10Mass: number;
-  readonly fraction: number;
-  readonly points: number;
-}
+import type { MassDecadeFraction } from '../records/sensitivitySummary.js';
 
 /**
  * For every whole decade 10^k within [10^lower, 10^upper], the fraction of the grid points whose

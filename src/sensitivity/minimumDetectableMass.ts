@@ -1,5 +1,4 @@
-/** Where the minimum detectable mass lies relative to the mass prior's range. */
-export type DetectableMassLimit = 'within' | 'at-or-below-lower' | 'above-upper';
+import type { DetectableMassLimit } from '../records/sensitivitySummary.js';
 
 export interface MinimumDetectableMass {
   /** log10 of the smallest detectable mass (midpoint of the last bracket); the lower end when even it is detected; +Infinity when not even the upper end is. */

@@ -8,16 +8,7 @@ import { makePrior } from '../priors/makePrior.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { LinearAmplitudeChiSquare } from './linearAmplitudeChiSquare.js';
 import { nelderMead } from '../numeric/optimisation/nelderMead.js';
-
-/** How the smooth model is refitted to a planted image. */
-export interface RefitSettings {
-  /** Initial simplex step along each free parameter, as a fraction of its prior width (or sigma). */
-  readonly stepFraction: number;
-  /** Nelder-Mead evaluations allowed per start (there are two starts: the best fit, then a restart). */
-  readonly maxEvaluations: number;
-  /** Stop when the simplex's chi^2 values span less than this. */
-  readonly chiSquareTolerance: number;
-}
+import type { RefitSettings } from '../records/sensitivitySummary.js';
 
 export const defaultRefitSettings: RefitSettings = { stepFraction: 0.01, maxEvaluations: 400, chiSquareTolerance: 1e-3 };
 

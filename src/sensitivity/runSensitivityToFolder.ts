@@ -3,26 +3,17 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeFits } from '../fits/index.js';
 import { writeFileAtomic, writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { configHash } from '../inference/runComparisonToFolder.js';
 import { gridCards } from '../simulate/simulateToFolder.js';
-import { packageVersion } from '../records/packageVersion.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { computeSensitivity } from './computeSensitivity.js';
-import { massDecadeFractions, type MassDecadeFraction } from './massDecadeFractions.js';
-import { defaultDetectionThreshold, type DetectableMassLimit } from './minimumDetectableMass.js';
-import { defaultRefitSettings, PlantedPerturberStatistic, type RefitSettings } from './plantedPerturberStatistic.js';
+import { massDecadeFractions } from './massDecadeFractions.js';
+import { defaultDetectionThreshold } from './minimumDetectableMass.js';
+import { defaultRefitSettings, PlantedPerturberStatistic } from './plantedPerturberStatistic.js';
 import { nearestGridIndex, sensitivityGrid } from './sensitivityGrid.js';
 import type { SmoothBestFitSource } from './smoothBestFit.js';
-
-/** What the sensitivity map approximates, written beside every map. */
-export const sensitivityApproximation =
-  'Expected detection statistic on noise-free (Asimov) data: a perturber is planted in the smooth best fit, the smooth ' +
-  'model is refitted locally (Nelder-Mead from the best fit, amplitudes solved linearly) and Delta chi^2 = chi^2(smooth ' +
-  'refit) - chi^2(planted truth) is compared with 2 x the threshold. Approximated: the noise is not drawn (the statistic ' +
-  'is its expected value, not one realisation), the refit is local (a distant better smooth solution is not sought), ' +
-  'the perturber sits at the grid point with its other settings fixed, and no evidence is computed (an evidence ' +
-  'threshold would also pay the Occam factor of the perturber\'s prior). The minimum mass is found by bisection in log10 ' +
-  'mass, assuming Delta chi^2 grows with mass.';
+import { sensitivityApproximation } from '../records/cautions.js';
+import type { DetectableMassLimit, MassDecadeFraction, RefitSettings, SensitivityRecord, SensitivitySummary } from '../records/sensitivitySummary.js';
+import { runProvenance } from '../records/provenance.js';
 
 export interface SensitivitySettings {
   /** n for the n x n grid over the mask's bounding box (default 10). */
@@ -33,41 +24,10 @@ export interface SensitivitySettings {
   readonly toleranceDex?: number;
   readonly refit?: RefitSettings;
   readonly threads: number;
+  /** Seed of the run that found the best fit (recorded; the map itself draws no random numbers). */
+  readonly seed: number;
   readonly bestFit: SmoothBestFitSource;
   readonly onPoint?: (done: number, total: number) => void;
-}
-
-/** One grid point's answer, as the CSV and JSON hold it. */
-export interface SensitivityRecord {
-  readonly xArcsec: number;
-  readonly yArcsec: number;
-  readonly column: number;
-  readonly row: number;
-  /** +Infinity (null in JSON) when not detectable within the mass prior. */
-  readonly log10MinimumMass: number;
-  readonly limit: DetectableMassLimit;
-  readonly refitEvaluations: number;
-}
-
-/** sensitivity.json. */
-export interface SensitivitySummary {
-  readonly arcsiftVersion: string;
-  readonly kind: 'sensitivity';
-  readonly config: string;
-  readonly configSha256: string;
-  readonly data: ObservedData['files'];
-  readonly perturber: { readonly key: string; readonly kind: string; readonly log10MassPriorRange: readonly [number, number] };
-  readonly bestFit: { readonly from: string; readonly parameters: Record<string, number>; readonly lnLikelihood: number };
-  readonly settings: {
-    readonly gridSize: number; readonly threshold: number; readonly deltaChiSquareThreshold: number;
-    readonly toleranceDex: number; readonly refit: RefitSettings; readonly threads: number;
-  };
-  readonly approximation: string;
-  readonly runSeconds: number;
-  readonly gridPoints: number;
-  readonly decades: readonly MassDecadeFraction[];
-  readonly points: readonly (Omit<SensitivityRecord, 'log10MinimumMass'> & { readonly log10MinimumMass: number | null })[];
-  readonly files: Record<string, string>;
 }
 
 const cell = (v: number): string => (Number.isFinite(v) ? String(+v.toPrecision(8)) : v > 0 ? 'inf' : '');
@@ -131,16 +91,12 @@ export async function runSensitivityToFolder(
   const parameters: Record<string, number> = {};
   probe.smoothSpace.names.forEach((name, k) => { parameters[name] = settings.bestFit.parameters[k]; });
   const summary: SensitivitySummary = {
-    arcsiftVersion: packageVersion(),
     kind: 'sensitivity',
-    config: config.file,
-    configSha256: configHash(config),
-    data: data.files,
+    ...runProvenance(config, data, settings.seed, started),
     perturber: { key: perturber.key, kind: perturber.kind, log10MassPriorRange: [lower, upper] },
     bestFit: { from: settings.bestFit.from, parameters, lnLikelihood: settings.bestFit.bestLnLikelihood },
     settings: { gridSize: grid.n, threshold, deltaChiSquareThreshold: 2 * threshold, toleranceDex, refit, threads: settings.threads },
     approximation: sensitivityApproximation,
-    runSeconds: (performance.now() - started) / 1000,
     gridPoints: records.length,
     decades: massDecadeFractions(records.map((r) => r.log10MinimumMass), lower, upper),
     points: records.map((r) => ({ ...r, log10MinimumMass: Number.isFinite(r.log10MinimumMass) ? r.log10MinimumMass : null })),

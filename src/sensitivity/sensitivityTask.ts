@@ -1,7 +1,8 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import type { DetectableMassSearch, MinimumDetectableMass } from './minimumDetectableMass.js';
-import { PlantedPerturberStatistic, type RefitSettings, type SmoothBestFit } from './plantedPerturberStatistic.js';
+import { PlantedPerturberStatistic, type SmoothBestFit } from './plantedPerturberStatistic.js';
+import type { RefitSettings } from '../records/sensitivitySummary.js';
 
 /** What a sensitivity worker needs to build its own statistic (plain data; the data's pixel arrays are shared). */
 export interface SensitivityTask {

@@ -1,4 +1,4 @@
-import type { VetRunRecord, VetSummary } from './runVetToFolder.js';
+import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
 
 /** Columns of vet.csv, in order. */
 export const VET_CSV_COLUMNS = [

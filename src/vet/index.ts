@@ -8,10 +8,10 @@ export { defaultMapCandidateSettings, mapCandidates, type MapCandidateSettings }
 export { readFlags, type FlagSet } from './readFlags.js';
 export { MapPositionPrior } from './mapPositionPrior.js';
 export { firstPerturber, perturberPositionConfig, windowAround } from './perturberPositionConfig.js';
-export { defaultVetThresholds, vetVerdict, type VetThresholds, type VetVerdict } from './vetVerdict.js';
+export { defaultVetThresholds, vetVerdict } from './vetVerdict.js';
 export { runMapPriorEvidence } from './runMapPriorEvidence.js';
 export {
   defaultVetWindowArcsec, vetFlags, type CandidateVetting, type PerturbedVetting, type VetResult, type VetSettings,
 } from './vetFlags.js';
-export { mapPriorNote, runVetToFolder, type VetRunRecord, type VetSummary } from './runVetToFolder.js';
+export { runVetToFolder } from './runVetToFolder.js';
 export { formatVetCsv, VET_CSV_COLUMNS } from './formatVetCsv.js';

@@ -4,79 +4,16 @@ import type { ObservedData } from '../data/observedData.js';
 import { writeFileAtomic, writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { ParameterSummary } from '../results/index.js';
 import { bayesFactorReading } from '../results/index.js';
-import { packageVersion } from '../records/packageVersion.js';
 import { amplitudePriorText } from '../inference/amplitudePriorText.js';
-import { configHash, priorCaution } from '../inference/runComparisonToFolder.js';
-import { writeModelOutputs, type ModelRecord } from '../inference/writeModelOutputs.js';
+import { writeModelOutputs } from '../inference/writeModelOutputs.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import type { FlagSet } from './readFlags.js';
 import { vetFlags, type PerturbedVetting, type VetResult, type VetSettings } from './vetFlags.js';
-import type { VetThresholds, VetVerdict } from './vetVerdict.js';
 import { formatVetCsv } from './formatVetCsv.js';
-
-/** Said beside every evidence that took the network's map as its position prior. */
-export const mapPriorNote =
-  "The map-prior run takes the network's probability map (normalised over the mask) as the prior on the " +
-  "perturber's position: its evidence, and so its Bayes factor, depends on the network, not on the pixels alone.";
-
-/** What vet.json says of one perturbed run. */
-export interface VetRunRecord {
-  readonly id: string;
-  /** Where the flag came from (file and line, or map pixel); the map file for the map-prior run. */
-  readonly origin: string;
-  readonly flag: { readonly xArcsec: number; readonly yArcsec: number } | null;
-  readonly score: number | null;
-  /** The position prior: the window around the flag, or the map. */
-  readonly positionPrior: string;
-  readonly lnBayesFactor: number;
-  readonly lnBayesFactorError: number;
-  readonly verdict: VetVerdict;
-  /** Kass & Raftery 1995 reading of ln B. */
-  readonly reading: string;
-  /** log10 of the sampled mass (M200 for NFW-type perturbers, total mass otherwise), median and intervals. */
-  readonly log10Mass: ParameterSummary;
-  readonly log10MassUpperLimit95: number;
-  readonly massPriorRange: readonly [number, number] | null;
-  readonly position: { readonly xArcsec: ParameterSummary; readonly yArcsec: ParameterSummary };
-  /** Distance of the posterior median position from the flag, arcsec (null for the map-prior run). */
-  readonly offsetArcsec: number | null;
-  readonly model: ModelRecord;
-}
-
-/** vet.json: written last, only for a finished vetting. */
-export interface VetSummary {
-  readonly arcsiftVersion: string;
-  readonly kind: 'vet';
-  readonly config: string;
-  readonly configSha256: string;
-  readonly data: ObservedData['files'];
-  readonly dataNotices: readonly string[];
-  readonly flags: {
-    readonly file: string;
-    readonly kind: 'list' | 'map';
-    readonly mapThreshold: number | null;
-    readonly mergeRadiusArcsec: number | null;
-    readonly notices: readonly string[];
-  };
-  readonly seed: number;
-  readonly settings: Record<string, unknown>;
-  readonly runSeconds: number;
-  readonly thresholds: VetThresholds;
-  readonly windowArcsec: number;
-  readonly perturberKind: string;
-  readonly smooth: ModelRecord;
-  readonly candidates: readonly VetRunRecord[];
-  readonly mapPrior: VetRunRecord | null;
-  readonly priors: {
-    readonly smooth: readonly PriorDescription[];
-    /** The perturbed models' priors without the perturber's centre, which `positionPrior` describes. */
-    readonly perturbed: readonly PriorDescription[];
-    readonly positionPrior: string;
-  };
-  readonly amplitudePrior: string;
-  readonly caution: string;
-  readonly mapPriorNote: string | null;
-}
+import { mapPriorNote, priorCaution } from '../records/cautions.js';
+import type { ModelRecord } from '../records/modelRecord.js';
+import type { VetRunRecord, VetSummary, VetThresholds, VetVerdict } from '../records/vetSummary.js';
+import { runProvenance } from '../records/provenance.js';
 
 function runRecord(
   run: PerturbedVetting, model: ModelRecord, id: string, origin: string, positionPrior: string,
@@ -139,21 +76,15 @@ export async function runVetToFolder(
     result.mapPrior !== undefined ? `the probability map ${result.mapPrior.mapFile} (map-prior run)` : undefined,
   ].filter((s) => s !== undefined).join('; ');
   const summary: VetSummary = {
-    arcsiftVersion: packageVersion(),
     kind: 'vet',
-    config: config.file,
-    configSha256: configHash(config),
-    data: data.files,
-    dataNotices: data.notices,
+    ...runProvenance(config, data, seed, started),
     flags: {
       file: flags.file, kind: flags.kind,
       mapThreshold: flags.mapSettings?.threshold ?? null,
       mergeRadiusArcsec: flags.mapSettings?.mergeRadiusArcsec ?? null,
       notices: flags.notices,
     },
-    seed,
     settings: smoothSettings,
-    runSeconds: (performance.now() - started) / 1000,
     thresholds: result.thresholds,
     windowArcsec: result.windowArcsec,
     perturberKind: binding?.kind ?? config.perturbers[0].kind,

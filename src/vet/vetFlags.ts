@@ -1,14 +1,16 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError, expectedFound } from '../errors.js';
-import { summarisePerturbers, type PerturberSummary } from '../inference/perturberSummary.js';
+import { summarisePerturbers } from '../inference/perturberSummary.js';
 import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
 import type { FlagCandidate } from './flagCandidate.js';
 import { MapPositionPrior } from './mapPositionPrior.js';
 import { firstPerturber, perturberPositionConfig, windowAround } from './perturberPositionConfig.js';
 import type { ProbabilityMap } from './readProbabilityMap.js';
 import { runMapPriorEvidence } from './runMapPriorEvidence.js';
-import { defaultVetThresholds, vetVerdict, type VetThresholds, type VetVerdict } from './vetVerdict.js';
+import { defaultVetThresholds, vetVerdict } from './vetVerdict.js';
+import type { PerturberSummary } from '../records/perturberSummary.js';
+import type { VetThresholds, VetVerdict } from '../records/vetSummary.js';
 
 /** Settings of a vetting run. */
 export interface VetSettings {

@@ -11,12 +11,13 @@ import { InputError } from '../../src/errors.js';
 import { readFitsImage } from '../../src/fits/index.js';
 import { ballAroundConfiguredValues } from '../../src/inference/ensembleStart.js';
 import { modelParameterSpace } from '../../src/model/modelParameterSpace.js';
-import { readSamplesTable } from '../../src/inference/readSamplesTable.js';
-import { runFitToFolder, type EnsembleFitSummary, type NestedFitSummary } from '../../src/inference/runFitToFolder.js';
+import { readSamplesTable } from '../../src/records/readSamplesTable.js';
+import { runFitToFolder } from '../../src/inference/runFitToFolder.js';
 import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
 import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { weightedQuantiles } from '../../src/results/index.js';
+import type { EnsembleFitSummary, NestedFitSummary } from '../../src/records/fitSummary.js';
 
 // `fit` on a mock made by `simulate` from an invented small scenario (test/fixtures/inference/
 // small-lens.yaml) with its perturber removed, so the smooth model is the one that made the data.

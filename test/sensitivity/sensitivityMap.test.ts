@@ -11,8 +11,9 @@ import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';
 import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { compareModels } from '../../src/inference/compareModels.js';
 import { PlantedPerturberStatistic } from '../../src/sensitivity/plantedPerturberStatistic.js';
-import { runSensitivityToFolder, type SensitivitySummary } from '../../src/sensitivity/runSensitivityToFolder.js';
+import { runSensitivityToFolder } from '../../src/sensitivity/runSensitivityToFolder.js';
 import { smoothBestFitFromRun, type SmoothBestFitSource } from '../../src/sensitivity/smoothBestFit.js';
+import type { SensitivitySummary } from '../../src/records/sensitivitySummary.js';
 
 // The invented scenario of test/fixtures/inference/small-lens.yaml, simulated without its
 // perturber (a clean ring), and searched for a compact perturber: a point mass with a
@@ -55,7 +56,7 @@ describe('detection sensitivity on a clean mock ring', () => {
     bestFit = await smoothBestFitFromRun(config, data, {
       livePoints: 30, seed: 2, method: 'auto', replacementsPerStep: 2, lnZTolerance: 0.3, threads: 2,
     });
-    summary = await runSensitivityToFolder(config, data, out, { gridSize: 5, threads: 2, bestFit });
+    summary = await runSensitivityToFolder(config, data, out, { seed: 2, gridSize: 5, threads: 2, bestFit });
   }, 180_000);
 
   it('needs less mass on the arc than where there is no lensed light', () => {

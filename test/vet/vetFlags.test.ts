@@ -12,8 +12,9 @@ import { formatVetTable } from '../../src/cli/vetCommand.js';
 import { MapPositionPrior } from '../../src/vet/mapPositionPrior.js';
 import { readFlags } from '../../src/vet/readFlags.js';
 import { runMapPriorEvidence } from '../../src/vet/runMapPriorEvidence.js';
-import { runVetToFolder, type VetSummary } from '../../src/vet/runVetToFolder.js';
+import { runVetToFolder } from '../../src/vet/runVetToFolder.js';
 import { vetConcurrency, vetFlags, type VetResult } from '../../src/vet/vetFlags.js';
+import type { VetSummary } from '../../src/records/vetSummary.js';
 
 // Vetting on a mock made by `simulate` from the invented scenario of
 // test/fixtures/inference/small-lens.yaml (a truncated-NFW perturber of log10 M200 = 10.3 on

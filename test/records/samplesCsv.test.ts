@@ -10,7 +10,7 @@ import {
   WEIGHTED_SAMPLES_TITLE,
   writeEqualWeightSamplesCsv,
   writeWeightedSamplesCsv,
-} from '../../src/results/index.js';
+} from '../../src/records/index.js';
 
 const folder = mkdtempSync(join(tmpdir(), 'arcsift-samples-'));
 afterAll(() => rmSync(folder, { recursive: true, force: true }));

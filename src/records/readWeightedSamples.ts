@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { InputError } from '../errors.js';
-import { WEIGHTED_SAMPLES_TITLE } from '../results/writeSamplesCsv.js';
+import { WEIGHTED_SAMPLES_TITLE } from './samplesCsv.js';
 
 /** The columns of a weighted samples table (samples.csv) that the report's sampler figures use. */
 export interface WeightedSamplesColumns {

@@ -1,0 +1,23 @@
+// Run records: the schemas of every file a run writes and a report or a later run reads, with
+// the provenance header they share; writers and readers both import them from here.
+export type { RunProvenance } from './provenance.js';
+export { runProvenance } from './provenance.js';
+export { configHash } from './configHash.js';
+export { packageVersion } from './packageVersion.js';
+export { priorCaution, mapPriorNote, sensitivityApproximation } from './cautions.js';
+export type { ModelRecord } from './modelRecord.js';
+export type { EnsembleRecord, EnsembleParameterDiagnostics } from './ensembleRecord.js';
+export type { PerturberSummary } from './perturberSummary.js';
+export type { ComparisonSummary } from './comparisonSummary.js';
+export type { FitSummary, NestedFitSummary, EnsembleFitSummary } from './fitSummary.js';
+export type { CountComparisonSummary, CountRow } from './countComparisonSummary.js';
+export type { VetSummary, VetRunRecord, VetThresholds, VetVerdict } from './vetSummary.js';
+export type {
+  SensitivitySummary, SensitivityRecord, MassDecadeFraction, DetectableMassLimit, RefitSettings,
+} from './sensitivitySummary.js';
+export {
+  EQUAL_WEIGHT_SAMPLES_TITLE, WEIGHTED_SAMPLES_TITLE, formatEqualWeightSamplesCsv, formatWeightedSamplesCsv,
+  writeEqualWeightSamplesCsv, writeWeightedSamplesCsv, type EqualWeightSamplesTable, type WeightedSamplesTable,
+} from './samplesCsv.js';
+export { readSamplesTable, type SamplesTable } from './readSamplesTable.js';
+export { readWeightedSamples, type WeightedSamplesColumns } from './readWeightedSamples.js';

@@ -1,0 +1,27 @@
+/** What a summary says of one model's run. */
+export interface ModelRecord {
+  readonly label: string;
+  readonly lnEvidence: number;
+  readonly lnEvidenceError: number;
+  readonly lnEvidenceErrorSimulated: number;
+  readonly informationNats: number;
+  readonly livePoints: number;
+  readonly method: string;
+  readonly iterations: number;
+  readonly evaluations: number;
+  readonly efficiency: number;
+  readonly nonFiniteLikelihoods: number;
+  readonly insertionRankPValue: number;
+  readonly insertionRankWarning: boolean;
+  readonly stopReason: string;
+  readonly bestLnLikelihood: number;
+  readonly bestFit: Record<string, number>;
+  readonly bestFitAmplitudes: Record<string, number>;
+  readonly seconds: number;
+  readonly threads: number;
+  readonly parameters: readonly {
+    name: string; unit: string; median: number;
+    interval68: readonly [number, number]; interval95: readonly [number, number];
+  }[];
+  readonly files: Record<string, string>;
+}
