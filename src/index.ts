@@ -18,7 +18,8 @@ export { simulateObservation, type Simulation } from './simulate/simulateObserva
 export { simulateToFolder } from './simulate/simulateToFolder.js';
 export { MarginalisedAmplitudes } from './likelihood/marginalisedAmplitudes.js';
 export { PixelLikelihood } from './likelihood/pixelLikelihood.js';
-export { LikelihoodPool, defaultThreadCount } from './parallel/likelihoodPool.js';
+export { LikelihoodPool } from './parallel/likelihoodPool.js';
+export { defaultThreadCount, WorkerPool } from './parallel/workerPool.js';
 export { modelParameterSpace } from './model/modelParameterSpace.js';
 export { runModelEvidence, type ModelEvidence, type EvidenceSettings } from './inference/runModelEvidence.js';
 export { compareModels, type Comparison } from './inference/compareModels.js';

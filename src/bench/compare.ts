@@ -5,7 +5,7 @@ import { fileURLToPath } from 'node:url';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { loadObservedData } from '../data/loadObservedData.js';
 import { simulateToFolder } from '../simulate/simulateToFolder.js';
-import { defaultThreadCount } from '../parallel/likelihoodPool.js';
+import { defaultThreadCount } from '../parallel/workerPool.js';
 import { compareModels } from '../inference/compareModels.js';
 import { wholeNumberOption } from './benchOptions.js';
 import { machineParallelism } from './machineParallelism.js';

@@ -5,7 +5,7 @@ import { fileURLToPath } from 'node:url';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { loadObservedData } from '../data/loadObservedData.js';
 import { simulateToFolder } from '../simulate/simulateToFolder.js';
-import { defaultThreadCount } from '../parallel/likelihoodPool.js';
+import { defaultThreadCount } from '../parallel/workerPool.js';
 import { vetFlags } from '../vet/vetFlags.js';
 import type { FlagCandidate } from '../vet/flagCandidate.js';
 import { benchOption, wholeNumberOption } from './benchOptions.js';

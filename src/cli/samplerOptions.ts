@@ -2,7 +2,7 @@ import type { Argv } from 'yargs';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { InputError } from '../errors.js';
-import { defaultThreadCount } from '../parallel/likelihoodPool.js';
+import { defaultThreadCount } from '../parallel/workerPool.js';
 import type { EvidenceSettings } from '../inference/runModelEvidence.js';
 import type { NestedMethod } from '../sampling/nested/index.js';
 import { wholeNumberOption } from './dataOptions.js';

@@ -1,4 +1,5 @@
 import { choleskyFactor, choleskySolveInPlace } from '../numeric/linearAlgebra/choleskyFactor.js';
+import { weightedNormalEquations } from '../numeric/linearAlgebra/weightedNormalEquations.js';
 
 /**
  * Gaussian pixel likelihood with the linear light amplitudes integrated out analytically.
@@ -58,29 +59,11 @@ export class MarginalisedAmplitudes {
    * Returns -Infinity when the normal matrix is not positive definite.
    */
   logLikelihood(basis: Float64Array): number {
-    const n = this.pixelCount;
     const k = this.amplitudeCount;
-    const w = this.inverseVariance;
     const a = this.normal;
     const b = this.rhs;
-    const weighted = this.weighted;
-    for (let p = 0; p < k; p++) {
-      const rowP = p * n;
-      let dot = 0;
-      for (let i = 0; i < n; i++) {
-        const v = basis[rowP + i] * w[i];
-        weighted[i] = v;
-        dot += v * this.data[i];
-      }
-      b[p] = dot;
-      for (let q = 0; q <= p; q++) {
-        const rowQ = q * n;
-        let s = 0;
-        for (let i = 0; i < n; i++) s += weighted[i] * basis[rowQ + i];
-        a[p * k + q] = s;
-      }
-      a[p * k + p] += this.priorPrecision;
-    }
+    weightedNormalEquations(basis, k, this.pixelCount, this.inverseVariance, this.data, a, b, this.weighted);
+    for (let p = 0; p < k; p++) a[p * k + p] += this.priorPrecision;
     const logDet = choleskyFactor(a, k);
     if (Number.isNaN(logDet)) return Number.NEGATIVE_INFINITY;
     const x = this.amplitudes;

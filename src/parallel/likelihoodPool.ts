@@ -1,31 +1,19 @@
-import { Worker } from 'node:worker_threads';
-import { availableParallelism } from 'node:os';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { BatchOccupancy } from './batchOccupancy.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
+import { defaultThreadCount, WorkerPool } from './workerPool.js';
 import { workerScriptUrl } from './workerScriptUrl.js';
 import type { SliceChainRequest, SliceChainResult } from '../sampling/nested/sliceSampler.js';
 
 /** A worker's answer: the ln L of a run of points, where a slice chain ended, or that it was stopped. */
 export type WorkerReply = { readonly values: Float64Array } | { readonly chain: SliceChainResult } | { readonly stopped: true };
 
-/**
- * What a worker is asked, waiting for or held by a worker: a run of consecutive points of one
- * call, or one slice chain of a nested-sampling step.
- */
-interface Job {
-  readonly message:
-    | { readonly model: number; readonly points: Float64Array; readonly count: number }
-    | { readonly model: number; readonly chain: SliceChainRequest; readonly stop?: Int32Array };
-  readonly done: (reply: WorkerReply) => void;
-  readonly reject: (error: Error) => void;
-}
+/** What a worker is asked: a run of consecutive points of one call, or one slice chain of a nested-sampling step. */
+type WorkerRequest =
+  | { readonly model: number; readonly points: Float64Array; readonly count: number }
+  | { readonly model: number; readonly chain: SliceChainRequest; readonly stop?: Int32Array };
 
-/** The default thread count: every available core. */
-export function defaultThreadCount(): number {
-  return availableParallelism();
-}
 
 /**
  * What a nested-sampling run needs of a likelihood pool for its model: batches of points, whole
@@ -75,32 +63,18 @@ export class LikelihoodPool implements ModelPool {
   readonly threads: number;
   /** Length of a model vector of each model. */
   readonly widths: readonly number[];
-  private readonly workers: Worker[];
+  private readonly workers: WorkerPool<WorkerRequest, WorkerReply> | undefined;
   private readonly locals: PixelLikelihood[] | undefined;
-  private readonly queue: Job[] = [];
-  private readonly idle: Worker[];
-  private readonly running = new Map<Worker, Job>();
   private readonly counters: ModelCounters[];
-  private failure: Error | undefined;
 
-  private constructor(threads: number, widths: number[], workers: Worker[], locals: PixelLikelihood[] | undefined) {
+  private constructor(
+    threads: number, widths: number[], workers: WorkerPool<WorkerRequest, WorkerReply> | undefined, locals: PixelLikelihood[] | undefined,
+  ) {
     this.threads = threads;
     this.widths = widths;
     this.workers = workers;
     this.locals = locals;
-    this.idle = workers.slice();
     this.counters = widths.map(() => new ModelCounters());
-    for (const worker of workers) {
-      worker.on('message', (reply: WorkerReply | { ready: true }) => {
-        if ('ready' in reply) return;
-        const job = this.running.get(worker);
-        this.running.delete(worker);
-        this.idle.push(worker);
-        this.dispatch();
-        job?.done(reply);
-      });
-      worker.on('error', (error) => this.fail(error));
-    }
   }
 
   get width(): number {
@@ -124,27 +98,13 @@ export class LikelihoodPool implements ModelPool {
   }
 
   get idleThreads(): number {
-    return this.queue.length === 0 ? this.idle.length : 0;
+    return this.workers === undefined ? 0 : this.workers.idleThreads;
   }
 
-  private fail(error: Error): void {
-    this.failure = error;
-    for (const job of this.running.values()) job.reject(error);
-    for (const job of this.queue) job.reject(error);
-    this.running.clear();
-    this.queue.length = 0;
-  }
-
-  /** Hands queued runs to idle workers. */
-  private dispatch(): void {
-    while (this.idle.length > 0 && this.queue.length > 0) {
-      const worker = this.idle.shift()!;
-      const job = this.queue.shift()!;
-      this.running.set(worker, job);
-      this.counters[job.message.model].messages++;
-      // Copied, not transferred: see likelihoodWorker.ts.
-      worker.postMessage(job.message);
-    }
+  /** Queues one message for the workers (copied, not transferred: see likelihoodWorker.ts). */
+  private submit(message: WorkerRequest, done: (reply: WorkerReply) => void, reject: (error: Error) => void): void {
+    this.counters[message.model].messages++;
+    this.workers!.submit({ message, done, reject });
   }
 
   /**
@@ -159,18 +119,10 @@ export class LikelihoodPool implements ModelPool {
     const count = Math.max(1, Math.floor(threads));
     if (count === 1 && options.inWorker !== true) {
       const locals = tasks.map((t) => new PixelLikelihood(t.config, t.data, t.perturberCount));
-      return new LikelihoodPool(1, locals.map((local) => local.system.parameters.length), [], locals);
+      return new LikelihoodPool(1, locals.map((local) => local.system.parameters.length), undefined, locals);
     }
     const widths = tasks.map((t) => buildLensSystem(t.config, { perturberCount: t.perturberCount }).parameters.length);
-    const url = workerScriptUrl(import.meta.url, './likelihoodWorker.js');
-    const workers = await Promise.all(Array.from({ length: count }, () => new Promise<Worker>((resolve, reject) => {
-      const worker = new Worker(url, { workerData: tasks });
-      worker.once('error', reject);
-      worker.once('message', () => {
-        worker.off('error', reject);
-        resolve(worker);
-      });
-    })));
+    const workers = await WorkerPool.start<WorkerRequest, WorkerReply>(workerScriptUrl(import.meta.url, './likelihoodWorker.js'), tasks, count);
     return new LikelihoodPool(count, widths, workers, undefined);
   }
 
@@ -212,7 +164,7 @@ export class LikelihoodPool implements ModelPool {
   }
 
   private async evaluateModel(model: number, points: Float64Array, count: number): Promise<Float64Array> {
-    if (this.failure !== undefined) throw this.failure;
+    if (this.workers?.failed !== undefined) throw this.workers.failed;
     const counters = this.counters[model];
     counters.evaluations += count;
     counters.occupancy.record(count);
@@ -226,23 +178,18 @@ export class LikelihoodPool implements ModelPool {
     if (count === 0) return out;
     // Runs of about count / (8 threads) points: an expensive point does not hold a whole
     // half-batch up, and small calls go out one point per run.
-    const piece = Math.max(1, Math.floor(count / (8 * this.workers.length)));
+    const piece = Math.max(1, Math.floor(count / (8 * this.threads)));
     return new Promise<Float64Array>((resolve, reject) => {
       let outstanding = count;
       for (let from = 0; from < count; from += piece) {
         const size = Math.min(piece, count - from);
-        this.queue.push({
-          message: { model, points: points.slice(from * width, (from + size) * width), count: size },
-          done: (reply) => {
-            if (!('values' in reply)) return reject(new Error('likelihood worker: expected values, got a chain'));
-            out.set(reply.values, from);
-            outstanding -= size;
-            if (outstanding === 0) resolve(out);
-          },
-          reject,
-        });
+        this.submit({ model, points: points.slice(from * width, (from + size) * width), count: size }, (reply) => {
+          if (!('values' in reply)) return reject(new Error('likelihood worker: expected values, got a chain'));
+          out.set(reply.values, from);
+          outstanding -= size;
+          if (outstanding === 0) resolve(out);
+        }, reject);
       }
-      this.dispatch();
     });
   }
 
@@ -252,24 +199,18 @@ export class LikelihoodPool implements ModelPool {
    * message each. Workers only (inWorkers). See ModelPool.runSliceChain for `stop`.
    */
   private runModelSliceChain(model: number, request: SliceChainRequest, stop?: Int32Array): Promise<SliceChainResult> {
-    if (this.failure !== undefined) return Promise.reject(this.failure);
-    if (this.locals !== undefined) return Promise.reject(new Error('runSliceChain needs worker threads'));
+    if (this.locals !== undefined || this.workers === undefined) return Promise.reject(new Error('runSliceChain needs worker threads'));
     return new Promise<SliceChainResult>((resolve, reject) => {
-      this.queue.push({
-        message: stop === undefined ? { model, chain: request } : { model, chain: request, stop },
-        done: (reply) => {
-          if ('stopped' in reply) return reject(new Error('slice chain stopped on request'));
-          if (!('chain' in reply)) return reject(new Error('likelihood worker: expected a chain, got values'));
-          this.counters[model].evaluations += reply.chain.evaluations;
-          resolve(reply.chain);
-        },
-        reject,
-      });
-      this.dispatch();
+      this.submit(stop === undefined ? { model, chain: request } : { model, chain: request, stop }, (reply) => {
+        if ('stopped' in reply) return reject(new Error('slice chain stopped on request'));
+        if (!('chain' in reply)) return reject(new Error('likelihood worker: expected a chain, got values'));
+        this.counters[model].evaluations += reply.chain.evaluations;
+        resolve(reply.chain);
+      }, reject);
     });
   }
 
   async close(): Promise<void> {
-    await Promise.all(this.workers.map((worker) => worker.terminate()));
+    await this.workers?.close();
   }
 }

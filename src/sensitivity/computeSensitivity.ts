@@ -1,14 +1,14 @@
-import { Worker } from 'node:worker_threads';
+import { WorkerPool } from '../parallel/workerPool.js';
 import { workerScriptUrl } from '../parallel/workerScriptUrl.js';
 import { minimumDetectableMass, type MinimumDetectableMass } from './minimumDetectableMass.js';
 import { PlantedPerturberStatistic } from './plantedPerturberStatistic.js';
 import type { SensitivityPoint } from './sensitivityGrid.js';
-import { searchOf, type SensitivityAnswer, type SensitivityTask } from './sensitivityTask.js';
+import { searchOf, type SensitivityAnswer, type SensitivityQuestion, type SensitivityTask } from './sensitivityTask.js';
 
 /**
  * The minimum detectable mass at every grid point. With one thread everything runs here; with
- * more, up to `threads` worker threads each take the next unanswered point (results do not depend
- * on which thread answers, each point being computed alone and deterministically).
+ * more, the points are shared among worker threads (a WorkerPool; results do not depend on which
+ * thread answers, each point being computed alone and deterministically).
  */
 export async function computeSensitivity(
   task: SensitivityTask, points: readonly SensitivityPoint[], threads: number,
@@ -25,30 +25,24 @@ export async function computeSensitivity(
     });
     return results;
   }
-  const url = workerScriptUrl(import.meta.url, './sensitivityWorker.js');
-  let next = 0;
-  let done = 0;
-  const workers: Worker[] = [];
+  const pool = await WorkerPool.start<SensitivityQuestion, SensitivityAnswer>(
+    workerScriptUrl(import.meta.url, './sensitivityWorker.js'), task, count,
+  );
   try {
-    await Promise.all(Array.from({ length: count }, () => new Promise<void>((resolve, reject) => {
-      const worker = new Worker(url, { workerData: task });
-      workers.push(worker);
-      const send = (): void => {
-        if (next >= points.length) { resolve(); return; }
-        const id = next++;
-        worker.postMessage({ id, xArcsec: points[id].xArcsec, yArcsec: points[id].yArcsec });
-      };
-      worker.on('error', reject);
-      worker.on('message', (message: { ready?: boolean } & Partial<SensitivityAnswer>) => {
-        if (message.id !== undefined && message.result !== undefined) {
-          results[message.id] = message.result;
+    let done = 0;
+    await Promise.all(points.map((point, id) => new Promise<void>((resolve, reject) => {
+      pool.submit({
+        message: { id, xArcsec: point.xArcsec, yArcsec: point.yArcsec },
+        done: (answer) => {
+          results[answer.id] = answer.result;
           onPoint?.(++done, points.length);
-        }
-        send();
+          resolve();
+        },
+        reject,
       });
     })));
   } finally {
-    await Promise.all(workers.map((worker) => worker.terminate()));
+    await pool.close();
   }
   return results;
 }

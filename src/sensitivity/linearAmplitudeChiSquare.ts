@@ -1,4 +1,5 @@
 import { choleskyFactor, choleskySolveInPlace } from '../numeric/linearAlgebra/choleskyFactor.js';
+import { weightedNormalEquations } from '../numeric/linearAlgebra/weightedNormalEquations.js';
 
 /**
  * chi^2 of a target image against a linear combination of basis images, minimised over the
@@ -16,6 +17,9 @@ export class LinearAmplitudeChiSquare {
   private readonly target: Float64Array;
   private readonly inverseVariance: Float64Array;
   private readonly normal: Float64Array;
+  /** The basis at the used pixels (basis k at packed[k * used.length + e]) and scratch. */
+  private readonly packed: Float64Array;
+  private readonly weighted: Float64Array;
 
   /**
    * @param used row-major indices of the pixels that count
@@ -28,6 +32,8 @@ export class LinearAmplitudeChiSquare {
     this.inverseVariance = Float64Array.from(used, (p) => 1 / (sigma[p] * sigma[p]));
     this.normal = new Float64Array(amplitudeCount * amplitudeCount);
     this.amplitudes = new Float64Array(amplitudeCount);
+    this.packed = new Float64Array(amplitudeCount * used.length);
+    this.weighted = new Float64Array(used.length);
   }
 
   /** Sets the target image (whole grid, row-major); only the used pixels are read. */
@@ -47,18 +53,8 @@ export class LinearAmplitudeChiSquare {
     const d = this.target;
     const a = this.normal;
     const x = this.amplitudes;
-    for (let p = 0; p < k; p++) {
-      const rowP = p * pixelCount;
-      let rhs = 0;
-      for (let e = 0; e < n; e++) rhs += basis[rowP + used[e]] * w[e] * d[e];
-      x[p] = rhs;
-      for (let q = 0; q <= p; q++) {
-        const rowQ = q * pixelCount;
-        let s = 0;
-        for (let e = 0; e < n; e++) s += basis[rowP + used[e]] * w[e] * basis[rowQ + used[e]];
-        a[p * k + q] = s;
-      }
-    }
+    this.pack(basis, pixelCount);
+    weightedNormalEquations(this.packed, k, n, w, d, a, x, this.weighted);
     if (Number.isNaN(choleskyFactor(a, k))) return Number.POSITIVE_INFINITY;
     choleskySolveInPlace(a, k, x);
     let chi2 = 0;
@@ -69,5 +65,13 @@ export class LinearAmplitudeChiSquare {
       chi2 += w[e] * r * r;
     }
     return chi2;
+  }
+
+  /** The basis at the used pixels into `packed`. */
+  private pack(basis: Float64Array, pixelCount: number): void {
+    const used = this.used, n = used.length, packed = this.packed;
+    for (let p = 0; p < this.amplitudeCount; p++) {
+      for (let e = 0; e < n; e++) packed[p * n + e] = basis[p * pixelCount + used[e]];
+    }
   }
 }

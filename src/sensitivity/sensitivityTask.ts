@@ -21,6 +21,13 @@ export function searchOf(task: SensitivityTask, statistic: PlantedPerturberStati
   return { lower, upper, threshold: task.threshold, toleranceDex: task.toleranceDex };
 }
 
+/** The message a worker is sent for one grid point. */
+export interface SensitivityQuestion {
+  readonly id: number;
+  readonly xArcsec: number;
+  readonly yArcsec: number;
+}
+
 /** The message a worker answers with for one grid point. */
 export interface SensitivityAnswer {
   readonly id: number;
