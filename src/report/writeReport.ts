@@ -3,12 +3,12 @@ import { join } from 'node:path';
 import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { packageVersion } from '../records/packageVersion.js';
-import { writeFitReport } from './fitReport.js';
-import { isMapping, readJson, readRunFolder } from './readRunFolder.js';
-import { writeReportFigures } from './reportFigures.js';
-import { reportPage } from './reportPage.js';
-import { writeSensitivityReport } from './sensitivityReport.js';
-import { writeVetReport } from './vetReport.js';
+import { writeFitReport } from './pages/fitPage.js';
+import { isMapping, readJson, readRunFolder } from './runFolder/readRunFolder.js';
+import { writeReportFigures } from './pages/comparisonFigures.js';
+import { reportPage } from './pages/comparisonPage.js';
+import { writeSensitivityReport } from './pages/sensitivityPage.js';
+import { writeVetReport } from './pages/vetPage.js';
 
 /** Default page of a run folder: report.html inside it. */
 export const REPORT_FILE = 'report.html';

@@ -5,7 +5,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
-import { reportPalette } from '../../src/report/reportPalette.js';
+import { reportPalette } from '../../src/report/colour/reportPalette.js';
 import { writeReport } from '../../src/report/writeReport.js';
 import { SYNTHETIC, writeSyntheticRun } from './syntheticRun.js';
 

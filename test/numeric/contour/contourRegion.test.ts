@@ -2,7 +2,7 @@ import normal from '@stdlib/random/base/normal';
 import { describe, expect, it } from 'vitest';
 import { cornerData, MASS_ONE_SIGMA_2D, MASS_TWO_SIGMA_2D } from '../../../src/results/index.js';
 import { binCentres, contourRegion } from '../../../src/numeric/contour/contourRegion.js';
-import { cornerPairRegions } from '../../../src/report/cornerPairRegions.js';
+import { cornerPairRegions } from '../../../src/report/plots/cornerPairRegions.js';
 
 // A correlated 2-D Gaussian, sigma_x = 1, sigma_y = 2, correlation 0.7, drawn through the Cholesky
 // factor x = z1, y = 2 (0.7 z1 + sqrt(1 - 0.49) z2) (common practice).

@@ -1,9 +1,9 @@
-import { readSamplesTable } from '../records/readSamplesTable.js';
-import { evidenceTrace } from '../results/evidenceTrace.js';
+import { readSamplesTable } from '../../records/readSamplesTable.js';
+import { evidenceTrace } from '../../results/evidenceTrace.js';
 import { linePlotSvg, type LinePanel, type LineSeries } from './linePlotSvg.js';
-import { parameterLabel } from './parameterLabel.js';
-import { reportPalette } from './reportPalette.js';
-import type { WeightedSamplesColumns } from '../records/readWeightedSamples.js';
+import { parameterLabel } from '../text/parameterLabel.js';
+import { reportPalette } from '../colour/reportPalette.js';
+import type { WeightedSamplesColumns } from '../../records/readWeightedSamples.js';
 
 /** ln Z shown below the final value in the accumulation panel, nats. */
 const LN_Z_WINDOW = 25;

@@ -1,9 +1,9 @@
-import { escapeMarkup } from './escapeMarkup.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
 import { imagePng, type ImageColouring } from './imagePng.js';
 import { maskOutline } from './maskOutline.js';
 import { formatTick, niceTicks } from './niceTicks.js';
-import { reportPalette } from './reportPalette.js';
-import { FIGURE_FONT, px } from './svgText.js';
+import { reportPalette } from '../colour/reportPalette.js';
+import { FIGURE_FONT, px } from '../text/svgText.js';
 
 /**
  * A point drawn over an image: a simulated true position, a posterior median with its 68%

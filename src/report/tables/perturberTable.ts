@@ -1,9 +1,9 @@
-import type { ParameterSummary } from '../results/parameterSummary.js';
-import { escapeMarkup } from './escapeMarkup.js';
-import { digitsForSpread, formatNumber } from './formatNumber.js';
+import type { ParameterSummary } from '../../results/parameterSummary.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { digitsForSpread, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell, type TableCell } from './htmlTable.js';
-import type { TruthRecord } from './readRunFolder.js';
-import type { ComparisonSummary } from '../records/comparisonSummary.js';
+import type { TruthRecord } from '../runFolder/readRunFolder.js';
+import type { ComparisonSummary } from '../../records/comparisonSummary.js';
 
 /** Median, 68% and 95% intervals as table cells, with digits suited to the 68% width. */
 export function summaryCells(s: ParameterSummary, digits = digitsForSpread(0.5 * (s.interval68.upper - s.interval68.lower))): TableCell[] {

@@ -1,10 +1,10 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import type { CornerData } from '../results/cornerData.js';
+import type { CornerData } from '../../results/cornerData.js';
 import {
   isList, isMapping, isNumber, isString, locateRunData, readCornerData, readKindOfSummary, requireShape, type TruthRecord,
 } from './readRunFolder.js';
-import type { FitSummary } from '../records/fitSummary.js';
+import type { FitSummary } from '../../records/fitSummary.js';
 
 /** A finished `arcsift fit` run as the report reads it. */
 export interface FitFolder {

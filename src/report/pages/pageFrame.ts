@@ -1,11 +1,11 @@
 import { dirname, relative, resolve, sep } from 'node:path';
-import type { ColourMap } from './colourMap.js';
-import { divergingColourMap } from './divergingColourMap.js';
-import { escapeMarkup } from './escapeMarkup.js';
-import { imagePng } from './imagePng.js';
-import type { ReportFigure } from './reportFigures.js';
+import type { ColourMap } from '../colour/colourMap.js';
+import { divergingColourMap } from '../colour/divergingColourMap.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { imagePng } from '../plots/imagePng.js';
 import { reportStyle } from './reportStyle.js';
-import { sequentialColourMap } from './sequentialColourMap.js';
+import { sequentialColourMap } from '../colour/sequentialColourMap.js';
+import type { ReportFigure } from '../plots/reportFigure.js';
 
 /** A link from the page to `file`, relative to the page's folder, so the pair can be moved together. */
 export function pageLink(pageFile: string, file: string): string {

@@ -1,17 +1,17 @@
 import { existsSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve } from 'node:path';
-import { bayesFactorTable } from './bayesFactorTable.js';
+import { bayesFactorTable } from '../tables/bayesFactorTable.js';
 import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
-import { diagnosticsTable } from './diagnosticsTable.js';
-import { escapeMarkup } from './escapeMarkup.js';
-import { LN_EVIDENCE_DIGITS, evidenceTable } from './evidenceTable.js';
-import { formatNumber } from './formatNumber.js';
-import { parameterTable } from './parameterTable.js';
-import { perturberMassName, perturberTable } from './perturberTable.js';
-import { priorTable } from './priorTable.js';
-import type { ReportFigure } from './reportFigures.js';
+import { diagnosticsTable } from '../tables/diagnosticsTable.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { LN_EVIDENCE_DIGITS, evidenceTable } from '../tables/evidenceTable.js';
+import { formatNumber } from '../text/formatNumber.js';
+import { parameterTable } from '../tables/parameterTable.js';
+import { perturberMassName, perturberTable } from '../tables/perturberTable.js';
+import { priorTable } from '../tables/priorTable.js';
 import { reportStyle } from './reportStyle.js';
-import { MODEL_NAMES, type RunFolder } from './readRunFolder.js';
+import { MODEL_NAMES, type RunFolder } from '../runFolder/readRunFolder.js';
+import type { ReportFigure } from '../plots/reportFigure.js';
 
 function verdict(run: RunFolder): string {
   const b = run.summary.bayesFactor;

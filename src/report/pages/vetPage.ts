@@ -1,24 +1,24 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
-import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../records/packageVersion.js';
-import { nestedDiagnosticsTable } from './diagnosticsTable.js';
-import { escapeMarkup } from './escapeMarkup.js';
-import { LN_EVIDENCE_DIGITS } from './evidenceTable.js';
-import { formatNumber } from './formatNumber.js';
-import { htmlTable, numberCell } from './htmlTable.js';
-import { imagePanelSvg, type ImageMarker } from './imagePanelSvg.js';
-import { imagePng } from './imagePng.js';
-import { sequentialRange } from './displayRange.js';
+import { writeFileAtomic } from '../../io/writeFileAtomic.js';
+import { packageVersion } from '../../records/packageVersion.js';
+import { nestedDiagnosticsTable } from '../tables/diagnosticsTable.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';
+import { formatNumber } from '../text/formatNumber.js';
+import { htmlTable, numberCell } from '../tables/htmlTable.js';
+import { imagePanelSvg, type ImageMarker } from '../plots/imagePanelSvg.js';
+import { imagePng } from '../plots/imagePng.js';
+import { sequentialRange } from '../colour/displayRange.js';
 import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
-import { perturberMassName } from './perturberTable.js';
-import { priorColumnsTable } from './priorTable.js';
-import { isList, isMapping, isString, locateRunData, readKindOfSummary } from './readRunFolder.js';
-import {
-  imageFigures, imageSetOf, perturberTruthMarkers, readModelImages, readObservedImages, writeSvgFigure, type ReportFigure,
-} from './reportFigures.js';
-import { sequentialColourMap } from './sequentialColourMap.js';
-import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
+import { perturberMassName } from '../tables/perturberTable.js';
+import { priorColumnsTable } from '../tables/priorTable.js';
+import { isList, isMapping, isString, locateRunData, readKindOfSummary } from '../runFolder/readRunFolder.js';
+import { perturberTruthMarkers } from './comparisonFigures.js';
+import { sequentialColourMap } from '../colour/sequentialColourMap.js';
+import type { VetRunRecord, VetSummary } from '../../records/vetSummary.js';
+import { imageFigures, imageSetOf, readModelImages, readObservedImages } from '../plots/imageFigures.js';
+import { writeSvgFigure, type ReportFigure } from '../plots/reportFigure.js';
 
 /** Confirmed candidates whose best-fit images the page shows, at most. */
 const CONFIRMED_SHOWN = 3;

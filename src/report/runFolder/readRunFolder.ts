@@ -1,8 +1,8 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { dirname, isAbsolute, join, resolve } from 'node:path';
-import { InputError, describeValue, expectedFound } from '../errors.js';
-import type { CornerData } from '../results/cornerData.js';
-import type { ComparisonSummary } from '../records/comparisonSummary.js';
+import { InputError, describeValue, expectedFound } from '../../errors.js';
+import type { CornerData } from '../../results/cornerData.js';
+import type { ComparisonSummary } from '../../records/comparisonSummary.js';
 
 /** A parameter's true value as `arcsift simulate` writes it in truth.json. */
 export interface TruthParameter {

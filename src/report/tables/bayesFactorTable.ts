@@ -1,8 +1,8 @@
-import { escapeMarkup } from './escapeMarkup.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
 import { LN_EVIDENCE_DIGITS } from './evidenceTable.js';
-import { formatNumber } from './formatNumber.js';
+import { formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from './htmlTable.js';
-import type { ComparisonSummary } from '../records/comparisonSummary.js';
+import type { ComparisonSummary } from '../../records/comparisonSummary.js';
 
 /** The Bayes factor of the perturbed over the smooth model, its reading and its frequentist bound. */
 export function bayesFactorTable(summary: ComparisonSummary): string {

@@ -1,18 +1,19 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
-import { readFitsImage } from '../fits/index.js';
-import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../records/packageVersion.js';
-import { escapeMarkup } from './escapeMarkup.js';
-import { formatCount, formatNumber } from './formatNumber.js';
-import { htmlTable, numberCell } from './htmlTable.js';
-import { imagePanelSvg, type ImageMarker } from './imagePanelSvg.js';
-import { imagePng } from './imagePng.js';
+import { readFitsImage } from '../../fits/index.js';
+import { writeFileAtomic } from '../../io/writeFileAtomic.js';
+import { packageVersion } from '../../records/packageVersion.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { formatCount, formatNumber } from '../text/formatNumber.js';
+import { htmlTable, numberCell } from '../tables/htmlTable.js';
+import { imagePanelSvg, type ImageMarker } from '../plots/imagePanelSvg.js';
+import { imagePng } from '../plots/imagePng.js';
 import { colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
-import { isList, isNumber, isString, locateRunData, readKindOfSummary } from './readRunFolder.js';
-import { perturberTruthMarkers, writeSvgFigure, type ReportFigure } from './reportFigures.js';
-import { sequentialColourMap } from './sequentialColourMap.js';
-import type { SensitivitySummary } from '../records/sensitivitySummary.js';
+import { isList, isNumber, isString, locateRunData, readKindOfSummary } from '../runFolder/readRunFolder.js';
+import { perturberTruthMarkers } from './comparisonFigures.js';
+import { sequentialColourMap } from '../colour/sequentialColourMap.js';
+import type { SensitivitySummary } from '../../records/sensitivitySummary.js';
+import { writeSvgFigure, type ReportFigure } from '../plots/reportFigure.js';
 
 /** Reads and checks sensitivity.json of a sensitivity run folder. */
 function readSensitivitySummary(file: string): SensitivitySummary {

@@ -1,8 +1,8 @@
-import type { CornerPair } from '../results/cornerData.js';
-import { MASS_ONE_SIGMA_2D, MASS_TWO_SIGMA_2D } from '../results/densityLevels.js';
-import { smoothHistogram2d } from '../results/smoothHistogram2d.js';
-import { contourRegion, type ContourRegion, type GridValues } from '../numeric/contour/contourRegion.js';
-import { enclosingLevels } from '../numeric/statistics/enclosingLevels.js';
+import type { CornerPair } from '../../results/cornerData.js';
+import { MASS_ONE_SIGMA_2D, MASS_TWO_SIGMA_2D } from '../../results/densityLevels.js';
+import { smoothHistogram2d } from '../../results/smoothHistogram2d.js';
+import { contourRegion, type ContourRegion, type GridValues } from '../../numeric/contour/contourRegion.js';
+import { enclosingLevels } from '../../numeric/statistics/enclosingLevels.js';
 
 /** What a corner plot fills for one pair of parameters: the surface its regions are traced on and the two regions. */
 export interface PairRegions {

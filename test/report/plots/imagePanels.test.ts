@@ -1,11 +1,11 @@
 import { PNG } from 'pngjs';
 import { describe, expect, it } from 'vitest';
-import { divergingColourMap } from '../../src/report/divergingColourMap.js';
-import { imagePanelSvg } from '../../src/report/imagePanelSvg.js';
-import { imagePng } from '../../src/report/imagePng.js';
-import { maskOutline } from '../../src/report/maskOutline.js';
-import { niceTicks } from '../../src/report/niceTicks.js';
-import { sequentialColourMap } from '../../src/report/sequentialColourMap.js';
+import { divergingColourMap } from '../../../src/report/colour/divergingColourMap.js';
+import { imagePanelSvg } from '../../../src/report/plots/imagePanelSvg.js';
+import { imagePng } from '../../../src/report/plots/imagePng.js';
+import { maskOutline } from '../../../src/report/plots/maskOutline.js';
+import { niceTicks } from '../../../src/report/plots/niceTicks.js';
+import { sequentialColourMap } from '../../../src/report/colour/sequentialColourMap.js';
 
 const rgbAt = (png: PNG, x: number, y: number): number[] => Array.from(png.data.subarray(4 * (y * png.width + x), 4 * (y * png.width + x) + 3));
 const mapEnd = (map: typeof sequentialColourMap, k: number): number[] => Array.from(map.bytes.subarray(3 * k, 3 * k + 3));

@@ -1,8 +1,8 @@
-import type { PriorDescription } from '../priors/parameterSpace.js';
-import { escapeMarkup } from './escapeMarkup.js';
+import type { PriorDescription } from '../../priors/parameterSpace.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
 import { htmlTable, type TableCell } from './htmlTable.js';
-import { parameterLabel } from './parameterLabel.js';
-import type { ComparisonSummary } from '../records/comparisonSummary.js';
+import { parameterLabel } from '../text/parameterLabel.js';
+import type { ComparisonSummary } from '../../records/comparisonSummary.js';
 
 /** A prior in interval notation, e.g. `uniform on [0.9, 1.3]`, `normal(0, 0.1) on [-1, 1]`. */
 export function priorText(p: PriorDescription): string {

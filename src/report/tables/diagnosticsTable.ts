@@ -1,8 +1,8 @@
-import { escapeMarkup } from './escapeMarkup.js';
-import { formatCount, formatNumber } from './formatNumber.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell, type TableCell } from './htmlTable.js';
-import type { ComparisonSummary } from '../records/comparisonSummary.js';
-import type { ModelRecord } from '../records/modelRecord.js';
+import type { ComparisonSummary } from '../../records/comparisonSummary.js';
+import type { ModelRecord } from '../../records/modelRecord.js';
 
 /** The nested sampler's own record of each run: settings, cost, efficiency and the insertion-rank check. */
 export function diagnosticsTable(summary: ComparisonSummary): string {

@@ -1,18 +1,18 @@
-import { loadConfig } from '../config/arcsiftConfig.js';
-import { InputError } from '../errors.js';
-import { fillPixelCentres } from '../imaging/pixelGrid.js';
-import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
-import { modelVectorFromRecord } from '../model/modelVectorFromRecord.js';
-import { criticalCurves, type LensCurves } from '../lensing/criticalCurves.js';
-import { sequentialRange } from './displayRange.js';
+import { loadConfig } from '../../config/arcsiftConfig.js';
+import { InputError } from '../../errors.js';
+import { fillPixelCentres } from '../../imaging/pixelGrid.js';
+import { buildLensSystem, type LensSystem } from '../../model/lensSystem.js';
+import { modelVectorFromRecord } from '../../model/modelVectorFromRecord.js';
+import { criticalCurves, type LensCurves } from '../../lensing/criticalCurves.js';
+import { sequentialRange } from '../colour/displayRange.js';
 import { imagePanelSvg, type ImageLine, type ImageMarker, type ImagePanel } from './imagePanelSvg.js';
 import { imagePng } from './imagePng.js';
-import { locate, type ModelName, type RunFolder } from './readRunFolder.js';
-import type { ReportFigure } from './reportFigures.js';
+import { locate, type ModelName, type RunFolder } from '../runFolder/readRunFolder.js';
 import { perturberTruthMarkers } from './perturberTruthMarkers.js';
-import { reportPalette } from './reportPalette.js';
-import { sequentialColourMap } from './sequentialColourMap.js';
-import { configHash } from '../records/configHash.js';
+import { reportPalette } from '../colour/reportPalette.js';
+import { sequentialColourMap } from '../colour/sequentialColourMap.js';
+import { configHash } from '../../records/configHash.js';
+import type { ReportFigure } from './reportFigure.js';
 
 /** The observed image's grid (x right, y up, origin at the centre; DEVELOPERS.md) and its mask. */
 export interface LensingGrid {

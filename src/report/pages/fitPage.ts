@@ -1,28 +1,28 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
-import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../records/packageVersion.js';
-import { cornerPlotSvg } from './cornerPlotSvg.js';
-import { nestedDiagnosticsTable } from './diagnosticsTable.js';
-import { escapeMarkup } from './escapeMarkup.js';
-import { LN_EVIDENCE_DIGITS } from './evidenceTable.js';
-import { formatCount, formatNumber } from './formatNumber.js';
-import { htmlTable, numberCell } from './htmlTable.js';
-import type { ImageMarker } from './imagePanelSvg.js';
+import { writeFileAtomic } from '../../io/writeFileAtomic.js';
+import { packageVersion } from '../../records/packageVersion.js';
+import { cornerPlotSvg } from '../plots/cornerPlotSvg.js';
+import { nestedDiagnosticsTable } from '../tables/diagnosticsTable.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';
+import { formatCount, formatNumber } from '../text/formatNumber.js';
+import { htmlTable, numberCell } from '../tables/htmlTable.js';
+import type { ImageMarker } from '../plots/imagePanelSvg.js';
 import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
-import { parameterColumnsTable } from './parameterTable.js';
-import { parameterLabel } from './parameterLabel.js';
-import { perturberTable } from './perturberTable.js';
-import { priorColumnsTable } from './priorTable.js';
-import { readFitFolder, type FitFolder } from './readFitFolder.js';
-import { readWeightedSamples } from '../records/readWeightedSamples.js';
-import {
-  imageFigures, imageSetOf, nestedTraceFigure, perturberTruthMarkers, readModelImages, readObservedImages, writeSvgFigure,
-  type ReportFigure,
-} from './reportFigures.js';
-import { modelColours, type ModelTone } from './reportPalette.js';
-import { ensembleTraceSvg } from './samplerTraceSvg.js';
-import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
+import { parameterColumnsTable } from '../tables/parameterTable.js';
+import { parameterLabel } from '../text/parameterLabel.js';
+import { perturberTable } from '../tables/perturberTable.js';
+import { priorColumnsTable } from '../tables/priorTable.js';
+import { readFitFolder, type FitFolder } from '../runFolder/readFitFolder.js';
+import { readWeightedSamples } from '../../records/readWeightedSamples.js';
+import { perturberTruthMarkers } from './comparisonFigures.js';
+import { modelColours, type ModelTone } from '../colour/reportPalette.js';
+import { ensembleTraceSvg } from '../plots/samplerTraceSvg.js';
+import type { EnsembleFitSummary, NestedFitSummary } from '../../records/fitSummary.js';
+import { imageFigures, imageSetOf, readModelImages, readObservedImages } from '../plots/imageFigures.js';
+import { nestedTraceFigure } from '../plots/nestedTraceFigure.js';
+import { writeSvgFigure, type ReportFigure } from '../plots/reportFigure.js';
 
 /** Gaussian smoothing of the 2-D histograms' outlines, in bins (as on the comparison page). */
 const DISPLAY_SMOOTHING_BINS = 1;

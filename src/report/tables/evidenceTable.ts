@@ -1,7 +1,7 @@
-import { formatNumber } from './formatNumber.js';
+import { formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from './htmlTable.js';
-import { MODEL_NAMES } from './readRunFolder.js';
-import type { ComparisonSummary } from '../records/comparisonSummary.js';
+import { MODEL_NAMES } from '../runFolder/readRunFolder.js';
+import type { ComparisonSummary } from '../../records/comparisonSummary.js';
 
 /** Digits of every ln Z and ln B in the report. */
 export const LN_EVIDENCE_DIGITS = 2;

@@ -1,12 +1,12 @@
-import type { CornerData, CornerPair, CornerParameter } from '../results/cornerData.js';
+import type { CornerData, CornerPair, CornerParameter } from '../../results/cornerData.js';
 import { cornerPairRegions } from './cornerPairRegions.js';
-import type { ContourRegion } from '../numeric/contour/contourRegion.js';
-import { escapeMarkup } from './escapeMarkup.js';
-import { digitsForSpread, formatNumber } from './formatNumber.js';
+import type { ContourRegion } from '../../numeric/contour/contourRegion.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { digitsForSpread, formatNumber } from '../text/formatNumber.js';
 import { formatTick, niceTicks } from './niceTicks.js';
-import { parameterLabel } from './parameterLabel.js';
-import { modelColours, reportPalette, type ModelTone } from './reportPalette.js';
-import { FIGURE_FONT, px, textWidthPx } from './svgText.js';
+import { parameterLabel } from '../text/parameterLabel.js';
+import { modelColours, reportPalette, type ModelTone } from '../colour/reportPalette.js';
+import { FIGURE_FONT, px, textWidthPx } from '../text/svgText.js';
 
 /** One model's posterior drawn in a corner plot. */
 export interface CornerLayer {

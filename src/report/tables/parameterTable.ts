@@ -1,11 +1,11 @@
-import { escapeMarkup } from './escapeMarkup.js';
-import { digitsForSpread, formatNumber } from './formatNumber.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
+import { digitsForSpread, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell, type TableCell } from './htmlTable.js';
-import { parameterLabel } from './parameterLabel.js';
+import { parameterLabel } from '../text/parameterLabel.js';
 import { summaryCells } from './perturberTable.js';
-import { MODEL_NAMES, type TruthRecord } from './readRunFolder.js';
-import type { ComparisonSummary } from '../records/comparisonSummary.js';
-import type { ModelRecord } from '../records/modelRecord.js';
+import { MODEL_NAMES, type TruthRecord } from '../runFolder/readRunFolder.js';
+import type { ComparisonSummary } from '../../records/comparisonSummary.js';
+import type { ModelRecord } from '../../records/modelRecord.js';
 
 type ParameterRecord = ModelRecord['parameters'][number];
 

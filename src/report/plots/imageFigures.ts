@@ -1,41 +1,12 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { readFitsImage, type FitsImage } from '../fits/index.js';
-import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { cornerPlotSvg, type CornerLayer } from './cornerPlotSvg.js';
-import { divergingColourMap } from './divergingColourMap.js';
-import { sequentialRange, symmetricRange } from './displayRange.js';
+import { readFitsImage, type FitsImage } from '../../fits/index.js';
+import { divergingColourMap } from '../colour/divergingColourMap.js';
+import { sequentialRange, symmetricRange } from '../colour/displayRange.js';
 import { imagePanelSvg, type ImageMarker, type ImagePanel } from './imagePanelSvg.js';
 import { imagePng } from './imagePng.js';
-import { lensingFigures } from './lensingFigures.js';
-import { MODEL_NAMES, type ModelName, type RunFolder } from './readRunFolder.js';
-import { sequentialColourMap } from './sequentialColourMap.js';
-import { perturberTruthMarkers } from './perturberTruthMarkers.js';
-
-export { perturberTruthMarkers };
-import { modelColours } from './reportPalette.js';
-import { readWeightedSamples } from '../records/readWeightedSamples.js';
-import { nestedTraceSvg } from './samplerTraceSvg.js';
-
-/** One figure of the report: its inline SVG and the files written for it. */
-export interface ReportFigure {
-  /** File stem in the figures folder, e.g. `perturbed-residual`. */
-  readonly key: string;
-  readonly section: 'images' | 'perturber-posterior' | 'posterior' | 'diagnostics';
-  readonly title: string;
-  /** HTML. */
-  readonly caption: string;
-  readonly svg: string;
-  /** Absolute or working-directory-relative paths of the SVG (and PNG) written. */
-  readonly files: readonly string[];
-}
-
-/**
- * Gaussian smoothing of the 2-D posterior histograms, in bins, that shapes the drawn regions
- * (common practice: one bin calms the sampling noise of a few hundred effective samples). It
- * changes only their outline: their levels are set on the unsmoothed mass (cornerPairRegions).
- */
-const DISPLAY_SMOOTHING_BINS = 1;
+import { writeSvgFigure, type ReportFigure } from './reportFigure.js';
+import { sequentialColourMap } from '../colour/sequentialColourMap.js';
 
 /** Smallest normalised-residual colour limit, in units of the noise sigma. */
 const NORMALISED_RESIDUAL_FLOOR = 4;
@@ -54,101 +25,6 @@ function readImage(file: string | null, notices: string[], what: string): FitsIm
     return null;
   }
   return readFitsImage(file);
-}
-
-/** Writes every figure of a run's report into `figuresFolder` and returns them in page order. */
-export function writeReportFigures(run: RunFolder, figuresFolder: string): { figures: ReportFigure[]; notices: string[] } {
-  const notices: string[] = [];
-  const figures: ReportFigure[] = [];
-  const truth = new Map((run.truth?.parameters ?? []).map((p) => [p.name, p.value]));
-
-  const observed = readObservedImages(run.dataFiles, notices);
-  const models = MODEL_NAMES.map((m) => readModelImages(join(run.folder, m), m, m === 'smooth' ? 'Smooth' : 'Perturbed', notices));
-  const set = imageSetOf(observed, models, notices);
-  if (set !== null) {
-    const truthMarkers = perturberTruthMarkers(run.summary.perturbers, truth);
-    const posteriorMarkers: ImageMarker[] = run.summary.perturbers.map((p) => ({
-      kind: 'posterior',
-      xArcsec: p.centerXArcsec.median,
-      yArcsec: p.centerYArcsec.median,
-      xInterval: [p.centerXArcsec.interval68.lower, p.centerXArcsec.interval68.upper],
-      yInterval: [p.centerYArcsec.interval68.lower, p.centerYArcsec.interval68.upper],
-    }));
-    models[1] = { ...models[1], markers: posteriorMarkers };
-    figures.push(...imageFigures(set, observed, models, truthMarkers, figuresFolder));
-    figures.push(...lensingFigures(run, set, notices, (key, figure, png) => writeSvgFigure(figuresFolder, key, key, figure, png)));
-  }
-
-  const perturbedCorner = run.corners.perturbed;
-  const smoothCorner = run.corners.smooth;
-  if (perturbedCorner !== null) {
-    const keys = run.summary.perturbers.map((p) => `${p.key}.`);
-    const names = perturbedCorner.parameters.map((p) => p.name).filter((n) => keys.some((k) => n.startsWith(k)));
-    if (names.length > 0) {
-      const svg = cornerPlotSvg({
-        parameters: names,
-        layers: [{ tone: 'perturbed', label: 'perturbed model', data: perturbedCorner }],
-        truth,
-        panelPx: names.length <= 4 ? 150 : 110,
-        smoothingSigmaBins: DISPLAY_SMOOTHING_BINS,
-      });
-      figures.push(writeSvgFigure(figuresFolder, 'corner-perturber', 'posterior-perturber', {
-        section: 'perturber-posterior',
-        title: 'Perturber posterior',
-        caption: 'Mass and position of the perturber in the perturbed model: 1-D marginals on the diagonal, 2-D marginals below with the 39.3% (inner) and 86.5% (outer) highest-density regions, the 2-D equivalents of 1 and 2 sigma.',
-        svg,
-      }));
-    }
-  }
-  const layers: CornerLayer[] = [];
-  if (smoothCorner !== null) layers.push({ tone: 'smooth', label: 'smooth model', data: smoothCorner });
-  if (perturbedCorner !== null) layers.push({ tone: 'perturbed', label: 'perturbed model', data: perturbedCorner });
-  if (layers.length > 0) {
-    const names = [...new Set([...(perturbedCorner?.parameters ?? []), ...(smoothCorner?.parameters ?? [])].map((p) => p.name))];
-    const svg = cornerPlotSvg({ parameters: names, layers, truth, smoothingSigmaBins: DISPLAY_SMOOTHING_BINS });
-    figures.push(writeSvgFigure(figuresFolder, 'corner-all', 'posterior-all', {
-      section: 'posterior',
-      title: 'All free parameters',
-      caption: 'Every free parameter of both models. Where a parameter belongs to both, the smooth (blue) and perturbed (vermilion) posteriors are overlaid; the perturber rows hold the perturbed model alone.',
-      svg,
-    }));
-  }
-  const traced = MODEL_NAMES.flatMap((m) => {
-    const file = join(run.folder, m, 'samples.csv');
-    if (!existsSync(file)) return [];
-    return [{ label: `${m} model`, colour: modelColours(m).line, samples: readWeightedSamples(file) }];
-  });
-  if (traced.length > 0) figures.push(nestedTraceFigure(traced, figuresFolder));
-  return { figures, notices };
-}
-
-/** The evidence history of one or more nested-sampling runs (nestedTraceSvg) as a figure. */
-export function nestedTraceFigure(runs: Parameters<typeof nestedTraceSvg>[0], folder: string): ReportFigure {
-  return writeSvgFigure(folder, 'nested-history', 'nested-history', {
-    section: 'diagnostics',
-    title: 'Nested-sampling history',
-    caption: 'Left: ln Z accumulated point by point, the final value dashed; a run that stopped early shows a curve still rising. Right: ln L against the ln of the prior volume X still enclosed (Skilling 2006); the posterior mass lies where ln L flattens.',
-    svg: nestedTraceSvg(runs),
-  });
-}
-
-export function writeSvgFigure(
-  folder: string, file: string, key: string, figure: Omit<ReportFigure, 'files' | 'key'>, png?: Buffer,
-): ReportFigure {
-  const svgFile = join(folder, `${file}.svg`);
-  writeFileAtomic(svgFile, `${figure.svg}\n`);
-  const files = [svgFile];
-  if (png !== undefined) {
-    const pngFile = join(folder, `${file}.png`);
-    writeFileAtomic(pngFile, png);
-    files.push(pngFile);
-  }
-  return { ...figure, key, svg: uniqueIds(figure.svg, key), files };
-}
-
-/** Inline SVGs share one page: prefix any id (none are used today) so two figures never clash. */
-function uniqueIds(svg: string, key: string): string {
-  return svg.replace(/\bid="([^"]+)"/g, `id="${key}-$1"`).replace(/url\(#([^)]+)\)/g, `url(#${key}-$1)`);
 }
 
 /** The observed image, noise map and mask of a run, those that can be read. */

@@ -1,5 +1,5 @@
 import { PNG } from 'pngjs';
-import { colourIndex, type ColourMap } from './colourMap.js';
+import { colourIndex, type ColourMap } from '../colour/colourMap.js';
 
 /** A row-major image (index i + columns * j, row 0 at the bottom) and how to colour it. */
 export interface ImageColouring {

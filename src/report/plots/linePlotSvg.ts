@@ -1,7 +1,7 @@
-import { escapeMarkup } from './escapeMarkup.js';
+import { escapeMarkup } from '../text/escapeMarkup.js';
 import { formatTick, niceTicks } from './niceTicks.js';
-import { reportPalette } from './reportPalette.js';
-import { FIGURE_FONT, px } from './svgText.js';
+import { reportPalette } from '../colour/reportPalette.js';
+import { FIGURE_FONT, px } from '../text/svgText.js';
 
 /** One line of a panel, optionally with a shaded band (e.g. a 68% range across walkers). */
 export interface LineSeries {

@@ -1,6 +1,6 @@
-import { colourHex } from './colourMap.js';
-import { reportPalette as c } from './reportPalette.js';
-import { sequentialColourMap } from './sequentialColourMap.js';
+import { colourHex } from '../colour/colourMap.js';
+import { reportPalette as c } from '../colour/reportPalette.js';
+import { sequentialColourMap } from '../colour/sequentialColourMap.js';
 
 /** A CSS gradient through the sequential map, for the masthead rule. */
 function mapGradient(): string {

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { divergingColourMap } from '../../src/report/divergingColourMap.js';
-import { sequentialColourMap } from '../../src/report/sequentialColourMap.js';
-import { colourIndex, type ColourMap } from '../../src/report/colourMap.js';
-import { linearSrgbFromOklab, oklabFromLinearSrgb } from '../../src/report/oklab.js';
+import { divergingColourMap } from '../../../src/report/colour/divergingColourMap.js';
+import { sequentialColourMap } from '../../../src/report/colour/sequentialColourMap.js';
+import { colourIndex, type ColourMap } from '../../../src/report/colour/colourMap.js';
+import { linearSrgbFromOklab, oklabFromLinearSrgb } from '../../../src/report/colour/oklab.js';
 
 // CIE 1976 lightness L* of an 8-bit sRGB colour, computed here independently of OKLab (the space the
 // maps are built in): sRGB decoding per IEC 61966-2-1, relative luminance Y with the ITU-R BT.709
