@@ -9,6 +9,7 @@ import { defaultThreadCount } from '../parallel/workerPool.js';
 import { compareModels } from '../inference/compareModels.js';
 import { wholeNumberOption } from './benchOptions.js';
 import { machineParallelism } from './machineParallelism.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
 const demoPath = fileURLToPath(new URL('../../configs/demo.yaml', import.meta.url));
 
@@ -30,8 +31,8 @@ export async function run(args: string[]): Promise<void> {
     const threads = defaultThreadCount();
     const time = async (count: number) => {
       const settings = {
-        livePoints: 50, seed: 1, method: 'slice' as const, replacementsPerStep: 2, sliceStepsPerParameter: 1, lnZTolerance: 0.1,
-        threads: count, maxEvaluations,
+        ...runDefaults.nested, livePoints: runDefaults.demo.livePoints, sliceStepsPerParameter: runDefaults.demo.sliceStepsPerParameter,
+        method: 'slice' as const, threads: count, maxEvaluations,
       };
       const started = performance.now();
       const result = await compareModels(config, data, { smooth: settings, perturbed: settings });

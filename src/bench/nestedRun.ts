@@ -1,14 +1,11 @@
 import { loadObservedData } from '../data/loadObservedData.js';
 import { runModelEvidence } from '../inference/runModelEvidence.js';
-import { fitLivePoints } from '../cli/fitCommand.js';
-import { defaultSliceStepsPerParameter, replacementsPerStep } from '../cli/samplerOptions.js';
+import { runDefaults } from '../settings/runDefaults.js';
 import { benchOption, wholeNumberOption } from './benchOptions.js';
 import { forwardScenarios } from './forward.js';
 
-/** The settings `arcsift fit` runs nested sampling with by default (fitCommand.ts, samplerOptions.ts). */
-export const fitDefaultNestedSettings = {
-  livePoints: fitLivePoints, seed: 1, method: 'auto', replacementsPerStep, sliceStepsPerParameter: defaultSliceStepsPerParameter, lnZTolerance: 0.1,
-} as const;
+/** The settings `arcsift fit` runs nested sampling with by default (runDefaults.nested). */
+export const fitDefaultNestedSettings = runDefaults.nested;
 
 /**
  * `npm run bench -- nestedRun --folder DIR [--only NAME] [--threads N] [--evaluations E]`: one

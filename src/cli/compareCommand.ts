@@ -4,10 +4,12 @@ import { basename, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
-import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison, formatCountComparison } from './formatComparison.js';
 import { comparisonSideBySide } from '../inference/compareModels.js';
 import { comparePerturberCounts } from '../inference/comparePerturberCounts.js';
+import { runDefaults } from '../settings/runDefaults.js';
+import { checkOutputFolder } from '../inference/checkOutputFolder.js';
 
 interface CompareArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -25,7 +27,7 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-compare]' })
     .option('perturbers', { type: 'number', default: 1, describe: 'how many of the config\'s perturbers the perturbed model holds' })
     .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
-    .option('max-perturbers', { type: 'number', describe: 'instead: compare 0, 1, ..., K perturbers by evidence (extra ones copy the last listed perturber)' })), { livePoints: 200 })
+    .option('max-perturbers', { type: 'number', describe: 'instead: compare 0, 1, ..., K perturbers by evidence (extra ones copy the last listed perturber)' })), { livePoints: runDefaults.nested.livePoints })
     .example('$0 compare --config configs/demo.yaml --data chains/mock --out chains/mock-compare', 'smooth versus one subhalo'),
   handler: async (args) => {
     const config = loadConfig(args.config);

@@ -4,13 +4,15 @@ import { loadConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { fitPerturberCount, runFitToFolder } from '../inference/runFitToFolder.js';
-import { defaultEnsembleFitSettings, type EnsembleFitSettings } from '../inference/runModelEnsemble.js';
+import type { EnsembleFitSettings } from '../inference/runModelEnsemble.js';
+import { runDefaults } from '../settings/runDefaults.js';
 import type { EnsembleMoveKind, EnsembleProgress } from '../sampling/ensemble/index.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
-import { checkOutputFolder, evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
+import { checkOutputFolder } from '../inference/checkOutputFolder.js';
 
 interface FitArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -146,9 +148,6 @@ function ensembleSettingsOf(args: FitArguments, seed: number, threads: number, o
   };
 }
 
-/** Live points of `fit`'s nested sampling unless --live-points says otherwise. */
-export const fitLivePoints = 200;
-
 export const fitCommand: CommandModule<object, FitArguments> = {
   command: 'fit',
   describe: 'Fit one lens model (smooth, or with the config\'s perturbers) by nested sampling or ensemble MCMC',
@@ -159,10 +158,10 @@ export const fitCommand: CommandModule<object, FitArguments> = {
     .option('perturbers', { type: 'number', describe: 'how many of the config\'s perturbers the model holds (0 = smooth) [default: all]' })
     .option('sampler', { choices: ['nested', 'ensemble'] as const, default: 'nested' as const, describe: 'nested sampling (ln Z and posterior) or ensemble MCMC (posterior only)' })
     .option('walkers', { type: 'number', describe: 'ensemble: walkers, even and >= 2 x free parameters [default: max(4, 2 x free + 2)]' })
-    .option('steps', { type: 'number', default: defaultEnsembleFitSettings.maxSteps, describe: 'ensemble: largest number of iterations' })
-    .option('target-autocorrelation-times', { type: 'number', default: defaultEnsembleFitSettings.targetAutocorrelationTimes, describe: 'ensemble: stop once the chain after burn-in is this many autocorrelation times long' })
-    .option('move', { choices: ['stretch', 'differentialEvolution'] as const, default: 'stretch' as const, describe: 'ensemble: proposal move' })
-    .option('start-from', { type: 'string', describe: 'ensemble: start the walkers from the equal-weight samples of an earlier nested fit (its folder, or a samples CSV such as an ensemble fit\'s chain.csv) [default: a small ball around the config\'s values]' })), { livePoints: fitLivePoints })
+    .option('steps', { type: 'number', default: runDefaults.ensemble.maxSteps, describe: 'ensemble: largest number of iterations' })
+    .option('target-autocorrelation-times', { type: 'number', default: runDefaults.ensemble.targetAutocorrelationTimes, describe: 'ensemble: stop once the chain after burn-in is this many autocorrelation times long' })
+    .option('move', { choices: ['stretch', 'differentialEvolution'] as const, default: runDefaults.ensemble.move, describe: 'ensemble: proposal move' })
+    .option('start-from', { type: 'string', describe: 'ensemble: start the walkers from the equal-weight samples of an earlier nested fit (its folder, or a samples CSV such as an ensemble fit\'s chain.csv) [default: a small ball around the config\'s values]' })), { livePoints: runDefaults.nested.livePoints })
     .example('$0 fit --config configs/demo.yaml --data chains/mock --perturbers 0', 'nested-sampling fit of the smooth model')
     .example('$0 fit --config configs/demo.yaml --data chains/mock --sampler ensemble --start-from chains/demo-fit --out chains/demo-mcmc', 'ensemble MCMC started from a nested fit'),
   handler: async (args) => {

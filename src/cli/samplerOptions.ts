@@ -1,17 +1,11 @@
 import type { Argv } from 'yargs';
-import { existsSync } from 'node:fs';
-import { join } from 'node:path';
 import { InputError } from '../errors.js';
 import { defaultThreadCount } from '../parallel/workerPool.js';
 import type { EvidenceSettings } from '../inference/runModelEvidence.js';
 import type { NestedMethod } from '../sampling/nested/index.js';
 import { wholeNumberOption } from './dataOptions.js';
 import { progressPrinter } from './progressPrinter.js';
-
-/** Live points each nested-sampling step replaces, in every command (the result depends on it, never on --threads). */
-export const replacementsPerStep = 2;
-/** Slice moves per new live point, per free parameter, unless a command sets its own default. */
-export const defaultSliceStepsPerParameter = 2;
+import { runDefaults } from '../settings/runDefaults.js';
 
 export interface SamplerArguments {
   threads?: number;
@@ -30,13 +24,13 @@ export interface SamplerArguments {
 export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number; sliceStepsPerParameter?: number }): Argv<T & SamplerArguments> {
   return y
     .option('threads', { type: 'number', describe: 'worker threads evaluating the likelihood [default: all cores]' })
-    .option('seed', { type: 'number', default: 1, describe: 'seed of the sampler (results do not depend on --threads)' })
+    .option('seed', { type: 'number', default: runDefaults.nested.seed, describe: 'seed of the sampler (results do not depend on --threads)' })
     .option('live-points', { type: 'number', default: defaults.livePoints, describe: 'live points of each nested-sampling run' })
-    .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: 'auto', describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters, slice otherwise)' })
-    .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? defaultSliceStepsPerParameter, describe: 'slice moves per new live point, per free parameter' })
-    .option('tolerance', { type: 'number', default: 0.1, describe: 'stop when the live points could add less than this to ln Z' })
+    .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: runDefaults.nested.method, describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters, slice otherwise)' })
+    .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? runDefaults.nested.sliceStepsPerParameter, describe: 'slice moves per new live point, per free parameter' })
+    .option('tolerance', { type: 'number', default: runDefaults.nested.lnZTolerance, describe: 'stop when the live points could add less than this to ln Z' })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
-    .option('checkpoint-seconds', { type: 'number', default: 30, describe: 'seconds between checkpoints of the sampler state' })
+    .option('checkpoint-seconds', { type: 'number', default: runDefaults.nested.checkpointSeconds, describe: 'seconds between checkpoints of the sampler state' })
     .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
     .option('quiet', { type: 'boolean', default: false, describe: 'print no progress' }) as Argv<T & SamplerArguments>;
 }
@@ -59,7 +53,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string, option
       livePoints, seed, threads, maxEvaluations,
       method: args.method as NestedMethod,
       sliceStepsPerParameter: positiveOption('slice-steps', args['slice-steps']),
-      replacementsPerStep,
+      replacementsPerStep: runDefaults.nested.replacementsPerStep,
       lnZTolerance: args.tolerance,
       resume: args.resume,
       checkpointSeconds: positiveOption('checkpoint-seconds', args['checkpoint-seconds']),
@@ -69,13 +63,3 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string, option
   };
 }
 
-/** Refuses to overwrite an unfinished run unless resuming, and a finished one in any case. */
-export function checkOutputFolder(folder: string, resume: boolean, checkpointFolders: readonly string[]): void {
-  if (existsSync(join(folder, 'summary.json')) && !resume) {
-    throw new InputError(`${folder} already holds a finished run (summary.json); choose another --out or remove it`);
-  }
-  const unfinished = checkpointFolders.some((f) => existsSync(join(folder, f, 'checkpoint.json')));
-  if (unfinished && !resume) {
-    throw new InputError(`${folder} holds an interrupted run; pass --resume to continue it, or choose another --out`);
-  }
-}

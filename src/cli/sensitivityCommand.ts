@@ -4,7 +4,7 @@ import { basename, dirname, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
-import { defaultDetectionThreshold } from '../sensitivity/minimumDetectableMass.js';
+import { runDefaults } from '../settings/runDefaults.js';
 import { runSensitivityToFolder } from '../sensitivity/runSensitivityToFolder.js';
 import { smoothBestFitFromFolder, smoothBestFitFromRun } from '../sensitivity/smoothBestFit.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
@@ -55,10 +55,10 @@ export const sensitivityCommand: CommandModule<object, SensitivityArguments> = {
     .option('config', { type: 'string', demandOption: true, describe: 'model config; its first perturber gives the kind and the mass prior range' })
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-sensitivity]' })
     .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
-    .option('grid', { type: 'number', default: 10, describe: 'N for the N x N grid over the mask\'s bounding box' })
-    .option('threshold', { type: 'number', default: defaultDetectionThreshold, describe: 'detected when Delta chi^2 / 2 reaches this (5: Delta chi^2 = 10)' })
-    .option('mass-tolerance', { type: 'number', default: 0.05, describe: 'bisection stops at this width in log10 mass (dex)' })
-    .option('best-fit', { type: 'string', describe: 'run folder whose smooth best fit to use (instead of a short nested run)' })), { livePoints: 50 })
+    .option('grid', { type: 'number', default: runDefaults.sensitivity.gridSize, describe: 'N for the N x N grid over the mask\'s bounding box' })
+    .option('threshold', { type: 'number', default: runDefaults.sensitivity.threshold, describe: 'detected when Delta chi^2 / 2 reaches this (5: Delta chi^2 = 10)' })
+    .option('mass-tolerance', { type: 'number', default: runDefaults.sensitivity.toleranceDex, describe: 'bisection stops at this width in log10 mass (dex)' })
+    .option('best-fit', { type: 'string', describe: 'run folder whose smooth best fit to use (instead of a short nested run)' })), { livePoints: runDefaults.sensitivity.livePoints })
     .example('$0 sensitivity --config configs/demo.yaml --data chains/mock --grid 8', 'an 8 x 8 sensitivity map'),
   handler: async (args) => {
     const config = loadConfig(args.config);

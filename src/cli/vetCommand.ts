@@ -4,11 +4,10 @@ import { basename, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
-import { defaultMapCandidateSettings } from '../vet/mapCandidates.js';
 import { readFlags } from '../vet/readFlags.js';
 import { runVetToFolder } from '../vet/runVetToFolder.js';
-import { defaultVetWindowArcsec, vetConcurrency } from '../vet/vetFlags.js';
-import { defaultVetThresholds } from '../vet/vetVerdict.js';
+import { vetConcurrency } from '../vet/vetFlags.js';
+import { runDefaults } from '../settings/runDefaults.js';
 import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
@@ -107,12 +106,12 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     .option('flags', { type: 'string', demandOption: true, describe: 'flag list (.csv) or probability map (.fits or .npy) aligned with the image' })
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-vet]' })
     .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
-    .option('window', { type: 'number', default: defaultVetWindowArcsec, describe: 'side of the square position prior around each flag, arcsec' })
-    .option('confirm-above', { type: 'number', default: defaultVetThresholds.confirmAboveLnB, describe: 'confirmed when ln B exceeds this' })
-    .option('disfavour-below', { type: 'number', default: defaultVetThresholds.disfavourBelowLnB, describe: 'disfavoured when ln B is below this' })
-    .option('map-threshold', { type: 'number', default: defaultMapCandidateSettings.threshold, describe: 'map: smallest peak value that makes a candidate' })
-    .option('merge-radius', { type: 'number', default: defaultMapCandidateSettings.mergeRadiusArcsec, describe: 'map: peaks closer than this (arcsec) to a higher one are merged into it' })
-    .option('map-prior', { type: 'boolean', default: false, describe: 'map: one more perturbed fit whose position prior is the map itself (its evidence then depends on the network)' })), { livePoints: 200 })
+    .option('window', { type: 'number', default: runDefaults.vet.windowArcsec, describe: 'side of the square position prior around each flag, arcsec' })
+    .option('confirm-above', { type: 'number', default: runDefaults.vet.confirmAboveLnB, describe: 'confirmed when ln B exceeds this' })
+    .option('disfavour-below', { type: 'number', default: runDefaults.vet.disfavourBelowLnB, describe: 'disfavoured when ln B is below this' })
+    .option('map-threshold', { type: 'number', default: runDefaults.vet.mapThreshold, describe: 'map: smallest peak value that makes a candidate' })
+    .option('merge-radius', { type: 'number', default: runDefaults.vet.mergeRadiusArcsec, describe: 'map: peaks closer than this (arcsec) to a higher one are merged into it' })
+    .option('map-prior', { type: 'boolean', default: false, describe: 'map: one more perturbed fit whose position prior is the map itself (its evidence then depends on the network)' })), { livePoints: runDefaults.nested.livePoints })
     .example('$0 vet --config configs/demo.yaml --data chains/mock --flags flags.csv', 'vet a list of flags'),
   handler: async (args) => {
     const config = loadConfig(args.config);

@@ -9,9 +9,8 @@ import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
-/** ln B above which the perturbed model is called favoured (Kass & Raftery 1995: 2 ln B > 2). */
-export const favouredLnBayesFactor = 1;
 
 /** The smooth-versus-perturbed comparison and its reading. */
 export interface Comparison {
@@ -92,7 +91,7 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
     lnBayesFactorError,
     reading: bayesFactorReading(lnBayesFactor),
     significance: significanceBound(lnBayesFactor),
-    perturberFavoured: lnBayesFactor > favouredLnBayesFactor,
+    perturberFavoured: lnBayesFactor > runDefaults.comparison.favouredLnBayesFactor,
     perturbers: summarisePerturbers(perturbed),
     priors: { smooth: smooth.space.describe(), perturbed: perturbed.space.describe() },
     amplitudePriorSigma: config.amplitudePriorSigma,

@@ -5,13 +5,14 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { LensSystem } from '../model/lensSystem.js';
-import { compareModels, favouredLnBayesFactor, type Comparison, type ComparisonSettings } from './compareModels.js';
+import { compareModels, type Comparison, type ComparisonSettings } from './compareModels.js';
 import { amplitudePriorText } from './amplitudePriorText.js';
 import { writeModelOutputs } from './writeModelOutputs.js';
 import { priorCaution } from '../records/cautions.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import { runProvenance } from '../records/provenance.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
 /** Plain words for each perturber's region prior. */
 export function describePositionPriors(system: LensSystem): { key: string; region: string }[] {
@@ -62,7 +63,7 @@ export async function runComparisonToFolder(
       pValueBound: finiteOrNull(comparison.significance.pValue),
       sigmaBound: finiteOrNull(comparison.significance.sigma),
       perturberFavoured: comparison.perturberFavoured,
-      favouredAbove: favouredLnBayesFactor,
+      favouredAbove: runDefaults.comparison.favouredLnBayesFactor,
     },
     perturbers: comparison.perturbers,
     priors: comparison.priors,

@@ -8,6 +8,7 @@ import {
 import type { ParameterSpace } from '../priors/parameterSpace.js';
 import { ballAroundConfiguredValues, startFromSamples, startSamplesFile } from './ensembleStart.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
 /** Settings of one ensemble-MCMC run of a lens model. */
 export interface EnsembleFitSettings {
@@ -31,12 +32,6 @@ export interface EnsembleFitSettings {
   readonly signal?: { stopRequested: boolean };
 }
 
-export const defaultEnsembleFitSettings = {
-  maxSteps: 5000,
-  targetAutocorrelationTimes: 50,
-  move: 'stretch' as EnsembleMoveOption,
-  checkpointEverySteps: 100,
-};
 
 /** One model's ensemble run and what is needed to read it. */
 export interface ModelEnsemble {
@@ -82,7 +77,7 @@ export async function runModelEnsemble(
       move: settings.move,
       targetAutocorrelationTimes: settings.targetAutocorrelationTimes,
       checkpoint: settings.checkpointPath === undefined ? undefined
-        : { path: settings.checkpointPath, everySteps: settings.checkpointEverySteps ?? defaultEnsembleFitSettings.checkpointEverySteps },
+        : { path: settings.checkpointPath, everySteps: settings.checkpointEverySteps ?? runDefaults.ensemble.checkpointEverySteps },
       resume: settings.resume,
       onProgress: settings.onProgress,
       signal: settings.signal,

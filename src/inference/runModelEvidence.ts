@@ -7,20 +7,17 @@ import { runNested, type NestedMethod, type NestedProgress, type NestedResult } 
 import type { ParameterSpace } from '../priors/parameterSpace.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { modelPriorTransform } from '../model/modelPriorTransform.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
 /** Settings of one nested-sampling run of a lens model. */
 export interface EvidenceSettings {
   readonly livePoints: number;
   readonly seed: number;
   readonly method: NestedMethod;
-  /**
-   * Live points replaced per step (2 from the command line; 6 of 25 live points lost the main
-   * mode of the demo's 13-parameter perturbed model); fixed, never tied to the thread count, so
-   * results do not depend on it.
-   */
+  /** Live points replaced per step (see runDefaults.nested.replacementsPerStep). */
   readonly replacementsPerStep: number;
   readonly lnZTolerance: number;
-  /** Slice moves per new live point, per free parameter (slice sampling); default 2. */
+  /** Slice moves per new live point, per free parameter (slice sampling; default in runDefaults). */
   readonly sliceStepsPerParameter?: number;
   /** Slice moves per new live point in all; overrides sliceStepsPerParameter when given. */
   readonly sliceSteps?: number;
@@ -35,7 +32,7 @@ export interface EvidenceSettings {
   readonly inWorker?: boolean;
   /** Checkpoint file; with `resume`, an existing one is continued. */
   readonly checkpointPath?: string;
-  /** Seconds between checkpoints (default 30). */
+  /** Seconds between checkpoints (default in runDefaults). */
   readonly checkpointSeconds?: number;
   readonly resume?: boolean;
   readonly onProgress?: (progress: NestedProgress) => void;
@@ -59,14 +56,6 @@ export interface ModelEvidence {
   /** Messages sent to worker threads (runs of points and slice chains; 0 on one thread). */
   readonly messages: number;
 }
-
-export const defaultEvidenceSettings = {
-  livePoints: 400,
-  seed: 1,
-  method: 'auto' as NestedMethod,
-  replacementsPerStep: 2,
-  lnZTolerance: 0.1,
-};
 
 /**
  * The constrained-draw method for a lens model. 'auto' takes multi-ellipsoid bounds only for a
@@ -127,13 +116,13 @@ export async function runModelEvidence(
         seed: settings.seed,
         method: lensModelMethod(settings.method, space.dim, perturberCount),
         slice: {
-          steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? 2) * space.dim)),
+          steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? runDefaults.nested.sliceStepsPerParameter) * space.dim)),
           pointsPerChain: settings.slicePointsPerChain,
         },
         replacementsPerStep: settings.replacementsPerStep,
         lnZTolerance: settings.lnZTolerance,
         maxEvaluations: settings.maxEvaluations,
-        checkpoint: settings.checkpointPath === undefined ? undefined : { path: settings.checkpointPath, everySeconds: settings.checkpointSeconds ?? 30 },
+        checkpoint: settings.checkpointPath === undefined ? undefined : { path: settings.checkpointPath, everySeconds: settings.checkpointSeconds ?? runDefaults.nested.checkpointSeconds },
         resume: settings.resume,
         onProgress: settings.onProgress,
         signal: settings.signal,

@@ -1,10 +1,10 @@
 // Detection-sensitivity maps: the smallest perturber mass the data would detect, over a grid of positions.
 export { LinearAmplitudeChiSquare } from './linearAmplitudeChiSquare.js';
 export {
-  defaultRefitSettings, PlantedPerturberStatistic, type SmoothBestFit,
+  refitDefaults, PlantedPerturberStatistic, type SmoothBestFit,
 } from './plantedPerturberStatistic.js';
 export {
-  defaultDetectionThreshold, minimumDetectableMass, type DetectableMassSearch, type MinimumDetectableMass,
+  minimumDetectableMass, type DetectableMassSearch, type MinimumDetectableMass,
 } from './minimumDetectableMass.js';
 export { nearestGridIndex, sensitivityGrid, type SensitivityGrid, type SensitivityPoint } from './sensitivityGrid.js';
 export { searchOf, type SensitivityAnswer, type SensitivityTask } from './sensitivityTask.js';

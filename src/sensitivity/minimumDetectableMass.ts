@@ -13,13 +13,12 @@ export interface DetectableMassSearch {
   /** log10 mass range searched (the perturber's mass prior). */
   readonly lower: number;
   readonly upper: number;
-  /** Detected when Delta chi^2 / 2 >= this (default 5, i.e. Delta chi^2 >= 10). */
+  /** Detected when Delta chi^2 / 2 >= this (runDefaults.sensitivity.threshold by default). */
   readonly threshold: number;
   /** Stop when the bracket is narrower than this, dex. */
   readonly toleranceDex: number;
 }
 
-export const defaultDetectionThreshold = 5;
 
 /**
  * The smallest log10 mass at which Delta chi^2 / 2 reaches the threshold, by bisection in log10

@@ -9,8 +9,8 @@ import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { LinearAmplitudeChiSquare } from './linearAmplitudeChiSquare.js';
 import { nelderMead } from '../numeric/optimisation/nelderMead.js';
 import type { RefitSettings } from '../records/sensitivitySummary.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
-export const defaultRefitSettings: RefitSettings = { stepFraction: 0.01, maxEvaluations: 400, chiSquareTolerance: 1e-3 };
 
 /** What a sensitivity computation starts from: the smooth model's best fit. */
 export interface SmoothBestFit {
@@ -48,7 +48,7 @@ export class PlantedPerturberStatistic {
   private readonly yIndex: number;
   private readonly refit: RefitSettings;
 
-  constructor(config: ArcsiftConfig, data: ObservedData, bestFit: SmoothBestFit, refit: RefitSettings = defaultRefitSettings) {
+  constructor(config: ArcsiftConfig, data: ObservedData, bestFit: SmoothBestFit, refit: RefitSettings = refitDefaults()) {
     const perturber = firstPerturber(config);
     this.smooth = new PixelLikelihood(config, data, 0);
     const single = { ...config, perturbers: [{ ...perturber, positionPrior: undefined }] };
@@ -152,4 +152,10 @@ export class PlantedPerturberStatistic {
     }
     return { deltaChiSquare: best, evaluations };
   }
+}
+
+/** The refit settings of runDefaults.sensitivity. */
+export function refitDefaults(): RefitSettings {
+  const d = runDefaults.sensitivity;
+  return { stepFraction: d.refitStepFraction, maxEvaluations: d.refitMaxEvaluations, chiSquareTolerance: d.refitChiSquareTolerance };
 }

@@ -7,20 +7,20 @@ import { gridCards } from '../simulate/simulateToFolder.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { computeSensitivity } from './computeSensitivity.js';
 import { massDecadeFractions } from './massDecadeFractions.js';
-import { defaultDetectionThreshold } from './minimumDetectableMass.js';
-import { defaultRefitSettings, PlantedPerturberStatistic } from './plantedPerturberStatistic.js';
+import { PlantedPerturberStatistic, refitDefaults } from './plantedPerturberStatistic.js';
 import { nearestGridIndex, sensitivityGrid } from './sensitivityGrid.js';
 import type { SmoothBestFitSource } from './smoothBestFit.js';
 import { sensitivityApproximation } from '../records/cautions.js';
 import type { DetectableMassLimit, MassDecadeFraction, RefitSettings, SensitivityRecord, SensitivitySummary } from '../records/sensitivitySummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
 export interface SensitivitySettings {
-  /** n for the n x n grid over the mask's bounding box (default 10). */
+  /** n for the n x n grid over the mask's bounding box. */
   readonly gridSize: number;
-  /** Detected when Delta chi^2 / 2 >= this (default 5: Delta chi^2 = 10). */
+  /** Detected when Delta chi^2 / 2 >= this (default in runDefaults). */
   readonly threshold?: number;
-  /** Bisection stops when the bracket is narrower than this, dex (default 0.05). */
+  /** Bisection stops when the bracket is narrower than this, dex (default in runDefaults). */
   readonly toleranceDex?: number;
   readonly refit?: RefitSettings;
   readonly threads: number;
@@ -46,9 +46,9 @@ export async function runSensitivityToFolder(
 ): Promise<SensitivitySummary> {
   const started = performance.now();
   const perturber = firstPerturber(config);
-  const threshold = settings.threshold ?? defaultDetectionThreshold;
-  const toleranceDex = settings.toleranceDex ?? 0.05;
-  const refit = settings.refit ?? defaultRefitSettings;
+  const threshold = settings.threshold ?? runDefaults.sensitivity.threshold;
+  const toleranceDex = settings.toleranceDex ?? runDefaults.sensitivity.toleranceDex;
+  const refit = settings.refit ?? refitDefaults();
   const grid = sensitivityGrid(data, settings.gridSize);
   const task = { config, data, bestFit: settings.bestFit, refit, threshold, toleranceDex };
   // Built here once to check the config (mass prior) before any thread starts, and for the names.

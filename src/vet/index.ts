@@ -4,14 +4,14 @@ export {
 } from './flagCandidate.js';
 export { FLAG_LIST_COLUMNS, readFlagList } from './readFlagList.js';
 export { isProbabilityMapFile, readProbabilityMap, type ProbabilityMap } from './readProbabilityMap.js';
-export { defaultMapCandidateSettings, mapCandidates, type MapCandidateSettings } from './mapCandidates.js';
+export { mapCandidates, type MapCandidateSettings } from './mapCandidates.js';
 export { readFlags, type FlagSet } from './readFlags.js';
 export { MapPositionPrior } from './mapPositionPrior.js';
 export { firstPerturber, perturberPositionConfig, windowAround } from './perturberPositionConfig.js';
-export { defaultVetThresholds, vetVerdict } from './vetVerdict.js';
+export { vetVerdict } from './vetVerdict.js';
 export { runMapPriorEvidence } from './runMapPriorEvidence.js';
 export {
-  defaultVetWindowArcsec, vetFlags, type CandidateVetting, type PerturbedVetting, type VetResult, type VetSettings,
+  vetFlags, type CandidateVetting, type PerturbedVetting, type VetResult, type VetSettings,
 } from './vetFlags.js';
 export { runVetToFolder } from './runVetToFolder.js';
 export { formatVetCsv, VET_CSV_COLUMNS } from './formatVetCsv.js';

@@ -12,7 +12,6 @@ export interface MapCandidateSettings {
   readonly requireCandidates?: boolean;
 }
 
-export const defaultMapCandidateSettings: MapCandidateSettings = { threshold: 0.5, mergeRadiusArcsec: 0.15 };
 
 /**
  * Candidates from a probability map: the pixels inside the mask whose value is at least the

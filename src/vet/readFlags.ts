@@ -1,7 +1,8 @@
 import { pixelOfPosition, type FlagCandidate, type FlagGrid } from './flagCandidate.js';
-import { defaultMapCandidateSettings, mapCandidates, type MapCandidateSettings } from './mapCandidates.js';
+import { mapCandidates, type MapCandidateSettings } from './mapCandidates.js';
 import { readFlagList } from './readFlagList.js';
 import { isProbabilityMapFile, readProbabilityMap, type ProbabilityMap } from './readProbabilityMap.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
 /** The flags of one file: a list, or a probability map and the candidates found in it. */
 export interface FlagSet {
@@ -21,7 +22,7 @@ export interface FlagSet {
  * image (readProbabilityMap, then mapCandidates), chosen by the file's extension.
  */
 export function readFlags(
-  file: string, data: FlagGrid & { readonly mask: Uint8Array }, mapSettings: MapCandidateSettings = defaultMapCandidateSettings,
+  file: string, data: FlagGrid & { readonly mask: Uint8Array }, mapSettings: MapCandidateSettings = { threshold: runDefaults.vet.mapThreshold, mergeRadiusArcsec: runDefaults.vet.mergeRadiusArcsec },
 ): FlagSet {
   const notices: string[] = [];
   if (isProbabilityMapFile(file)) {

@@ -8,9 +8,10 @@ import { MapPositionPrior } from './mapPositionPrior.js';
 import { firstPerturber, perturberPositionConfig, windowAround } from './perturberPositionConfig.js';
 import type { ProbabilityMap } from './readProbabilityMap.js';
 import { runMapPriorEvidence } from './runMapPriorEvidence.js';
-import { defaultVetThresholds, vetVerdict } from './vetVerdict.js';
+import { vetVerdict } from './vetVerdict.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
 import type { VetThresholds, VetVerdict } from '../records/vetSummary.js';
+import { runDefaults } from '../settings/runDefaults.js';
 
 /** Settings of a vetting run. */
 export interface VetSettings {
@@ -28,7 +29,6 @@ export interface VetSettings {
   readonly onRunStart?: (label: string) => void;
 }
 
-export const defaultVetWindowArcsec = 0.4;
 
 /** One perturbed fit and its reading against the smooth model. */
 export interface PerturbedVetting {
@@ -112,9 +112,9 @@ export async function vetFlags(
   config: ArcsiftConfig, data: ObservedData, candidates: readonly FlagCandidate[], settings: VetSettings,
 ): Promise<VetResult> {
   firstPerturber(config);
-  const windowArcsec = settings.windowArcsec ?? defaultVetWindowArcsec;
+  const windowArcsec = settings.windowArcsec ?? runDefaults.vet.windowArcsec;
   if (!(windowArcsec > 0) || !Number.isFinite(windowArcsec)) throw new InputError(`--window: ${expectedFound('a positive size in arcsec', windowArcsec)}`);
-  const thresholds = settings.thresholds ?? defaultVetThresholds;
+  const thresholds = settings.thresholds ?? { confirmAboveLnB: runDefaults.vet.confirmAboveLnB, disfavourBelowLnB: runDefaults.vet.disfavourBelowLnB };
   if (!(thresholds.disfavourBelowLnB <= thresholds.confirmAboveLnB)) {
     throw new InputError(
       `verdict thresholds: expected --disfavour-below (${thresholds.disfavourBelowLnB}) <= --confirm-above (${thresholds.confirmAboveLnB})`,

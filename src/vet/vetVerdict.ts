@@ -1,7 +1,6 @@
 import type { VetThresholds, VetVerdict } from '../records/vetSummary.js';
 
 
-export const defaultVetThresholds: VetThresholds = { confirmAboveLnB: 3, disfavourBelowLnB: -1 };
 
 /** The verdict of ln B = ln Z_perturbed - ln Z_smooth against the thresholds. */
 export function vetVerdict(lnBayesFactor: number, thresholds: VetThresholds): VetVerdict {

@@ -64,7 +64,7 @@ export interface NestedCheckpointOptions {
 }
 
 export interface NestedOptions {
-  /** number of live points N; default 25 * dim within [100, 1000]. */
+  /** number of live points N; default runDefaults.nested.livePoints. */
   readonly livePoints?: number;
   /** integer in [1, 2^32 - 1]; default 1. */
   readonly seed?: number;

@@ -23,6 +23,7 @@ import { sliceChainSeeds, sliceChains, type SliceChainRequest, type SliceSetting
 import { chainStartSlots, EarlyChains, nextStepChains } from './earlyChains.js';
 import { BatchEvaluator } from './batchEvaluator.js';
 import { lowestSlots } from './lowestSlots.js';
+import { runDefaults } from '../../settings/runDefaults.js';
 
 /**
  * 'auto' uses ellipsoids up to this many dimensions and slice sampling above. From
@@ -136,7 +137,7 @@ function positiveInteger(value: number | undefined, fallback: number, key: strin
 function resolveSettings(problem: NestedProblem, options: NestedOptions): NestedSettings {
   const dim = positiveInteger(problem.dim, 0, 'problem.dim');
   const physicalDim = positiveInteger(problem.physicalDim, 0, 'problem.physicalDim');
-  const livePoints = positiveInteger(options.livePoints, Math.min(1000, Math.max(100, 25 * dim)), 'livePoints', 2);
+  const livePoints = positiveInteger(options.livePoints, runDefaults.nested.livePoints, 'livePoints', 2);
   const seed = positiveInteger(options.seed, 1, 'seed');
   if (seed > 0xffffffff) throw new InputError(`nested sampling seed: ${expectedFound('an integer from 1 to 4294967295', seed)}`);
   const replacementsPerStep = positiveInteger(options.replacementsPerStep, 1, 'replacementsPerStep');

@@ -1,0 +1,149 @@
+import { InputError, expectedFound } from '../errors.js';
+
+/**
+ * Every default of an arcsift run, in one frozen object: the commands, the demo, the benchmarks
+ * and the library read them here (and settleRunSettings validates a caller's overrides of them),
+ * so a number is changed in one place.
+ */
+export interface RunSettings {
+  /** Nested sampling of `fit`, `compare` and `vet` (and of a lens model through the library). */
+  readonly nested: {
+    readonly livePoints: number;
+    readonly seed: number;
+    /** 'auto' (multi-ellipsoid bounds for small smooth models, slice sampling otherwise), 'ellipsoids' or 'slice'. */
+    readonly method: 'auto' | 'ellipsoids' | 'slice';
+    /**
+     * Live points replaced per step: fixed, never tied to the thread count, so results do not
+     * depend on it (6 of 25 lost the main mode of the demo's 13-parameter perturbed model).
+     */
+    readonly replacementsPerStep: number;
+    /** Slice moves per new live point, per free parameter. */
+    readonly sliceStepsPerParameter: number;
+    /** Stop when the live points could add less than this to ln Z. */
+    readonly lnZTolerance: number;
+    readonly checkpointSeconds: number;
+  };
+  /** The demo's quick settings (its ln Z errors are about 1; see README). */
+  readonly demo: {
+    readonly livePoints: number;
+    readonly sliceStepsPerParameter: number;
+    readonly noiseSeed: number;
+  };
+  /** Ensemble MCMC of `fit --sampler ensemble`. */
+  readonly ensemble: {
+    readonly maxSteps: number;
+    /** Stop once the chain after burn-in is this many autocorrelation times long. */
+    readonly targetAutocorrelationTimes: number;
+    readonly move: 'stretch' | 'differentialEvolution';
+    readonly checkpointEverySteps: number;
+  };
+  /** Vetting of network flags. */
+  readonly vet: {
+    /** Side of the square position prior around each flag, arcsec. */
+    readonly windowArcsec: number;
+    readonly confirmAboveLnB: number;
+    readonly disfavourBelowLnB: number;
+    /** Smallest map value that makes a candidate. */
+    readonly mapThreshold: number;
+    /** Map peaks closer than this (arcsec) to a higher one are merged into it. */
+    readonly mergeRadiusArcsec: number;
+  };
+  /** Sensitivity maps. */
+  readonly sensitivity: {
+    /** Live points of the short nested run that finds the smooth best fit. */
+    readonly livePoints: number;
+    readonly gridSize: number;
+    /** Detected when Delta chi^2 / 2 reaches this (5: Delta chi^2 = 10). */
+    readonly threshold: number;
+    /** Bisection in log10 mass stops at this width, dex. */
+    readonly toleranceDex: number;
+    /** Local Nelder-Mead refit of the smooth model: initial step as a fraction of each prior's width, evaluations, stop. */
+    readonly refitStepFraction: number;
+    readonly refitMaxEvaluations: number;
+    readonly refitChiSquareTolerance: number;
+  };
+  /** The comparison's plain-words reading: the perturber is favoured above this ln B. */
+  readonly comparison: {
+    readonly favouredLnBayesFactor: number;
+  };
+}
+
+type Section = keyof RunSettings;
+
+function deepFreeze<T extends object>(value: T): T {
+  for (const inner of Object.values(value)) if (typeof inner === 'object' && inner !== null) deepFreeze(inner);
+  return Object.freeze(value);
+}
+
+export const runDefaults: RunSettings = deepFreeze({
+  nested: {
+    livePoints: 200, seed: 1, method: 'auto', replacementsPerStep: 2, sliceStepsPerParameter: 2, lnZTolerance: 0.1,
+    checkpointSeconds: 30,
+  },
+  demo: { livePoints: 50, sliceStepsPerParameter: 1, noiseSeed: 1 },
+  ensemble: { maxSteps: 5000, targetAutocorrelationTimes: 50, move: 'stretch', checkpointEverySteps: 100 },
+  vet: { windowArcsec: 0.4, confirmAboveLnB: 3, disfavourBelowLnB: -1, mapThreshold: 0.5, mergeRadiusArcsec: 0.15 },
+  sensitivity: {
+    livePoints: 50, gridSize: 10, threshold: 5, toleranceDex: 0.05,
+    refitStepFraction: 0.01, refitMaxEvaluations: 400, refitChiSquareTolerance: 1e-3,
+  },
+  comparison: { favouredLnBayesFactor: 1 },
+} satisfies RunSettings);
+
+/** What each setting may hold: a whole number of at least `min`, a number above or at least `min`, or one of `choices`. */
+type Rule = { readonly whole: number } | { readonly above: number } | { readonly atLeast: number } | { readonly any: true } | { readonly choices: readonly string[] };
+
+const rules: { readonly [S in Section]: { readonly [K in keyof RunSettings[S]]: Rule } } = {
+  nested: {
+    livePoints: { whole: 2 }, seed: { whole: 1 }, method: { choices: ['auto', 'ellipsoids', 'slice'] },
+    replacementsPerStep: { whole: 1 }, sliceStepsPerParameter: { above: 0 }, lnZTolerance: { above: 0 }, checkpointSeconds: { above: 0 },
+  },
+  demo: { livePoints: { whole: 2 }, sliceStepsPerParameter: { above: 0 }, noiseSeed: { whole: 1 } },
+  ensemble: {
+    maxSteps: { whole: 1 }, targetAutocorrelationTimes: { above: 0 }, move: { choices: ['stretch', 'differentialEvolution'] },
+    checkpointEverySteps: { whole: 1 },
+  },
+  vet: { windowArcsec: { above: 0 }, confirmAboveLnB: { any: true }, disfavourBelowLnB: { any: true }, mapThreshold: { above: 0 }, mergeRadiusArcsec: { atLeast: 0 } },
+  sensitivity: {
+    livePoints: { whole: 2 }, gridSize: { whole: 1 }, threshold: { above: 0 }, toleranceDex: { above: 0 },
+    refitStepFraction: { above: 0 }, refitMaxEvaluations: { whole: 1 }, refitChiSquareTolerance: { above: 0 },
+  },
+  comparison: { favouredLnBayesFactor: { any: true } },
+};
+
+/** Overrides of some settings of some sections. */
+export type RunSettingsOverrides = { readonly [S in Section]?: Partial<RunSettings[S]> };
+
+/** Why a value breaks its rule, or undefined when it keeps it. */
+function broken(value: unknown, rule: Rule): string | undefined {
+  if ('choices' in rule) return rule.choices.includes(value as string) ? undefined : `one of ${rule.choices.join(', ')}`;
+  if (typeof value !== 'number' || !Number.isFinite(value)) return 'a finite number';
+  if ('whole' in rule) return Number.isInteger(value) && value >= rule.whole ? undefined : `a whole number >= ${rule.whole}`;
+  if ('above' in rule) return value > rule.above ? undefined : `a number > ${rule.above}`;
+  if ('atLeast' in rule) return value >= rule.atLeast ? undefined : `a number >= ${rule.atLeast}`;
+  return undefined;
+}
+
+/**
+ * The defaults with a caller's overrides, each checked against its rule (a whole number, a
+ * positive number, one of a list), frozen. A bad or unknown setting is an InputError naming it
+ * as `section.name`.
+ */
+export function settleRunSettings(overrides: RunSettingsOverrides = {}): RunSettings {
+  const settled: Record<string, Record<string, unknown>> = {};
+  for (const section of Object.keys(runDefaults) as Section[]) {
+    const given = (overrides[section] ?? {}) as Record<string, unknown>;
+    const sectionRules = rules[section] as Record<string, Rule>;
+    for (const name of Object.keys(given)) {
+      if (!(name in sectionRules)) {
+        throw new InputError(`no such setting (known: ${Object.keys(sectionRules).join(', ')})`, { key: `${section}.${name}` });
+      }
+      if (given[name] === undefined) continue;
+      const expected = broken(given[name], sectionRules[name]);
+      if (expected !== undefined) throw new InputError(expectedFound(expected, given[name]), { key: `${section}.${name}` });
+    }
+    const defined = Object.fromEntries(Object.entries(given).filter(([, v]) => v !== undefined));
+    settled[section] = { ...runDefaults[section], ...defined };
+  }
+  return deepFreeze(settled as unknown as RunSettings);
+}
