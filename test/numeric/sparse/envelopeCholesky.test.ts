@@ -186,6 +186,21 @@ describe('EnvelopeCholesky', () => {
     }
   });
 
+  it('keeps its buffers once they have grown: a smaller call after a larger one allocates none', () => {
+    // The typed arrays a kernel exposes are the same objects before and after a smaller call,
+    // so the steady state of a likelihood (sizes varying below the largest) does not allocate.
+    const cases = spdCases();
+    const kernel = newKernel();
+    factorCase(kernel, cases[7], uniformStream(1));
+    const matrix = kernel.accumulator.compress();
+    const before = [kernel.cholesky.lower, kernel.cholesky.first, kernel.cholesky.rowStart, kernel.cholesky.order, matrix.column, matrix.value, matrix.rowStart];
+    for (const c of [cases[4], cases[2], cases[8]]) {
+      const { matrix: m } = factorCase(kernel, c, uniformStream(2));
+      const after = [kernel.cholesky.lower, kernel.cholesky.first, kernel.cholesky.rowStart, kernel.cholesky.order, m.column, m.value, m.rowStart];
+      after.forEach((buffer, t) => expect(buffer === before[t], `${c.name}: buffer ${t}`).toBe(true));
+    }
+  });
+
   it('handles an empty matrix: ln det 0', () => {
     const accumulator = new SymmetricSparseAccumulator();
     accumulator.reset(0);
