@@ -1,0 +1,6 @@
+// Sparse symmetric positive-definite kernel: accumulate, order, factor, solve, inverse diagonal.
+export { type SymmetricCsr, storedEntries } from './symmetricCsr.js';
+export { SymmetricSparseAccumulator } from './symmetricSparseAccumulator.js';
+export { ReverseCuthillMcKee } from './reverseCuthillMcKee.js';
+export { EnvelopeCholesky } from './envelopeCholesky.js';
+export { envelopeInverseDiagonal } from './envelopeInverseDiagonal.js';
