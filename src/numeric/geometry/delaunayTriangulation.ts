@@ -9,8 +9,8 @@ const NO_HALFEDGES = new Int32Array(0);
  * source grid's vertices move with the lens model). The triangulation itself is delaunator's
  * (sweep-hull insertion with Delaunay edge flips); for a point count equal to the last one its
  * buffers are reused through `Delaunator.update()`, so a rebuild allocates only delaunator's
- * small hull array. A failed rebuild leaves no triangles and a status saying why; queries on it
- * report every point outside.
+ * small hull array, two typed-array views and its circumcentre object. A failed rebuild leaves
+ * no triangles and a status saying why; queries on it report every point outside.
  *
  * Layout (delaunator's): triangle t has vertices triangles[3t], [3t+1], [3t+2], clockwise with
  * the y axis up (delaunator's "counter-clockwise" takes y pointing down); half-edge e runs from

@@ -80,6 +80,43 @@ describe('barycentricWeights', () => {
     });
   }
 
+  it('finds points on vertices and edges of an exact square grid inside, with weights that reproduce x and y', () => {
+    // A raster at a quarter of the grid spacing lands on vertices, on grid lines (shared edges)
+    // and on cell diagonals: inside the hull, each must be found (common practice) with weights
+    // in [-100 eps, 1 + 100 eps] that give back its position within rounding.
+    const [m, s] = [12, 0.25];
+    const x = new Float64Array(m * m);
+    const y = new Float64Array(m * m);
+    for (let k = 0; k < m * m; k++) {
+      x[k] = (k % m) * s;
+      y[k] = Math.floor(k / m) * s;
+    }
+    const triangulation = new DelaunayTriangulation();
+    triangulation.rebuild(x, y);
+    const side = 4 * (m - 1) + 1;
+    const n = side * side;
+    const qx = Float64Array.from({ length: n }, (_, k) => (k % side) * (s / 4));
+    const qy = Float64Array.from({ length: n }, (_, k) => Math.floor(k / side) * (s / 4));
+    const vertices = new Int32Array(3 * n);
+    const weights = new Float64Array(3 * n);
+    expect(barycentricWeights(triangulation, qx, qy, n, vertices, weights)).toBe(0);
+    expect(triangulation.walkFallbacks).toBe(0);
+    for (let q = 0; q < n; q++) {
+      let px = 0;
+      let py = 0;
+      for (let k = 0; k < 3; k++) {
+        const w = weights[3 * q + k];
+        expect(w).toBeGreaterThanOrEqual(-100 * EPS);
+        expect(w).toBeLessThanOrEqual(1 + 100 * EPS);
+        px += w * x[vertices[3 * q + k]];
+        py += w * y[vertices[3 * q + k]];
+      }
+      // Coordinates up to 2.75, exact in binary: the rounding of the solve and of the sums.
+      expect(Math.abs(px - qx[q])).toBeLessThanOrEqual(16 * EPS * 2.75);
+      expect(Math.abs(py - qy[q])).toBeLessThanOrEqual(16 * EPS * 2.75);
+    }
+  });
+
   it('gives each point the same answer in any query order (the hint only speeds the search)', () => {
     const c = delaunayCases[2];
     const triangulation = triangulate(c);

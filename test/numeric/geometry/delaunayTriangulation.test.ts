@@ -61,6 +61,23 @@ describe('DelaunayTriangulation', () => {
     }
   });
 
+  it('triangulates an exact square grid (four points on every circle, collinear hull points)', () => {
+    // Not unique, so no scipy comparison: any Delaunay triangulation of an m x m grid of
+    // spacing s cuts each of its (m - 1)^2 squares into two triangles of area s^2 / 2.
+    const [m, s] = [30, 0.03];
+    const x = new Float64Array(m * m);
+    const y = new Float64Array(m * m);
+    for (let k = 0; k < m * m; k++) {
+      x[k] = 0.7 + (k % m) * s;
+      y[k] = -0.3 + Math.floor(k / m) * s;
+    }
+    const triangulation = new DelaunayTriangulation();
+    expect(triangulation.rebuild(x, y)).toBe(TriangulationStatus.ok);
+    expect(triangulation.triangleCount).toBe(2 * (m - 1) ** 2);
+    // Coordinates carry rounding of about eps * 1.6, so areas within 1e-15 of 4.5e-4.
+    for (let t = 0; t < triangulation.triangleCount; t++) expect(Math.abs(triangulation.triangleAreas[t] - (s * s) / 2)).toBeLessThan(1e-15);
+  });
+
   it('reads only the first `count` vertices and refuses a count beyond the arrays', () => {
     const c = delaunayCases[0];
     const triangulation = new DelaunayTriangulation();
