@@ -1,4 +1,4 @@
-import { isothermalEllipsoid } from '../lens/isothermalEllipsoid.js';
+import { isothermalEllipsoid } from '../lens/isothermalEllipsoid/isothermalEllipsoid.js';
 import {
   barycentricWeights,
   DelaunayTriangulation,

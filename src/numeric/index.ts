@@ -15,3 +15,6 @@ export { weightsFromLogWeights } from './statistics/weightsFromLogWeights.js';
 export { standardNormalQuantile, upperTail, logUpperTail, upperTailQuantileFromLog } from './special/standardNormal.js';
 export { nelderMead, type NelderMeadOptions, type NelderMeadResult } from './optimisation/nelderMead.js';
 export { contourRegion, binCentres, type ContourRegion, type GridValues } from './contour/contourRegion.js';
+export * from './sparse/index.js';
+export * from './geometry/index.js';
+export { weightedNormalEquations } from './linearAlgebra/weightedNormalEquations.js';
