@@ -6,7 +6,8 @@
 import { eggBoxLnEvidence, eggBoxProblem } from '../sampling/nested/problems/eggBox.js';
 import { gaussianShellsLnEvidence, gaussianShellsProblem } from '../sampling/nested/problems/gaussianShells.js';
 import { twistedGaussianLnEvidence, twistedGaussianProblem } from '../sampling/nested/problems/twistedGaussian.js';
-import { autoEllipsoidMaxDim, runNested } from '../sampling/nested/runNested.js';
+import { autoEllipsoidMaxDim } from '../sampling/nested/nestedSettings.js';
+import { runNested } from '../sampling/nested/runNested.js';
 import type { NestedProblem } from '../sampling/nested/nestedProblem.js';
 import { benchOption } from './benchOptions.js';
 

@@ -4,7 +4,7 @@ import { BatchOccupancy } from './batchOccupancy.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
 import { defaultThreadCount, WorkerPool } from './workerPool.js';
 import { workerScriptUrl } from './workerScriptUrl.js';
-import type { SliceChainRequest, SliceChainResult } from '../sampling/nested/sliceSampler.js';
+import type { SliceChainRequest, SliceChainResult } from '../sampling/nested/sliceChain.js';
 
 /** A worker's answer: the ln L of a run of points, where a slice chain ended, or that it was stopped. */
 export type WorkerReply = { readonly values: Float64Array } | { readonly chain: SliceChainResult } | { readonly stopped: true };

@@ -3,7 +3,7 @@ import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { modelPriorTransform } from '../model/modelPriorTransform.js';
 import { BatchEvaluator } from '../sampling/nested/batchEvaluator.js';
-import { runSliceChain, type SliceChainRequest } from '../sampling/nested/sliceSampler.js';
+import { runSliceChain, type SliceChainRequest } from '../sampling/nested/sliceChain.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
 
 // One worker thread: builds the PixelLikelihood of each model it is given, then answers runs of

@@ -1,6 +1,6 @@
 import { lowestSlots } from './lowestSlots.js';
 import { SeededStream } from '../../numeric/random/seededStream.js';
-import { sliceChainSeeds, type SliceChainRequest, type SliceChainResult, type SliceSettings } from './sliceSampler.js';
+import { sliceChainSeeds, type SliceChainRequest, type SliceChainResult, type SliceSettings } from './sliceChain.js';
 
 /**
  * Slots of the start points of k slice chains: the surviving live points (finite ln L) in slot

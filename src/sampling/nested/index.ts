@@ -1,5 +1,7 @@
 // Nested sampling on the unit hypercube: the public surface of src/sampling/nested/.
-export { runNested, autoEllipsoidMaxDim, defaultEnlargement, shrinkageSimulations } from './runNested.js';
+export { runNested } from './runNested.js';
+export { autoEllipsoidMaxDim, defaultEnlargement } from './nestedSettings.js';
+export { shrinkageSimulations } from './nestedResult.js';
 export type {
   NestedProblem,
   NestedOptions,
@@ -19,8 +21,8 @@ export { boundingEllipsoid, lnUnitBallVolume, sampleInEllipsoid, mahalanobisSqua
 export type { Ellipsoid } from './ellipsoid.js';
 export { buildEllipsoidUnion, sampleFromUnion } from './multiEllipsoid.js';
 export type { EllipsoidUnion, EllipsoidUnionSettings } from './multiEllipsoid.js';
-export { sliceChains } from './sliceSampler.js';
-export type { SliceSettings, UnitBatchEvaluator } from './sliceSampler.js';
+export { sliceChains, type SliceChainsJob, type ChainPoints } from './sliceChains.js';
+export { runSliceChain, sliceChainSeeds, type SliceSettings, type UnitBatchEvaluator, type SliceChainRequest, type SliceChainResult } from './sliceChain.js';
 export { checkpointFormat, checkpointVersion } from './checkpoint.js';
 export { gaussianShellsProblem, gaussianShellsLnEvidence } from './problems/gaussianShells.js';
 export { eggBoxProblem, eggBoxLnEvidence } from './problems/eggBox.js';

@@ -1,5 +1,5 @@
 import type { InsertionRankCheck } from './insertionRank.js';
-import type { SliceChainRequest, SliceChainResult } from './sliceSampler.js';
+import type { SliceChainRequest, SliceChainResult } from './sliceChain.js';
 
 /**
  * A problem for the nested sampler, posed on the unit hypercube [0, 1]^dim: `transform` maps a

@@ -3,7 +3,7 @@ import { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from '../../../src/
 import type { NestedProblem } from '../../../src/sampling/nested/nestedProblem.js';
 import { runNested } from '../../../src/sampling/nested/runNested.js';
 import { SeededStream } from '../../../src/numeric/random/seededStream.js';
-import { sliceChains } from '../../../src/sampling/nested/sliceSampler.js';
+import { sliceChains } from '../../../src/sampling/nested/sliceChains.js';
 
 // Slice sampling leaves the uniform law on the slice invariant (Neal 2003, Section 4), so chains
 // started from exact uniform draws on the slice end uniform after any number of moves; a kernel
@@ -34,11 +34,14 @@ async function runChains(
   for (let i = 0; i < dim; i++) whitening[i * dim + i] = 1;
   const end = new Float64Array(chains * dim);
   let rounds = 0;
-  const evaluations = await sliceChains(
-    chains, start, start.slice(), new Float64Array(chains).fill(1), 0, whitening,
-    { dim, physicalDim: dim, steps, periodic: null, widthScale, maxExpansions: 100, pointsPerChain },
-    stream,
-    async (unit, count, physicalOut) => {
+  const evaluations = await sliceChains({
+    chains,
+    start: { unit: start, physical: start.slice(), lnL: new Float64Array(chains).fill(1) },
+    threshold: 0,
+    whitening,
+    settings: { dim, physicalDim: dim, steps, periodic: null, widthScale, maxExpansions: 100, pointsPerChain },
+    seeds: stream,
+    evaluate: async (unit, count, physicalOut) => {
       rounds++;
       const lnL = new Float64Array(count);
       for (let n = 0; n < count; n++) {
@@ -48,8 +51,8 @@ async function runChains(
       }
       return lnL;
     },
-    end, new Float64Array(chains * dim), new Float64Array(chains),
-  );
+    out: { unit: end, physical: new Float64Array(chains * dim), lnL: new Float64Array(chains) },
+  });
   return { start, end, evaluations, rounds };
 }
 

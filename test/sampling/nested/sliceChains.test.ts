@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { SeededStream } from '../../../src/numeric/random/seededStream.js';
-import { sliceChains } from '../../../src/sampling/nested/sliceSampler.js';
+import { sliceChains } from '../../../src/sampling/nested/sliceChains.js';
 
 // The slice {ln L > 0} is the band u in [0.95, 1) U [0, 0.05) across the seam of a periodic
 // coordinate. From u = 0.99, a chain that wraps reaches both halves, and after 5 slice moves its
@@ -14,16 +14,14 @@ async function finalPositions(periodic: boolean): Promise<Float64Array> {
   const outUnit = new Float64Array(chains);
   let evaluated = 0;
   let outsideCube = 0;
-  const evaluations = await sliceChains(
+  const evaluations = await sliceChains({
     chains,
-    start,
-    start.slice(),
-    new Float64Array(chains).fill(1),
-    0,
-    Float64Array.of(0.03),
-    { dim: 1, physicalDim: 1, steps: 5, periodic: periodic ? Uint8Array.of(1) : null, widthScale: Math.sqrt(3), maxExpansions: 100 },
-    SeededStream.fromSeed(13),
-    async (unit, count, physicalOut) => {
+    start: { unit: start, physical: start.slice(), lnL: new Float64Array(chains).fill(1) },
+    threshold: 0,
+    whitening: Float64Array.of(0.03),
+    settings: { dim: 1, physicalDim: 1, steps: 5, periodic: periodic ? Uint8Array.of(1) : null, widthScale: Math.sqrt(3), maxExpansions: 100 },
+    seeds: SeededStream.fromSeed(13),
+    evaluate: async (unit, count, physicalOut) => {
       evaluated += count;
       const lnL = new Float64Array(count);
       for (let i = 0; i < count; i++) {
@@ -33,10 +31,8 @@ async function finalPositions(periodic: boolean): Promise<Float64Array> {
       }
       return lnL;
     },
-    outUnit,
-    new Float64Array(chains),
-    new Float64Array(chains),
-  );
+    out: { unit: outUnit, physical: new Float64Array(chains), lnL: new Float64Array(chains) },
+  });
   expect(evaluations).toBe(evaluated);
   expect(outsideCube).toBe(0);
   for (const u of outUnit) expect(inBand(u)).toBe(true);
