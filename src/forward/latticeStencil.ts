@@ -1,0 +1,94 @@
+import { midpointStencilWeights } from './midpointStencil.js';
+import type { PixelLattice } from './pixelLattice.js';
+import { HOPELESS, REFINE, STRAIGHT_TO_FULL, type PixelMeanState } from './pixelMeanState.js';
+
+/** Weight of the lower-order correction in the lattice error indicator (see LatticeStencil). */
+const LATTICE_GUARD = 0.03;
+
+/**
+ * The lattice level of the adaptive pixel means: for each listed pixel, the tensor product of the
+ * 5-point midpoint stencil (midpointStencil.ts) over its 5 x 5 lattice neighbourhood predicts its
+ * S x S mean exactly for every polynomial of degree <= 4 in x and y. The error indicator is the
+ * size of the fourth-order part of that stencil (|x part| + |y part| + |mixed part|, what the
+ * 3-point stencil would have missed) and, as a guard against those parts cancelling by chance
+ * where the light is not smooth on the pixel scale, LATTICE_GUARD times the second-order
+ * correction. The stencils run in two passes: along x at every row point, then along y at the
+ * pixels.
+ */
+export class LatticeStencil {
+  private readonly lattice: PixelLattice;
+  private readonly state: PixelMeanState;
+  /** 3-point weights (w3[1] centre, w3[0] neighbours) and the fourth-order part of the 5-point ones. */
+  private readonly w3: Float64Array;
+  private readonly d5: Float64Array;
+  private readonly rowSecond: Float64Array;
+  private readonly rowFourth: Float64Array;
+
+  constructor(lattice: PixelLattice, state: PixelMeanState, supersampling: number) {
+    this.lattice = lattice;
+    this.state = state;
+    this.w3 = midpointStencilWeights(supersampling, 1);
+    const w5 = midpointStencilWeights(supersampling, 2);
+    // Fourth-order part of the 5-point weights: w5 minus w3 padded with zeros.
+    this.d5 = Float64Array.from([w5[2] - this.w3[1], w5[1] - this.w3[0], w5[0]]);
+    this.rowSecond = new Float64Array(lattice.count === 0 ? 0 : lattice.planeSize);
+    this.rowFourth = new Float64Array(lattice.count === 0 ? 0 : lattice.planeSize);
+  }
+
+  /** The stencils along x (3-point part and 5-point correction) at every row point (basis at `base`). */
+  rowStencils(base: number): void {
+    const values = this.lattice.values;
+    const rowSecond = this.rowSecond, rowFourth = this.rowFourth;
+    const rowPoints = this.lattice.rowPoints;
+    const w30 = this.w3[1], w31 = this.w3[0];
+    const d0 = this.d5[0], d1 = this.d5[1], d2 = this.d5[2];
+    for (let e = 0; e < rowPoints.length; e++) {
+      const r = rowPoints[e];
+      const q = base + r;
+      const centre = values[q];
+      const near = values[q - 1] + values[q + 1];
+      rowSecond[r] = w30 * centre + w31 * near;
+      rowFourth[r] = d0 * centre + d1 * near + d2 * (values[q - 2] + values[q + 2]);
+    }
+  }
+
+  /**
+   * The stencils along y of basis k: the predicted mean into `means`, the centre value into
+   * `previous`, and pixels whose error indicator exceeds the tolerance flagged REFINE (or
+   * STRAIGHT_TO_FULL above HOPELESS tolerances).
+   */
+  pixelStencils(k: number, base: number): void {
+    const state = this.state;
+    const scale = state.scale[k];
+    const values = this.lattice.values;
+    const pixelsPadded = this.lattice.pixelsPadded;
+    const count = pixelsPadded.length;
+    const width = this.lattice.width;
+    const w30 = this.w3[1], w31 = this.w3[0];
+    const d0 = this.d5[0], d1 = this.d5[1], d2 = this.d5[2];
+    const rowSecond = this.rowSecond, rowFourth = this.rowFourth;
+    const means = state.means, previous = state.previous, flagged = state.flags;
+    const relativeTolerance = state.relativeTolerance;
+    const out = k * count;
+    for (let e = 0; e < count; e++) {
+      const q = pixelsPadded[e];
+      const centre = values[base + q];
+      const s0 = rowSecond[q], s1 = rowSecond[q - width] + rowSecond[q + width];
+      const s2 = rowSecond[q - 2 * width] + rowSecond[q + 2 * width];
+      const f0 = rowFourth[q], f1 = rowFourth[q - width] + rowFourth[q + width];
+      const f2 = rowFourth[q - 2 * width] + rowFourth[q + 2 * width];
+      const second = w30 * s0 + w31 * s1;
+      const partX = w30 * f0 + w31 * f1;
+      const partY = d0 * s0 + d1 * s1 + d2 * s2;
+      const partXY = d0 * f0 + d1 * f1 + d2 * f2;
+      means[out + e] = second + partX + partY + partXY;
+      previous[out + e] = centre;
+      const indicator = Math.max(
+        Math.abs(partX) + Math.abs(partY) + Math.abs(partXY), LATTICE_GUARD * Math.abs(second - centre),
+      );
+      const tolerance = scale * relativeTolerance[e];
+      if (indicator > HOPELESS * tolerance) flagged[e] = STRAIGHT_TO_FULL;
+      else if (indicator > tolerance && flagged[e] === 0) flagged[e] = REFINE;
+    }
+  }
+}
