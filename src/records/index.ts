@@ -3,7 +3,8 @@
 export type { RunProvenance } from './provenance.js';
 export { runProvenance } from './provenance.js';
 export { configHash } from './configHash.js';
-export { packageVersion } from './packageVersion.js';
+export { packageVersion } from '../io/packageVersion.js';
+export type { TruthFile, TruthParameter, TruthPerturber } from './truthFile.js';
 export { priorCaution, mapPriorNote, sensitivityApproximation } from './cautions.js';
 export type { ModelRecord } from './modelRecord.js';
 export type { EnsembleRecord, EnsembleParameterDiagnostics } from './ensembleRecord.js';

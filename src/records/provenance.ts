@@ -1,7 +1,7 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData, ObservedDataFiles } from '../data/observedData.js';
 import { configHash } from './configHash.js';
-import { packageVersion } from './packageVersion.js';
+import { packageVersion } from '../io/packageVersion.js';
 
 /** What every run record starts with: which arcsift made it, from which config, data and seed, in how long. */
 export interface RunProvenance {

@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
-import { packageVersion } from '../records/packageVersion.js';
+import { packageVersion } from '../io/packageVersion.js';
 import { writeFitReport } from './pages/fitPage.js';
 import { isMapping, readJson, readRunFolder } from './runFolder/readRunFolder.js';
 import { writeReportFigures } from './pages/comparisonFigures.js';

@@ -5,7 +5,8 @@ import type { HeaderCard } from '../fits/headerCard.js';
 import type { PixelGrid } from '../imaging/pixelGrid.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { simulateObservation, type Simulation, type SimulationOptions } from './simulateObservation.js';
-import { packageVersion } from '../records/packageVersion.js';
+import { packageVersion } from '../io/packageVersion.js';
+import type { TruthFile, TruthPerturber } from '../records/truthFile.js';
 
 /** Cards saying what a pixel is: the pixel scale as CDELT in degrees, centred reference pixel. */
 export function gridCards(grid: PixelGrid, unit: string, what: string): HeaderCard[] {
@@ -28,7 +29,7 @@ export function gridCards(grid: PixelGrid, unit: string, what: string): HeaderCa
 }
 
 /** The truth file's content: every parameter with its unit, the cosmology and derived masses. */
-export function truthRecord(config: ArcsiftConfig, simulation: Simulation, options: SimulationOptions): unknown {
+export function truthRecord(config: ArcsiftConfig, simulation: Simulation, options: SimulationOptions): TruthFile {
   const { system } = simulation;
   const lensing = system.lensing;
   return {
@@ -55,7 +56,7 @@ export function truthRecord(config: ArcsiftConfig, simulation: Simulation, optio
     amplitudes: system.amplitudeNames.map((name, index) => ({
       name, value: simulation.amplitudes[index], unit: 'counts/s/arcsec^2',
     })),
-    perturbers: simulation.perturbers,
+    perturbers: simulation.perturbers.map((p): TruthPerturber => ({ ...p })),
     imageUnit: 'counts/s per pixel',
     files: {
       'image.fits': 'observed image (model plus noise, or the model with --noiseless)',

@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { readFitsImage } from '../../fits/index.js';
 import { writeFileAtomic } from '../../io/writeFileAtomic.js';
-import { packageVersion } from '../../records/packageVersion.js';
+import { packageVersion } from '../../io/packageVersion.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';

@@ -1,7 +1,7 @@
 import { existsSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { writeFileAtomic } from '../../io/writeFileAtomic.js';
-import { packageVersion } from '../../records/packageVersion.js';
+import { packageVersion } from '../../io/packageVersion.js';
 import { nestedDiagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
 import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';

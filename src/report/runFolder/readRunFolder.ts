@@ -3,22 +3,11 @@ import { dirname, isAbsolute, join, resolve } from 'node:path';
 import { InputError, describeValue, expectedFound } from '../../errors.js';
 import type { CornerData } from '../../results/cornerData.js';
 import type { ComparisonSummary } from '../../records/comparisonSummary.js';
+import type { TruthParameter, TruthPerturber } from '../../records/truthFile.js';
 
-/** A parameter's true value as `arcsift simulate` writes it in truth.json. */
-export interface TruthParameter {
-  readonly name: string;
-  readonly value: number;
-  readonly unit: string;
-}
+export type { TruthParameter, TruthPerturber } from '../../records/truthFile.js';
 
-/** A simulated perturber's derived masses from truth.json. */
-export interface TruthPerturber {
-  readonly key: string;
-  readonly massM200Solar?: number;
-  readonly totalMassSolar?: number;
-}
-
-/** The parts of truth.json the report uses. */
+/** The parts of truth.json (records/truthFile.ts) the report uses. */
 export interface TruthRecord {
   readonly file: string;
   readonly title?: string;

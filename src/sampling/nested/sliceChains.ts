@@ -1,5 +1,5 @@
 import { SeededStream } from '../../numeric/random/seededStream.js';
-import { sliceChainSeeds, type SliceSettings, type UnitBatchEvaluator } from './sliceChain.js';
+import { sliceChainSeeds, type SliceSettings, type UnitBatchEvaluator } from './sliceSettings.js';
 
 /** Rows of unit-cube points with their physical rows and ln L (k rows each). */
 export interface ChainPoints {
