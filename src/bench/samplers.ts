@@ -30,8 +30,10 @@ export async function run(args: string[]): Promise<void> {
         problem: 'gaussianShells',
         dim,
         build: () => gaussianShellsProblem(dim),
-        // exact radial quadrature (see gaussianShellsLnEvidence); Feroz & Hobson 2008 tabulate
-        // -1.75, -5.67, -14.59, -36.09 (from memory).
+        // exact radial quadrature (see gaussianShellsLnEvidence): -1.7456, -5.6736, -14.5905,
+        // -36.0865, checked with SciPy (test/sampling/nested/fixtures/make_shell_evidence.py). They
+        // round to the -1.75, -5.67, -14.59, -36.09 recalled from Feroz & Hobson 2008's table; the
+        // table itself was not reachable here.
         lnZTrue: gaussianShellsLnEvidence(dim),
         methods: dim >= 10 ? ['ellipsoids', 'slice'] : ['auto'],
       });

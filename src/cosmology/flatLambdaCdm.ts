@@ -37,7 +37,7 @@ export interface FlatLambdaCdm extends FlatLambdaCdmParameters {
   kpcPerArcsec(redshift: number): number;
 }
 
-/** Relative accuracy asked of every distance integral (the brief allows at most 1e-8). */
+/** Relative accuracy asked of every distance integral (distances must be good to 1e-8 relative). */
 export const distanceRelativeAccuracy = 1e-10;
 
 function requireRedshift(redshift: number, key: string): void {
@@ -48,7 +48,8 @@ function requireRedshift(redshift: number, key: string): void {
 
 // Flat LambdaCDM without radiation: E(z) = sqrt(Omega_m (1+z)^3 + 1 - Omega_m), D_C = (c/H0)
 // int_0^z dz'/E(z'), D_A = D_C/(1+z), D_A(z1,z2) = (D_C(z2) - D_C(z1))/(1+z2) (Hogg 1999,
-// astro-ph/9905116, eqs. 14-16, 18-19; equation numbers from memory).
+// astro-ph/9905116, eqs. 14-16, 18-19 with Omega_k = 0). The paper was not reachable here: the
+// equation numbers agree with other citations of it, and the formulas are tested against astropy.
 export function flatLambdaCdm(parameters: FlatLambdaCdmParameters): FlatLambdaCdm {
   const hubbleConstant = parameters.hubbleConstantKmPerSecPerMpc;
   const matter = parameters.matterDensity;

@@ -2,6 +2,8 @@
  * Physical and astronomical constants, SI units, each with the body that fixes its value.
  * Masses in solar masses enter only through the nominal solar mass parameter GM_sun, which is
  * exact by definition, so results never carry the uncertainty of G itself.
+ * Each value is checked against astropy.constants, which names the same bodies
+ * (test/cosmology/referenceValues.test.ts, fixture made by test/fixtures/cosmology/make_references.py).
  */
 
 /** Speed of light in vacuum, exact (SI definition of the metre; CODATA 2018). */

@@ -15,7 +15,8 @@ export const externalShear: MassProfile = {
   parameterNames: ['shearStrength', 'shearAngleDeg'],
 
   // Gradient of the external-shear potential above (common practice; e.g. the shear term of the
-  // Chang-Refsdal lens, Schneider, Ehlers & Falco 1992, ch. 8, from memory).
+  // Chang-Refsdal lens, Schneider, Ehlers & Falco 1992, ch. 8 "Simple lens models": chapter title
+  // checked, section not).
   addDeflection(p, offset, x, y, n, alphaX, alphaY) {
     const gamma = p[offset], twice = 2 * p[offset + 1] * DEG;
     const gamma1 = gamma * Math.cos(twice), gamma2 = gamma * Math.sin(twice);

@@ -14,8 +14,11 @@ export const multipoleOrders: readonly MultipoleOrder[] = [1, 3, 4];
  * and slope are those of the main power law, so a is the fractional amplitude of the m-th
  * Fourier term relative to the circular power law's convergence at the same radius:
  * kappa_m(r, phi) = a kappa_circ(r) cos(m (phi - phiM)); at r = thetaE the m-th Fourier
- * coefficient of kappa is a (3 - gamma)/2 (a/2 when isothermal). This is the form used by Chu et
- * al. 2013 (isothermal) and O'Riordan & Vegetti 2024 (power law) (from memory).
+ * coefficient of kappa is a (3 - gamma)/2 (a/2 when isothermal). Multipoles of this kind are
+ * used by Chu et al. 2013 (isothermal) and O'Riordan & Vegetti 2024 (power law; arXiv:2310.10714);
+ * their papers were not reachable here, so whether their amplitude is normalised exactly as this
+ * a is not checked. The potential below is derived from this kappa and tested through the
+ * Poisson equation (test/lens/multipole.test.ts).
  *
  * Potential from the Poisson equation lap psi = 2 kappa with k = 3 - gamma, rho = r / thetaE:
  *   m = 3, 4:  psi = a thetaE^2 k / (k^2 - m^2) rho^k cos(m (phi - phiM))   (never resonant, k < 2);
@@ -58,7 +61,7 @@ function radialTerms(m: MultipoleOrder, k: number, rho: number): void {
     radial.gOverRho = c * e;
     radial.gPrime = c * (k * e + 1);
   } else {
-    // exp(u ln rho) rather than Math.pow: same accuracy, about 2.5x faster in V8.
+    // exp(u ln rho) rather than Math.pow: same accuracy, faster in V8 (timings in the commit that made the change).
     const power = Math.exp((k - 1) * Math.log(rho)), c = k / (k * k - m * m);
     radial.gOverRho = c * power;
     radial.gPrime = c * k * power;

@@ -1,8 +1,9 @@
 /**
- * Concentration-mass relation of Duffy et al. 2008 (MNRAS 390, L64), Table 1, NFW fits with
- * M200 defined at 200 times the critical density, full sample (0 <= z <= 2) (coefficients
- * from memory):
+ * Concentration-mass relation of Duffy et al. 2008 (MNRAS 390, L64; arXiv:0804.2486), Table 1,
+ * NFW fits with M200 defined at 200 times the critical density, full sample (0 <= z <= 2):
  *   c200 = A (M200 / M_pivot)^B (1 + z)^C,   A = 5.71, B = -0.084, C = -0.47, M_pivot = 2e12 h^-1 M_sun.
+ * Table 1 itself was not reachable here; the four numbers agree with independent transcriptions
+ * of it, one in code co-written by the paper's first author (Correa et al. 2015's commah).
  * The fit was made to WMAP5 simulations of field haloes of 1e11 to 1e15 h^-1 M_sun; applying it to
  * subhaloes and to lower masses is an extrapolation (common practice in subhalo-lensing work).
  */

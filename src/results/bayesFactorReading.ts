@@ -1,6 +1,11 @@
 import { InputError, expectedFound } from '../errors.js';
 
-/** The grades of evidence of Kass & Raftery 1995 (JASA 90, 773; the table on p. 777, page from memory), in their words. */
+/**
+ * The grades of evidence of Kass & Raftery 1995 (JASA 90, 773; the table on p. 777), in their
+ * words. The paper was not reachable here: edges and wording agree with reproductions of the
+ * table (Oxford's A Dictionary of Statistics; the pcal R package manual), the page with one
+ * citation of it.
+ */
 export type EvidenceGrade = 'not worth more than a bare mention' | 'positive' | 'strong' | 'very strong';
 
 /**

@@ -27,7 +27,8 @@ describe('flatLambdaCdm: Einstein-de Sitter closed forms', () => {
       .toBeLessThan(1e-14);
   });
   it('critical density today is 2.77536627e11 h^2 M_sun/Mpc^3', () => {
-    // Particle Data Group, Astrophysical constants table (from memory), given to 9 digits;
+    // Particle Data Group, Astrophysical constants table, given to 9 digits (the table was not
+    // reachable here; astropy's 3 H0^2 / (8 pi G) in M_sun/Mpc^3 at h = 1 gives 2.775366272e11).
     // 1e-8 covers the last digit and the G that PDG divides by (we use GM_sun directly).
     const cosmology = flatLambdaCdm({ hubbleConstantKmPerSecPerMpc: 100, matterDensity: 0.3 });
     expect(relativeDifference(cosmology.criticalDensitySolarPerMpc3(0), 2.77536627e11)).toBeLessThan(1e-8);

@@ -14,7 +14,8 @@ describe('externalShear', () => {
   const points = annulusPoints(30, 0.05, 4, 0.3, -0.1);
 
   it('has zero convergence: adds nothing, and half the divergence of alpha vanishes', () => {
-    // A pure shear is traceless (Schneider, Ehlers & Falco 1992, ch. 5; from memory).
+    // A pure shear is traceless (Schneider, Ehlers & Falco 1992, ch. 5 "Properties of the lens
+    // mapping"; chapter checked, section not).
     const kappa = Float64Array.of(0.25, -1);
     externalShear.addConvergence(p, 0, Float64Array.of(1, 2), Float64Array.of(0.5, -3), 2, kappa);
     expect(Array.from(kappa)).toEqual([0.25, -1]);
@@ -35,7 +36,7 @@ describe('externalShear', () => {
 
   it('stretches images along shearAngleDeg: Jacobian eigenvalues 1 -+ gamma along / across it', () => {
     // Shear matrix of the lens equation, A = [[1 - g1, -g2], [-g2, 1 + g1]] (Schneider, Ehlers &
-    // Falco 1992, ch. 5; from memory): eigenvector (cos phi, sin phi) with eigenvalue 1 - gamma.
+    // Falco 1992, ch. 5, chapter checked): eigenvector (cos phi, sin phi) with eigenvalue 1 - gamma.
     for (const [gamma, angleDeg] of [[0.17, 37], [0.05, -120], [0.3, 90]]) {
       const q = Float64Array.of(gamma, angleDeg);
       const [a, b, c, d] = lensJacobian(externalShear, q, 0.7, -1.2, STEP_ARCSEC);

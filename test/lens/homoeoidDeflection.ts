@@ -6,8 +6,8 @@ import { gaussLegendre, integrateGraded, type GaussRule } from './gaussLegendre.
  * Deflection of kappa(x', y') = kappaOfXi(xi) with xi^2 = q x'^2 + y'^2 / q (arcsift's
  * intermediate-axis elliptical radius), major axis at positionAngleDeg, centred at (cx, cy).
  * Implements the one-dimensional integrals for homoeoidal densities (Schramm 1990, A&A 231, 19;
- * in the form of Keeton 2001, astro-ph/0102341, sec. 2; equation form from memory, checked
- * here at q = 1 against the SIS and by the tests' agreement with closed forms):
+ * in the form of Keeton 2001, astro-ph/0102341, sec. 2; the papers were not reachable here, so
+ * the form is checked at q = 1 against the SIS and by the tests' agreement with closed forms):
  *   alpha_x = q x J0,  alpha_y = q y J1,
  *   Jn = int_0^1 kappa(xiK(u)) / (1 - (1 - q^2) u)^(n + 1/2) du,
  *   xiK(u)^2 = u (x^2 + y^2 / (1 - (1 - q^2) u)),

@@ -33,7 +33,8 @@ describe('multipole', () => {
     for (const slope of slopes) {
       it(`order ${m}, slope ${slope}: kappa is half the divergence of alpha, alpha the gradient of psi`, () => {
         // Poisson equation of lensing, div alpha = 2 kappa, alpha = grad psi (Schneider, Ehlers
-        // & Falco 1992, ch. 5; from memory), by central differences.
+        // & Falco 1992, ch. 5 "Properties of the lens mapping"; chapter checked, section not), by
+        // central differences.
         const profile = multipole(m);
         const a = 0.03;
         const p = multipoleParameters(a, 27, centre[0], centre[1], thetaE, slope);

@@ -43,7 +43,7 @@ describe('powerLawEllipsoid', () => {
   }
 
   it('encloses mean convergence 1 within the ellipse xi = thetaE', () => {
-    // Divergence theorem (Schneider, Ehlers & Falco 1992, ch. 5; from memory): the mass inside
+    // Divergence theorem (Schneider, Ehlers & Falco 1992, ch. 5, chapter checked): the mass inside
     // a closed curve is (1/2) of the outward flux of alpha. Integrated around xi = thetaE by the
     // trapezoidal rule on 2000 points (spectrally accurate for a smooth periodic integrand).
     for (const [slope, q] of [[1.6, 0.5], [2.4, 0.8]]) {
@@ -85,7 +85,7 @@ describe('powerLawEllipsoid', () => {
   for (const [slope, q] of [[1.6, 0.6], [2.0, 0.8], [2.4, 0.5], [2.9, 0.7], [1.2, 1]]) {
     it(`kappa is half the divergence of alpha and alpha the gradient of psi, slope ${slope}, q = ${q}`, () => {
       // Poisson equation of lensing, div alpha = 2 kappa, alpha = grad psi
-      // (Schneider, Ehlers & Falco 1992, ch. 5; from memory), by central differences.
+      // (Schneider, Ehlers & Falco 1992, ch. 5 "Properties of the lens mapping"), by central differences.
       const errors = poissonErrors(powerLawEllipsoid, powerLawParameters(1.2, slope, q, 20, -0.15, 0.05), points, STEP_ARCSEC);
       expect(errors.kappa).toBeLessThan(DIFFERENCE_TOLERANCE);
       expect(errors.gradient).toBeLessThan(DIFFERENCE_TOLERANCE);
@@ -94,7 +94,7 @@ describe('powerLawEllipsoid', () => {
 
   it('is continuous towards q = 1 (the series shortens smoothly)', () => {
     // At q = 1 the profile is the circular power law, |alpha| = thetaE (r/thetaE)^(2 - gamma)
-    // (mean convergence inside r; Schneider, Ehlers & Falco 1992, ch. 8, from memory).
+    // (mean convergence inside r; Schneider, Ehlers & Falco 1992, ch. 8 "Simple lens models").
     const thetaE = 0.9, slope = 2.3;
     for (const [x, y] of annulusPoints(20, 0.2, 3)) {
       const r = Math.hypot(x, y);

@@ -86,7 +86,7 @@ describe('point-mass Einstein radius', () => {
   });
 });
 
-describe('Duffy et al. 2008 concentration (Table 1, NFW, M200, full sample; from memory)', () => {
+describe('Duffy et al. 2008 concentration (Table 1, NFW, M200, full sample; see src/perturber/concentrationMass.ts)', () => {
   // c200 = 5.71 (M / 2e12 h^-1 M_sun)^-0.084 (1 + z)^-0.47: the pivot gives A, then each slope.
   it('is 5.71 at the pivot mass at z = 0 and follows both slopes', () => {
     const h = 0.7;

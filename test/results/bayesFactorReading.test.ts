@@ -3,7 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
 import { bayesFactorReading, evidenceGrade, KASS_RAFTERY_LN_EDGES } from '../../src/results/index.js';
 
-// Kass & Raftery 1995 (J. Am. Stat. Assoc. 90, 773), their table of evidence against H0 (from memory):
+// Kass & Raftery 1995 (J. Am. Stat. Assoc. 90, 773), their table of evidence against H0 (the paper
+// was not reachable here; the edges agree with the reproduction in the pcal R package manual):
 //   2 ln B10   B10        evidence against H0
 //   0 to 2     1 to 3     not worth more than a bare mention
 //   2 to 6     3 to 20    positive

@@ -48,7 +48,8 @@ describe('autocovariance by FFT', () => {
 describe('integrated autocorrelation time (Sokal windowing)', () => {
   it('recovers tau = (1 + phi) / (1 - phi) = 19 for AR(1) with phi = 0.9', () => {
     // Closed form: rho(t) = phi^|t|, so tau = sum_t phi^|t| = (1 + phi) / (1 - phi) (Sokal 1997).
-    // Statistical error (Madras & Sokal 1988, as quoted in Sokal 1997; from memory):
+    // Statistical error (Madras & Sokal 1988, as quoted in Sokal 1997; not checked, neither was
+    // reachable here):
     // var(tau) / tau^2 ~ 2 (2M + 1) / N with
     // M ~ 5 tau ~ 95 and N = 64 x 40000 draws: 1.2 %. The window cut and the per-walker mean
     // bias tau low by < 1 %. 5 % is about 4 sigma.

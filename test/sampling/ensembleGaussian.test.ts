@@ -5,7 +5,7 @@ import { retainedMeanWithError } from './chainMeanError.js';
 // Target: 10-D Gaussian with mean mu_i = i - 4.5 and covariance Sigma_ij = s_i s_j r^|i-j|, r = 0.8,
 // scales s_i from 0.1 to 10. The correlation matrix r^|i-j| (Kac-Murdock-Szego) has the known
 // tridiagonal inverse: diagonal (1, 1 + r^2, ..., 1 + r^2, 1) / (1 - r^2), off-diagonal -r / (1 - r^2)
-// (Kac, Murdock & Szego 1953; from memory); a test below checks Sigma P = I for it.
+// (Kac, Murdock & Szego 1953; the paper not reachable here); a test below checks Sigma P = I for it.
 const D = 10;
 const R = 0.8;
 const mu = Float64Array.from({ length: D }, (_, i) => i - 4.5);
@@ -77,8 +77,9 @@ describe('ensemble MCMC on a correlated 10-D Gaussian', () => {
   it('stretch move: means and covariances within Monte-Carlo error', async () => {
     const result = await sample('stretch', 2024);
     checkGaussianMoments(result);
-    // Goodman & Weare 2010 report stretch-move acceptance of roughly 0.2-0.5 in moderate dimension
-    // (from memory); a broken acceptance ratio shows up here first.
+    // Stretch-move acceptance of roughly 0.2-0.5 in moderate dimension is the usual guidance (the
+    // source, Goodman & Weare 2010 or the Foreman-Mackey et al. 2013 user guide, not checked);
+    // a broken acceptance ratio shows up here first.
     const meanAcceptance = result.acceptanceFraction.reduce((a, b) => a + b, 0) / result.walkers;
     expect(meanAcceptance).toBeGreaterThan(0.1);
     expect(meanAcceptance).toBeLessThan(0.6);

@@ -19,7 +19,8 @@ import type { SensitivitySummary } from '../../src/records/sensitivitySummary.js
 // perturber (a clean ring), and searched for a compact perturber: a point mass with a
 // log10 mass prior [6, 11]. The physical expectations checked:
 // - to first order a perturber changes the image by -grad(I_source) . delta_alpha (Koopmans
-//   2005, MNRAS 363, 1136, from memory), so where there is no lensed light it has no first-order
+//   2005, "Gravitational imaging of cold dark matter substructures", MNRAS 363, 1136; title
+//   checked, volume and page not), so where there is no lensed light it has no first-order
 //   signal and needs more mass to be detected than on the arc;
 // - a point mass's deflection is linear in its mass, so in that linear regime the residual, and
 //   the part of it a smooth refit absorbs, are linear in M and Delta chi^2 grows as M^2.

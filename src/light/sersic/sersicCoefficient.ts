@@ -1,20 +1,24 @@
 import { gammaincinv } from '../../numeric/special/stdlibSpecial.js';
 
 /**
- * Below this Sersic index the asymptotic expansion is not used. Ciotti & Bertin (1999) give it
- * for n > 0.36; at n = 0.3 its relative error is already 2e-3 (1e-1 at n = 0.2, and it turns
+ * Below this Sersic index the asymptotic expansion is not used. The 0.36 threshold is that of
+ * MacArthur, Courteau & Holtzman 2003 (ApJ 582, 689), who fit b_n by a polynomial below it (as
+ * transcribed by others; the paper was not reachable here); it is not Ciotti & Bertin's. At
+ * n = 0.3 the expansion's relative error is already 2e-3 (1e-1 at n = 0.2, and it turns
  * negative near n = 0.1), so below the threshold the exact root is solved instead.
  */
 export const SERSIC_EXPANSION_MIN_INDEX = 0.36;
 
 /**
- * Ciotti & Bertin 1999 (A&A 352, 447), eq. 18: asymptotic expansion of b_n in powers of 1/n.
- * Relative error against the exact root (test/light/sersic/sersicCoefficient.test.ts): 3.6e-4 at
- * n = 0.5, 2.5e-5 at n = 1, 1.3e-6 at n = 2, 7.1e-8 at n = 4, 4.2e-9 at n = 8.
- * The error falls as n^-3, not n^-5: the exact root's n^-3 coefficient, measured out to n = 200,
- * is 8.1e-5 (the gamma-median series of Choi 1994 with a = 2n gives 281/3444525 = 8.16e-5, from
- * memory), while eq. 18 (its coefficients as widely reproduced; from memory) has 131/1148175 =
- * 1.14e-4. Kept in the published form (the exact root is one call away: sersicCoefficientExact).
+ * Ciotti & Bertin 1999 (A&A 352, 447; astro-ph/9911078), eq. 18: asymptotic expansion of b_n in
+ * powers of 1/n. The paper was not reachable here; the coefficients agree with the many
+ * independent transcriptions that cite it. Relative error against the exact root, bounded in
+ * test/light/sersic/sersicCoefficient.test.ts: 3.6e-4 at n = 0.5, 2.5e-5 at n = 1, 1.3e-6 at
+ * n = 2, 7.1e-8 at n = 4, 4.2e-9 at n = 8.
+ * The error falls as n^-3, not n^-5: the n^-3 coefficient here, 131/1148175 = 1.14e-4, is not
+ * the exact root's, 281/3444525 = 8.16e-5 (the gamma-median series, Choi 1994 / Temme 1992
+ * eq. 6.2 as transcribed, with a = 2n; confirmed against an 80-digit root). Kept in the
+ * published form (the exact root is one call away: sersicCoefficientExact).
  */
 export function sersicCoefficientExpansion(sersicIndex: number): number {
   const u = 1 / sersicIndex;

@@ -5,11 +5,12 @@ import { quantileOfSorted } from '../../numeric/statistics/quantileOfSorted.js';
 import { splitChains, type Draws } from './splitChains.js';
 
 // Effective sample size of several chains (Vehtari, Gelman, Simpson, Carpenter & Buerkner 2021,
-// sec. 3.2, eq. 10-13): combined autocorrelation rho_t = 1 - (W - mean_j c_j(t)) / var+, summed with
-// Geyer's initial monotone sequence (Geyer 1992, sec. 3.3): pair sums P_k = rho_2k + rho_2k+1 are
-// kept while positive and made non-increasing; tau = -1 + 2 sum_k P_k, ESS = m n / tau. tau is
-// floored at 1 / log10(m n), capping ESS at m n log10(m n) as the paper does for antithetic chains
-// (from memory).
+// Bayesian Analysis 16, 667, sec. 3.2, eq. 10-13): combined autocorrelation rho_t = 1 - (W -
+// mean_j c_j(t)) / var+, summed with Geyer's initial monotone sequence (Geyer 1992, sec. 3.3):
+// pair sums P_k = rho_2k + rho_2k+1 are kept while positive and made non-increasing; tau = -1 +
+// 2 sum_k P_k, ESS = m n / tau. tau is floored at 1 / log10(m n), capping ESS at m n log10(m n)
+// for antithetic chains. Sec. 3.2 is the authors' own pointer to their multi-chain ESS; the
+// equation numbers and the floor were not checked against the paper (not reachable here).
 export function chainEffectiveSampleSize(draws: Draws): number {
   const { values, chains, drawsPerChain: n } = draws;
   const total = chains * n;

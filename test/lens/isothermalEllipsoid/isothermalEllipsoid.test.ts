@@ -27,7 +27,7 @@ const points = annulusPoints(40, 0.3, 3.0, 0.1, -0.2);
 
 describe('isothermalEllipsoid', () => {
   it('reduces to the SIS with |alpha| = thetaE everywhere at q = 1, no core', () => {
-    // Definition of the singular isothermal sphere (Schneider, Ehlers & Falco 1992, ch. 8; chapter from memory):
+    // Definition of the singular isothermal sphere (Schneider, Ehlers & Falco 1992, ch. 8 "Simple lens models"):
     // alpha = thetaE theta/|theta|.
     const p = sieParameters(1.3, 1, 25, 0.1, -0.2, 0);
     for (const [x, y] of annulusPoints(200, 0.01, 20, 0.1, -0.2)) {
@@ -76,7 +76,7 @@ describe('isothermalEllipsoid', () => {
   for (const [q, core] of [[0.6, 0], [0.8, 0.2], [1, 0], [1, 0.2]]) {
     it(`kappa is half the divergence of alpha and alpha the gradient of psi, q = ${q}, core ${core}`, () => {
       // Poisson equation of lensing, div alpha = 2 kappa, alpha = grad psi
-      // (Schneider, Ehlers & Falco 1992, ch. 5; chapter from memory), by central differences.
+      // (Schneider, Ehlers & Falco 1992, ch. 5 "Properties of the lens mapping"), by central differences.
       const errors = poissonErrors(isothermalEllipsoid, sieParameters(1.4, q, 70, 0.1, -0.2, core), points, STEP_ARCSEC);
       expect(errors.kappa).toBeLessThan(DIFFERENCE_TOLERANCE);
       expect(errors.gradient).toBeLessThan(DIFFERENCE_TOLERANCE);
@@ -85,7 +85,8 @@ describe('isothermalEllipsoid', () => {
 
   it('without a core, the critical curve is the ellipse xi = thetaE', () => {
     // For the SIE |shear| = kappa, so det A = 1 - 2 kappa vanishes where kappa = 1/2, the
-    // isodensity ellipse xi = thetaE (Kormann, Schneider & Bartelmann 1994; from memory).
+    // isodensity ellipse xi = thetaE (Kormann, Schneider & Bartelmann 1994, A&A 284, 285; the paper
+    // was not reachable here, and the determinant is checked numerically below).
     // Numerical Jacobian, h = 1e-4 arcsec: det error ~ h^2 / xi^2 ~ 1e-8, hence 1e-6.
     const thetaE = 1.2, q = 0.6, angleDeg = 35, cx = 0.1, cy = -0.2;
     const p = sieParameters(thetaE, q, angleDeg, cx, cy, 0);
@@ -104,7 +105,7 @@ describe('isothermalEllipsoid', () => {
   });
 
   it('SIS images at beta +- thetaE with magnifications 1 +- thetaE/beta', () => {
-    // Schneider, Ehlers & Falco 1992, ch. 8 (from memory): for beta < thetaE an SIS forms images at
+    // Schneider, Ehlers & Falco 1992, ch. 8 "Simple lens models": for beta < thetaE an SIS forms images at
     // x = beta + thetaE and x = beta - thetaE with signed magnifications 1 + thetaE/beta and
     // 1 - thetaE/beta. Images found by Newton's method on the lens equation with the profile's
     // own deflection; magnification from the numerical Jacobian of that deflection.

@@ -32,7 +32,8 @@ describe('elliptical Sersic profile', () => {
       const inner = integrateOverEllipse(sersic, p, geometry, 1e-10 * effectiveRadius, effectiveRadius, 4000, 8);
       const outer = integrateOverEllipse(sersic, p, geometry, effectiveRadius, 1e8 * effectiveRadius, 4000, 8);
       const total = inner + outer;
-      // Graham & Driver 2005 (PASA 22, 118; from memory): L = 2 pi n R_e^2 I_e e^b b^(-2n) Gamma(2n).
+      // Graham & Driver 2005 (PASA 22, 118; journal checked, equation number not): L = 2 pi n
+      // R_e^2 I_e e^b b^(-2n) Gamma(2n), which this numerical integration checks in turn.
       const closedForm = 2 * Math.PI * sersicIndex * effectiveRadius ** 2
         * Math.exp(bn) * Math.pow(bn, -2 * sersicIndex) * gamma(2 * sersicIndex);
       expect(Math.abs(total / closedForm - 1)).toBeLessThan(1e-9);

@@ -41,7 +41,7 @@ describe('Sersic coefficient b_n', () => {
   });
 
   it('eq. 18 of Ciotti & Bertin (1999) meets its documented accuracy on [0.5, 8]', () => {
-    // Bounds: the accuracy stated in src/light/sersicCoefficient.ts (measured values rounded up).
+    // Bounds: the accuracy stated in src/light/sersic/sersicCoefficient.ts (rounded up).
     // A typo in any coefficient of eq. 18 moves the error by orders of magnitude.
     const bounds: Array<[number, number]> = [[0.5, 4e-4], [1, 3e-5], [2, 1.5e-6], [4, 8e-8], [8, 5e-9]];
     let worst = 0;

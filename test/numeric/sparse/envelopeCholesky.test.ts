@@ -9,11 +9,12 @@ import { accumulate, denseOf, dominantCase, gridEdges, laplacianCase, localEdges
 
 // Tolerance (relative, 1e-10): Cholesky is backward stable, the computed factor being exact for
 // A + E with |E| <= c n u |L| |L^T| (Higham 2002, "Accuracy and Stability of Numerical
-// Algorithms", theorem 10.3, from memory), so a solution's normwise relative error is of order
-// n u cond(A). The test matrices have cond(A) < 1e3 (Gershgorin's bound, checked below) and
-// n <= 300, so with u = 1.1e-16 ours and ml-matrix's each lie within ~3e-11 of the exact
-// solution; 1e-10 covers both. ln det = sum ln(pivot) is compared relative to max(1, |ln det|)
-// at the same 1e-10 (measured differences are below 2e-13 absolute).
+// Algorithms", theorem 10.3; theorem number not checked, the book not reachable here), so a
+// solution's normwise relative error is of order n u cond(A). The test matrices have
+// cond(A) < 1e3 (Gershgorin's bound, checked below) and n <= 300, so with u = 1.1e-16 ours and
+// ml-matrix's each lie within ~3e-11 of the exact solution; 1e-10 covers both. ln det =
+// sum ln(pivot) is compared relative to max(1, |ln det|) at the same 1e-10 (measured
+// differences are below 2e-13 absolute).
 const TOLERANCE = 1e-10;
 
 /**
