@@ -27,7 +27,7 @@ describe('Gaussian shells reference evidence', () => {
 describe('nested sampling of the Gaussian shells (Feroz & Hobson 2008, Section 6.2)', () => {
   // Truth from the radial quadrature above. The estimate must lie within 3 reported errors
   // (Skilling's sqrt(H/N), a 1-sigma error: a 0.3% chance of a false failure for a correct sampler)
-  // and the error itself must be below 0.2 as the brief requires; 400 live points give ~0.08 (2-D)
+  // and the error itself below 0.2 (our accuracy target); 400 live points give ~0.08 (2-D)
   // and ~0.13 (5-D).
   for (const dim of [2, 5]) {
     it(`ln Z within 3 reported errors in ${dim} dimensions`, async () => {
