@@ -1,3 +1,4 @@
+import { execFileSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { parseConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { readConfigFile } from '../config/readConfigFile.js';
@@ -5,6 +6,7 @@ import { usedPixelIndices } from '../imaging/mask.js';
 import { growMaskByKernel } from '../likelihood/growMaskByKernel.js';
 import { ForwardModel } from '../forward/forwardModel.js';
 import { simulateObservation, type Simulation } from '../simulate/simulateObservation.js';
+import { benchOption, wholeNumberOption } from './benchOptions.js';
 
 /** The supersampling whose brute-force image the fast model reproduces in these scenarios. */
 export const BENCH_SUPERSAMPLING = 8;
@@ -104,13 +106,24 @@ export function bestMillisecondsPerCall(
 }
 
 /**
- * `npm run bench -- forward`: milliseconds per model-image evaluation (ForwardModel.image at
- * the scenario's true parameters, one thread), best of 25 repeats of ~60 ms, one JSON line per
- * scenario with what the adaptive sampling did.
+ * `npm run bench -- forward [--only NAME] [--processes N]`: milliseconds per model-image
+ * evaluation (ForwardModel.image at the scenario's true parameters, one thread), best of 25
+ * repeats of ~60 ms, one JSON line per scenario with what the adaptive sampling did. With
+ * `--processes N` each scenario is timed in N fresh processes one after another and one line
+ * gives the spread: every worker of a fit is such a fresh process, and a process whose code V8
+ * compiled worse would show here as the maximum above the median.
  */
-export async function run(_args: string[]): Promise<void> {
+export async function run(args: string[]): Promise<void> {
+  const only = benchOption(args, '--only');
+  const scenarios = forwardScenarios().filter((s) => only === undefined || s.name === only);
+  if (scenarios.length === 0) throw new Error(`--only: no scenario named ${only} (known: demo, compactSource)`);
+  const processes = wholeNumberOption(args, '--processes', 0, 0);
+  if (processes > 0) {
+    for (const scenario of scenarios) freshProcessSpread(scenario.name, processes);
+    return;
+  }
   const repeats = 25;
-  for (const scenario of forwardScenarios()) {
+  for (const scenario of scenarios) {
     const simulation = simulateObservation(scenario.config, { seed: 1, noiseless: false });
     const forward = fitForwardModel(simulation);
     const model = simulation.truthVector;
@@ -134,4 +147,25 @@ export async function run(_args: string[]): Promise<void> {
       psf: `${forward.convolvedPsf.columns}x${forward.convolvedPsf.rows}${forward.separable ? ' separable' : ''}`,
     }));
   }
+}
+
+/** Times one scenario in `count` fresh processes and prints the spread of their best times. */
+function freshProcessSpread(name: string, count: number): void {
+  const benchMain = fileURLToPath(new URL('./main.js', import.meta.url));
+  const ms: number[] = [];
+  const cpuMs: number[] = [];
+  for (let k = 0; k < count; k++) {
+    const text = execFileSync(process.execPath, [benchMain, 'forward', '--only', name], { encoding: 'utf8' });
+    const line = JSON.parse(text.trim().split('\n').pop()!) as { msPerEvaluation: number; cpuMsPerEvaluation: number };
+    ms.push(line.msPerEvaluation);
+    cpuMs.push(line.cpuMsPerEvaluation);
+  }
+  const sorted = [...ms].sort((a, b) => a - b);
+  const median = sorted[Math.floor((count - 1) / 2)];
+  console.log(JSON.stringify({
+    benchmark: 'forward', scenario: name, freshProcesses: count,
+    medianMs: median, minMs: sorted[0], maxMs: sorted[count - 1],
+    worstOverMedian: Number((sorted[count - 1] / median).toFixed(3)),
+    msEach: ms, cpuMsEach: cpuMs,
+  }));
 }
