@@ -2,6 +2,7 @@ import { ConfigNode } from './configNode.js';
 import { readConfigFile } from './readConfigFile.js';
 import { readParameterEntry, type ParameterEntry } from './parameterEntry.js';
 import { expectedFound } from '../errors.js';
+import { PIXELATED_SETTING_KEYS, readPixelatedSource, type PixelatedSourceConfig } from './pixelatedSourceConfig.js';
 
 /** A mass or light component as written: its kind and its parameter entries by name. */
 export interface ComponentConfig {
@@ -15,6 +16,10 @@ export interface ComponentConfig {
   readonly entries: Readonly<Record<string, ParameterEntry>>;
   /** Perturbers only: a joint prior on the position, uniform over a region (default: the box of the x and y priors). */
   readonly positionPrior?: PositionPriorConfig;
+  /** A `pixelated` source's mesh and regularisation. */
+  readonly pixelated?: PixelatedSourceConfig;
+  /** True for a component `simulate` draws but a fit leaves out (e.g. the clumps of a mock source fitted by a pixelated one). */
+  readonly simulateOnly?: boolean;
 }
 
 /** A uniform prior over the used pixels of the mask, or over a disc. */
@@ -88,10 +93,14 @@ function readComponent(node: ConfigNode, kindRequired = true): ComponentConfig {
   let order: number | undefined;
   let coefficients: number[] | undefined;
   let positionPrior: PositionPriorConfig | undefined;
+  let simulateOnly: boolean | undefined;
+  const pixelated = kind === 'pixelated' && node.key.startsWith('source') ? readPixelatedSource(node) : undefined;
   for (const name of node.keys()) {
-    if (name === 'kind') continue;
+    if (name === 'kind' || (pixelated !== undefined && (PIXELATED_SETTING_KEYS as readonly string[]).includes(name))) continue;
     const child = node.get(name);
-    if (name === 'positionPrior' && node.key.startsWith('perturbers')) {
+    if (name === 'simulateOnly') {
+      simulateOnly = child.boolean();
+    } else if (name === 'positionPrior' && node.key.startsWith('perturbers')) {
       positionPrior = readPositionPrior(child);
     } else if (name === 'order') {
       order = child.number({ integer: true, min: 0 });
@@ -101,9 +110,12 @@ function readComponent(node: ConfigNode, kindRequired = true): ComponentConfig {
       entries[name] = readParameterEntry(child);
     }
   }
-  return positionPrior === undefined
-    ? { kind, key: node.key, order, coefficients, entries }
-    : { kind, key: node.key, order, coefficients, entries, positionPrior };
+  return {
+    kind, key: node.key, order, coefficients, entries,
+    ...(positionPrior === undefined ? {} : { positionPrior }),
+    ...(pixelated === undefined ? {} : { pixelated }),
+    ...(simulateOnly === undefined ? {} : { simulateOnly }),
+  };
 }
 
 function readComponentList(node: ConfigNode): ComponentConfig[] {

@@ -165,6 +165,11 @@ export class ForwardModel {
     this.fixedSlotValues = new Float64Array(this.fixedSlots.length);
   }
 
+  /** The profile vector of the last computeBasis (read only). */
+  get profileVector(): Float64Array {
+    return this.profile;
+  }
+
   /**
    * Source-plane positions of the pixel-centre rays (the lattice of AdaptivePixelMeans: the
    * computed pixels and a two-pixel ring) after the last `computeBasis`.

@@ -1,22 +1,32 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
+import { createConvolver } from '../imaging/convolver.js';
 import { pixelGrid } from '../imaging/pixelGrid.js';
 import { ForwardModel } from '../forward/forwardModel.js';
+import { trimPsfKernel } from '../forward/trimPsfKernel.js';
+import { SourceInversion } from '../inversion/sourceInversion.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import { MarginalisedAmplitudes } from './marginalisedAmplitudes.js';
 import { growMaskByKernel } from './growMaskByKernel.js';
+
+/** The pixelated source's PSF cut: at most this fraction of the least noise left out anywhere. */
+export const INVERSION_NOISE_FRACTION = 0.01;
 
 /**
  * The pixel likelihood of one model (smooth, or with the config's first `perturberCount`
  * perturbers) given observed data: light is computed only where it can reach a used pixel
  * through the PSF, the linear amplitudes are marginalised (MarginalisedAmplitudes), and
- * ln L is fully normalised over the used pixels. One instance per thread; buffers reused.
+ * ln L is fully normalised over the used pixels. With a pixelated source the source cells are
+ * marginalised jointly with the amplitudes (SourceInversion), and ln L is that evidence.
+ * One instance per thread; buffers reused.
  */
 export class PixelLikelihood {
   readonly system: LensSystem;
   readonly forward: ForwardModel;
   readonly marginal: MarginalisedAmplitudes;
+  /** The pixelated source's inversion, when the model has one. */
+  readonly inversion: SourceInversion | undefined;
   private readonly used: Int32Array;
   private readonly packed: Float64Array;
 
@@ -46,11 +56,38 @@ export class PixelLikelihood {
     }
     this.marginal = new MarginalisedAmplitudes(values, sigma, this.system.amplitudeCount, config.amplitudePriorSigma);
     this.packed = new Float64Array(this.system.amplitudeCount * n);
+    const term = this.system.pixelatedSource;
+    let leastNoise = Number.POSITIVE_INFINITY;
+    for (let k = 0; k < n; k++) leastNoise = Math.min(leastNoise, sigma[k]);
+    this.inversion = term === undefined ? undefined : new SourceInversion({
+      grid,
+      computed: this.forward.computedPixels,
+      used: this.used,
+      // The PSF cut where what it leaves out changes no pixel by more than INVERSION_NOISE_FRACTION
+      // of the least noise (trimPsfKernel's bound): the blurred mapping's rows, and so the
+      // coupling of the source cells, shrink with the kernel's area.
+      kernel: trimPsfKernel(data.psf, peakBrightness > 0 ? (INVERSION_NOISE_FRACTION * leastNoise) / peakBrightness : 0).kernel,
+      data: values,
+      inverseVariance: Float64Array.from(sigma, (s) => 1 / (s * s)),
+      massTerms: this.system.massTerms.map((t) => ({ profile: t.fast ?? t.profile, offset: t.offset })),
+      term,
+      extraCount: this.system.amplitudeCount,
+      amplitudePriorSigma: config.amplitudePriorSigma,
+    });
   }
 
   /** ln L of one model vector (amplitudes marginalised); -Infinity for an impossible model. */
   logLikelihood(model: Float64Array): number {
     const basis = this.forward.computeBasis(model);
+    this.pack(basis);
+    const value = this.inversion === undefined
+      ? this.marginal.logLikelihood(this.packed)
+      : this.inversion.logEvidence(this.forward.profileVector, this.packed);
+    return Number.isFinite(value) ? value : Number.NEGATIVE_INFINITY;
+  }
+
+  /** The analytic bases at the used pixels into `packed` (basis k at k * n + e). */
+  private pack(basis: Float64Array): void {
     const n = this.used.length;
     const count = this.forward.pixelCount;
     const packed = this.packed;
@@ -59,18 +96,28 @@ export class PixelLikelihood {
       const out = k * n;
       for (let e = 0; e < n; e++) packed[out + e] = basis[row + this.used[e]];
     }
-    const value = this.marginal.logLikelihood(packed);
-    return Number.isFinite(value) ? value : Number.NEGATIVE_INFINITY;
   }
 
   /**
-   * The model image at the posterior-mean amplitudes of `model` (the amplitudes that maximise
-   * the amplitude posterior given the other parameters), over the whole grid.
+   * The model image at the posterior-mean amplitudes (and, with a pixelated source, the
+   * posterior-mean source) of `model`, over the whole grid.
    */
   modelImage(model: Float64Array): { image: Float64Array; amplitudes: Float64Array; logLikelihood: number } {
     const logLikelihood = this.logLikelihood(model);
-    const amplitudes = Float64Array.from(this.marginal.amplitudes);
     const image = new Float64Array(this.forward.pixelCount);
+    let amplitudes: Float64Array;
+    if (this.inversion === undefined) {
+      amplitudes = Float64Array.from(this.marginal.amplitudes);
+    } else {
+      const cells = this.inversion.sourceCellCount;
+      amplitudes = Float64Array.from(this.inversion.lastSolution.subarray(cells, cells + this.system.amplitudeCount));
+      if (Number.isFinite(logLikelihood)) {
+        const lensed = new Float64Array(this.forward.pixelCount);
+        this.inversion.addLensedSource(lensed);
+        const { columns, rows } = this.forward.grid;
+        createConvolver(columns, rows, this.forward.convolvedPsf).convolve(lensed, image);
+      }
+    }
     const basis = this.forward.basis;
     for (let k = 0; k < amplitudes.length; k++) {
       for (let p = 0; p < image.length; p++) image[p] += amplitudes[k] * basis[k * image.length + p];

@@ -5,6 +5,7 @@ import type { LightProfile, LightProfilePair } from '../light/lightProfile.js';
 import { mainLensProfiles, multipole } from '../lens/index.js';
 import { lightProfiles, shapeletsOfOrder } from '../light/index.js';
 import type { MassTerm } from '../lensing/massTerm.js';
+import { pixelatedParameterNames, type PixelatedSourceTerm } from './pixelatedSourceTerm.js';
 import { ParameterCollector, copyWriter } from './componentBinding.js';
 import type { ModelParameter } from './modelParameter.js';
 import { bindPerturber, type PerturberBinding } from './perturberBinding.js';
@@ -35,6 +36,8 @@ export interface LensSystem {
   readonly parameters: readonly ModelParameter[];
   readonly massTerms: readonly MassTerm[];
   readonly sourceTerms: readonly LightTerm[];
+  /** The source reconstructed on a pixel mesh, when the config has one (fits only). */
+  readonly pixelatedSource: PixelatedSourceTerm | undefined;
   readonly lensLightTerms: readonly LightTerm[];
   readonly perturbers: readonly PerturberBinding[];
   readonly profileVectorLength: number;
@@ -54,6 +57,11 @@ export interface LensSystem {
 export interface LensSystemOptions {
   /** How many of the config's perturbers to include (default: all). 0 gives the smooth model. */
   readonly perturberCount?: number;
+  /**
+   * 'fit' (default) leaves out the source components marked simulateOnly; 'simulate' leaves out
+   * a pixelated source (it has no values to draw an image from) and keeps the rest.
+   */
+  readonly purpose?: 'fit' | 'simulate';
 }
 
 function lightProfileOf(component: ComponentConfig, file: string): LightProfilePair {
@@ -197,7 +205,24 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
     }
     return term;
   });
-  const sourceTerms = bindLight(config.sourceLight);
+  const fitting = (options.purpose ?? 'fit') === 'fit';
+  const pixelatedComponents = config.sourceLight.filter((c) => c.kind === 'pixelated');
+  if (pixelatedComponents.length > 1) {
+    throw new InputError('at most one pixelated source component', { file, key: pixelatedComponents[1].key });
+  }
+  for (const c of pixelatedComponents) {
+    if (c.simulateOnly === true) throw new InputError('a pixelated source is fitted, never simulated: drop simulateOnly', { file, key: `${c.key}.simulateOnly` });
+  }
+  const sourceTerms = bindLight(config.sourceLight.filter((c) => c.kind !== 'pixelated' && !(fitting && c.simulateOnly === true)));
+  let pixelatedSource: PixelatedSourceTerm | undefined;
+  if (fitting && pixelatedComponents.length === 1) {
+    const component = pixelatedComponents[0];
+    const names = pixelatedParameterNames(component.pixelated!);
+    const indices = collector.bind(component, names);
+    writers.push(copyWriter(indices, profileLength));
+    pixelatedSource = { key: component.key, settings: component.pixelated!, offset: profileLength, parameterNames: names };
+    profileLength += names.length;
+  }
   const lensLightTerms = bindLight(config.lensLight);
   const configuredAmplitudes = amplitudeValues.every((v) => v !== undefined)
     ? Float64Array.from(amplitudeValues as number[])
@@ -209,6 +234,7 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
     parameters,
     massTerms,
     sourceTerms,
+    pixelatedSource,
     lensLightTerms,
     perturbers,
     profileVectorLength: profileLength,

@@ -32,7 +32,7 @@ export interface Simulation {
 
 /** Simulates the config's scenario: every parameter at its configured `value`. */
 export function simulateObservation(config: ArcsiftConfig, options: SimulationOptions): Simulation {
-  const system = buildLensSystem(config);
+  const system = buildLensSystem(config, { purpose: 'simulate' });
   const truthVector = system.configuredValues();
   system.parameters.forEach((parameter, index) => {
     if (Number.isNaN(truthVector[index])) {

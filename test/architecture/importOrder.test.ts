@@ -12,7 +12,7 @@ const src = fileURLToPath(new URL('../../src/', import.meta.url));
 export const LAYERS = [
   'errors.ts', 'settings', 'numeric', 'io', 'fits', 'config', 'priors', 'results',
   'cosmology', 'lens', 'perturber', 'light', 'lensing', 'imaging', 'data', 'records',
-  'model', 'forward', 'simulate', 'likelihood', 'sampling', 'parallel',
+  'model', 'forward', 'inversion', 'simulate', 'likelihood', 'sampling', 'parallel',
   'inference', 'vet', 'sensitivity', 'report', 'cli', 'bench', 'index.ts',
 ];
 

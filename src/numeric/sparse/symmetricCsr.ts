@@ -1,7 +1,8 @@
 /**
  * A symmetric sparse n x n matrix held as its lower triangle (diagonal included) in compressed
  * rows: the entries of row i are at positions rowStart[i] .. rowStart[i + 1] - 1, with column
- * indices column[p] <= i in increasing order, no repeats, and values value[p]. The arrays may be
+ * indices column[p] <= i, no repeats, and values value[p]. Columns may come in any order (no step
+ * of the kernel depends on it; the accumulator writes them increasing). The arrays may be
  * longer than needed (reused buffers); only the first size + 1 row pointers and the first
  * rowStart[size] entries count. The diagonal entry of a row may be absent (a structural zero).
  */

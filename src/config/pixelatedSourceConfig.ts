@@ -1,0 +1,46 @@
+import { expectedFound } from '../errors.js';
+import type { ConfigNode } from './configNode.js';
+
+/** How a pixelated source's cells are laid out in the source plane. */
+export type SourceMeshConfig =
+  | {
+    /** A regular grid of cellsPerSide x cellsPerSide cells over the region the masked image maps to (bilinear interpolation). */
+    readonly kind: 'regular';
+    readonly cellsPerSide: number;
+  }
+  | {
+    /** Cells whose vertices are the traced positions of a subset of image pixels (Delaunay, barycentric interpolation). */
+    readonly kind: 'adaptive';
+    /** About how many vertices (cells): every k-th pixel along both axes, k from this. */
+    readonly cells: number;
+  };
+
+/** The prior on a pixelated source's cell values (Suyu et al. 2006 forms; brightness-weighted). */
+export type RegularisationForm = 'zeroth' | 'gradient' | 'curvature' | 'brightness';
+
+export const REGULARISATION_FORMS: readonly RegularisationForm[] = ['zeroth', 'gradient', 'curvature', 'brightness'];
+
+/** The settings of a pixelated source component that are not sampled parameters. */
+export interface PixelatedSourceConfig {
+  readonly mesh: SourceMeshConfig;
+  readonly regularisation: RegularisationForm;
+  /** Rays per image pixel along each axis (r x r per pixel) that sample the source. */
+  readonly raysPerPixelSide: number;
+}
+
+/** The non-parameter keys a pixelated source component takes. */
+export const PIXELATED_SETTING_KEYS = ['mesh', 'regularisation', 'raysPerPixelSide'] as const;
+
+/** Reads a pixelated component's settings from its mapping (the parameters are read elsewhere). */
+export function readPixelatedSource(node: ConfigNode): PixelatedSourceConfig {
+  const meshNode = node.get('mesh');
+  if (!meshNode.isMapping()) meshNode.fail(expectedFound('{ kind: regular, cellsPerSide: N } or { kind: adaptive, cells: N }', meshNode.value));
+  const kind = meshNode.get('kind').oneOf(['regular', 'adaptive'] as const);
+  const mesh: SourceMeshConfig = kind === 'regular'
+    ? { kind, cellsPerSide: meshNode.get('cellsPerSide').number({ integer: true, min: 3, max: 200 }) }
+    : { kind, cells: meshNode.get('cells').number({ integer: true, min: 16, max: 20000 }) };
+  meshNode.finish();
+  const regularisation = node.get('regularisation').oneOf(REGULARISATION_FORMS);
+  const raysPerPixelSide = node.get('raysPerPixelSide').optionalNumber(2, { integer: true, min: 1, max: 8 });
+  return { mesh, regularisation, raysPerPixelSide };
+}

@@ -1,0 +1,76 @@
+// The lensed and blurred mapping of a pixelated source (src/inversion/mappingMatrix.ts,
+// blurredMapping.ts) against its definition (Warren & Dye 2003): column j of B is the image of
+// cell j alone at unit value, averaged over each pixel's rays and convolved with the PSF by the
+// direct convolution of src/imaging/directConvolution.ts (itself tested against the definition).
+import { describe, expect, it } from 'vitest';
+import { directConvolution } from '../../src/imaging/directConvolution.js';
+import { pixelGrid } from '../../src/imaging/pixelGrid.js';
+import { BlurredMapping } from '../../src/inversion/blurredMapping.js';
+import { MappingMatrix } from '../../src/inversion/mappingMatrix.js';
+import { RegularMesh } from '../../src/inversion/regularMesh.js';
+import { SourceRays } from '../../src/inversion/sourceRays.js';
+import { SparseRows } from '../../src/inversion/sparseRows.js';
+import { isothermalEllipsoid } from '../../src/lens/isothermalEllipsoid/isothermalEllipsoid.js';
+
+describe('the blurred mapping matrix', () => {
+  const grid = pixelGrid(14, 12, 0.1);
+  const all = Int32Array.from({ length: 14 * 12 }, (_, p) => p);
+  const used = all.filter((p) => (p % 14) > 2 && (p % 14) < 12 && Math.floor(p / 14) > 1 && Math.floor(p / 14) < 10);
+  const kernel = { columns: 3, rows: 3, values: Float64Array.of(0.02, 0.1, 0.03, 0.12, 0.4, 0.1, 0.05, 0.1, 0.08) };
+  const rays = new SourceRays(grid, all, 2);
+  // An isothermal ellipsoid (Einstein radius 0.4", q 0.8) maps the grid onto a small source region.
+  const p = Float64Array.of(0.4, 0.8, 30, 0.05, -0.02, 0);
+  rays.trace([{ profile: isothermalEllipsoid, offset: 0 }], p);
+  const mesh = new RegularMesh(5);
+  let xMin = Infinity, xMax = -Infinity, yMin = Infinity, yMax = -Infinity;
+  for (let t = 0; t < rays.count; t++) {
+    xMin = Math.min(xMin, rays.betaX[t]); xMax = Math.max(xMax, rays.betaX[t]);
+    yMin = Math.min(yMin, rays.betaY[t]); yMax = Math.max(yMax, rays.betaY[t]);
+  }
+  mesh.layOver(xMin, xMax, yMin, yMax);
+  const cells = new Int32Array(4 * rays.count), weights = new Float64Array(4 * rays.count);
+  mesh.interpolate(rays.betaX, rays.betaY, rays.count, cells, weights);
+  const area = 0.01;
+  const m = new SparseRows();
+  new MappingMatrix().build(cells, weights, all.length, 4, 4, mesh.cellCount, area, m);
+  const b = new SparseRows();
+  new BlurredMapping(14, 12, kernel, used, all).build(m, mesh.cellCount, b);
+
+  it('holds, for every cell, the blurred image of that cell alone at the used pixels (to 1e-14)', () => {
+    let worst = 0;
+    for (let j = 0; j < mesh.cellCount; j++) {
+      const image = new Float64Array(all.length);
+      for (let q = 0; q < all.length; q++) {
+        let sum = 0;
+        for (let t = 4 * q; t < 4 * q + 4; t++) {
+          for (let k = 0; k < 4; k++) if (cells[4 * t + k] === j) sum += weights[4 * t + k];
+        }
+        image[q] = (area * sum) / 4;
+      }
+      const blurred = new Float64Array(all.length);
+      directConvolution(image, 14, 12, kernel, blurred);
+      used.forEach((pixel, e) => {
+        let entry = 0;
+        for (let k = b.rowStart[e]; k < b.rowStart[e + 1]; k++) if (b.column[k] === j) entry = b.value[k];
+        worst = Math.max(worst, Math.abs(entry - blurred[pixel]));
+      });
+    }
+    expect(worst).toBeLessThan(1e-14);
+  });
+
+  it('maps a source of uniform brightness 1 to the pixel area in every pixel whose rays all land on the mesh', () => {
+    // Bilinear weights sum to 1 (common practice), so each ray sees brightness 1 and each pixel
+    // holds brightness x area before the PSF.
+    for (let q = 0; q < all.length; q++) {
+      let sum = 0;
+      for (let k = m.rowStart[q]; k < m.rowStart[q + 1]; k++) sum += m.value[k];
+      expect(Math.abs(sum - area)).toBeLessThan(1e-15);
+    }
+  });
+
+  it('keeps each row of B in increasing cell order, each cell once', () => {
+    for (let e = 0; e < b.rowCount; e++) {
+      for (let k = b.rowStart[e] + 1; k < b.rowStart[e + 1]; k++) expect(b.column[k]).toBeGreaterThan(b.column[k - 1]);
+    }
+  });
+});
