@@ -2,7 +2,7 @@ import { execFileSync } from 'node:child_process';
 import { rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { InputError } from '../../src/errors.js';
+import { inputErrorOf } from '../support/inputErrorOf.js';
 import { writeFits } from '../../src/fits/index.js';
 import { loadObservedData, PIXEL_SCALE_RELATIVE_TOLERANCE } from '../../src/data/index.js';
 import {
@@ -19,15 +19,6 @@ const PYTHON = '/usr/bin/python3';
 const { root, remove } = makeRoot();
 afterAll(remove);
 
-function inputErrorOf(run: () => unknown): InputError {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(InputError);
-    return error as InputError;
-  }
-  throw new Error('expected an InputError, none was thrown');
-}
 
 describe('loading a good data folder (own validation contract, common practice)', () => {
   const folder = writeDataFolder(root);
@@ -241,7 +232,7 @@ describe('refused data: InputError naming the file and pixel (own validation con
     expect([column, row]).toEqual([3, 1]);
     const error = inputErrorOf(() => loadObservedData({ folder }));
     expect(error.place).toEqual({ file: path, pixel: [column, row] });
-    expect(error.message).toBe(`${path}, pixel (3, 1): image value: expected a finite value inside the mask, found NaN`);
+    expect(error.message).toBe(`${path}, pixel (3, 1) (column, row, counted from 0): image value: expected a finite value inside the mask, found NaN`);
   });
 
   it('an infinite noise value inside the mask', () => {
