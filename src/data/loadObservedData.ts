@@ -1,6 +1,6 @@
 import type { ObservationConfig } from '../config/arcsiftConfig.js';
 import { InputError, pixelText } from '../errors.js';
-import { CelestialWcs, type FitsImage } from '../fits/index.js';
+import { CelestialWcs, type CelestialWcsDescription, type FitsImage } from '../fits/index.js';
 import { pixelGrid } from '../imaging/pixelGrid.js';
 import type { PsfKernel } from '../imaging/psfKernel.js';
 import { cutOutValues, cutoutBox, type CutoutBox } from './cutoutBox.js';
@@ -8,6 +8,7 @@ import { resolveDataFiles, type ObservedDataSource } from './dataFiles.js';
 import { dataMaskFromFlags, maskFlagsFromValues } from './dataMask.js';
 import { dataPixelScaleArcsec, type DataImage } from './dataPixelScale.js';
 import { countsPerSecondScale } from './imageUnits.js';
+import { ImagePlaneSky, type SkyGrid } from './imagePlaneSky.js';
 import { describeMaskConfig, maskOfObservation } from './maskOfObservation.js';
 import { maskedPixelValues } from './maskedPixelValues.js';
 import type { ObservedData } from './observedData.js';
@@ -115,6 +116,15 @@ function dataPsf(
   return { kernel: { columns: kernel.columns, rows: kernel.rows, values } };
 }
 
+/** Where the fitted pixels are on the sky and which way their axes point, so x and y can be read. */
+function skyNotice(file: string, grid: SkyGrid & { wcs: CelestialWcsDescription }): string {
+  const sky = new ImagePlaneSky(grid, grid.wcs);
+  const centre = sky.skyOf(0, 0);
+  const angle = (ccw: number): string => sky.eastOfNorthDeg(ccw).toFixed(2);
+  return `${file}: celestial WCS (${grid.wcs.frame}, TAN): the image centre (x = y = 0) is at RA ${centre.raDeg.toFixed(6)}, Dec ${centre.decDeg.toFixed(6)} degrees; ` +
+    `+x points ${angle(0)} and +y ${angle(90)} degrees east of north, so positions are also reported as RA/Dec and position angles also east of north`;
+}
+
 /**
  * Reads and checks an observed data set before any fitting starts. Files may name one HDU of
  * a multi-extension file (`obs.fits[SCI]`); the noise is a 1-sigma map or an inverse-variance
@@ -210,6 +220,7 @@ export function loadObservedData(source: ObservedDataSource, expected: ObservedD
   }
 
   const wcs = frameWcs === undefined ? undefined : (box === undefined ? frameWcs : frameWcs.cutOut(box.column0, box.row0)).description;
+  if (wcs !== undefined) notices.push(skyNotice(files.image, { columns, rows, pixelScaleArcsec, wcs }));
   return {
     files,
     columns,

@@ -75,6 +75,8 @@ describe('a pipeline file: HDUs, units, cut-out, oversampled PSF', () => {
     expect(Math.hypot(back.xArcsec, back.yArcsec)).toBeLessThan(1e-9);
     const angle = expected.positionAngles.find((a: { column: number; counterClockwiseFromXDeg: number }) => a.column === 33.5 && a.counterClockwiseFromXDeg === 30);
     expect(Math.abs(sky.eastOfNorthDeg(30) - angle.eastOfNorthDeg)).toBeLessThan(1e-8);
+    const at = (theta: number): string => expected.positionAngles.find((a: { column: number; counterClockwiseFromXDeg: number }) => a.column === 33.5 && a.counterClockwiseFromXDeg === theta).eastOfNorthDeg.toFixed(2);
+    expect(data.notices.join('\n')).toContain(`+x points ${at(0)} and +y ${at(90)} degrees east of north`);
   });
 
   it('integrates the PSF sampled 3 times finer over image pixels, and keeps the fine one', () => {
