@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { readFitsImage, stringCard, writeFits } from '../../src/fits/index.js';
+import { writeReport } from '../../src/report/writeReport.js';
 
 // A first real lens as a new user would fit it: a pipeline-shaped file (empty primary holding
 // EXPTIME; SCI in electrons, ERR, WHT; TAN WCS rotated by 30 degrees) and a PSF oversampled 3
@@ -81,6 +82,14 @@ describe('fitting a pipeline file through the CLI', () => {
     const apart = Math.hypot((sky.raDeg.median - lensRa) * Math.cos((lensDec * Math.PI) / 180), sky.decDeg.median - lensDec) * 3600;
     expect(apart).toBeLessThan(1.7);
     expect(result.stdout).toMatch(/perturbers\[0\] \(truncatedNfw\) on the sky: RA 201\.36\d+ \(68% [\d.]+ to [\d.]+\), Dec -43\.01\d+ .* degrees \(ICRS\)/);
+  });
+
+  it('shows in its report the data and noise as they were fitted: cut out, in counts/s, the noise from the weights', () => {
+    const out = join(scratch, 'fit');
+    const page = readFileSync(writeReport(out), 'utf8');
+    expect(page).not.toMatch(/not found/);
+    for (const figure of ['data.svg', 'noise.svg', 'perturbed-residual.svg']) expect(existsSync(join(out, 'figures', figure))).toBe(true);
+    expect(readFileSync(join(out, 'figures', 'data.svg'), 'utf8')).toMatch(/counts\/s/);
   });
 });
 

@@ -76,7 +76,7 @@ export function writeVetReport(folder: string, pageFile: string, figuresFolder: 
   const notices: string[] = [...s.dataNotices, ...s.flags.notices];
   const { dataFiles, truth } = locateRunData(s.data, folder, summaryFile, notices);
   const truthValues = new Map((truth?.parameters ?? []).map((p) => [p.name, p.value]));
-  const observed = readObservedImages(dataFiles, notices);
+  const observed = readObservedImages(dataFiles, notices, s);
   const runs = [...s.candidates, ...(s.mapPrior === null ? [] : [s.mapPrior])];
   const confirmed = s.candidates.filter((c) => c.verdict === 'confirmed').slice(0, CONFIRMED_SHOWN);
   const candidateFolder = (r: VetRunRecord): string => join(folder, r.id === 'map-prior' ? 'map-prior' : `candidate-${s.candidates.indexOf(r) + 1}`);
