@@ -64,8 +64,12 @@ function requireCentred(kernel: PsfKernel, factor: number, file: string): void {
  * (they must agree), else 1. The file's pixel scale, where its header states one (CDELT/CD, or
  * PIXELSCL in arcsec per cell), must be the image's divided by the oversampling. An oversampled
  * PSF must be centred on its middle cell; it is normalised, kept, and integrated over image pixels
- * about its centre (pixelIntegratedPsf) into the kernel the forward model uses now. Notices say
- * what was done; mistakes throw InputError naming the file (with its HDU) and keyword.
+ * about its centre (pixelIntegratedPsf) into the kernel the forward model uses now. That model
+ * averages the light over each pixel before the PSF, so for light smooth on the pixel scale the
+ * pixel box is counted twice (variance + pixel^2 / 12; see psfOfObservation, which samples
+ * analytic PSFs at pixel centres for this reason), while light unresolved within a pixel is
+ * exact; the kept fine PSF lets a sub-pixel forward model avoid both. Notices say what was done;
+ * mistakes throw InputError naming the file (with its HDU) and keyword.
  */
 export function readDataPsf(locator: FitsLocator, imageScaleArcsec: number, explicitFactor: number | undefined, notices: string[]): DataPsf {
   const file = locator.text;
