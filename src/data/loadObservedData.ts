@@ -83,6 +83,37 @@ function noiseFromWeights(
   return { sigma, dropped, first };
 }
 
+/**
+ * Whether the data's PSF is the config's, as in data `simulate` made from the same config (then
+ * there is no difference to report): same size and values within 1e-12 of the peak, far below
+ * the rounding of a kernel stored even as 64-bit floats after a resampling.
+ */
+function samePsf(data: PsfKernel, configKernel: () => PsfKernel): boolean {
+  let config: PsfKernel;
+  try {
+    config = configKernel();
+  } catch (error) {
+    // The config's PSF cannot be built (a file it names is gone): it differs, and is not used.
+    if (error instanceof InputError) return false;
+    throw error;
+  }
+  if (data.columns !== config.columns || data.rows !== config.rows) return false;
+  let peak = 0;
+  let largest = 0;
+  for (let k = 0; k < data.values.length; k++) {
+    peak = Math.max(peak, Math.abs(config.values[k]));
+    largest = Math.max(largest, Math.abs(data.values[k] - config.values[k]));
+  }
+  return largest <= 1e-12 * peak;
+}
+
+/** Whether two masks use the same pixels. */
+function sameFlags(a: Uint8Array, b: Uint8Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let k = 0; k < a.length; k++) if ((a[k] === 0) !== (b[k] === 0)) return false;
+  return true;
+}
+
 /** The config's PSF and mask in one place, for the notices that say which one is used. */
 function configPart(expected: ObservedDataExpectation): string {
   return expected.configFile === undefined ? "the config's" : `${expected.configFile}'s`;
@@ -95,7 +126,7 @@ function dataPsf(
   const observation = expected.observation;
   if (locator !== undefined) {
     const psf = readDataPsf(locator, pixelScaleArcsec, source.psfOversampling, notices);
-    if (observation?.psf !== undefined) {
+    if (observation?.psf !== undefined && !(expected.configFile !== undefined && samePsf(psf.kernel, () => psfOfObservation(observation, expected.configFile as string)))) {
       notices.push(`PSF: the data's ${locator.text} is used; ${configPart(expected)} observation.psf (${describePsfConfig(observation)}) is ignored`);
     }
     return psf;
@@ -189,7 +220,10 @@ export function loadObservedData(source: ObservedDataSource, expected: ObservedD
   const configMask = expected.observation?.mask;
   if (mask !== undefined) {
     flags = Uint8Array.from(cut(Float64Array.from(maskFlagsFromValues(mask.image.data, frameColumns, mask.path))));
-    if (configMask !== undefined) notices.push(`mask: the data's ${mask.path} is used; ${configPart(expected)} observation.mask (${describeMaskConfig(configMask)}) is ignored`);
+    const same = configMask !== undefined && sameFlags(flags, maskOfObservation(configMask, pixelGrid(columns, rows, pixelScaleArcsec)));
+    if (configMask !== undefined && !same) {
+      notices.push(`mask: the data's ${mask.path} is used; ${configPart(expected)} observation.mask (${describeMaskConfig(configMask)}) is ignored`);
+    }
   } else if (configMask !== undefined) {
     flags = maskOfObservation(configMask, pixelGrid(columns, rows, pixelScaleArcsec));
     maskWhat = `${configPart(expected)} observation.mask`;
