@@ -12,21 +12,33 @@ export interface InputErrorPlace {
   readonly pixel?: readonly [number, number];
 }
 
+/** A pixel as messages name it: `pixel (3, 1) (column, row, counted from 0)`. */
+export function pixelText(column: number, row: number): string {
+  return `pixel (${column}, ${row}) (column, row, counted from 0)`;
+}
+
+/** The "file, key K, pixel (i, j) (...): " prefix of a message about `place`; empty when the place is unknown. */
+export function placePrefix(place: InputErrorPlace): string {
+  const where: string[] = [];
+  if (place.file !== undefined) where.push(place.file);
+  if (place.key !== undefined) where.push(`key ${place.key}`);
+  if (place.pixel !== undefined) where.push(pixelText(place.pixel[0], place.pixel[1]));
+  return where.length > 0 ? `${where.join(', ')}: ` : '';
+}
+
 export class InputError extends Error {
   readonly place: InputErrorPlace;
 
   constructor(message: string, place: InputErrorPlace = {}) {
-    super(InputError.compose(message, place));
+    super(`${placePrefix(place)}${message}`);
     this.name = 'InputError';
     this.place = place;
   }
 
-  private static compose(message: string, place: InputErrorPlace): string {
-    const where: string[] = [];
-    if (place.file !== undefined) where.push(place.file);
-    if (place.key !== undefined) where.push(`key ${place.key}`);
-    if (place.pixel !== undefined) where.push(`pixel (${place.pixel[0]}, ${place.pixel[1]})`);
-    return where.length > 0 ? `${where.join(', ')}: ${message}` : message;
+  /** The message without the place prefix the constructor added. */
+  get bareMessage(): string {
+    const prefix = placePrefix(this.place);
+    return this.message.startsWith(prefix) ? this.message.slice(prefix.length) : this.message;
   }
 }
 

@@ -9,6 +9,7 @@ import { runDefaults } from '../settings/runDefaults.js';
 import type { EnsembleMoveKind, EnsembleProgress } from '../sampling/ensemble/index.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
+import { formatSky } from './formatSky.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
@@ -38,7 +39,9 @@ function formatParameters(parameters: ModelRecord['parameters']): string[] {
   const width = Math.max(...parameters.map((p) => p.name.length + (p.unit === '' ? 0 : p.unit.length + 3)));
   return parameters.map((p) => {
     const name = p.unit === '' ? p.name : `${p.name} [${p.unit}]`;
-    return `  ${name.padEnd(width)}  ${formatValue(p.median).padStart(10)}  68% [${formatValue(p.interval68[0])}, ${formatValue(p.interval68[1])}]`;
+    const line = `  ${name.padEnd(width)}  ${formatValue(p.median).padStart(10)}  68% [${formatValue(p.interval68[0])}, ${formatValue(p.interval68[1])}]`;
+    const sky = p.eastOfNorthDeg;
+    return sky === undefined ? line : `${line}  = ${formatValue(sky.median)} east of north, 68% [${formatValue(sky.interval68[0])}, ${formatValue(sky.interval68[1])}]`;
   });
 }
 
@@ -64,6 +67,7 @@ export function formatNestedFit(summary: NestedFitSummary): string {
     if (p.log10M200 !== null && p.kind !== 'pointMass') {
       lines.push(`  ${p.key} (${p.kind}): log10 M200/Msun median ${formatValue(p.log10M200.median)}, 95% [${formatValue(p.log10M200.interval95.lower)}, ${formatValue(p.log10M200.interval95.upper)}]`);
     }
+    if (p.sky !== undefined) lines.push(`  ${p.key} (${p.kind}) on the sky: ${formatSky(p.sky)}`);
   }
   lines.push('', ...formatPriorBlock(summary, 'this ln Z and these intervals'));
   return lines.join('\n');

@@ -1,4 +1,5 @@
 import type { PriorDescription } from '../priors/parameterSpace.js';
+import { formatSky } from './formatSky.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { CountComparisonSummary } from '../records/countComparisonSummary.js';
 
@@ -53,6 +54,7 @@ export function formatComparison(summary: ComparisonSummary): string {
       lines.push(`  log10 total (truncated) mass/Msun: median ${fixed(t.median)}, 95% [${fixed(t.interval95.lower)}, ${fixed(t.interval95.upper)}]`);
     }
     lines.push(`  x: ${fixed(p.centerXArcsec.median, 3)}" (68% ${fixed(p.centerXArcsec.interval68.lower, 3)} to ${fixed(p.centerXArcsec.interval68.upper, 3)}), y: ${fixed(p.centerYArcsec.median, 3)}" (68% ${fixed(p.centerYArcsec.interval68.lower, 3)} to ${fixed(p.centerYArcsec.interval68.upper, 3)})`);
+    if (p.sky !== undefined) lines.push(`  sky: ${formatSky(p.sky)}`);
     if (!b.perturberFavoured) {
       lines.push(`  the evidence does not favour a perturber (ln B <= ${b.favouredAbove}): 95% upper limit ${massName} < ${fixed(p.log10MassUpperLimit95)}`);
     }
@@ -79,6 +81,7 @@ export function formatCountComparison(summary: CountComparisonSummary): string {
   for (const p of summary.perturbers) {
     const m = p.log10Mass;
     lines.push(`  ${p.key}: log10 mass ${fixed(m.median)} (95% ${fixed(m.interval95.lower)} to ${fixed(m.interval95.upper)}), x ${fixed(p.centerXArcsec.median, 3)}", y ${fixed(p.centerYArcsec.median, 3)}"`);
+    if (p.sky !== undefined) lines.push(`    sky: ${formatSky(p.sky)}`);
   }
   lines.push('', 'Priors (largest model):', ...formatPriors(summary.priors), '', `Caution: ${summary.caution}`);
   return lines.join('\n');

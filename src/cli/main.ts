@@ -3,6 +3,7 @@ import yargs from 'yargs';
 import { hideBin } from 'yargs/helpers';
 import { InputError } from '../errors.js';
 import { commands } from './commands.js';
+import { closestOption, unknownOptionNames } from './closestOption.js';
 
 /** Prints a user mistake without a stack trace (exit 2); anything else is an internal fault (exit 1). */
 function reportAndExit(error: unknown): never {
@@ -16,19 +17,44 @@ function reportAndExit(error: unknown): never {
 
 process.on('unhandledRejection', reportAndExit);
 
+const NO_COMMAND = 'name a command';
+
+/** The part of yargs' usage object the failure handler uses (its third argument). */
+interface UsageView {
+  showHelp(print: (text: string) => void): void;
+  getDescriptions?: () => Record<string, unknown>;
+}
+
+/** "did you mean --x?" lines for the command line's options that the failing command does not know. */
+function suggestions(usage: UsageView): string {
+  const known = Object.keys(usage.getDescriptions?.() ?? {});
+  if (known.length === 0) return '';
+  return unknownOptionNames(hideBin(process.argv), known).map((name) => {
+    const negated = name.startsWith('no-') ? closestOption(name.slice(3), known) : undefined;
+    const near = negated === undefined ? closestOption(name, known) : `no-${negated}`;
+    return near === undefined ? '' : `did you mean --${near} (not --${name})?\n`;
+  }).join('');
+}
+
 let cli = yargs(hideBin(process.argv))
   .scriptName('arcsift')
   .usage('$0 <command> [options]\n\nFit strong-lens images with and without a dark-matter perturber and weigh the two by Bayesian evidence.')
   .strict()
-  .demandCommand(1, 'name a command (see the list above)')
+  .demandCommand(1, NO_COMMAND)
   .recommendCommands()
   .help()
   .alias('help', 'h')
   .version()
   .wrap(Math.min(100, process.stdout.columns ?? 100))
-  .fail((message, error) => {
+  .fail((message, error, usage) => {
     if (error) reportAndExit(error);
-    process.stderr.write(`arcsift: ${message}\n(run \`arcsift --help\` or \`arcsift <command> --help\`)\n`);
+    const view = usage as unknown as UsageView;
+    if (message === NO_COMMAND) {
+      view.showHelp((text) => process.stderr.write(`${text}\n`));
+      process.stderr.write('\narcsift: name one of the commands above\n');
+      process.exit(2);
+    }
+    process.stderr.write(`arcsift: ${message}\n${suggestions(view)}(run \`arcsift --help\` or \`arcsift <command> --help\`)\n`);
     process.exit(2);
   });
 for (const command of commands) cli = cli.command(command);

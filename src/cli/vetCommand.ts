@@ -35,13 +35,24 @@ function massText(r: VetRunRecord): string {
     : `< ${fixed(r.log10MassUpperLimit95)} (95% upper limit)`;
 }
 
+/** RA and Dec in degrees for the table, to 1e-6 degrees (4 milliarcsec). */
+const degrees = (v: number | undefined): string => (v === undefined || !Number.isFinite(v) ? '-' : v.toFixed(6));
+
 /** The plain-text result of `vet`: the table with its thresholds, the priors and the cautions. */
 export function formatVetTable(summary: VetSummary): string {
   const t = summary.thresholds;
+  if (summary.smooth === null) {
+    return [
+      `No candidates to vet in ${summary.flags.file}: no fit was run, and vet.json and vet.csv say so (an empty table is a valid result).`,
+      ...summary.flags.notices.map((notice) => `  notice: ${notice}`),
+    ].join('\n');
+  }
+  const smooth = summary.smooth;
   const rows = [...summary.candidates, ...(summary.mapPrior === null ? [] : [summary.mapPrior])];
   const massName = summary.perturberKind === 'nfw' || summary.perturberKind === 'truncatedNfw' ? 'log10 M200/Msun' : 'log10 M/Msun';
+  const onSky = summary.wcs !== undefined;
   const table = [
-    ['candidate', 'flag (x, y) "', 'score', 'ln B', 'verdict', massName, 'posterior (x, y) "', 'offset "'],
+    ['candidate', 'flag (x, y) "', 'score', 'ln B', 'verdict', massName, 'posterior (x, y) "', 'offset "', ...(onSky ? [`posterior RA, Dec (deg, ${summary.wcs?.frame})`] : [])],
     ...rows.map((r) => [
       r.id,
       r.flag === null ? 'map prior' : `(${fixed(r.flag.xArcsec, 3)}, ${fixed(r.flag.yArcsec, 3)})`,
@@ -51,19 +62,20 @@ export function formatVetTable(summary: VetSummary): string {
       massText(r),
       `(${fixed(r.position.xArcsec.median, 3)}, ${fixed(r.position.yArcsec.median, 3)})`,
       fixed(r.offsetArcsec, 3),
+      ...(onSky ? [`${degrees(r.position.sky?.raDeg.median)}, ${degrees(r.position.sky?.decDeg.median)}`] : []),
     ]),
   ];
   const widths = table[0].map((_, c) => Math.max(...table.map((line) => line[c].length)));
   const lines: string[] = [
     `Vetting ${summary.candidates.length} flag(s) from ${summary.flags.file} against one smooth fit ` +
-      `(ln Z = ${fixed(summary.smooth.lnEvidence)} +- ${fixed(summary.smooth.lnEvidenceError)})`,
+      `(ln Z = ${fixed(smooth.lnEvidence)} +- ${fixed(smooth.lnEvidenceError)})`,
     `Verdicts: confirmed when ln B > ${t.confirmAboveLnB}, disfavoured when ln B < ${t.disfavourBelowLnB}, inconclusive between ` +
       '(ln B = ln Z perturbed - ln Z smooth)',
     '',
     ...table.map((line) => `  ${line.map((text, c) => text.padEnd(widths[c])).join('  ').trimEnd()}`),
   ];
   for (const notice of summary.flags.notices) lines.push(`  notice: ${notice}`);
-  for (const r of [...rows.map((r) => ({ id: r.id, model: r.model })), { id: 'smooth', model: summary.smooth }]) {
+  for (const r of [...rows.map((r) => ({ id: r.id, model: r.model })), { id: 'smooth', model: smooth }]) {
     if (r.model.insertionRankWarning) {
       lines.push(`  warning: the insertion-rank check of run ${r.id} gives p = ${r.model.insertionRankPValue.toExponential(1)}: ` +
         'its constrained draws may be biased, so its ln Z is suspect (Fowlie, Handley & Su 2020)');
@@ -123,7 +135,7 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     const interrupted = existsSync(out) && readdirSync(out).some((name) => existsSync(join(out, name, 'checkpoint.json')));
     if (interrupted && !args.resume) throw new InputError(`${out} holds an interrupted vetting; pass --resume to continue it, or choose another --out`);
     const data = loadDataOf(args, config);
-    const flags = readFlags(args.flags, data, { ...mapSettings, requireCandidates: !args['map-prior'] });
+    const flags = readFlags(args.flags, data, mapSettings);
     if (args['map-prior'] && flags.map === undefined) {
       throw new InputError('--map-prior takes the probability map as the position prior: expected --flags to name a .fits or .npy map, found a list', { file: args.flags });
     }
@@ -144,7 +156,8 @@ export const vetCommand: CommandModule<object, VetArguments> = {
       onRunStart: () => finish?.(),
     });
     finish?.();
-    process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')} and each run's samples and images under ${out}\n`);
+    const written = summary.smooth === null ? '' : " and each run's samples and images";
+    process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')}${written} under ${out}\n`);
     if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
   },
 };

@@ -51,15 +51,28 @@ export type MaskConfig =
   | { readonly shape: 'disc'; readonly outerRadiusArcsec: number; readonly centerXArcsec: number; readonly centerYArcsec: number }
   | { readonly shape: 'annulus'; readonly innerRadiusArcsec: number; readonly outerRadiusArcsec: number; readonly centerXArcsec: number; readonly centerYArcsec: number };
 
+/** The noise model `simulate` draws from: sigma = sqrt(backgroundRms^2 + model / exposureSeconds). */
+export interface NoiseConfig {
+  readonly backgroundRms: number;
+  readonly exposureSeconds: number;
+}
+
+/**
+ * The observation a config describes. A fit takes its noise from the data and its PSF and mask
+ * from the data when they bring them, so a config for fitting needs only the grid (and a PSF or
+ * mask where the data have none); `simulate` needs the PSF and the noise as well.
+ */
 export interface ObservationConfig {
   readonly columns: number;
   readonly rows: number;
   readonly pixelScaleArcsec: number;
   readonly supersampling: number;
-  readonly psf: PsfConfig;
-  readonly backgroundRms: number;
-  readonly exposureSeconds: number;
-  readonly mask: MaskConfig;
+  /** Absent when the config gives no PSF (the data must then bring one). */
+  readonly psf: PsfConfig | undefined;
+  /** Absent when the config gives no noise model (fitting reads the data's noise map). */
+  readonly noise: NoiseConfig | undefined;
+  /** Absent when the config gives no mask: the data's mask, or every pixel. */
+  readonly mask: MaskConfig | undefined;
 }
 
 export interface CosmologyConfig {
@@ -141,8 +154,8 @@ function readPsf(node: ConfigNode): PsfConfig {
   return psf;
 }
 
-function readMask(node: ConfigNode): MaskConfig {
-  if (node.value === undefined) return { shape: 'all' };
+function readMask(node: ConfigNode): MaskConfig | undefined {
+  if (node.value === undefined) return undefined;
   const shape = node.get('shape').oneOf(['all', 'disc', 'annulus'] as const);
   let mask: MaskConfig;
   if (shape === 'all') {
@@ -171,14 +184,19 @@ function readObservation(node: ConfigNode): ObservationConfig {
   const rows = node.get('rows').number({ integer: true, min: 4 });
   const pixelScaleArcsec = node.get('pixelScaleArcsec').number({ min: 0, exclusiveMin: true });
   const supersampling = node.get('supersampling').optionalNumber(2, { integer: true, min: 1, max: 16 });
-  const psf = readPsf(node.get('psf'));
-  const noise = node.get('noise');
-  const backgroundRms = noise.get('backgroundRms').number({ min: 0, exclusiveMin: true });
-  const exposureSeconds = noise.get('exposureSeconds').number({ min: 0, exclusiveMin: true });
-  noise.finish();
+  const psfNode = node.get('psf');
+  const psf = psfNode.value === undefined ? undefined : readPsf(psfNode);
+  const noiseNode = node.get('noise');
+  let noise: NoiseConfig | undefined;
+  if (noiseNode.value !== undefined) {
+    const backgroundRms = noiseNode.get('backgroundRms').number({ min: 0, exclusiveMin: true });
+    const exposureSeconds = noiseNode.get('exposureSeconds').number({ min: 0, exclusiveMin: true });
+    noiseNode.finish();
+    noise = { backgroundRms, exposureSeconds };
+  }
   const mask = readMask(node.get('mask'));
   node.finish();
-  return { columns, rows, pixelScaleArcsec, supersampling, psf, backgroundRms, exposureSeconds, mask };
+  return { columns, rows, pixelScaleArcsec, supersampling, psf, noise, mask };
 }
 
 function readCosmology(node: ConfigNode): CosmologyConfig | undefined {

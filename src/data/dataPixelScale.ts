@@ -56,17 +56,24 @@ export function dataPixelScaleArcsec(
     }
     scaleArcsec = header.pixelScaleArcsec;
   }
-  for (const other of others) {
-    const scale = other.image.pixelScale;
-    if (scale === undefined) continue;
-    for (const [axis, stepArcsec] of [[1, scale.axis1Arcsec], [2, scale.axis2Arcsec]] as const) {
-      if (!agrees(stepArcsec, scaleArcsec)) {
-        throw new InputError(
-          `${other.role} file pixel scale disagrees with the image: expected ${scaleArcsec} arcsec per pixel within ${PIXEL_SCALE_RELATIVE_TOLERANCE} relative, found ${stepArcsec} arcsec along NAXIS${axis} from ${scale.from} in the header`,
-          { file: other.path, key: scale.from === 'CD' ? `CD${axis}_${axis}` : `CDELT${axis}` },
-        );
-      }
+  for (const other of others) requireMatchingSteps(other, scaleArcsec, 'the image');
+  return scaleArcsec;
+}
+
+/**
+ * Checks that a data file whose header states a pixel scale has steps of `expectedArcsec` along
+ * both axes within PIXEL_SCALE_RELATIVE_TOLERANCE (a file without one passes). Throws InputError
+ * naming the file and keyword.
+ */
+export function requireMatchingSteps(other: DataImage, expectedArcsec: number, expectedFrom: string): void {
+  const scale = other.image.pixelScale;
+  if (scale === undefined) return;
+  for (const [axis, stepArcsec] of [[1, scale.axis1Arcsec], [2, scale.axis2Arcsec]] as const) {
+    if (!agrees(stepArcsec, expectedArcsec)) {
+      throw new InputError(
+        `${other.role} file pixel scale disagrees with ${expectedFrom}: expected ${expectedArcsec} arcsec per pixel within ${PIXEL_SCALE_RELATIVE_TOLERANCE} relative, found ${stepArcsec} arcsec along NAXIS${axis} from ${scale.from} in the header`,
+        { file: other.path, key: scale.from === 'CD' ? `CD${axis}_${axis}` : `CDELT${axis}` },
+      );
     }
   }
-  return scaleArcsec;
 }

@@ -1,8 +1,14 @@
 export type { ObservedData, ObservedDataFiles } from './observedData.js';
 export { loadObservedData, type ObservedDataExpectation } from './loadObservedData.js';
-export { DATA_FILE_NAMES, DATA_FILE_ROLES, resolveDataFiles, type DataFileRole, type ObservedDataSource } from './dataFiles.js';
+export { DATA_FILE_NAMES, DATA_FILE_ROLES, resolveDataFiles, type DataFileRole, type DataLocators, type ObservedDataSource } from './dataFiles.js';
 export { readDataImage } from './readDataImage.js';
-export { dataPixelScaleArcsec, PIXEL_SCALE_RELATIVE_TOLERANCE, type DataImage } from './dataPixelScale.js';
-export { dataMaskFromValues, fullDataMask, type DataMask } from './dataMask.js';
+export { dataPixelScaleArcsec, requireMatchingSteps, PIXEL_SCALE_RELATIVE_TOLERANCE, type DataImage } from './dataPixelScale.js';
+export { dataMaskFromFlags, maskFlagsFromValues, type DataMask } from './dataMask.js';
 export { maskedPixelValues, type MaskedPixelValues } from './maskedPixelValues.js';
 export { sharedFloat64Array, sharedInt32Array, sharedUint8Array } from './sharedArrays.js';
+export { countsPerSecondScale, type UnitScale } from './imageUnits.js';
+export { cutoutBox, cutOutValues, describeCutoutRequest, type CutoutBox, type CutoutRequest } from './cutoutBox.js';
+export { readDataPsf, PSF_PIXELSCL_TOLERANCE, PSF_SUM_NOTICE_TOLERANCE, type DataPsf } from './readDataPsf.js';
+export { ImagePlaneSky, type AngleSummary, type SkyGrid } from './imagePlaneSky.js';
+export { psfOfObservation, describePsfConfig } from './psfOfObservation.js';
+export { maskOfObservation, describeMaskConfig } from './maskOfObservation.js';

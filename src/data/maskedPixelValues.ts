@@ -12,10 +12,12 @@ export interface MaskedPixelValues {
  * Copies `values` to shared memory, checking each pixel inside the mask: finite, and positive
  * too when `positive` is set. Pixels outside the mask become `outsideValue`, whatever they held.
  * The first pixel that fails (in row-major order) throws InputError naming `file`, `what` and
- * the pixel as (column, row).
+ * the pixel as (column, row) of the file: `offset` is the file's (column, row) of values[0], for
+ * values cut out of a larger frame.
  */
 export function maskedPixelValues(
   values: Float64Array, mask: Uint8Array, columns: number, outsideValue: number, positive: boolean, file: string, what: string,
+  offset: readonly [number, number] = [0, 0],
 ): MaskedPixelValues {
   const out = sharedFloat64Array(values.length);
   let nonFiniteOutside = 0;
@@ -28,7 +30,7 @@ export function maskedPixelValues(
     }
     if (!Number.isFinite(value) || (positive && !(value > 0))) {
       const expected = positive ? 'a finite value above 0 inside the mask' : 'a finite value inside the mask';
-      throw new InputError(`${what}: ${expectedFound(expected, value)}`, { file, pixel: [k % columns, Math.floor(k / columns)] });
+      throw new InputError(`${what}: ${expectedFound(expected, value)}`, { file, pixel: [offset[0] + (k % columns), offset[1] + Math.floor(k / columns)] });
     }
     out[k] = value;
   }

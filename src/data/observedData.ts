@@ -1,11 +1,20 @@
+import type { CelestialWcsDescription } from '../fits/index.js';
 import type { PsfKernel } from '../imaging/psfKernel.js';
+import type { CutoutBox } from './cutoutBox.js';
 
-/** The files an observed data set was read from, after folder defaults were applied. */
+/**
+ * The files an observed data set was read from, after folder defaults were applied, as written
+ * (an HDU choice such as `obs.fits[SCI]` included).
+ */
 export interface ObservedDataFiles {
   readonly image: string;
-  readonly noise: string;
-  readonly psf: string;
-  /** Absent when no mask file was given or found: then every pixel is used. */
+  /** The 1-sigma noise map; absent when the noise came from a weight map. */
+  readonly noise?: string;
+  /** The inverse-variance (weight) map the noise came from, when it did. */
+  readonly weight?: string;
+  /** Absent when the data brought no PSF and the config's was used. */
+  readonly psf?: string;
+  /** Absent when no mask file was given or found: then the config's mask, or every pixel. */
   readonly mask?: string;
 }
 
@@ -27,11 +36,11 @@ export interface ObservedData {
   readonly columns: number;
   readonly rows: number;
   readonly pixelScaleArcsec: number;
-  /** Counts/s per pixel (whatever unit the file holds; arcsift's simulations write counts/s). */
+  /** Counts/s per pixel, converted from the file's BUNIT (see `imageUnit`). */
   readonly image: Float64Array<SharedArrayBuffer>;
   /** Per-pixel 1-sigma noise, in the image's unit. */
   readonly noise: Float64Array<SharedArrayBuffer>;
-  /** Odd-sized in both axes, summing to 1, on the image's pixel scale. */
+  /** Odd-sized in both axes, summing to 1, on the image's pixel scale (from the data, or the config's). */
   readonly psf: PsfKernel;
   /** 1 = pixel used in the fit, 0 = not. */
   readonly mask: Uint8Array<SharedArrayBuffer>;
@@ -39,4 +48,12 @@ export interface ObservedData {
   readonly usedPixels: Int32Array<SharedArrayBuffer>;
   /** What was assumed or changed while loading (mask absent, PSF renormalised, ...), for the user. */
   readonly notices: readonly string[];
+  /** The sky coordinates of the pixels (after any cut-out), when the image header has a celestial TAN WCS. */
+  readonly wcs?: CelestialWcsDescription;
+  /** The PSF as the data gave it, `factor` cells per image pixel, when finer than the image (for sub-pixel use). */
+  readonly psfOversampled?: { readonly factor: number; readonly kernel: PsfKernel };
+  /** The part of the image file's frame these pixels are, when a cut-out was asked for. */
+  readonly cutout?: CutoutBox;
+  /** How the image's values became counts per second (BUNIT, EXPTIME), in words. */
+  readonly imageUnit?: string;
 }

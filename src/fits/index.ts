@@ -46,3 +46,8 @@ export {
   type FitsHeaderOnlyHdu,
   type FitsImageHdu,
 } from './writeFits.js';
+export { parseFitsLocator, type FitsLocator } from './fitsLocator.js';
+export { CelestialWcs, type CelestialWcsDescription, type SkyPosition } from './celestialWcs.js';
+export { defaultLonpoleDeg, tanDeproject, tanProject, type TanPole } from './gnomonicProjection.js';
+export { skyPositionAngleDeg, skySeparationDeg } from './skyBearing.js';
+export { wcsLinearMatrix, type WcsLinearMatrix, type WcsMatrixSource } from './wcsLinearMatrix.js';

@@ -1,5 +1,6 @@
 import { InputError } from '../errors.js';
 import type { FitsHeader } from './header.js';
+import { wcsLinearMatrix, type WcsMatrixSource } from './wcsLinearMatrix.js';
 
 /** The pixel size on the sky that a header's linear WCS keywords give. */
 export interface PixelScale {
@@ -12,7 +13,7 @@ export interface PixelScale {
   /** Cosine of the angle between the two pixel axes on the sky; 0 when they are perpendicular. */
   readonly skewCosine: number;
   /** Which keywords gave M. */
-  readonly from: 'CD' | 'PC' | 'CDELT';
+  readonly from: WcsMatrixSource;
   /** True when the two steps agree and the axes are perpendicular within the tolerance. */
   readonly square: boolean;
   /** What makes the pixels not square, when they are not. */
@@ -25,56 +26,6 @@ export interface PixelScale {
  */
 export const SQUARE_PIXEL_TOLERANCE = 1e-3;
 
-/** Arcseconds per unit for the angular CUNITi values of FITS Standard 4.0 sec. 4.3 (units). */
-const ARCSEC_PER_UNIT: Readonly<Record<string, number>> = {
-  deg: 3600,
-  arcmin: 60,
-  arcsec: 1,
-  mas: 1e-3,
-  rad: (180 * 3600) / Math.PI,
-};
-
-function hasAny(header: FitsHeader, prefix: string): boolean {
-  return ['1_1', '1_2', '2_1', '2_2'].some((suffix) => header.has(`${prefix}${suffix}`));
-}
-
-/**
- * The linear part of the pixel-to-world transformation, Greisen & Calabretta (2002, A&A 395,
- * 1061) sec. 2.1: either CDi_j, or CDELTi x PCi_j (PC defaults to the identity, CD elements to
- * 0, PC taking precedence when both are given), in degrees unless CUNITi says otherwise.
- */
-function linearMatrix(header: FitsHeader): { matrix: [number, number, number, number]; from: PixelScale['from'] } | undefined {
-  const element = (prefix: string, i: number, j: number, fallback: number): number =>
-    header.getNumber(`${prefix}${i}_${j}`) ?? fallback;
-  let from: PixelScale['from'];
-  let matrix: [number, number, number, number];
-  if (hasAny(header, 'PC') || (!hasAny(header, 'CD') && header.has('CDELT1') && header.has('CDELT2'))) {
-    const cdelt1 = header.getNumber('CDELT1');
-    const cdelt2 = header.getNumber('CDELT2');
-    if (cdelt1 === undefined || cdelt2 === undefined) return undefined;
-    from = hasAny(header, 'PC') ? 'PC' : 'CDELT';
-    matrix = [
-      cdelt1 * element('PC', 1, 1, 1),
-      cdelt1 * element('PC', 1, 2, 0),
-      cdelt2 * element('PC', 2, 1, 0),
-      cdelt2 * element('PC', 2, 2, 1),
-    ];
-  } else if (hasAny(header, 'CD')) {
-    from = 'CD';
-    matrix = [element('CD', 1, 1, 0), element('CD', 1, 2, 0), element('CD', 2, 1, 0), element('CD', 2, 2, 0)];
-  } else {
-    return undefined;
-  }
-  for (const axis of [1, 2]) {
-    const unit = (header.getString(`CUNIT${axis}`) ?? 'deg').trim();
-    const factor = ARCSEC_PER_UNIT[unit];
-    if (factor === undefined) return undefined;
-    matrix[2 * (axis - 1)] *= factor;
-    matrix[2 * (axis - 1) + 1] *= factor;
-  }
-  return { matrix, from };
-}
-
 /**
  * The pixel scale in arcsec from CDi_j, PCi_j with CDELTi, or CDELTi alone, or undefined when
  * the header has none of them or an axis unit is not an angle. Pixels count as square when the
@@ -82,9 +33,9 @@ function linearMatrix(header: FitsHeader): { matrix: [number, number, number, nu
  * between the axes is at most `relativeTolerance`.
  */
 export function pixelScaleFromHeader(header: FitsHeader, relativeTolerance: number = SQUARE_PIXEL_TOLERANCE): PixelScale | undefined {
-  const linear = linearMatrix(header);
+  const linear = wcsLinearMatrix(header);
   if (linear === undefined) return undefined;
-  const [m11, m12, m21, m22] = linear.matrix;
+  const [m11, m12, m21, m22] = linear.matrixArcsec;
   const axis1Arcsec = Math.hypot(m11, m21);
   const axis2Arcsec = Math.hypot(m12, m22);
   const pixelScaleArcsec = Math.sqrt(Math.abs(m11 * m22 - m12 * m21));

@@ -23,6 +23,8 @@ export interface FitsImage {
   /** 0 for the primary HDU, then 1, 2, ... for extensions. */
   readonly hduIndex: number;
   readonly extname?: string;
+  /** The primary HDU's header when the image is in an extension (pipelines keep EXPTIME and the like there). */
+  readonly primaryHeader?: FitsHeader;
   /** From CDi_j, PCi_j or CDELTi when the header has them; check `square` before using it. */
   readonly pixelScale?: PixelScale;
 }
@@ -64,7 +66,7 @@ function namesMatch(hdu: FitsHduInfo, name: string, extver: number | undefined):
   return extver === undefined || (hdu.extver ?? 1) === extver;
 }
 
-function selectHdu(bytes: Uint8Array, selection: FitsImageSelection, source: string | undefined): FitsHduInfo {
+function selectHdu(bytes: Uint8Array, selection: FitsImageSelection, source: string | undefined): { hdu: FitsHduInfo; primary: FitsHduInfo } {
   const wanted = selection.hdu;
   if (typeof wanted === 'number' && !(Number.isInteger(wanted) && wanted >= 0)) {
     throw new InputError(`HDU not found: expected an HDU index 0, 1, 2, ..., found ${wanted}`, { file: source });
@@ -73,7 +75,7 @@ function selectHdu(bytes: Uint8Array, selection: FitsImageSelection, source: str
   for (const hdu of iterateHdus(bytes, source)) {
     seen.push(hdu);
     if (wanted === undefined ? typeof imageShape(hdu) !== 'string' : typeof wanted === 'number' ? hdu.index === wanted : namesMatch(hdu, wanted, selection.extver)) {
-      return hdu;
+      return { hdu, primary: seen[0] };
     }
   }
   const contents = seen.map(describeHdu).join(', ');
@@ -87,7 +89,7 @@ function selectHdu(bytes: Uint8Array, selection: FitsImageSelection, source: str
 
 /** A 2-D image from the bytes of a FITS file; `source` names the file in error messages. */
 export function decodeFitsImage(bytes: Uint8Array, selection: FitsImageSelection = {}, source?: string): FitsImage {
-  const hdu = selectHdu(bytes, selection, source);
+  const { hdu, primary } = selectHdu(bytes, selection, source);
   const shape = imageShape(hdu);
   if (typeof shape === 'string') throw new InputError(shape, { file: source });
   const [nx, ny] = shape;
@@ -106,6 +108,7 @@ export function decodeFitsImage(bytes: Uint8Array, selection: FitsImageSelection
     header,
     hduIndex: hdu.index,
     ...(hdu.extname !== undefined ? { extname: hdu.extname } : {}),
+    ...(hdu.index > 0 ? { primaryHeader: primary.header } : {}),
     ...(pixelScale !== undefined ? { pixelScale } : {}),
   };
 }

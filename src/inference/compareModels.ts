@@ -1,5 +1,6 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
+import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError } from '../errors.js';
 import { bayesFactorReading, significanceBound, type BayesFactorReading, type SignificanceBound } from '../results/index.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
@@ -92,7 +93,7 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
     reading: bayesFactorReading(lnBayesFactor),
     significance: significanceBound(lnBayesFactor),
     perturberFavoured: lnBayesFactor > runDefaults.comparison.favouredLnBayesFactor,
-    perturbers: summarisePerturbers(perturbed),
+    perturbers: summarisePerturbers(perturbed, ImagePlaneSky.of(data)),
     priors: { smooth: smooth.space.describe(), perturbed: perturbed.space.describe() },
     amplitudePriorSigma: config.amplitudePriorSigma,
   };

@@ -1,6 +1,7 @@
 import { join } from 'node:path';
 import type { ArcsiftConfig, ComponentConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
+import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { bayesFactorReading } from '../results/index.js';
@@ -70,7 +71,7 @@ export async function comparePerturberCounts(
     rows,
     preferredCount: preferred,
     models,
-    perturbers: preferred === 0 ? [] : summarisePerturbers(runs[preferred]),
+    perturbers: preferred === 0 ? [] : summarisePerturbers(runs[preferred], ImagePlaneSky.of(data)),
     priors: runs[maxCount].space.describe(),
     labelSwitching: 'identical perturbers are ordered by increasing x inside the prior transform (relabelling); ' +
       'the evidence is unchanged and perturbers[0] is always the leftmost',

@@ -2,9 +2,11 @@ import type { ModelEvidence } from './runModelEvidence.js';
 import { weightsFromLogWeights } from '../numeric/statistics/weightsFromLogWeights.js';
 import { parameterColumn, parameterSummary, upperLimit, type ParameterSummary } from '../results/index.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
+import type { ImagePlaneSky } from '../data/imagePlaneSky.js';
+import { perturberSkyPosition } from './perturberSkyPosition.js';
 
-/** Summarises every perturber of a perturbed model's weighted posterior. */
-export function summarisePerturbers(evidence: ModelEvidence): PerturberSummary[] {
+/** Summarises every perturber of a perturbed model's weighted posterior; with `sky`, its RA and Dec too. */
+export function summarisePerturbers(evidence: ModelEvidence, sky?: ImagePlaneSky): PerturberSummary[] {
   const { result, system, space } = evidence;
   const weights = weightsFromLogWeights(result.lnWeight);
   const width = space.physicalDim;
@@ -34,6 +36,7 @@ export function summarisePerturbers(evidence: ModelEvidence): PerturberSummary[]
       log10M200: usable(m200) ? parameterSummary(m200, weights) : null,
       log10TotalMass: usable(total) ? parameterSummary(total, weights) : null,
       massPriorRange: prior.isFixed ? null : [prior.lower, prior.upper],
+      ...(sky === undefined ? {} : { sky: perturberSkyPosition(x, y, weights, sky) }),
     };
   });
 }

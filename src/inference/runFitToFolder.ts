@@ -1,6 +1,7 @@
 import { join } from 'node:path';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
+import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError, expectedFound } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
@@ -92,7 +93,7 @@ export async function runFitToFolder(
       priors: run.space.describe(),
       evidence: { lnEvidence: model.lnEvidence, lnEvidenceError: model.lnEvidenceError, lnEvidenceErrorSimulated: model.lnEvidenceErrorSimulated },
       model,
-      perturbers: summarisePerturbers(run),
+      perturbers: summarisePerturbers(run, ImagePlaneSky.of(data)),
     };
     writeJsonAtomic(join(folder, 'summary.json'), summary);
     return { sampler: 'nested', summary, run };

@@ -6,6 +6,8 @@ import { cornerData, parameterColumn, parameterSummary } from '../results/index.
 import { writeEqualWeightSamplesCsv } from '../records/samplesCsv.js';
 import type { ModelEnsemble } from './runModelEnsemble.js';
 import { writeFitImages } from './writeFitImages.js';
+import { ImagePlaneSky } from '../data/imagePlaneSky.js';
+import { eastOfNorthField } from './positionAngleOnSky.js';
 import type { EnsembleParameterDiagnostics, EnsembleRecord } from '../records/ensembleRecord.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 
@@ -90,11 +92,12 @@ export function writeEnsembleOutputs(
     threads: ensemble.threads,
     parameters: space.freeNames.map((name, k) => {
       const s = parameterSummary(parameterColumn(free, dim, k), weights);
-      return {
+      const entry = {
         name, unit: freeUnits[k], median: s.median,
         interval68: [s.interval68.lower, s.interval68.upper] as const,
         interval95: [s.interval95.lower, s.interval95.upper] as const,
       };
+      return { ...entry, ...eastOfNorthField(entry.name, entry, ImagePlaneSky.of(data)) };
     }),
     files,
   };

@@ -8,6 +8,8 @@ import { cornerData, parameterColumn, parameterSummary } from '../results/index.
 import { writeEqualWeightSamplesCsv, writeWeightedSamplesCsv } from '../records/samplesCsv.js';
 import type { ModelEvidence } from './runModelEvidence.js';
 import { writeFitImages } from './writeFitImages.js';
+import { ImagePlaneSky } from '../data/imagePlaneSky.js';
+import { eastOfNorthField } from './positionAngleOnSky.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 
 /**
@@ -76,11 +78,12 @@ export function writeModelOutputs(
     threads: evidence.threads,
     parameters: freeIndices.map((index) => {
       const s = parameterSummary(parameterColumn(result.points, width, index), weights);
-      return {
+      const entry = {
         name: names[index], unit: units[index], median: s.median,
         interval68: [s.interval68.lower, s.interval68.upper] as const,
         interval95: [s.interval95.lower, s.interval95.upper] as const,
       };
+      return { ...entry, ...eastOfNorthField(entry.name, entry, ImagePlaneSky.of(data)) };
     }),
     files,
   };

@@ -21,19 +21,44 @@ export interface NpyImage {
 /** The six bytes every NPY file starts with: \x93 then "NUMPY". */
 const NPY_MAGIC = [0x93, 0x4e, 0x55, 0x4d, 0x50, 0x59];
 
-/** The element types read, by their kind and size in the dtype string (byte order apart). */
+/**
+ * IEEE 754 binary16 (numpy's float16) as a number: 1 sign bit, 5 exponent bits (bias 15), 10
+ * fraction bits; exponent 0 is subnormal (fraction x 2^-24), exponent 31 infinity or NaN.
+ */
+function halfToNumber(bits: number): number {
+  const sign = bits & 0x8000 ? -1 : 1;
+  const exponent = (bits >> 10) & 0x1f;
+  const fraction = bits & 0x3ff;
+  if (exponent === 0) return sign * fraction * 2 ** -24;
+  if (exponent === 31) return fraction === 0 ? sign * Number.POSITIVE_INFINITY : Number.NaN;
+  return sign * (1 + fraction / 1024) * 2 ** (exponent - 15);
+}
+
+/**
+ * The element types read, by their kind and size in the dtype string (byte order apart). 64-bit
+ * integers beyond 2^53 are read to double precision (nearest double), ample for maps and images.
+ */
 const ELEMENT_TYPES: Readonly<Record<string, { readonly size: number; readonly read: (view: DataView, at: number, little: boolean) => number }>> = {
+  f2: { size: 2, read: (v, at, little) => halfToNumber(v.getUint16(at, little)) },
   f4: { size: 4, read: (v, at, little) => v.getFloat32(at, little) },
   f8: { size: 8, read: (v, at, little) => v.getFloat64(at, little) },
+  b1: { size: 1, read: (v, at) => (v.getUint8(at) === 0 ? 0 : 1) },
   u1: { size: 1, read: (v, at) => v.getUint8(at) },
   i1: { size: 1, read: (v, at) => v.getInt8(at) },
   u2: { size: 2, read: (v, at, little) => v.getUint16(at, little) },
   i2: { size: 2, read: (v, at, little) => v.getInt16(at, little) },
   u4: { size: 4, read: (v, at, little) => v.getUint32(at, little) },
   i4: { size: 4, read: (v, at, little) => v.getInt32(at, little) },
+  u8: { size: 8, read: (v, at, little) => Number(v.getBigUint64(at, little)) },
+  i8: { size: 8, read: (v, at, little) => Number(v.getBigInt64(at, little)) },
 };
 
-const SUPPORTED = "'<f4', '>f4', '<f8', '>f8', '|u1', '|i1', and '<' or '>' with u2, i2, u4, i4";
+/** The dtypes read, in words, for the message that refuses another. */
+const SUPPORTED = 'a numeric or boolean dtype: float16, float32, float64 (f2, f4, f8), int8 to int64 (i1, i2, i4, i8), ' +
+  "uint8 to uint64 (u1, u2, u4, u8) or bool (b1), little-endian '<' or big-endian '>' ('|' for one byte), e.g. '<f4'";
+
+/** The first bytes of a zip archive (local file header), which numpy.savez writes as .npz. */
+const ZIP_MAGIC = [0x50, 0x4b, 0x03, 0x04];
 
 type PyValue = string | boolean | number | PyValue[] | { [key: string]: PyValue } | null;
 
@@ -122,12 +147,15 @@ class PythonLiteral {
  * the magic string \x93NUMPY, a major and minor version byte, a little-endian header length of 2
  * bytes (1.0) or 4 bytes (2.0, 3.0), then a Python dict literal with 'descr', 'fortran_order' and
  * 'shape', latin-1 (utf-8 in 3.0), and the raw array). Only 2-D arrays of the element types in
- * SUPPORTED are read. `source` names the file in error messages.
+ * ELEMENT_TYPES are read (bool as 0 and 1). `source` names the file in error messages.
  */
 export function decodeNpy(bytes: Uint8Array, source?: string): NpyImage {
   const fail = (why: string): never => {
     throw new InputError(`not a readable 2-D NPY array: ${why}`, { file: source });
   };
+  if (bytes.length >= 4 && ZIP_MAGIC.every((b, k) => bytes[k] === b)) {
+    fail('this is a zip archive, as numpy.savez writes (.npz), not one array: save the map alone with numpy.save(\'map.npy\', array)');
+  }
   if (bytes.length < 10 || NPY_MAGIC.some((b, k) => bytes[k] !== b)) {
     fail('expected the NPY magic string \\x93NUMPY at the start of the file, found other bytes');
   }
@@ -155,7 +183,7 @@ export function decodeNpy(bytes: Uint8Array, source?: string): NpyImage {
   const element = ELEMENT_TYPES[(descr as string).slice(1)];
   const littleEndian = orderChar === '<' || orderChar === '|';
   if (element === undefined || !(orderChar === '<' || orderChar === '>' || (orderChar === '|' && element.size === 1))) {
-    fail(`expected dtype ${SUPPORTED}, found '${descr}'`);
+    fail(`expected ${SUPPORTED}; found '${descr}'`);
   }
   if (typeof fortranOrder !== 'boolean') fail(`expected 'fortran_order' True or False, found ${JSON.stringify(fortranOrder)}`);
   if (!Array.isArray(shape) || shape.some((n) => typeof n !== 'number' || !Number.isInteger(n) || n < 0)) {

@@ -22,6 +22,8 @@ export interface ModelRecord {
   readonly parameters: readonly {
     name: string; unit: string; median: number;
     interval68: readonly [number, number]; interval95: readonly [number, number];
+    /** For a position angle (counter-clockwise from +x) of an image with a celestial WCS: the same east of north. */
+    eastOfNorthDeg?: { median: number; interval68: readonly [number, number]; interval95: readonly [number, number] };
   }[];
   readonly files: Record<string, string>;
 }

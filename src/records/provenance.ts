@@ -1,5 +1,7 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import type { CutoutBox } from '../data/cutoutBox.js';
 import type { ObservedData, ObservedDataFiles } from '../data/observedData.js';
+import type { CelestialWcsDescription } from '../fits/celestialWcs.js';
 import { configHash } from './configHash.js';
 import { packageVersion } from '../io/packageVersion.js';
 
@@ -13,6 +15,12 @@ export interface RunProvenance {
   readonly dataNotices: readonly string[];
   readonly seed: number;
   readonly runSeconds: number;
+  /** The celestial WCS of the fitted pixels (after any cut-out), when the image has one. */
+  readonly wcs?: CelestialWcsDescription;
+  /** The part of the image file's frame that was fitted, when a cut-out was asked for. */
+  readonly cutout?: CutoutBox;
+  /** How the image became counts per second (BUNIT, EXPTIME). */
+  readonly imageUnit?: string;
 }
 
 /** The provenance of a run started at `startedMs` (performance.now()) and ending now. */
@@ -25,5 +33,8 @@ export function runProvenance(config: ArcsiftConfig, data: ObservedData, seed: n
     dataNotices: data.notices,
     seed,
     runSeconds: (performance.now() - startedMs) / 1000,
+    ...(data.wcs === undefined ? {} : { wcs: data.wcs }),
+    ...(data.cutout === undefined ? {} : { cutout: data.cutout }),
+    ...(data.imageUnit === undefined ? {} : { imageUnit: data.imageUnit }),
   };
 }

@@ -1,6 +1,7 @@
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import type { ParameterSummary } from '../results/parameterSummary.js';
 import type { ModelRecord } from './modelRecord.js';
+import type { PerturberSky } from './perturberSummary.js';
 import type { RunProvenance } from './provenance.js';
 
 /** What a vetted flag's Bayes factor says. */
@@ -19,7 +20,8 @@ export interface VetRunRecord {
   readonly id: string;
   /** Where the flag came from (file and line, or map pixel); the map file for the map-prior run. */
   readonly origin: string;
-  readonly flag: { readonly xArcsec: number; readonly yArcsec: number } | null;
+  /** The flag's position; RA and Dec (degrees) too when the image has a celestial WCS. */
+  readonly flag: { readonly xArcsec: number; readonly yArcsec: number; readonly raDeg?: number; readonly decDeg?: number } | null;
   readonly score: number | null;
   /** The position prior: the window around the flag, or the map. */
   readonly positionPrior: string;
@@ -32,7 +34,7 @@ export interface VetRunRecord {
   readonly log10Mass: ParameterSummary;
   readonly log10MassUpperLimit95: number;
   readonly massPriorRange: readonly [number, number] | null;
-  readonly position: { readonly xArcsec: ParameterSummary; readonly yArcsec: ParameterSummary };
+  readonly position: { readonly xArcsec: ParameterSummary; readonly yArcsec: ParameterSummary; readonly sky?: PerturberSky };
   /** Distance of the posterior median position from the flag, arcsec (null for the map-prior run). */
   readonly offsetArcsec: number | null;
   readonly model: ModelRecord;
@@ -52,7 +54,8 @@ export interface VetSummary extends RunProvenance {
   readonly thresholds: VetThresholds;
   readonly windowArcsec: number;
   readonly perturberKind: string;
-  readonly smooth: ModelRecord;
+  /** Null when there was no candidate to vet (a map with no value at the threshold): no fit was run. */
+  readonly smooth: ModelRecord | null;
   readonly candidates: readonly VetRunRecord[];
   readonly mapPrior: VetRunRecord | null;
   readonly priors: {

@@ -43,13 +43,17 @@ export function simulateObservation(config: ArcsiftConfig, options: SimulationOp
   if (amplitudes === undefined) {
     throw new InputError('simulate needs an amplitude (or shapelet coefficients) for every light component', { file: config.file });
   }
+  const noiseModel = config.observation.noise;
+  if (noiseModel === undefined) {
+    throw new InputError('simulate needs a noise model: expected observation.noise { backgroundRms, exposureSeconds }, found none', { file: config.file, key: 'observation.noise' });
+  }
   const grid = gridOfObservation(config.observation);
   const psf = psfOfObservation(config.observation, config.file);
   const mask = maskOfObservation(config.observation.mask, grid);
   const forward = new ForwardModel(system, grid, config.observation.supersampling, psf);
   const model = forward.image(truthVector, amplitudes, new Float64Array(forward.pixelCount));
   const noise = new Float64Array(model.length);
-  noiseSigmaMap(model, config.observation.backgroundRms, config.observation.exposureSeconds, noise);
+  noiseSigmaMap(model, noiseModel.backgroundRms, noiseModel.exposureSeconds, noise);
   const image = Float64Array.from(model);
   if (!options.noiseless) addGaussianNoise(model, noise, options.seed, image);
   const perturbers = system.perturbers.map((binding) => ({ key: binding.key, ...binding.derived(truthVector) }));

@@ -1,3 +1,5 @@
+import type { CelestialWcsDescription } from '../fits/index.js';
+
 /** One place flagged for vetting, in arcsift's image-plane convention (arcsec from the centre). */
 export interface FlagCandidate {
   /** The id given in the flag list, or its position in the list (1, 2, ...). */
@@ -10,11 +12,12 @@ export interface FlagCandidate {
   readonly origin: string;
 }
 
-/** The image grid flags are placed on (the observed data's). */
+/** The image grid flags are placed on (the observed data's), with its sky when the image has a celestial WCS. */
 export interface FlagGrid {
   readonly columns: number;
   readonly rows: number;
   readonly pixelScaleArcsec: number;
+  readonly wcs?: CelestialWcsDescription;
 }
 
 /** x of a (possibly fractional) column index: x = (i - (columns - 1) / 2) * scale (README conventions). */

@@ -1,4 +1,4 @@
-import { InputError } from '../errors.js';
+import { pixelText } from '../errors.js';
 import { columnToXArcsec, rowToYArcsec, type FlagCandidate, type FlagGrid } from './flagCandidate.js';
 import type { ProbabilityMap } from './readProbabilityMap.js';
 
@@ -8,8 +8,6 @@ export interface MapCandidateSettings {
   readonly threshold: number;
   /** Maxima closer than this to a higher kept one are merged into it, arcsec (default 0.15). */
   readonly mergeRadiusArcsec: number;
-  /** When false, a map with no value at the threshold gives no candidates instead of an InputError (default true). */
-  readonly requireCandidates?: boolean;
 }
 
 
@@ -19,8 +17,8 @@ export interface MapCandidateSettings {
  * row-major order), taken from the highest down and each dropped when it lies within the merge
  * radius of one already kept (greedy non-maximum suppression, common practice). A candidate sits
  * at the value-weighted centroid of the 3 x 3 pixels around its peak (masked pixels count 0) and
- * its score is the peak value. Throws InputError when no pixel reaches the threshold (unless
- * `requireCandidates` is false).
+ * its score is the peak value. A map with no value at the threshold has no candidates: a valid
+ * answer (nothing flagged), not a mistake.
  */
 export function mapCandidates(map: ProbabilityMap, mask: Uint8Array, grid: FlagGrid, settings: MapCandidateSettings): FlagCandidate[] {
   const { columns, rows, values } = map;
@@ -44,14 +42,6 @@ export function mapCandidates(map: ProbabilityMap, mask: Uint8Array, grid: FlagG
       if (peak) peaks.push(p);
     }
   }
-  if (peaks.length === 0 && settings.requireCandidates !== false) {
-    let highest = 0;
-    for (let p = 0; p < values.length; p++) if (mask[p] !== 0) highest = Math.max(highest, values[p]);
-    throw new InputError(
-      `no candidates: expected map values of at least the threshold ${settings.threshold} inside the mask, found a highest value of ${highest}`,
-      { file: map.file },
-    );
-  }
   peaks.sort((a, b) => values[b] - values[a] || a - b);
   const kept: FlagCandidate[] = [];
   const radius2 = settings.mergeRadiusArcsec * settings.mergeRadiusArcsec;
@@ -72,7 +62,7 @@ export function mapCandidates(map: ProbabilityMap, mask: Uint8Array, grid: FlagG
     const xArcsec = columnToXArcsec(sumI / sum, grid);
     const yArcsec = rowToYArcsec(sumJ / sum, grid);
     if (kept.some((c) => (c.xArcsec - xArcsec) ** 2 + (c.yArcsec - yArcsec) ** 2 <= radius2)) continue;
-    kept.push({ id: String(kept.length + 1), xArcsec, yArcsec, score: values[p], origin: `${map.file} pixel (${i}, ${j})` });
+    kept.push({ id: String(kept.length + 1), xArcsec, yArcsec, score: values[p], origin: `${map.file} ${pixelText(i, j)}` });
   }
   return kept;
 }

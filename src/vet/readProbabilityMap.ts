@@ -12,9 +12,9 @@ export interface ProbabilityMap {
   readonly rows: number;
 }
 
-/** Whether a flags path names a map (FITS or NPY) rather than a CSV list. */
+/** Whether a flags path names a map (FITS or NPY; an .npz archive is read only to be refused clearly) rather than a CSV list. */
 export function isProbabilityMapFile(file: string): boolean {
-  return /\.(fits|fit|fts|npy)$/i.test(file);
+  return /\.(fits|fit|fts|npy|npz)$/i.test(file);
 }
 
 /**
@@ -24,7 +24,7 @@ export function isProbabilityMapFile(file: string): boolean {
  * not used (set to 0). InputError names the file and, for one value, the pixel.
  */
 export function readProbabilityMap(file: string, grid: FlagGrid, mask: Uint8Array): ProbabilityMap {
-  const npy = /\.npy$/i.test(file);
+  const npy = /\.np[yz]$/i.test(file);
   const image = npy ? readNpy(file) : readFitsImage(file);
   if (image.nx !== grid.columns || image.ny !== grid.rows) {
     const found = npy ? `numpy shape (${image.ny}, ${image.nx})` : `${image.nx} x ${image.ny} (NAXIS1 x NAXIS2)`;

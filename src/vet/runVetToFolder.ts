@@ -1,6 +1,8 @@
 import { join } from 'node:path';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
+import { ImagePlaneSky } from '../data/imagePlaneSky.js';
+import { runDefaults } from '../settings/runDefaults.js';
 import { writeFileAtomic, writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { ParameterSummary } from '../results/index.js';
 import { bayesFactorReading } from '../results/index.js';
@@ -15,9 +17,16 @@ import type { ModelRecord } from '../records/modelRecord.js';
 import type { VetRunRecord, VetSummary, VetThresholds, VetVerdict } from '../records/vetSummary.js';
 import { runProvenance } from '../records/provenance.js';
 
+/** A flag's position for vet.json: x, y, and RA, Dec when the image has a celestial WCS. */
+function flagRecord(xArcsec: number, yArcsec: number, sky: ImagePlaneSky | undefined): NonNullable<VetRunRecord['flag']> {
+  if (sky === undefined) return { xArcsec, yArcsec };
+  const { raDeg, decDeg } = sky.skyOf(xArcsec, yArcsec);
+  return { xArcsec, yArcsec, raDeg, decDeg };
+}
+
 function runRecord(
   run: PerturbedVetting, model: ModelRecord, id: string, origin: string, positionPrior: string,
-  flag: { xArcsec: number; yArcsec: number } | null, score: number | undefined, offsetArcsec: number | null,
+  flag: VetRunRecord['flag'], score: number | undefined, offsetArcsec: number | null,
 ): VetRunRecord {
   const p = run.perturber;
   return {
@@ -29,13 +38,50 @@ function runRecord(
     log10Mass: p.log10Mass,
     log10MassUpperLimit95: p.log10MassUpperLimit95,
     massPriorRange: p.massPriorRange,
-    position: { xArcsec: p.centerXArcsec, yArcsec: p.centerYArcsec },
+    position: { xArcsec: p.centerXArcsec, yArcsec: p.centerYArcsec, ...(p.sky === undefined ? {} : { sky: p.sky }) },
     offsetArcsec,
     model,
   };
 }
 
 const range = ([a, b]: readonly [number, number]): string => `[${+a.toFixed(4)}, ${+b.toFixed(4)}]`;
+
+/** What vet.json says of the flags file. */
+function flagsRecord(flags: FlagSet): VetSummary['flags'] {
+  return {
+    file: flags.file, kind: flags.kind,
+    mapThreshold: flags.mapSettings?.threshold ?? null,
+    mergeRadiusArcsec: flags.mapSettings?.mergeRadiusArcsec ?? null,
+    notices: flags.notices,
+  };
+}
+
+/**
+ * vet.csv (a header, no rows) and vet.json for flags with no candidate (a map with no value at
+ * the threshold): a valid answer for a survey, written without running any fit.
+ */
+function writeNothingToVet(config: ArcsiftConfig, data: ObservedData, flags: FlagSet, folder: string, settings: VetSettings, started: number): VetSummary {
+  const { onProgress: _a, signal: _b, checkpointPath: _c, ...smoothSettings } = settings.evidence('smooth', 'smooth');
+  const summary: VetSummary = {
+    kind: 'vet',
+    ...runProvenance(config, data, smoothSettings.seed, started),
+    flags: flagsRecord(flags),
+    settings: smoothSettings,
+    thresholds: settings.thresholds ?? { confirmAboveLnB: runDefaults.vet.confirmAboveLnB, disfavourBelowLnB: runDefaults.vet.disfavourBelowLnB },
+    windowArcsec: settings.windowArcsec ?? runDefaults.vet.windowArcsec,
+    perturberKind: config.perturbers[0]?.kind ?? '',
+    smooth: null,
+    candidates: [],
+    mapPrior: null,
+    priors: { smooth: [], perturbed: [], positionPrior: 'no candidates: no fit was run' },
+    amplitudePrior: amplitudePriorText(config),
+    caution: priorCaution,
+    mapPriorNote: null,
+  };
+  writeFileAtomic(join(folder, 'vet.csv'), formatVetCsv(summary));
+  writeJsonAtomic(join(folder, 'vet.json'), summary);
+  return summary;
+}
 
 /**
  * Runs `vetFlags` and writes everything into `folder`: smooth/, candidate-1/, candidate-2/, ...
@@ -44,8 +90,10 @@ const range = ([a, b]: readonly [number, number]): string => `[${+a.toFixed(4)},
  */
 export async function runVetToFolder(
   config: ArcsiftConfig, data: ObservedData, flags: FlagSet, folder: string, settings: VetSettings,
-): Promise<{ result: VetResult; summary: VetSummary }> {
+): Promise<{ result: VetResult | undefined; summary: VetSummary }> {
   const started = performance.now();
+  const sky = ImagePlaneSky.of(data);
+  if (flags.candidates.length === 0 && settings.mapPrior === undefined) return { result: undefined, summary: writeNothingToVet(config, data, flags, folder, settings, started) };
   const withCheckpoints: VetSettings = {
     ...settings,
     evidence: (label, folderName) => ({ ...settings.evidence(label, folderName), checkpointPath: join(folder, folderName, 'checkpoint.json') }),
@@ -59,7 +107,7 @@ export async function runVetToFolder(
     return runRecord(
       c, model, c.candidate.id, c.candidate.origin,
       `x uniform on ${range(c.window.xArcsec)}, y uniform on ${range(c.window.yArcsec)} arcsec (a ${result.windowArcsec}" square around the flag)`,
-      { xArcsec: c.candidate.xArcsec, yArcsec: c.candidate.yArcsec }, c.candidate.score, c.offsetArcsec,
+      flagRecord(c.candidate.xArcsec, c.candidate.yArcsec, sky), c.candidate.score, c.offsetArcsec,
     );
   });
   let mapPrior: VetRunRecord | null = null;
@@ -78,12 +126,7 @@ export async function runVetToFolder(
   const summary: VetSummary = {
     kind: 'vet',
     ...runProvenance(config, data, seed, started),
-    flags: {
-      file: flags.file, kind: flags.kind,
-      mapThreshold: flags.mapSettings?.threshold ?? null,
-      mergeRadiusArcsec: flags.mapSettings?.mergeRadiusArcsec ?? null,
-      notices: flags.notices,
-    },
+    flags: flagsRecord(flags),
     settings: smoothSettings,
     thresholds: result.thresholds,
     windowArcsec: result.windowArcsec,

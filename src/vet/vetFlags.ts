@@ -1,5 +1,6 @@
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
+import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError, expectedFound } from '../errors.js';
 import { summarisePerturbers } from '../inference/perturberSummary.js';
 import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
@@ -64,14 +65,16 @@ export interface VetResult {
   readonly windowArcsec: number;
 }
 
-function readPerturbed(evidence: ModelEvidence, smooth: ModelEvidence, thresholds: VetThresholds, folderName: string): PerturbedVetting {
+function readPerturbed(
+  evidence: ModelEvidence, smooth: ModelEvidence, thresholds: VetThresholds, folderName: string, sky: ImagePlaneSky | undefined,
+): PerturbedVetting {
   const lnBayesFactor = evidence.result.lnZ - smooth.result.lnZ;
   return {
     evidence,
     lnBayesFactor,
     lnBayesFactorError: Math.hypot(evidence.result.lnZError, smooth.result.lnZError),
     verdict: vetVerdict(lnBayesFactor, thresholds),
-    perturber: summarisePerturbers(evidence)[0],
+    perturber: summarisePerturbers(evidence, sky)[0],
     folderName,
   };
 }
@@ -151,10 +154,11 @@ export async function vetFlags(
   }
   const evidences = await runSideBySide(jobs, concurrency);
   const smooth = evidences[0];
+  const sky = ImagePlaneSky.of(data);
 
   const vetted: CandidateVetting[] = candidates.map((candidate, k) => {
     const folderName = `candidate-${k + 1}`;
-    const reading = readPerturbed(evidences[1 + k], smooth, thresholds, folderName);
+    const reading = readPerturbed(evidences[1 + k], smooth, thresholds, folderName, sky);
     const offsetArcsec = Math.hypot(
       reading.perturber.centerXArcsec.median - candidate.xArcsec, reading.perturber.centerYArcsec.median - candidate.yArcsec,
     );
@@ -164,7 +168,7 @@ export async function vetFlags(
   if (mapPrior !== undefined && settings.mapPrior !== undefined) {
     const { xMin, xMax, yMin, yMax } = mapPrior.bounds;
     mapRun = {
-      ...readPerturbed(evidences[1 + candidates.length], smooth, thresholds, 'map-prior'),
+      ...readPerturbed(evidences[1 + candidates.length], smooth, thresholds, 'map-prior', sky),
       mapFile: settings.mapPrior.map.file,
       config: perturberPositionConfig(config, [xMin, xMax], [yMin, yMax]),
     };

@@ -87,7 +87,17 @@ describe('bad inputs through the CLI', () => {
     expect(existsSync(out)).toBe(false);
   });
 
-  it('explains an inverted prior with the parameter name', () => {
+  it('asks simulate for the noise model a config for fitting may leave out, and writes nothing', () => {
+    const bad = join(scratch, 'no-noise.yaml');
+    writeFileSync(bad, readFileSync(config, 'utf8').replace(/^  noise: .*\n/m, ''));
+    const out = join(scratch, 'never-simulated');
+    const r = run(['simulate', '--config', bad, '--out', out]);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/no-noise\.yaml, key observation\.noise: simulate needs a noise model: expected observation\.noise \{ backgroundRms, exposureSeconds \}, found none/);
+    expect(existsSync(out)).toBe(false);
+  });
+
+    it('explains an inverted prior with the parameter name', () => {
     const bad = join(scratch, 'inverted.yaml');
     writeFileSync(bad, readFileSync(config, 'utf8').replace('uniform: [0.9, 1.3]', 'uniform: [1.3, 0.9]'));
     const r = run(['compare', '--config', bad, '--data', good, '--out', join(scratch, 'inv'), '--quiet']);

@@ -54,9 +54,11 @@ export interface FolderContent {
 /** The good data set. */
 export function goodContent(): Record<keyof FolderContent, FolderImage> {
   const cards = scaleCards(PIXEL_SCALE_ARCSEC);
+  // Image and noise say their unit, as `arcsift simulate` writes it.
+  const withUnit = [...cards, stringCard('BUNIT', 'counts/s')];
   return {
-    image: { data: goodImage(), nx: COLUMNS, ny: ROWS, cards },
-    noise: { data: goodNoise(), nx: COLUMNS, ny: ROWS, cards },
+    image: { data: goodImage(), nx: COLUMNS, ny: ROWS, cards: withUnit },
+    noise: { data: goodNoise(), nx: COLUMNS, ny: ROWS, cards: withUnit },
     psf: { data: goodPsf(), nx: 3, ny: 3, cards },
     mask: { data: goodMask(), nx: COLUMNS, ny: ROWS, bitpix: 8, cards },
   };

@@ -2,7 +2,10 @@ import { execFileSync } from 'node:child_process';
 import { rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { InputError } from '../../src/errors.js';
+import { inputErrorOf } from '../support/inputErrorOf.js';
+import { parse } from 'yaml';
+import { parseConfig } from '../../src/config/arcsiftConfig.js';
+import { simulateToFolder } from '../../src/simulate/simulateToFolder.js';
 import { writeFits } from '../../src/fits/index.js';
 import { loadObservedData, PIXEL_SCALE_RELATIVE_TOLERANCE } from '../../src/data/index.js';
 import {
@@ -19,15 +22,6 @@ const PYTHON = '/usr/bin/python3';
 const { root, remove } = makeRoot();
 afterAll(remove);
 
-function inputErrorOf(run: () => unknown): InputError {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(InputError);
-    return error as InputError;
-  }
-  throw new Error('expected an InputError, none was thrown');
-}
 
 describe('loading a good data folder (own validation contract, common practice)', () => {
   const folder = writeDataFolder(root);
@@ -152,6 +146,27 @@ describe('notices, not errors (own validation contract, common practice)', () =>
   });
 });
 
+describe('config against data: a notice only where they differ (own contract)', () => {
+  it('says nothing of a PSF and mask the data share with the config, and names the one used where they differ', () => {
+    const yaml = (fwhm: number, outer: number): string => `observation: { columns: 40, rows: 40, pixelScaleArcsec: 0.09, supersampling: 1,
+  psf: { shape: gaussian, fwhmArcsec: ${fwhm}, sizePixels: 7 }, noise: { backgroundRms: 0.012, exposureSeconds: 3000 },
+  mask: { shape: annulus, innerRadiusArcsec: 0.5, outerRadiusArcsec: ${outer} } }
+redshifts: { lens: 0.5, source: 2 }
+lens: { mass: [{ kind: isothermalEllipsoid, einsteinRadiusArcsec: 1.1, axisRatio: 0.8, positionAngleDeg: 40, centerXArcsec: 0, centerYArcsec: 0 }] }
+source: { light: [{ kind: ellipticalGaussian, amplitude: 5, sigmaArcsec: 0.1, axisRatio: 1, positionAngleDeg: 0, centerXArcsec: 0.1, centerYArcsec: 0 }] }
+`;
+    const same = parseConfig(parse(yaml(0.18, 1.7)), join(root, 'same.yaml'));
+    const folder = join(root, 'simulated');
+    simulateToFolder(same, folder, { seed: 1, noiseless: false });
+    const expectation = (config: typeof same) => ({ observation: config.observation, configFile: config.file });
+    expect(loadObservedData({ folder }, expectation(same)).notices).toEqual([]);
+    const other = parseConfig(parse(yaml(0.3, 1.5)), join(root, 'other.yaml'));
+    const notices = loadObservedData({ folder }, expectation(other)).notices.join('\n');
+    expect(notices).toMatch(/PSF: the data's .*psf\.fits is used; .*other\.yaml's observation\.psf \(gaussian, FWHM 0\.3"\) is ignored/);
+    expect(notices).toMatch(/mask: the data's .*mask\.fits is used; .*other\.yaml's observation\.mask \(annulus 0\.5" to 1\.5" about \(0", 0"\)\) is ignored/);
+  });
+});
+
 describe('refused data: InputError naming the file and pixel (own validation contract, common practice)', () => {
   const good = goodContent();
 
@@ -241,7 +256,7 @@ describe('refused data: InputError naming the file and pixel (own validation con
     expect([column, row]).toEqual([3, 1]);
     const error = inputErrorOf(() => loadObservedData({ folder }));
     expect(error.place).toEqual({ file: path, pixel: [column, row] });
-    expect(error.message).toBe(`${path}, pixel (3, 1): image value: expected a finite value inside the mask, found NaN`);
+    expect(error.message).toBe(`${path}, pixel (3, 1) (column, row, counted from 0): image value: expected a finite value inside the mask, found NaN`);
   });
 
   it('an infinite noise value inside the mask', () => {

@@ -130,7 +130,7 @@ describe('writing then reading gives back what was written', () => {
     const data = Float64Array.from([0, 1, 2, 40000]);
     const error = thrown(() => encodeFits({ primary: { data, nx: 2, ny: 2, bitpix: 16 } }, 'out.fits'));
     expect(error).toBeInstanceOf(InputError);
-    expect(error.message).toMatch(/^out\.fits, pixel \(1, 1\): .*40000.*-32768\.\.32767/);
+    expect(error.message).toMatch(/^out\.fits, pixel \(1, 1\) \(column, row, counted from 0\): .*40000.*-32768\.\.32767/);
     expect(() => encodeFits({ primary: { data: Float64Array.from([Number.NaN]), nx: 1, ny: 1, bitpix: 8 } })).toThrow(/NaN.*BLANK/);
     expect(() => encodeFits({ primary: { data: Float64Array.from([1e39]), nx: 1, ny: 1, bitpix: -32 } })).toThrow(/32-bit float/);
   });

@@ -62,6 +62,12 @@ describe('readNpy on files written by numpy', () => {
     });
   }
 
+  it('refuses an .npz archive of numpy.savez, saying how to save one array', () => {
+    const path = join(folder, 'archive.npz');
+    expect(() => readNpy(path)).toThrow(InputError);
+    expect(() => readNpy(path)).toThrow(/archive\.npz: not a readable 2-D NPY array: this is a zip archive, as numpy\.savez writes \(\.npz\), not one array: save the map alone with numpy\.save/);
+  });
+
   it('rejects numpy.save of a 1-D array, naming the file and the shape', () => {
     const path = join(folder, 'one-dimensional.npy');
     expect(() => readNpy(path)).toThrow(InputError);
@@ -78,7 +84,8 @@ describe('readNpy rejects broken files', () => {
     ['garbage', new TextEncoder().encode('SIMPLE  =                    T / not an npy file at all'), /magic string/],
     ['empty file', new Uint8Array(0), /magic string/],
     ['version 4', Uint8Array.from([...good.subarray(0, 6), 4, 0, ...good.subarray(8)]), /version 1\.0, 2\.0 or 3\.0, found 4\.0/],
-    ['complex dtype', npyBytes({ descr: '<c8', fortran: false, shape: [1, 1], values: [] }), /dtype .* found '<c8'/],
+    ['complex dtype', npyBytes({ descr: '<c8', fortran: false, shape: [1, 1], values: [] }),
+      /expected a numeric or boolean dtype: float16, float32, float64 \(f2, f4, f8\), int8 to int64 \(i1, i2, i4, i8\), uint8 to uint64 \(u1, u2, u4, u8\) or bool \(b1\), little-endian '<' or big-endian '>' \('\|' for one byte\), e\.g\. '<f4'; found '<c8'/],
     ['three dimensions', npyBytes({ descr: '<f8', fortran: false, shape: [1, 1, 1], values: [1] }), /shape \(1, 1, 1\)/],
     ['missing shape', npyBytes({ descr: '<f8', fortran: false, shape: [1], values: [1], headerText: "{'descr': '<f8', 'fortran_order': False}" }), /no 'shape'/],
     ['broken dict', npyBytes({ descr: '<f8', fortran: false, shape: [1], values: [1], headerText: "{'descr': '<f8' 'shape': (1, 1)}" }), /expected ',' or '}'/],

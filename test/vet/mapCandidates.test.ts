@@ -79,9 +79,12 @@ describe('candidates from a probability map', () => {
     expect(merged[0].score).toBeCloseTo(0.9, 2);
   });
 
-  it('gives no candidates, without an error, when asked not to require any (a map used only as a prior)', () => {
+  it('gives no candidates, without an error, when no value reaches the threshold, and says so', () => {
+    // Nothing flagged is a valid answer for a survey (arcsift's own contract).
     const path = writeMapFits('flat-prior.fits', new Float64Array(columns * rows).fill(0.2));
-    expect(readFlags(path, data, { threshold: 0.5, mergeRadiusArcsec: 0.15, requireCandidates: false }).candidates).toEqual([]);
+    const flags = readFlags(path, data, { threshold: 0.5, mergeRadiusArcsec: 0.15 });
+    expect(flags.candidates).toEqual([]);
+    expect(flags.notices).toEqual(['no candidates: no map value inside the mask reaches the threshold 0.5 (the highest is 0.2); nothing to vet']);
   });
 
   it('ignores maxima outside the mask', () => {
@@ -95,9 +98,8 @@ describe('candidates from a probability map', () => {
   const bad: [string, () => string, RegExp][] = [
     ['a FITS map of the wrong shape', () => writeMapFits('small.fits', new Float64Array(39 * 30), 39, 30), /expected 40 x 30 pixels \(columns x rows\).*found 39 x 30/],
     ['an NPY map of the wrong shape', () => writeMapNpy('transposed.npy', new Float64Array(30 * 40), 30, 40), /expected numpy shape \(30, 40\).*found numpy shape \(40, 30\)/],
-    ['a value above 1', () => { const m = blobs([[0, 0, 0.9]], 0.1); m[7 + columns * 3] = 1.5; return writeMapFits('above.fits', m); }, /pixel \(7, 3\): .*expected a probability in \[0, 1\], found 1.5/],
-    ['a NaN value in the mask', () => { const m = blobs([[0, 0, 0.9]], 0.1); m[2 + columns * 9] = Number.NaN; return writeMapNpy('nan.npy', m); }, /pixel \(2, 9\): .*found NaN/],
-    ['a map with nothing above the threshold', () => writeMapFits('flat.fits', new Float64Array(columns * rows).fill(0.2)), /no candidates: .*threshold 0.5.*highest value of 0.2/],
+    ['a value above 1', () => { const m = blobs([[0, 0, 0.9]], 0.1); m[7 + columns * 3] = 1.5; return writeMapFits('above.fits', m); }, /pixel \(7, 3\) \(column, row, counted from 0\): .*expected a probability in \[0, 1\], found 1.5/],
+    ['a NaN value in the mask', () => { const m = blobs([[0, 0, 0.9]], 0.1); m[2 + columns * 9] = Number.NaN; return writeMapNpy('nan.npy', m); }, /pixel \(2, 9\) \(column, row, counted from 0\): .*found NaN/],
   ];
   for (const [what, make, message] of bad) {
     it(`rejects ${what}, naming the file`, () => {

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { CelestialWcs, readFitsImage } from '../../src/fits/index.js';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { readFlagList } from '../../src/vet/readFlagList.js';
@@ -42,6 +44,23 @@ describe('readFlagList', () => {
     expect(flags[1].yArcsec).toBeCloseTo(-1.0, 12);
   });
 
+  it('places ra,dec flags by the image\'s WCS (the pipeline fixture, astropy\'s values)', () => {
+    // test/fixtures/pipeline/make_pipeline.py: astropy's RA/Dec of the lens, frame pixel
+    // (33.5, 31.5), and of pixel (10.25, 47.75); the 64 x 60 frame's centre is (31.5, 29.5).
+    const pipeline = fileURLToPath(new URL('../fixtures/pipeline/', import.meta.url));
+    const expected = JSON.parse(readFileSync(join(pipeline, 'expected.json'), 'utf8'));
+    const frame = CelestialWcs.fromHeader(readFitsImage(join(pipeline, 'observation.fits'), { hdu: 'SCI' }).header) as CelestialWcs;
+    const sky = { columns: 64, rows: 60, pixelScaleArcsec: 0.08, wcs: frame.description };
+    const other = expected.pixelToSky[3];
+    const flags = readFlagList(listFile(`id,ra,dec\nlens,${expected.lensSky[0]},${expected.lensSky[1]}\nother,${other.raDeg},${other.decDeg}\n`), sky);
+    // Through the WCS and back: 1e-9 arcsec, the round trip's rounding (test/fits/celestialWcs.test.ts).
+    expect(Math.abs(flags[0].xArcsec - 2 * 0.08)).toBeLessThan(1e-9);
+    expect(Math.abs(flags[0].yArcsec - 2 * 0.08)).toBeLessThan(1e-9);
+    expect(Math.abs(flags[1].xArcsec - (other.column - 31.5) * 0.08)).toBeLessThan(1e-9);
+    expect(Math.abs(flags[1].yArcsec - (other.row - 29.5) * 0.08)).toBeLessThan(1e-9);
+    expect(() => readFlagList(listFile('ra,dec\n201.37,-43.02\n'), sky)).toThrow(/line 2: flag outside the image: .*RA 201\.37, Dec -43\.02/);
+  });
+
   const bad: [string, string, RegExp][] = [
     ['an empty file', '', /empty flag list/],
     ['a header and no candidates', '# only this\nx,y\n', /empty flag list: expected at least one candidate after the header on line 2/],
@@ -52,7 +71,9 @@ describe('readFlagList', () => {
     ['a flag outside the image (pixels)', 'column,row\n10,30\n', /line 2: flag outside the image: .*column 10, row 30/],
     ['an unknown column', 'x,y,probability\n0,0,1\n', /unknown column "probability"/],
     ['both coordinate pairs', 'x,y,column,row\n0,0,1,1\n', /one pair only/],
-    ['half a pair', 'x,row\n0,0\n', /expected the columns x,y \(arcsec\) or column,row/],
+    ['half a pair', 'x,row\n0,0\n', /expected the columns x,y \(arcsec\), column,row \(pixels\) or ra,dec \(degrees\), one pair only/],
+    ['ra,dec without a celestial WCS', 'ra,dec\n201.36,-43.02\n', /flags in ra,dec need the image's celestial WCS .*found none; give x,y or column,row/],
+    ['binary bytes', 'PK\u0003\u0004\u0000\u0000x,y', /not a flag list: the file holds binary bytes \(NUL\)/],
     ['a short line', 'x,y,score\n0,0\n', /line 2: expected 3 cells/],
     ['a bad coordinates value', 'x,y,coordinates\n0,0,degrees\n', /line 2, column coordinates: expected arcsec or pixel/],
     ['a repeated id', 'x,y,id\n0,0,a\n0.1,0.1,a\n', /line 3, column id: expected ids to be unique/],

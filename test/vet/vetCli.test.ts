@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -45,6 +45,7 @@ describe('vet: bad flags through the CLI', () => {
       /map\.npy: probability map shape: expected numpy shape \(\d+, \d+\) \(rows, columns\)/],
     ['--map-prior with a list', () => file('list.csv', 'x,y\n0.9,0.62\n'), /list\.csv: --map-prior takes the probability map/, ['--map-prior']],
     ['a missing flags file', () => join(scratch, 'absent.csv'), /absent\.csv: cannot read the flag list/],
+    ['an .npz archive', () => file('maps.npz', Uint8Array.of(0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0)), /maps\.npz: not a readable 2-D NPY array: this is a zip archive, as numpy\.savez writes/],
   ];
   for (const [what, make, message, extra] of cases) {
     it(`exits 2 on ${what}, naming the file`, () => {
@@ -54,6 +55,25 @@ describe('vet: bad flags through the CLI', () => {
       expect(r.status).toBe(2);
     });
   }
+
+  it('exits 0 with an empty table when no map value reaches the threshold, writing vet.json and vet.csv', () => {
+    // A bool map (numpy's dtype |b1) with nothing flagged: a valid answer for a survey batch.
+    const out = join(scratch, 'out-nothing');
+    const r = run(['vet', '--config', config, '--data', data, '--flags', file('nothing.npy', npyBytes({ descr: '|b1', fortran: false, shape: [rows, columns], values: new Array(rows * columns).fill(0) })),
+      '--out', out, '--quiet']);
+    expect(r.stderr).not.toMatch(/internal error|\n\s+at /);
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/No candidates to vet in .*nothing\.npy: no fit was run/);
+    const summary = JSON.parse(readFileSync(join(out, 'vet.json'), 'utf8'));
+    expect(summary.candidates).toEqual([]);
+    expect(summary.smooth).toBeNull();
+    expect(summary.flags.notices).toEqual(['no candidates: no map value inside the mask reaches the threshold 0.5 (the highest is 0); nothing to vet']);
+    const csv = readFileSync(join(out, 'vet.csv'), 'utf8').split('\n').filter((line) => line !== '' && !line.startsWith('#'));
+    expect(csv).toHaveLength(1);
+    expect(csv[0]).toMatch(/^candidate,flag_x_arcsec,/);
+    expect(existsSync(join(out, 'smooth'))).toBe(false);
+    expect(existsSync(join(out, 'report.html'))).toBe(true);
+  });
 
   it('exits 2 when the config has no perturber to place', () => {
     const smooth = file('smooth.yaml', readFileSync(config, 'utf8').split('perturbers:')[0]);

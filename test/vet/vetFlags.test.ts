@@ -55,7 +55,9 @@ describe('vetting flags on a mock with a planted perturber', () => {
     // At the planted perturber; on the arc on the far side of the lens; in the middle of the
     // ring, where there is no lensed light (inside the mask's hole).
     writeFileSync(list, `id,x,y,score\nplanted,${trueX},${trueY},0.95\nfar-arc,-0.9,-0.62,0.7\nno-light,0,0,0.6\n`);
-    ({ result, summary } = await runVetToFolder(config, data, readFlags(list, data), out, { evidence: () => settings }));
+    const run = await runVetToFolder(config, data, readFlags(list, data), out, { evidence: () => settings });
+    ({ summary } = run);
+    result = run.result!;
   }, 300_000);
 
   const record = (id: string) => summary.candidates.find((c) => c.id === id)!;

@@ -35,7 +35,7 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
   const figures: ReportFigure[] = [];
   const truth = new Map((run.truth?.parameters ?? []).map((p) => [p.name, p.value]));
 
-  const observed = readObservedImages(run.dataFiles, notices);
+  const observed = readObservedImages(run.dataFiles, notices, run.summary);
   const models = MODEL_NAMES.map((m) => readModelImages(join(run.folder, m), m, m === 'smooth' ? 'Smooth' : 'Perturbed', notices));
   const set = imageSetOf(observed, models, notices);
   if (set !== null) {

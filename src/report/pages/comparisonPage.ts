@@ -1,4 +1,5 @@
 import { existsSync } from 'node:fs';
+import { parseFitsLocator } from '../../fits/index.js';
 import { basename, dirname, join, relative, resolve } from 'node:path';
 import { bayesFactorTable } from '../tables/bayesFactorTable.js';
 import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
@@ -45,7 +46,7 @@ function runFiles(run: RunFolder): string[] {
       files.push(join(run.folder, m, name));
     }
   }
-  for (const f of Object.values(run.dataFiles)) if (f !== null) files.push(f);
+  for (const f of Object.values(run.dataFiles)) if (f !== null) files.push(parseFitsLocator(f).path);
   if (run.truth !== null) files.push(run.truth.file);
   return files.filter((f) => existsSync(f));
 }

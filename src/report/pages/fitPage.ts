@@ -33,7 +33,7 @@ function fitFigures(run: FitFolder, tone: ModelTone, figuresFolder: string, noti
   const figures: ReportFigure[] = [];
   const truth = new Map((run.truth?.parameters ?? []).map((p) => [p.name, p.value]));
   const perturbers = s.sampler === 'nested' ? s.perturbers : [];
-  const observed = readObservedImages(run.dataFiles, notices);
+  const observed = readObservedImages(run.dataFiles, notices, run.summary);
   const posteriorMarkers: ImageMarker[] = perturbers.map((p) => ({
     kind: 'posterior',
     xArcsec: p.centerXArcsec.median,

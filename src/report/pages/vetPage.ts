@@ -26,7 +26,7 @@ const CONFIRMED_SHOWN = 3;
 /** Reads and checks vet.json of a vetting run folder. */
 function readVetSummary(file: string): VetSummary {
   return readKindOfSummary(file, 'vet', 'vet', {
-    smooth: [isMapping, 'the smooth run record'],
+    smooth: [(v) => v === null || isMapping(v), 'the smooth run record (null when there was nothing to vet)'],
     candidates: [isList, 'a list of candidate records'],
     thresholds: [isMapping, 'the verdict thresholds'],
     'priors.smooth': [isList, 'a list of priors'],
@@ -76,12 +76,12 @@ export function writeVetReport(folder: string, pageFile: string, figuresFolder: 
   const notices: string[] = [...s.dataNotices, ...s.flags.notices];
   const { dataFiles, truth } = locateRunData(s.data, folder, summaryFile, notices);
   const truthValues = new Map((truth?.parameters ?? []).map((p) => [p.name, p.value]));
-  const observed = readObservedImages(dataFiles, notices);
+  const observed = readObservedImages(dataFiles, notices, s);
   const runs = [...s.candidates, ...(s.mapPrior === null ? [] : [s.mapPrior])];
   const confirmed = s.candidates.filter((c) => c.verdict === 'confirmed').slice(0, CONFIRMED_SHOWN);
   const candidateFolder = (r: VetRunRecord): string => join(folder, r.id === 'map-prior' ? 'map-prior' : `candidate-${s.candidates.indexOf(r) + 1}`);
   const models = [
-    readModelImages(join(folder, 'smooth'), 'smooth', 'Smooth', notices),
+    ...(s.smooth === null ? [] : [readModelImages(join(folder, 'smooth'), 'smooth', 'Smooth', notices)]),
     ...confirmed.map((c) => ({
       ...readModelImages(candidateFolder(c), `candidate-${s.candidates.indexOf(c) + 1}`, `Candidate ${c.id}`, notices),
       markers: [{
@@ -119,7 +119,7 @@ export function writeVetReport(folder: string, pageFile: string, figuresFolder: 
   const body = `<section class="verdict not-favoured" id="verdict">
 <div><span class="label">flags vetted</span><span class="big">${s.candidates.length}</span>
 <span class="badge favoured">${s.candidates.filter((c) => c.verdict === 'confirmed').length} confirmed</span></div>
-<div><p class="reading">Confirmed when ln B &gt; ${t.confirmAboveLnB}, disfavoured when ln B &lt; ${t.disfavourBelowLnB}, inconclusive between (ln B = ln Z with a perturber in the flag's window minus ln Z of the one shared smooth fit, ${fixed(s.smooth.lnEvidence, LN_EVIDENCE_DIGITS)} &plusmn; ${fixed(s.smooth.lnEvidenceError, LN_EVIDENCE_DIGITS)}).</p>
+<div><p class="reading">Confirmed when ln B &gt; ${t.confirmAboveLnB}, disfavoured when ln B &lt; ${t.disfavourBelowLnB}, inconclusive between (ln B = ln Z with a perturber in the flag's window minus ln Z of the one shared smooth fit${s.smooth === null ? '; no candidate reached the map threshold, so no fit was run' : `, ${fixed(s.smooth.lnEvidence, LN_EVIDENCE_DIGITS)} &plusmn; ${fixed(s.smooth.lnEvidenceError, LN_EVIDENCE_DIGITS)}`}).</p>
 <p class="muted">Under the priors listed in <a href="#priors">the prior table</a>; a verdict is only as good as them.</p></div>
 </section>
 ${cautionBox(s.caution)}
@@ -127,7 +127,7 @@ ${s.mapPriorNote === null ? '' : `<aside class="caution" role="note"><div class=
 ${pageSection('verdicts', 'Verdicts', `${vetTable(s, pageFile)}${flagFigure === undefined || flagFigure.key !== 'flags' ? '' : figureHtml(flagFigure, pageFile)}`)}
 ${pageSection('priors', 'Priors behind these Bayes factors', `${priorColumnsTable([{ label: 'smooth model', priors: s.priors.smooth }, { label: 'perturbed models', priors: s.priors.perturbed }], s.amplitudePrior)}<p class="note">Perturber position: ${escapeMarkup(s.priors.positionPrior)}.</p>`)}
 ${pageSection('images', 'Images and residuals', `<div class="image-grid">${(flagFigure?.key === 'flags' ? imageFiguresShown : figures).map((f) => figureHtml(f, pageFile)).join('\n')}</div><p class="note">The shared smooth fit${confirmed.length === 0 ? '' : ' and the confirmed candidates\' perturbed fits'}; row 0 at the bottom, x right and y up in arcsec from the image centre.</p>`)}
-${pageSection('diagnostics', 'Sampler diagnostics', `${nestedDiagnosticsTable([{ tone: 'smooth', label: 'smooth', record: s.smooth }, ...runs.map((r) => ({ tone: 'perturbed', label: r.id, record: r.model }))])}${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
+${pageSection('diagnostics', 'Sampler diagnostics', `${nestedDiagnosticsTable([...(s.smooth === null ? [] : [{ tone: 'smooth' as const, label: 'smooth', record: s.smooth }]), ...runs.map((r) => ({ tone: 'perturbed', label: r.id, record: r.model }))])}${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
 ${pageSection('files', 'Files', `<ul class="files">${[summaryFile, join(folder, 'vet.csv'), ...figures.flatMap((f) => f.files)].filter((f) => existsSync(f)).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
 ${pageSection('about', 'About the figures', colourMapRows())}`;
   const meta = [

@@ -1,6 +1,8 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { readFitsImage, type FitsImage } from '../../fits/index.js';
+import { FitsHeader, parseFitsLocator, readFitsImage, stringCard, type FitsImage } from '../../fits/index.js';
+import { countsPerSecondScale } from '../../data/imageUnits.js';
+import { cutOutValues, type CutoutBox } from '../../data/cutoutBox.js';
 import { divergingColourMap } from '../colour/divergingColourMap.js';
 import { sequentialRange, symmetricRange } from '../colour/displayRange.js';
 import { imagePanelSvg, type ImageMarker, type ImagePanel } from './imagePanelSvg.js';
@@ -20,11 +22,12 @@ export interface ImageSet {
 }
 
 function readImage(file: string | null, notices: string[], what: string): FitsImage | null {
-  if (file === null || !existsSync(file)) {
+  const locator = file === null ? null : parseFitsLocator(file);
+  if (locator === null || !existsSync(locator.path)) {
     notices.push(`${what}: ${file ?? 'no file'} not found, its panel is left out`);
     return null;
   }
-  return readFitsImage(file);
+  return readFitsImage(locator.path, locator.selection);
 }
 
 /** The observed image, noise map and mask of a run, those that can be read. */
@@ -34,12 +37,44 @@ export interface ObservedImages {
   readonly mask: FitsImage | null;
 }
 
-/** Reads the observed data files named by a run (a missing one is left out with a notice). */
-export function readObservedImages(files: Readonly<Record<'image' | 'noise' | 'psf' | 'mask', string | null>>, notices: string[]): ObservedImages {
+/** What a run record says of how its data were fitted: the cut-out, and whether the noise came from a weight map. */
+export interface FittedDataView {
+  readonly cutout?: CutoutBox;
+  readonly data?: { readonly weight?: string };
+}
+
+/** An image as it was fitted: cut out, values in counts per second (BUNIT says so). */
+function asFitted(image: FitsImage, values: Float64Array, box: CutoutBox | undefined, unit: string | undefined): FitsImage {
+  const data = box === undefined ? values : cutOutValues(values, image.nx, box);
+  const cards = unit === undefined ? image.header.cards : [stringCard('BUNIT', unit), ...image.header.cards];
+  return { ...image, data, nx: box?.columns ?? image.nx, ny: box?.rows ?? image.ny, header: new FitsHeader(cards, image.header.source) };
+}
+
+/**
+ * Reads the observed data files named by a run (a missing one is left out with a notice), as
+ * they were fitted: files may name an HDU, the run's cut-out is applied, image and noise are
+ * turned into counts per second as the data loader turns them (countsPerSecondScale), and a
+ * weight map into a 1-sigma noise map.
+ */
+export function readObservedImages(
+  files: Readonly<Record<'image' | 'noise' | 'psf' | 'mask', string | null>>, notices: string[], fitted: FittedDataView = {},
+): ObservedImages {
+  const image = readImage(files.image, notices, 'observed image');
+  const noise = readImage(files.noise, notices, fitted.data?.weight === undefined ? 'noise map' : 'weight map');
+  const mask = files.mask === null ? null : readImage(files.mask, notices, 'mask');
+  const box = fitted.cutout;
+  const imageScale = image === null ? undefined : countsPerSecondScale(image, files.image as string);
+  let noiseView: FitsImage | null = null;
+  if (noise !== null) {
+    const factor = imageScale?.factor ?? 1;
+    noiseView = fitted.data?.weight !== undefined
+      ? asFitted(noise, noise.data.map((w) => factor / Math.sqrt(w)), box, 'counts/s')
+      : asFitted(noise, noise.data.map((v) => v * countsPerSecondScale(noise, files.noise as string, imageScale).factor), box, 'counts/s');
+  }
   return {
-    data: readImage(files.image, notices, 'observed image'),
-    noise: readImage(files.noise, notices, 'noise map'),
-    mask: files.mask === null ? null : readImage(files.mask, notices, 'mask'),
+    data: image === null || imageScale === undefined ? null : asFitted(image, image.data.map((v) => v * imageScale.factor), box, 'counts/s'),
+    noise: noiseView,
+    mask: mask === null ? null : asFitted(mask, mask.data, box, undefined),
   };
 }
 

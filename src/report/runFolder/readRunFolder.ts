@@ -203,14 +203,24 @@ export function locate(recorded: string, folder: string): string | null {
   return null;
 }
 
+/** `locate` for a file that may end in an HDU choice (`obs.fits[SCI]`), which is kept. */
+function locateWithHdu(recorded: string, folder: string): string | null {
+  const match = /^(.*)(\[[^[\]]*\])$/.exec(recorded);
+  if (match === null || existsSync(recorded)) return locate(recorded, folder);
+  const found = locate(match[1], folder);
+  return found === null ? null : `${found}${match[2]}`;
+}
+
 /** The observed data files a summary names, as found from here, and truth.json beside the image when present. */
 export function locateRunData(
-  data: { readonly image: string; readonly noise?: string; readonly psf?: string; readonly mask?: string }, folder: string, summaryFile: string, notices: string[],
+  data: { readonly image: string; readonly noise?: string; readonly weight?: string; readonly psf?: string; readonly mask?: string },
+  folder: string, summaryFile: string, notices: string[],
 ): { dataFiles: Record<'image' | 'noise' | 'psf' | 'mask', string | null>; truth: TruthRecord | null } {
   const dataFiles = {} as Record<'image' | 'noise' | 'psf' | 'mask', string | null>;
   for (const key of ['image', 'noise', 'psf', 'mask'] as const) {
-    const recorded = data[key];
-    dataFiles[key] = recorded === undefined ? null : locate(recorded, folder);
+    // The noise slot holds the weight map when the run's noise came from one; an HDU choice stays.
+    const recorded = key === 'noise' ? data.noise ?? data.weight : data[key];
+    dataFiles[key] = recorded === undefined ? null : locateWithHdu(recorded, folder);
     if (recorded !== undefined && dataFiles[key] === null) notices.push(`observed ${key} ${recorded} (named in ${summaryFile}) not found`);
   }
   const truthFile = dataFiles.image === null ? null : join(dirname(dataFiles.image), 'truth.json');
