@@ -163,7 +163,7 @@ function skyNotice(file: string, grid: SkyGrid & { wcs: CelestialWcsDescription 
  * (noise and image not the same HDU); image, noise and mask share the image's frame; the pixel
  * scale (dataPixelScaleArcsec); the image and noise become counts per second from BUNIT and
  * EXPTIME (countsPerSecondScale); the cut-out, when asked for (cutoutBox); the shape `expected`
- * gives; the PSF, from the data (readDataPsf, oversampled ones integrated over image pixels) or
+ * gives; the PSF, from the data (readDataPsf, oversampled ones sampled at pixel centres) or
  * else the config's; the mask, from the data, else the config's, else every pixel; pixels of
  * zero weight leave the mask; image and noise finite and the noise positive inside the mask.
  * Whatever was assumed or which of config and data was used is said in `notices`; every failure

@@ -1,6 +1,6 @@
 import { InputError, pixelText } from '../errors.js';
 import type { FitsLocator } from '../fits/index.js';
-import { pixelIntegratedPsf } from '../imaging/pixelIntegratedPsf.js';
+import { pixelCentrePsf } from '../imaging/pixelCentrePsf.js';
 import { checkPsfKernel, type PsfKernel } from '../imaging/psfKernel.js';
 import { requireMatchingSteps } from './dataPixelScale.js';
 import { readDataImage } from './readDataImage.js';
@@ -63,12 +63,10 @@ function requireCentred(kernel: PsfKernel, factor: number, file: string): void {
  * Reads the PSF of a data set. The oversampling is `explicitFactor` or the header's OVERSAMP
  * (they must agree), else 1. The file's pixel scale, where its header states one (CDELT/CD, or
  * PIXELSCL in arcsec per cell), must be the image's divided by the oversampling. An oversampled
- * PSF must be centred on its middle cell; it is normalised, kept, and integrated over image pixels
- * about its centre (pixelIntegratedPsf) into the kernel the forward model uses now. That model
- * averages the light over each pixel before the PSF, so for light smooth on the pixel scale the
- * pixel box is counted twice (variance + pixel^2 / 12; see psfOfObservation, which samples
- * analytic PSFs at pixel centres for this reason), while light unresolved within a pixel is
- * exact; the kept fine PSF lets a sub-pixel forward model avoid both. Notices say what was done;
+ * PSF must be centred on its middle cell; it is normalised, kept, and sampled at the image's
+ * pixel centres (pixelCentrePsf) for the kernel the forward model uses: that model averages the
+ * light over each pixel before the PSF, as with the analytic PSFs (psfOfObservation). The kept
+ * fine PSF is there for a forward model on a sub-pixel grid. Notices say what was done;
  * mistakes throw InputError naming the file (with its HDU) and keyword.
  */
 export function readDataPsf(locator: FitsLocator, imageScaleArcsec: number, explicitFactor: number | undefined, notices: string[]): DataPsf {
@@ -102,10 +100,10 @@ export function readDataPsf(locator: FitsLocator, imageScaleArcsec: number, expl
   }
   if (factor === 1) return { kernel: shared(checked.kernel) };
   requireCentred(checked.kernel, factor, file);
-  const kernel = pixelIntegratedPsf(checked.kernel, factor);
+  const kernel = pixelCentrePsf(checked.kernel, factor);
   notices.push(
     `${file}: the PSF is sampled ${factor} times finer than the image (${explicitFactor !== undefined ? 'as given' : 'OVERSAMP in its header'}); ` +
-      `it was integrated over image pixels about its centre into a ${kernel.columns} x ${kernel.rows} kernel, and the ${image.nx} x ${image.ny} one is kept for sub-pixel use`,
+      `its cells at the image's pixel centres make a ${kernel.columns} x ${kernel.rows} kernel (the forward model averages light over each pixel first), and the ${image.nx} x ${image.ny} one is kept`,
   );
   return { kernel: shared(kernel), oversampled: { factor, kernel: shared(checked.kernel) } };
 }

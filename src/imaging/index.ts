@@ -16,4 +16,4 @@ export { noiseSigmaMap, addGaussianNoise } from './noise.js';
 export {
   type PixelMask, allPixelsMask, annulusMask, discMask, maskFromImage, usedPixelIndices,
 } from './mask.js';
-export { pixelIntegratedPsf } from './pixelIntegratedPsf.js';
+export { pixelCentrePsf } from './pixelCentrePsf.js';
