@@ -4,10 +4,13 @@ import type { ObservedData } from '../data/observedData.js';
 import { writeFits } from '../fits/index.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { gridCards } from '../simulate/simulateToFolder.js';
+import { writeJsonAtomic } from '../io/writeFileAtomic.js';
+import type { SourceInversion } from '../inversion/sourceInversion.js';
+import type { SourceFile } from '../records/sourceFile.js';
 
 /** The images of one model vector and the amplitudes they were made with. */
 export interface FitImages {
-  readonly files: { readonly bestFitModel: string; readonly residual: string; readonly normalisedResidual: string };
+  readonly files: { readonly bestFitModel: string; readonly residual: string; readonly normalisedResidual: string; readonly source?: string };
   /** Posterior-mean linear amplitudes at the model vector, by amplitude name. */
   readonly amplitudes: Record<string, number>;
   readonly logLikelihood: number;
@@ -23,6 +26,9 @@ export function writeFitImages(
 ): FitImages {
   const likelihood = new PixelLikelihood(config, data, perturberCount);
   const fit = likelihood.modelImage(model);
+  const source = likelihood.inversion !== undefined && Number.isFinite(fit.logLikelihood)
+    ? sourceFileOf(likelihood.inversion, likelihood.system.pixelatedSource!.settings.regularisation)
+    : undefined;
   const residual = new Float64Array(fit.image.length);
   const normalised = new Float64Array(fit.image.length);
   for (let p = 0; p < residual.length; p++) {
@@ -35,7 +41,9 @@ export function writeFitImages(
     bestFitModel: join(folder, 'best-fit-model.fits'),
     residual: join(folder, 'residual.fits'),
     normalisedResidual: join(folder, 'normalised-residual.fits'),
+    ...(source === undefined ? {} : { source: join(folder, 'source.json') }),
   };
+  if (source !== undefined) writeJsonAtomic(files.source!, source);
   const images: [string, Float64Array, string, string][] = [
     [files.bestFitModel, fit.image, 'counts/s', `best-fit ${label}`],
     [files.residual, residual, 'counts/s', 'data minus best-fit model inside the mask, 0 outside'],
@@ -47,4 +55,20 @@ export function writeFitImages(
   const amplitudes: Record<string, number> = {};
   likelihood.system.amplitudeNames.forEach((name, i) => { amplitudes[name] = fit.amplitudes[i]; });
   return { files, amplitudes, logLikelihood: fit.logLikelihood };
+}
+
+/** The reconstruction of the inversion's last evaluation as source.json holds it. */
+function sourceFileOf(inversion: SourceInversion, regularisation: string): SourceFile {
+  const r = inversion.reconstruction();
+  return {
+    mesh: r.mesh,
+    regularisation,
+    cellXArcsec: Array.from(r.cellX),
+    cellYArcsec: Array.from(r.cellY),
+    values: Array.from(r.values),
+    standardDeviations: Array.from(r.standardDeviations),
+    triangles: r.triangles === null ? null : Array.from(r.triangles),
+    side: r.side,
+    raysOutside: inversion.raysOutside,
+  };
 }

@@ -1,21 +1,13 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { readFitsImage, type FitsImage } from '../../fits/index.js';
-import { writeFileAtomic } from '../../io/writeFileAtomic.js';
 import { cornerPlotSvg, type CornerLayer } from '../plots/cornerPlotSvg.js';
-import { divergingColourMap } from '../colour/divergingColourMap.js';
-import { sequentialRange, symmetricRange } from '../colour/displayRange.js';
-import { imagePanelSvg, type ImageMarker, type ImagePanel } from '../plots/imagePanelSvg.js';
-import { imagePng } from '../plots/imagePng.js';
+import type { ImageMarker } from '../plots/imagePanelSvg.js';
 import { lensingFigures } from '../plots/lensingFigures.js';
-import { MODEL_NAMES, type ModelName, type RunFolder } from '../runFolder/readRunFolder.js';
-import { sequentialColourMap } from '../colour/sequentialColourMap.js';
+import { MODEL_NAMES, type RunFolder } from '../runFolder/readRunFolder.js';
 import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
-
-export { perturberTruthMarkers };
+import { pixelatedSourceFigures, readModelSource } from '../plots/pixelatedSourceFigures.js';
 import { modelColours } from '../colour/reportPalette.js';
 import { readWeightedSamples } from '../../records/readWeightedSamples.js';
-import { nestedTraceSvg } from '../plots/samplerTraceSvg.js';
 import { imageFigures, imageSetOf, readModelImages, readObservedImages } from '../plots/imageFigures.js';
 import { nestedTraceFigure } from '../plots/nestedTraceFigure.js';
 import { writeSvgFigure, type ReportFigure } from '../plots/reportFigure.js';
@@ -50,6 +42,10 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
     models[1] = { ...models[1], markers: posteriorMarkers };
     figures.push(...imageFigures(set, observed, models, truthMarkers, figuresFolder));
     figures.push(...lensingFigures(run, set, notices, (key, figure, png) => writeSvgFigure(figuresFolder, key, key, figure, png)));
+  }
+  for (const m of MODEL_NAMES) {
+    const source = readModelSource(join(run.folder, m), notices);
+    if (source !== null) figures.push(...pixelatedSourceFigures(source, m, m === 'smooth' ? 'Smooth' : 'Perturbed', figuresFolder, ['significance']));
   }
 
   const perturbedCorner = run.corners.perturbed;

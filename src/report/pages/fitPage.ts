@@ -16,7 +16,8 @@ import { perturberTable } from '../tables/perturberTable.js';
 import { priorColumnsTable } from '../tables/priorTable.js';
 import { readFitFolder, type FitFolder } from '../runFolder/readFitFolder.js';
 import { readWeightedSamples } from '../../records/readWeightedSamples.js';
-import { perturberTruthMarkers } from './comparisonFigures.js';
+import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
+import { pixelatedSourceFigures, readModelSource } from '../plots/pixelatedSourceFigures.js';
 import { modelColours, type ModelTone } from '../colour/reportPalette.js';
 import { ensembleTraceSvg } from '../plots/samplerTraceSvg.js';
 import type { EnsembleFitSummary, NestedFitSummary } from '../../records/fitSummary.js';
@@ -46,6 +47,10 @@ function fitFigures(run: FitFolder, tone: ModelTone, figuresFolder: string, noti
   if (set !== null) {
     const keys = Array.from({ length: s.perturberCount }, (_, k) => ({ key: `perturbers[${k}]` }));
     figures.push(...imageFigures(set, observed, [model], perturberTruthMarkers(keys, truth), figuresFolder));
+  }
+  const source = readModelSource(run.folder, notices);
+  if (source !== null) {
+    figures.push(...pixelatedSourceFigures(source, tone, tone === 'smooth' ? 'Smooth' : 'Perturbed', figuresFolder, ['reconstruction', 'uncertainty', 'significance']));
   }
   if (run.corner !== null) {
     const names = run.corner.parameters.map((p) => p.name);
@@ -140,7 +145,7 @@ export function writeFitReport(folder: string, pageFile: string, figuresFolder: 
   const diagnostics = s.sampler === 'nested'
     ? `${nestedDiagnosticsTable([{ tone, label, record: s.model }])}\n${inSection('diagnostics')}`
     : `${ensembleDiagnosticsTable(s)}<p class="note">R-hat is the rank-normalised split R-hat with walkers as chains (Vehtari et al. 2021); values above 1.01 are flagged. Autocorrelation times by Sokal's windowed estimate; the chain should be at least 50 of them long.</p>\n${inSection('diagnostics')}`;
-  const files = [run.summaryFile, ...['samples.csv', 'equal-weight-samples.csv', 'chain.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits'].map((f) => join(folder, f))]
+  const files = [run.summaryFile, ...['samples.csv', 'equal-weight-samples.csv', 'chain.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits', 'source.json'].map((f) => join(folder, f))]
     .filter((f) => existsSync(f))
     .concat(figures.flatMap((f) => f.files));
   const body = `${headline}

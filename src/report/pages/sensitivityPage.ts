@@ -10,7 +10,7 @@ import { imagePanelSvg, type ImageMarker } from '../plots/imagePanelSvg.js';
 import { imagePng } from '../plots/imagePng.js';
 import { colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
 import { isList, isNumber, isString, locateRunData, readKindOfSummary } from '../runFolder/readRunFolder.js';
-import { perturberTruthMarkers } from './comparisonFigures.js';
+import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
 import { sequentialColourMap } from '../colour/sequentialColourMap.js';
 import type { SensitivitySummary } from '../../records/sensitivitySummary.js';
 import { writeSvgFigure, type ReportFigure } from '../plots/reportFigure.js';

@@ -14,7 +14,7 @@ import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection
 import { perturberMassName } from '../tables/perturberTable.js';
 import { priorColumnsTable } from '../tables/priorTable.js';
 import { isList, isMapping, isString, locateRunData, readKindOfSummary } from '../runFolder/readRunFolder.js';
-import { perturberTruthMarkers } from './comparisonFigures.js';
+import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
 import { sequentialColourMap } from '../colour/sequentialColourMap.js';
 import type { VetRunRecord, VetSummary } from '../../records/vetSummary.js';
 import { imageFigures, imageSetOf, readModelImages, readObservedImages } from '../plots/imageFigures.js';

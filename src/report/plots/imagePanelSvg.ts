@@ -41,6 +41,10 @@ export interface ImagePanel {
   readonly lines?: readonly ImageLine[];
   /** Side of the longer image axis on screen, px; default 232. */
   readonly imagePx?: number;
+  /** Where the image's centre lies, arcsec; default the origin. */
+  readonly centreArcsec?: readonly [number, number];
+  /** Thin segments (flat x0, y0, x1, y1, ... in arcsec), e.g. a mesh, drawn under the lines. */
+  readonly edges?: { readonly segments: ArrayLike<number>; readonly colour: string };
 }
 
 const LEFT = 42;
@@ -71,8 +75,9 @@ export function imagePanelSvg(panel: ImagePanel, png: Buffer): string {
   const h = rows * pxPerPixel;
   const halfX = (columns / 2) * panel.pixelScaleArcsec;
   const halfY = (rows / 2) * panel.pixelScaleArcsec;
-  const toX = (xArcsec: number): number => LEFT + ((xArcsec + halfX) / (2 * halfX)) * w;
-  const toY = (yArcsec: number): number => TOP + h - ((yArcsec + halfY) / (2 * halfY)) * h;
+  const [centreX, centreY] = panel.centreArcsec ?? [0, 0];
+  const toX = (xArcsec: number): number => LEFT + ((xArcsec - centreX + halfX) / (2 * halfX)) * w;
+  const toY = (yArcsec: number): number => TOP + h - ((yArcsec - centreY + halfY) / (2 * halfY)) * h;
   const barX = LEFT + w + BAR_GAP;
   const width = barX + BAR_WIDTH + 44;
   const height = TOP + h + BOTTOM;
@@ -93,16 +98,25 @@ export function imagePanelSvg(panel: ImagePanel, png: Buffer): string {
     }
     if (d !== '') out.push(`<path d="${d}" fill="none" stroke="#ffffff" stroke-opacity="0.75" stroke-width="0.8" stroke-dasharray="2 2"/>`);
   }
+  // Lines and edges are clipped to the image frame (a caustic may reach beyond a source window).
+  out.push(`<clipPath id="frame"><rect x="${px(LEFT)}" y="${px(TOP)}" width="${px(w)}" height="${px(h)}"/></clipPath><g clip-path="url(#frame)">`);
+  if (panel.edges !== undefined) {
+    const e = panel.edges.segments;
+    let d = '';
+    for (let k = 0; k + 3 < e.length; k += 4) d += `M${px(toX(e[k]))},${px(toY(e[k + 1]))}L${px(toX(e[k + 2]))},${px(toY(e[k + 3]))}`;
+    if (d !== '') out.push(`<path d="${d}" fill="none" stroke="${panel.edges.colour}" stroke-opacity="0.45" stroke-width="0.35"/>`);
+  }
   for (const l of panel.lines ?? []) out.push(line(l, toX, toY));
+  out.push('</g>');
   for (const m of panel.markers ?? []) out.push(marker(m, toX, toY));
   out.push(`<rect x="${px(LEFT)}" y="${px(TOP)}" width="${px(w)}" height="${px(h)}" fill="none" stroke="${muted}" stroke-width="0.8"/>`);
 
-  const xTicks = niceTicks(-halfX, halfX, 5);
+  const xTicks = niceTicks(centreX - halfX, centreX + halfX, 5);
   for (const v of xTicks.values) {
     const x = toX(v);
     out.push(`<line x1="${px(x)}" x2="${px(x)}" y1="${px(TOP + h)}" y2="${px(TOP + h + 3)}" stroke="${muted}"/><text x="${px(x)}" y="${px(TOP + h + 13)}" font-size="9" text-anchor="middle" fill="${muted}">${formatTick(v, xTicks.step)}</text>`);
   }
-  const yTicks = niceTicks(-halfY, halfY, 5);
+  const yTicks = niceTicks(centreY - halfY, centreY + halfY, 5);
   for (const v of yTicks.values) {
     const y = toY(v);
     out.push(`<line x1="${px(LEFT - 3)}" x2="${px(LEFT)}" y1="${px(y)}" y2="${px(y)}" stroke="${muted}"/><text x="${px(LEFT - 5)}" y="${px(y + 3)}" font-size="9" text-anchor="end" fill="${muted}">${formatTick(v, yTicks.step)}</text>`);

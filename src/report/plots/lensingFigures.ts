@@ -13,6 +13,10 @@ import { reportPalette } from '../colour/reportPalette.js';
 import { sequentialColourMap } from '../colour/sequentialColourMap.js';
 import { configHash } from '../../records/configHash.js';
 import type { ReportFigure } from './reportFigure.js';
+import type { SourceFile } from '../../records/sourceFile.js';
+import { readModelSource } from './pixelatedSourceFigures.js';
+import { rasterizeSource, sourceWindowOf } from './sourceRaster.js';
+import { join } from 'node:path';
 
 /** The observed image's grid (x right, y up, origin at the centre; DEVELOPERS.md) and its mask. */
 export interface LensingGrid {
@@ -94,7 +98,7 @@ export function lensingFigures(run: RunFolder, imageGrid: LensingGrid, notices: 
       return { model, system, vector, profile, curves: criticalCurves(system.massTerms, profile, xNodes, yNodes) };
     });
     const figures = [convergenceFigure(run, grid, lenses[0], lenses[1], write)];
-    figures.push(...sourcePlaneFigures(run, grid, lenses, write));
+    figures.push(...sourcePlaneFigures(run, grid, lenses, write, notices));
     return figures;
   } catch (error) {
     if (!(error instanceof InputError)) throw error;
@@ -176,11 +180,26 @@ function sourcePlaneExtent(grid: LensingGrid, lens: ModelLens, amplitudes: reado
  * Each model's best-fit source light (unit-amplitude components times their best-fit amplitudes)
  * with its caustics, all on one source-plane square and one colour scale.
  */
-function sourcePlaneFigures(run: RunFolder, grid: LensingGrid, lenses: readonly ModelLens[], write: FigureWriter): ReportFigure[] {
+function sourcePlaneFigures(run: RunFolder, grid: LensingGrid, lenses: readonly ModelLens[], write: FigureWriter, notices: string[]): ReportFigure[] {
   const amplitudes = lenses.map((lens) => bestFitAmplitudes(run, lens));
-  const extent = Math.max(...lenses.map((lens, k) => sourcePlaneExtent(grid, lens, amplitudes[k])));
+  // A pixelated source is drawn from the reconstruction its fit wrote (source.json).
+  const meshes = lenses.map((lens) => (lens.system.pixelatedSource === undefined ? null : readModelSource(join(run.folder, lens.model), notices)));
+  const meshExtent = (source: SourceFile | null): number => {
+    if (source === null) return 0;
+    const w = sourceWindowOf(source);
+    return Math.max(Math.abs(w.centreX) + w.half, Math.abs(w.centreY) + w.half);
+  };
+  const extent = Math.max(...lenses.map((lens, k) => Math.max(sourcePlaneExtent(grid, lens, amplitudes[k]), meshExtent(meshes[k]))));
   const half = Math.max((1 + SOURCE_MARGIN) * extent, grid.pixelScaleArcsec);
-  const lights = lenses.map((lens, k) => sourceLight(lens, amplitudes[k], half, SOURCE_CELLS).values);
+  const lights = lenses.map((lens, k) => {
+    const light = sourceLight(lens, amplitudes[k], half, SOURCE_CELLS).values;
+    const source = meshes[k];
+    if (source !== null) {
+      const raster = rasterizeSource(source, { centreX: 0, centreY: 0, half }, SOURCE_CELLS);
+      for (let p = 0; p < light.length; p++) light[p] += raster.values[p];
+    }
+    return light;
+  });
   const [low, high] = sequentialRange(lights);
   return lenses.map((lens, k) => {
     const colouring = { values: lights[k], columns: SOURCE_CELLS, rows: SOURCE_CELLS, map: sequentialColourMap, low, high, upscale: upscaleFor(SOURCE_CELLS, SOURCE_CELLS) };
@@ -196,7 +215,7 @@ function sourcePlaneFigures(run: RunFolder, grid: LensingGrid, lenses: readonly 
     return write(`${lens.model}-source-plane`, {
       section: 'images',
       title: panel.title,
-      caption: `Source plane of the best-fit ${lens.model} model: its source light components at unit amplitude times their best-fit amplitudes, at the centres of a ${SOURCE_CELLS} &times; ${SOURCE_CELLS} grid in source-plane arcsec (&beta;), on a linear scale. The grid, shared by both models' source planes as is the colour scale, is chosen to hold their caustics and their sources (where brighter than ${100 * SOURCE_EXTENT_FRACTION}% of the peak) with a ${100 * SOURCE_MARGIN}% margin. Lines: the caustics, the critical curves mapped through &beta; = &theta; &minus; &alpha;(&theta;) (parts outside the image field are not traced).`,
+      caption: `Source plane of the best-fit ${lens.model} model: its source light components at unit amplitude times their best-fit amplitudes${meshes[k] === null ? '' : ', plus the pixelated source reconstructed at that fit (source.json)'}, at the centres of a ${SOURCE_CELLS} &times; ${SOURCE_CELLS} grid in source-plane arcsec (&beta;), on a linear scale. The grid, shared by both models' source planes as is the colour scale, is chosen to hold their caustics and their sources (where brighter than ${100 * SOURCE_EXTENT_FRACTION}% of the peak) with a ${100 * SOURCE_MARGIN}% margin. Lines: the caustics, the critical curves mapped through &beta; = &theta; &minus; &alpha;(&theta;) (parts outside the image field are not traced).`,
       svg: imagePanelSvg(panel, png),
     }, png);
   });

@@ -28,7 +28,7 @@ export function writeSvgFigure(
   return { ...figure, key, svg: uniqueIds(figure.svg, key), files };
 }
 
-/** Inline SVGs share one page: prefix any id (none are used today) so two figures never clash. */
+/** Inline SVGs share one page: prefix every id (image panels name their clip path) so two figures never clash. */
 function uniqueIds(svg: string, key: string): string {
   return svg.replace(/\bid="([^"]+)"/g, `id="${key}-$1"`).replace(/url\(#([^)]+)\)/g, `url(#${key}-$1)`);
 }
