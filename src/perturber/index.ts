@@ -8,7 +8,7 @@ import { truncatedNfw } from './truncatedNfw/truncatedNfw.js';
 export { nfw, truncatedNfw, fastTruncatedNfw, pseudoJaffe, pointMass };
 export {
   nfwProjectionF, nfwConvergenceShape, nfwProjectedMassShape, nfwSmallestRadiusRatio,
-} from './nfwProjection.js';
+} from '../lens/darkHalo/nfwProjection.js';
 export { duffy2008Concentration, duffy2008FullSampleM200 } from './concentrationMass.js';
 export {
   nfwEnclosedMassFactor, truncatedNfwTotalMassFactor, nfwFromMass, writeNfwLensingParameters, subhaloFromMass,
