@@ -12,6 +12,7 @@ export {
 export { duffy2008Concentration, duffy2008FullSampleM200 } from './concentrationMass.js';
 export {
   nfwEnclosedMassFactor, truncatedNfwTotalMassFactor, nfwFromMass, writeNfwLensingParameters, subhaloFromMass,
+  writeGeneralisedNfwLensingParameters,
   truncatedNfwTotalMassSolar, nfwMassFromLensing, pointMassEinsteinRadiusArcsec,
   pointMassFromEinsteinRadiusSolar, pseudoJaffeTotalMassSolar, pseudoJaffeStrengthArcsec,
   type NfwFromMass, type SubhaloFromMass, type NfwMassInput, type SubhaloMassInput,

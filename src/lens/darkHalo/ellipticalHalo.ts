@@ -25,7 +25,7 @@ export function haloExpansion(convergenceShape: (bigX: number) => number): Gauss
  * An elliptical halo: kappa(xi) = kappa_s G(xi / theta_s; gamma), xi^2 = q x'^2 + y'^2 / q (x'
  * along the major axis), parameters in the order convergenceScale (kappa_s = rho_s r_s /
  * Sigma_crit), scaleRadiusArcsec, axisRatio, positionAngleDeg, centerXArcsec, centerYArcsec, then
- * the inner slope when `innerSlopeIndex` is given. Convergence and deflection are those of G's
+ * the inner slope when `fixedInnerSlope` is undefined. Convergence and deflection are those of G's
  * Gaussian expansion (ellipticalGaussianSum.ts); the spherical mass is the closed form of the
  * three-dimensional profile (generalisedNfwEnclosedMass.ts).
  */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { ellipticalNfw } from '../../../src/lens/darkHalo/ellipticalNfw.js';
-import { ellipticalGeneralisedNfw } from '../../../src/lens/darkHalo/ellipticalGeneralisedNfw.js';
+import { nfwHalo } from '../../../src/lens/darkHalo/nfwHalo.js';
+import { generalisedNfwHalo } from '../../../src/lens/darkHalo/generalisedNfwHalo.js';
 import { nfwConvergenceShape, nfwProjectedMassShape } from '../../../src/lens/darkHalo/nfwProjection.js';
 import type { MassProfile } from '../../../src/lens/massProfile.js';
 import { homoeoidDeflection } from '../homoeoidDeflection.js';
@@ -30,13 +30,13 @@ describe('elliptical NFW and generalised NFW convergence against the analytic pr
       const xi = bigX * thetaS, xr = (xi * Math.cos(phi)) / Math.sqrt(0.7), yr = xi * Math.sqrt(0.7) * Math.sin(phi);
       const angle = (40 * Math.PI) / 180;
       const x = cx + Math.cos(angle) * xr - Math.sin(angle) * yr, y = cy + Math.sin(angle) * xr + Math.cos(angle) * yr;
-      expect(Math.abs(convergenceAt(ellipticalNfw, p, x, y) / (2 * kappaS * nfwConvergenceShape(bigX)) - 1)).toBeLessThan(1e-4);
+      expect(Math.abs(convergenceAt(nfwHalo, p, x, y) / (2 * kappaS * nfwConvergenceShape(bigX)) - 1)).toBeLessThan(1e-4);
     }
   });
   it('generalised NFW: scipy quad of the density along the line of sight (fixtures/make_profiles.py)', () => {
     for (const [gamma, bigX, reference] of profileFixtures.gnfwConvergence) {
       if (bigX > 50) continue;
-      const kappa = kappaOnAxis(ellipticalGeneralisedNfw, gnfwAt(0.6, gamma), bigX * thetaS);
+      const kappa = kappaOnAxis(generalisedNfwHalo, gnfwAt(0.6, gamma), bigX * thetaS);
       expect(Math.abs(kappa / (kappaS * reference) - 1)).toBeLessThan(1e-4);
     }
   });
@@ -45,8 +45,8 @@ describe('elliptical NFW and generalised NFW convergence against the analytic pr
 describe('elliptical halo deflection', () => {
   const points = [...annulusPoints(16, 0.01, 20, cx, cy), [cx + 1e-4, cy] as [number, number]];
   for (const [profile, p] of [
-    [ellipticalNfw, nfwAt(0.3)], [ellipticalNfw, nfwAt(0.75)], [ellipticalNfw, nfwAt(1 - 1e-9)],
-    [ellipticalGeneralisedNfw, gnfwAt(0.6, 0.4)], [ellipticalGeneralisedNfw, gnfwAt(0.8, 1.7)],
+    [nfwHalo, nfwAt(0.3)], [nfwHalo, nfwAt(0.75)], [nfwHalo, nfwAt(1 - 1e-9)],
+    [generalisedNfwHalo, gnfwAt(0.6, 0.4)], [generalisedNfwHalo, gnfwAt(0.8, 1.7)],
   ] as Array<[MassProfile, Float64Array]>) {
     it(`${profile.kind} q = ${p[2]}${p.length > 6 ? `, gamma = ${p[6]}` : ''} matches the homoeoid integral of its convergence`, () => {
       // Schramm 1990 / Keeton 2001 integrals of the profile's own convergence (homoeoidDeflection.ts):
@@ -68,7 +68,7 @@ describe('elliptical halo deflection', () => {
     for (const q of [1, 1 - 1e-9]) {
       for (let k = 0; k <= 40; k++) {
         const bigX = 1e-2 * Math.pow(1e4, k / 40), r = bigX * thetaS, phi = 0.7 * k;
-        const [ax, ay] = deflectionAt(ellipticalNfw, nfwAt(q), cx + r * Math.cos(phi), cy + r * Math.sin(phi));
+        const [ax, ay] = deflectionAt(nfwHalo, nfwAt(q), cx + r * Math.cos(phi), cy + r * Math.sin(phi));
         const closed = (4 * kappaS * thetaS * nfwProjectedMassShape(bigX)) / bigX;
         expect(Math.abs(Math.hypot(ax, ay) / closed - 1)).toBeLessThan(2e-6);
       }
@@ -78,7 +78,7 @@ describe('elliptical halo deflection', () => {
   it('kappa is half the divergence of alpha', () => {
     // Poisson equation of lensing, central differences with step 1e-4 r (truncation ~1e-8
     // relative); 1e-6 as in the other profile tests.
-    for (const [profile, p] of [[ellipticalNfw, nfwAt(0.6, -25)], [ellipticalGeneralisedNfw, gnfwAt(0.6, 1.4, 70)]] as Array<[MassProfile, Float64Array]>) {
+    for (const [profile, p] of [[nfwHalo, nfwAt(0.6, -25)], [generalisedNfwHalo, gnfwAt(0.6, 1.4, 70)]] as Array<[MassProfile, Float64Array]>) {
       for (const [x, y] of annulusPoints(12, 0.05, 15, cx, cy)) {
         const h = 1e-4 * Math.hypot(x - cx, y - cy);
         expect(Math.abs(halfDivergence(profile, p, x, y, h) / convergenceAt(profile, p, x, y) - 1)).toBeLessThan(1e-6);
@@ -91,12 +91,12 @@ describe('spherical mass of the halo', () => {
   it('NFW: 4 pi kappa_s theta_s^2 (ln(1 + x) - x / (1 + x)) (Navarro, Frenk & White 1996)', () => {
     for (const r of [0.01, 3, 6, 40]) {
       const x = r / thetaS, closed = 4 * Math.PI * kappaS * thetaS * thetaS * (Math.log1p(x) - x / (1 + x));
-      expect(Math.abs(ellipticalNfw.sphericalMassWithin!(nfwAt(0.5), 0, r) / closed - 1)).toBeLessThan(1e-13);
+      expect(Math.abs(nfwHalo.sphericalMassWithin!(nfwAt(0.5), 0, r) / closed - 1)).toBeLessThan(1e-13);
     }
   });
   it('generalised NFW: scipy quad of the density (fixtures/make_profiles.py)', () => {
     for (const [gamma, x, numerical] of profileFixtures.gnfwEnclosedMass) {
-      const mass = ellipticalGeneralisedNfw.sphericalMassWithin!(gnfwAt(0.5, gamma), 0, x * thetaS);
+      const mass = generalisedNfwHalo.sphericalMassWithin!(gnfwAt(0.5, gamma), 0, x * thetaS);
       expect(Math.abs(mass / (4 * Math.PI * kappaS * thetaS * thetaS * numerical) - 1)).toBeLessThan(1e-13);
     }
   });

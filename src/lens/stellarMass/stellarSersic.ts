@@ -14,15 +14,20 @@ import { sersicSphericalMass } from './sersicSphericalMass.js';
  * widths per decade (54 to 63 Gaussians) the convergence is within 3e-5 of the law from 0.01 R_e to
  * two thirds of that radius (up to 10 R_e) for 0.6 <= n <= 6 and |eta| <= 0.3, the deflection
  * within 3e-6 (2.4e-5 at 0.01 R_e for n = 6, eta = -0.3, whose centre is steepest;
- * test/lens/stellarMass/ellipticalSersicMass.test.ts).
+ * test/lens/stellarMass/stellarSersic.test.ts).
  */
 export const SERSIC_EXPANSION = Object.freeze({ minRadius: 1e-5, widthsPerDecade: 8, floor: 1e-5, tailLevel: 1e-5 });
+
+/** Where the expansion ends, in R_e: exp(-b_n (X^(1/n) - 1)) = SERSIC_EXPANSION.tailLevel. */
+export function sersicExpansionOuterRadius(sersicIndex: number): number {
+  return Math.pow(1 - Math.log(SERSIC_EXPANSION.tailLevel) / sersicRoot(sersicIndex), sersicIndex);
+}
 
 const cache = new ExpansionCache((sersicIndex, gradient) => fitGaussianExpansion(
   (bigX) => sersicMassShape(bigX, sersicIndex, gradient),
   {
     minRadius: SERSIC_EXPANSION.minRadius,
-    maxRadius: Math.pow(1 - Math.log(SERSIC_EXPANSION.tailLevel) / sersicRoot(sersicIndex), sersicIndex),
+    maxRadius: sersicExpansionOuterRadius(sersicIndex),
     widthsPerDecade: SERSIC_EXPANSION.widthsPerDecade,
     floor: SERSIC_EXPANSION.floor,
   },
@@ -46,8 +51,8 @@ function place(p: Float64Array, offset: number): EllipticalGaussianSum {
  * the Sersic law deprojected (sersicSphericalMass.ts; the expansion's amplitudes alternate in sign
  * and their deprojection amplifies the fit's residuals).
  */
-export const ellipticalSersicMass: MassProfile = gaussianSumProfile(
-  'ellipticalSersicMass',
+export const stellarSersic: MassProfile = gaussianSumProfile(
+  'stellarSersic',
   [
     'convergenceAtEffectiveRadius', 'effectiveRadiusArcsec', 'sersicIndex', 'axisRatio', 'positionAngleDeg',
     'centerXArcsec', 'centerYArcsec', 'massToLightGradient',

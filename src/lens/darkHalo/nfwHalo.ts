@@ -10,8 +10,8 @@ import { nfwConvergenceShape } from './nfwProjection.js';
  * axisRatio, positionAngleDeg, centerXArcsec, centerYArcsec. Deflection through the Gaussian
  * expansion of the convergence (ellipticalHalo.ts).
  */
-export const ellipticalNfw: MassProfile = ellipticalHalo(
-  'ellipticalNfw',
+export const nfwHalo: MassProfile = ellipticalHalo(
+  'nfwHalo',
   ['convergenceScale', 'scaleRadiusArcsec', 'axisRatio', 'positionAngleDeg', 'centerXArcsec', 'centerYArcsec'],
   (bigX) => 2 * nfwConvergenceShape(bigX),
   1,
