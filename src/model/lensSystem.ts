@@ -9,6 +9,7 @@ import { ParameterCollector, copyWriter } from './componentBinding.js';
 import type { ModelParameter } from './modelParameter.js';
 import { bindPerturber, type PerturberBinding } from './perturberBinding.js';
 import { bindPhysicalMainLens, physicalMainLensKinds } from './mainLensBinding.js';
+import type { HostLens } from './tidalPerturberBinding.js';
 import { buildLensingContext } from './buildLensingContext.js';
 import type { LensingContext } from '../cosmology/index.js';
 
@@ -133,7 +134,16 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
     massTerms.push({ profile: pair.reference, fast: pair.fast, offset: profileLength });
     profileLength += names.length;
   });
-  const mainLensTermCount = massTerms.length;
+  // The main lens as a tidally truncated perturber sees it: its components, centre and writers.
+  const mainWriters = writers.slice();
+  const firstNames = massTerms[0].profile.parameterNames;
+  const host: HostLens = {
+    components: massTerms.map(({ profile, offset }) => ({ profile, offset })),
+    centerXOffset: firstNames.indexOf('centerXArcsec'),
+    centerYOffset: firstNames.indexOf('centerYArcsec'),
+    writeMainLens: (model, profile) => { for (const write of mainWriters) write(model, profile); },
+    profileLength,
+  };
 
   if (config.shear !== undefined) {
     const { reference: profile, fast } = mainLensProfiles.externalShear;
@@ -172,7 +182,7 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
   const perturbers: PerturberBinding[] = [];
   const perturberCount = Math.min(options.perturberCount ?? config.perturbers.length, config.perturbers.length);
   for (let k = 0; k < perturberCount; k++) {
-    const binding = bindPerturber(withRegionBounds(config.perturbers[k], config, file), collector, lensing, profileLength, file);
+    const binding = bindPerturber(withRegionBounds(config.perturbers[k], config, file), collector, lensing, profileLength, file, host);
     perturbers.push(binding);
     writers.push(binding.write);
     massTerms.push({ profile: binding.profile, fast: binding.fast, offset: profileLength });

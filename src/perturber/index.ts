@@ -10,6 +10,8 @@ export {
   nfwProjectionF, nfwConvergenceShape, nfwProjectedMassShape, nfwSmallestRadiusRatio,
 } from '../lens/darkHalo/nfwProjection.js';
 export { duffy2008Concentration, duffy2008FullSampleM200 } from './concentrationMass.js';
+export { tidalTruncationRadius } from './tidalTruncationRadius.js';
+export { hostSphericalMassSolar, type HostComponent } from './hostSphericalMass.js';
 export {
   nfwEnclosedMassFactor, truncatedNfwTotalMassFactor, nfwFromMass, writeNfwLensingParameters, subhaloFromMass,
   writeGeneralisedNfwLensingParameters,

@@ -10,6 +10,10 @@ export interface ProfileFixtures {
   sersicTotal: Array<[number, number, number]>;
   /** [n, eta, r / R_e, spherical mass within r in units of the shape's value at R_e times R_e^2]. */
   sersicSphericalMass: Array<[number, number, number, number]>;
+  /** [thetaE, core radius, r, spherical mass in Sigma_crit arcsec^2] of the cored isothermal convergence. */
+  isothermalSphericalMass: Array<[number, number, number, number]>;
+  /** [thetaE, gamma, r, spherical mass in Sigma_crit arcsec^2] of the power-law convergence. */
+  powerLawSphericalMass: Array<[number, number, number, number]>;
 }
 
 export const profileFixtures = JSON.parse(
