@@ -20,6 +20,14 @@ export interface MassProfile {
     x: Float64Array, y: Float64Array, n: number,
     kappa: Float64Array,
   ): void;
+  /**
+   * Mass inside a sphere of radius r (arcsec) about the profile's centre, of the spherical body
+   * whose projection is this convergence read by its circularised radius, in units of
+   * Sigma_crit arcsec^2 (times Sigma_crit per arcsec^2 it is in solar masses). Present for the
+   * main-lens profiles that describe a body (not for shear or multipoles); the tidal radius of a
+   * subhalo reads it.
+   */
+  sphericalMassWithin?(p: Float64Array, offset: number, radiusArcsec: number): number;
   /** Present only where the potential is analytic. */
   addPotential?(
     p: Float64Array, offset: number,

@@ -1,3 +1,4 @@
+import { gamma as gammaFunction } from '../numeric/special/stdlibSpecial.js';
 import { zeroedDeflectionScratch } from './deflectionScratch.js';
 import type { MassProfile } from './massProfile.js';
 
@@ -74,6 +75,17 @@ export const powerLawEllipsoid: MassProfile = {
       const xr = cos * dx + sin * dy, yr = cos * dy - sin * dx;
       kappa[i] += amplitude * Math.exp(halfT * Math.log(b2 / (q * q * xr * xr + yr * yr)));
     }
+  },
+
+  // The sphere rho = rho_0 r^-gamma projects to Sigma = rho_0 B(1/2, (gamma - 1)/2) R^(1 - gamma) (the
+  // line-of-sight integral; B the beta function), so with M_2D(<R) = pi thetaE^(gamma - 1) R^(3 - gamma)
+  // (the convergence above) its mass within r is M_2D(<r) 2 / B(1/2, (gamma - 1)/2)
+  // = pi thetaE^(gamma - 1) r^(3 - gamma) 2 Gamma(gamma/2) / (sqrt(pi) Gamma((gamma - 1)/2)) in
+  // Sigma_crit arcsec^2 (2/pi of M_2D at gamma = 2, the isothermal sphere), read on the circularised radius.
+  sphericalMassWithin(p, offset, radiusArcsec) {
+    const thetaE = p[offset], gamma = p[offset + 1];
+    const ratio = (2 * gammaFunction(0.5 * gamma)) / (Math.sqrt(Math.PI) * gammaFunction(0.5 * (gamma - 1)));
+    return Math.PI * Math.pow(thetaE, gamma - 1) * Math.pow(radiusArcsec, 3 - gamma) * ratio;
   },
 
   // Tessore & Metcalf 2015 potential: psi = (x alpha_x + y alpha_y) / (2 - t), the potential being

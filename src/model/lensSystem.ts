@@ -9,6 +9,8 @@ import { pixelatedParameterNames, type PixelatedSourceTerm } from './pixelatedSo
 import { ParameterCollector, copyWriter } from './componentBinding.js';
 import type { ModelParameter } from './modelParameter.js';
 import { bindPerturber, type PerturberBinding } from './perturberBinding.js';
+import { bindPhysicalMainLens, physicalMainLensKinds } from './mainLensBinding.js';
+import type { HostLens } from './tidalPerturberBinding.js';
 import { buildLensingContext } from './buildLensingContext.js';
 import type { LensingContext } from '../cosmology/index.js';
 
@@ -113,22 +115,43 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
   const massTerms: MassTerm[] = [];
   let profileLength = 0;
 
-  const mainIndices: number[][] = [];
+  const lensing = buildLensingContext(config);
+  // For each main-lens component, the model index of a parameter by name (-1 when it has none).
+  const mainIndexOf: Array<(name: string) => number> = [];
   config.lensMass.forEach((component) => {
+    if ((physicalMainLensKinds as readonly string[]).includes(component.kind)) {
+      const binding = bindPhysicalMainLens(component, collector, lensing, profileLength, file);
+      mainIndexOf.push(binding.indexOf);
+      writers.push(binding.write);
+      massTerms.push({ profile: binding.pair.reference, fast: binding.pair.fast, offset: profileLength });
+      profileLength += binding.pair.reference.parameterNames.length;
+      return;
+    }
     const pair = (mainLensProfiles as Record<string, MassProfilePair>)[component.kind];
     if (pair === undefined || component.kind === 'externalShear') {
       throw new InputError(
-        `unknown main-lens mass kind ${JSON.stringify(component.kind)} (known: isothermalEllipsoid, powerLawEllipsoid)`,
+        `unknown main-lens mass kind ${JSON.stringify(component.kind)} (known: isothermalEllipsoid, powerLawEllipsoid, ${physicalMainLensKinds.join(', ')})`,
         { file, key: `${component.key}.kind` },
       );
     }
     const defaults: Record<string, number> = component.kind === 'isothermalEllipsoid' ? { coreRadiusArcsec: 0 } : {};
-    const indices = collector.bind(component, pair.reference.parameterNames, defaults);
-    mainIndices.push(indices);
+    const names = pair.reference.parameterNames;
+    const indices = collector.bind(component, names, defaults);
+    mainIndexOf.push((name) => (names.includes(name) ? indices[names.indexOf(name)] : -1));
     writers.push(copyWriter(indices, profileLength));
     massTerms.push({ profile: pair.reference, fast: pair.fast, offset: profileLength });
-    profileLength += pair.reference.parameterNames.length;
+    profileLength += names.length;
   });
+  // The main lens as a tidally truncated perturber sees it: its components, centre and writers.
+  const mainWriters = writers.slice();
+  const firstNames = massTerms[0].profile.parameterNames;
+  const host: HostLens = {
+    components: massTerms.map(({ profile, offset }) => ({ profile, offset })),
+    centerXOffset: firstNames.indexOf('centerXArcsec'),
+    centerYOffset: firstNames.indexOf('centerYArcsec'),
+    writeMainLens: (model, profile) => { for (const write of mainWriters) write(model, profile); },
+    profileLength,
+  };
 
   if (config.shear !== undefined) {
     const { reference: profile, fast } = mainLensProfiles.externalShear;
@@ -138,18 +161,19 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
     profileLength += profile.parameterNames.length;
   }
 
-  // Multipoles ride on the first main-lens component: its centre, Einstein radius and slope.
-  const first = config.lensMass[0];
-  const firstProfile = massTerms[0].profile;
-  const linkedIndex = (name: string): number => mainIndices[0][firstProfile.parameterNames.indexOf(name)];
+  // Multipoles ride on the first main-lens component: its centre, and its Einstein radius and slope
+  // where it has them. A decomposed lens (stellarSersic, haloes) has neither: its multipoles give
+  // their own einsteinRadiusArcsec, the radius of the isothermal profile their strength refers to.
+  const linkedIndex = mainIndexOf[0];
   for (const component of config.multipoles) {
     if (component.order === undefined || ![1, 3, 4].includes(component.order)) {
       throw new InputError(`a multipole needs order: 1, 3 or 4`, { file, key: `${component.key}.order` });
     }
     const profile = multipole(component.order as 1 | 3 | 4);
-    const own = collector.bind(component, ['multipoleStrength', 'multipoleAngleDeg']);
-    const slopeIndex = first.kind === 'powerLawEllipsoid' ? linkedIndex('slope') : -1;
-    const links = [linkedIndex('centerXArcsec'), linkedIndex('centerYArcsec'), linkedIndex('einsteinRadiusArcsec')];
+    const ownRadius = linkedIndex('einsteinRadiusArcsec') < 0;
+    const own = collector.bind(component, ['multipoleStrength', 'multipoleAngleDeg', ...(ownRadius ? ['einsteinRadiusArcsec'] : [])]);
+    const slopeIndex = linkedIndex('slope');
+    const links = [linkedIndex('centerXArcsec'), linkedIndex('centerYArcsec'), ownRadius ? own[2] : linkedIndex('einsteinRadiusArcsec')];
     const offset = profileLength;
     writers.push((model, p) => {
       p[offset] = model[own[0]];
@@ -163,11 +187,10 @@ export function buildLensSystem(config: ArcsiftConfig, options: LensSystemOption
     profileLength += profile.parameterNames.length;
   }
 
-  const lensing = buildLensingContext(config);
   const perturbers: PerturberBinding[] = [];
   const perturberCount = Math.min(options.perturberCount ?? config.perturbers.length, config.perturbers.length);
   for (let k = 0; k < perturberCount; k++) {
-    const binding = bindPerturber(withRegionBounds(config.perturbers[k], config, file), collector, lensing, profileLength, file);
+    const binding = bindPerturber(withRegionBounds(config.perturbers[k], config, file), collector, lensing, profileLength, file, host);
     perturbers.push(binding);
     writers.push(binding.write);
     massTerms.push({ profile: binding.profile, fast: binding.fast, offset: profileLength });

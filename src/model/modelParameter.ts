@@ -16,6 +16,7 @@ export interface ModelParameter {
 export function unitOfParameter(name: string): string {
   if (name.endsWith('Arcsec')) return 'arcsec';
   if (name.endsWith('Deg')) return 'deg';
-  if (name.endsWith('log10MassSolar')) return 'log10(M/Msun)';
+  // log10MassSolar, log10M200Solar, log10StellarMassSolar: the last segment of the dotted name.
+  if (/(^|\.)log10\w*Solar$/.test(name)) return 'log10(M/Msun)';
   return '';
 }

@@ -7,6 +7,7 @@ import {
   subhaloFromMass, nfwFromMass, writeNfwLensingParameters,
 } from '../perturber/index.js';
 import type { ParameterCollector } from './componentBinding.js';
+import { bindTidalPerturber, type HostLens } from './tidalPerturberBinding.js';
 
 /** Masses and sizes of one perturber derived from the model vector, for reports and truth files. */
 export interface PerturberDerived {
@@ -18,7 +19,13 @@ export interface PerturberDerived {
   readonly scaleRadiusKpc?: number;
   readonly scaleRadiusArcsec?: number;
   readonly truncationRadiusKpc?: number;
+  readonly truncationRadiusArcsec?: number;
+  /** r_t / r_s of a truncated NFW. */
+  readonly truncationRatio?: number;
   readonly convergenceScale?: number;
+  /** Tidally truncated perturbers: projected distance from the host centre, and the host's mass in that sphere. */
+  readonly hostDistanceArcsec?: number;
+  readonly hostMassWithinSolar?: number;
   readonly einsteinRadiusArcsec?: number;
 }
 
@@ -45,17 +52,21 @@ const massNames = ['log10MassSolar', 'centerXArcsec', 'centerYArcsec'];
 /**
  * Binds a perturber: its sampled mass is log10 of M200 in solar masses for NFW and truncated
  * NFW (concentration from Duffy et al. 2008 unless the config gives `concentration`), and log10
- * of the total mass for the point mass and the pseudo-Jaffe. The mass-to-lensing conversion is
+ * of the total mass for the point mass and the pseudo-Jaffe. A `tidallyTruncatedNfw` takes its
+ * truncation radius from the host (tidalPerturberBinding.ts); the truncated NFW's fixed
+ * `truncationRatio` defaults to 10. The mass-to-lensing conversion is
  * subhaloLensing.ts's allocation-free writeNfwLensingParameters.
  */
 export function bindPerturber(
   component: ComponentConfig, collector: ParameterCollector, lensing: LensingContext, offset: number, file: string,
+  host?: HostLens,
 ): PerturberBinding {
   const kind = component.kind;
+  if (kind === 'tidallyTruncatedNfw' && host !== undefined) return bindTidalPerturber(component, collector, lensing, offset, file, host);
   const pair = (perturberProfiles as Record<string, MassProfilePair>)[kind];
   if (pair === undefined) {
     throw new InputError(
-      `unknown perturber kind ${JSON.stringify(kind)} (known: ${Object.keys(perturberProfiles).join(', ')})`,
+      `unknown perturber kind ${JSON.stringify(kind)} (known: ${[...Object.keys(perturberProfiles), 'tidallyTruncatedNfw'].join(', ')})`,
       { file, key: `${component.key}.kind` },
     );
   }
@@ -101,7 +112,7 @@ export function bindPerturber(
       const h = subhaloFromMass({ ...input, truncationRatio: model[tauIndex] }, lensing);
       return {
         kind, massM200Solar: input.massM200Solar, totalMassSolar: h.totalMassSolar, ...pick(h),
-        truncationRadiusKpc: h.truncationRadiusKpc,
+        truncationRatio: model[tauIndex], truncationRadiusKpc: h.truncationRadiusKpc, truncationRadiusArcsec: h.truncationRadiusArcsec,
       };
     };
     return { ...base, write, derived };

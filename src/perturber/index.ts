@@ -8,10 +8,13 @@ import { truncatedNfw } from './truncatedNfw/truncatedNfw.js';
 export { nfw, truncatedNfw, fastTruncatedNfw, pseudoJaffe, pointMass };
 export {
   nfwProjectionF, nfwConvergenceShape, nfwProjectedMassShape, nfwSmallestRadiusRatio,
-} from './nfwProjection.js';
+} from '../lens/darkHalo/nfwProjection.js';
 export { duffy2008Concentration, duffy2008FullSampleM200 } from './concentrationMass.js';
+export { tidalTruncationRadius } from './tidalTruncationRadius.js';
+export { hostSphericalMassSolar, type HostComponent } from './hostSphericalMass.js';
 export {
   nfwEnclosedMassFactor, truncatedNfwTotalMassFactor, nfwFromMass, writeNfwLensingParameters, subhaloFromMass,
+  writeGeneralisedNfwLensingParameters,
   truncatedNfwTotalMassSolar, nfwMassFromLensing, pointMassEinsteinRadiusArcsec,
   pointMassFromEinsteinRadiusSolar, pseudoJaffeTotalMassSolar, pseudoJaffeStrengthArcsec,
   type NfwFromMass, type SubhaloFromMass, type NfwMassInput, type SubhaloMassInput,

@@ -1,7 +1,7 @@
 import type { MassProfile } from '../lens/massProfile.js';
 import {
   nfwConvergenceShape, nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio,
-} from './nfwProjection.js';
+} from '../lens/darkHalo/nfwProjection.js';
 
 /**
  * Spherical NFW halo (Navarro, Frenk & White 1996), rho = rho_s / ((r/r_s)(1 + r/r_s)^2), in

@@ -1,4 +1,5 @@
 import type { LensingContext } from '../cosmology/lensingContext.js';
+import { generalisedNfwEnclosedMassFactor } from '../lens/darkHalo/generalisedNfwEnclosedMass.js';
 import { duffy2008Concentration } from './concentrationMass.js';
 
 /**
@@ -61,10 +62,9 @@ function r200MpcOf(massM200Solar: number, context: LensingContext): number {
   return Math.cbrt((3 * massM200Solar) / (800 * Math.PI * context.criticalDensitySolarPerMpc3));
 }
 
-// rho_s = M200 / (4 pi r_s^3 m(c)) (Navarro, Frenk & White 1996).
-function densityScaleOf(massM200Solar: number, concentration: number, scaleRadiusMpc: number): number {
-  return massM200Solar /
-    (4 * Math.PI * scaleRadiusMpc * scaleRadiusMpc * scaleRadiusMpc * nfwEnclosedMassFactor(concentration));
+// rho_s = M200 / (4 pi r_s^3 m(c)) (Navarro, Frenk & White 1996), m(c) the enclosed-mass factor.
+function densityScaleOf(massM200Solar: number, enclosedMassFactor: number, scaleRadiusMpc: number): number {
+  return massM200Solar / (4 * Math.PI * scaleRadiusMpc * scaleRadiusMpc * scaleRadiusMpc * enclosedMassFactor);
 }
 
 // r_s = r200/c, rho_s = M200 / (4 pi r_s^3 m(c)) (Navarro, Frenk & White 1996),
@@ -75,7 +75,7 @@ export function nfwFromMass(input: NfwMassInput, context: LensingContext): NfwFr
     duffy2008Concentration(mass, context.lensRedshift, context.littleH);
   const r200Mpc = r200MpcOf(mass, context);
   const scaleRadiusMpc = r200Mpc / concentration;
-  const densityScale = densityScaleOf(mass, concentration, scaleRadiusMpc);
+  const densityScale = densityScaleOf(mass, nfwEnclosedMassFactor(concentration), scaleRadiusMpc);
   return {
     concentration,
     r200Kpc: 1000 * r200Mpc,
@@ -91,8 +91,24 @@ export function nfwFromMass(input: NfwMassInput, context: LensingContext): NfwFr
 export function writeNfwLensingParameters(
   massM200Solar: number, concentration: number, context: LensingContext, p: Float64Array, offset: number,
 ): void {
+  writeHaloLensingParameters(massM200Solar, concentration, nfwEnclosedMassFactor(concentration), context, p, offset);
+}
+
+// The same for the generalised NFW rho_s / ((r/r_s)^gamma (1 + r/r_s)^(3 - gamma)) (Zhao 1996): with
+// c = r200 / r_s, rho_s = M200 / (4 pi r_s^3 m_gamma(c)), m_gamma of lens/darkHalo/generalisedNfwEnclosedMass.ts.
+export function writeGeneralisedNfwLensingParameters(
+  massM200Solar: number, concentration: number, innerSlope: number, context: LensingContext, p: Float64Array, offset: number,
+): void {
+  const factor = generalisedNfwEnclosedMassFactor(concentration, innerSlope);
+  writeHaloLensingParameters(massM200Solar, concentration, factor, context, p, offset);
+}
+
+// kappa_s = rho_s r_s / Sigma_crit into p[offset], theta_s = r_s / D_d into p[offset + 1].
+function writeHaloLensingParameters(
+  massM200Solar: number, concentration: number, enclosedMassFactor: number, context: LensingContext, p: Float64Array, offset: number,
+): void {
   const scaleRadiusMpc = r200MpcOf(massM200Solar, context) / concentration;
-  p[offset] = (densityScaleOf(massM200Solar, concentration, scaleRadiusMpc) * scaleRadiusMpc) /
+  p[offset] = (densityScaleOf(massM200Solar, enclosedMassFactor, scaleRadiusMpc) * scaleRadiusMpc) /
     context.criticalSurfaceDensitySolarPerMpc2;
   p[offset + 1] = scaleRadiusMpc / context.mpcPerArcsec;
 }

@@ -66,6 +66,14 @@ export interface RunSettings {
   readonly comparison: {
     readonly favouredLnBayesFactor: number;
   };
+  /** The misfit alarm on normalised residuals (results/residualAutocorrelation.ts). */
+  readonly misfitAlarm: {
+    readonly neighbours: 'rook' | 'queen';
+    readonly permutations: number;
+    /** Sounds when the permutation p-value is at or below this: its rate on white noise (exact, 999 permutations). */
+    readonly falseAlarmRate: number;
+    readonly seed: number;
+  };
 }
 
 type Section = keyof RunSettings;
@@ -88,6 +96,7 @@ export const runDefaults: RunSettings = deepFreeze({
     refitStepFraction: 0.01, refitMaxEvaluations: 400, refitChiSquareTolerance: 1e-3,
   },
   comparison: { favouredLnBayesFactor: 1 },
+  misfitAlarm: { neighbours: 'rook', permutations: 999, falseAlarmRate: 0.01, seed: 1 },
 } satisfies RunSettings);
 
 /** What each setting may hold: a whole number of at least `min`, a number above or at least `min`, or one of `choices`. */
@@ -109,6 +118,7 @@ const rules: { readonly [S in Section]: { readonly [K in keyof RunSettings[S]]: 
     refitStepFraction: { above: 0 }, refitMaxEvaluations: { whole: 1 }, refitChiSquareTolerance: { above: 0 },
   },
   comparison: { favouredLnBayesFactor: { any: true } },
+  misfitAlarm: { neighbours: { choices: ['rook', 'queen'] }, permutations: { whole: 1 }, falseAlarmRate: { above: 0 }, seed: { whole: 1 } },
 };
 
 /** Overrides of some settings of some sections. */

@@ -22,6 +22,7 @@ export const fastIsothermalEllipsoid: MassProfile = {
   parameterNames: isothermalEllipsoid.parameterNames,
   addConvergence: isothermalEllipsoid.addConvergence,
   addPotential: isothermalEllipsoid.addPotential,
+  sphericalMassWithin: isothermalEllipsoid.sphericalMassWithin,
   addDeflection(p, offset, x, y, n, alphaX, alphaY) {
     const angle = p[offset + 2] * DEG;
     const thetaE = p[offset], q = p[offset + 1];

@@ -76,6 +76,16 @@ export const isothermalEllipsoid: MassProfile = {
     }
   },
 
+  // The cored isothermal sphere rho = A / (r^2 + s^2) projects to kappa = (thetaE/2) / sqrt(R^2 + s^2)
+  // for A = Sigma_crit thetaE / (2 pi) (the line-of-sight integral of 1/(a^2 + z^2); at s = 0 the
+  // singular isothermal sphere, Binney & Tremaine 2008, sec. 4.3.3(b)); its mass within r is
+  // 4 pi A (r - s atan(r / s)) = 2 thetaE (r - s atan(r / s)) Sigma_crit arcsec^2, read on the
+  // circularised radius (an ellipse of area pi R^2 holds the round profile's mass within R).
+  sphericalMassWithin(p, offset, radiusArcsec) {
+    const thetaE = p[offset], s = p[offset + 5];
+    return 2 * thetaE * (s > 0 ? radiusArcsec - s * Math.atan(radiusArcsec / s) : radiusArcsec);
+  },
+
   // Keeton 2001 potential of the softened isothermal ellipsoid:
   // psi = x alpha_x + y alpha_y - b sK ln sqrt((w + sK)^2 + (1 - q^2) x^2) + b sK ln((1 + q) sK),
   // w = sqrt(q^2 (sK^2 + x^2) + y^2); the constant makes psi(0) = 0 when sK > 0.

@@ -1,6 +1,6 @@
 import type { MassProfile } from '../../lens/massProfile.js';
 import { truncatedNfw } from './truncatedNfw.js';
-import { nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio } from '../nfwProjection.js';
+import { nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio } from '../../lens/darkHalo/nfwProjection.js';
 import { fastAtan } from '../../numeric/elementary/fastAtan.js';
 import { fastLog } from '../../numeric/elementary/fastLog.js';
 import { passScratch } from '../../numeric/elementary/passScratch.js';

@@ -1,7 +1,7 @@
 import type { MassProfile } from '../../lens/massProfile.js';
 import {
   nfwConvergenceShape, nfwProjectedMassShape, nfwProjectionF, nfwSmallestRadiusRatio,
-} from '../nfwProjection.js';
+} from '../../lens/darkHalo/nfwProjection.js';
 
 /**
  * Truncated NFW halo of Baltz, Marshall & Oguri 2009 (JCAP 01, 015), n = 1 case:
