@@ -10,6 +10,7 @@ import type { EnsembleMoveKind, EnsembleProgress } from '../sampling/ensemble/in
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { formatSky } from './formatSky.js';
+import { formatMisfit, misfitNote } from './formatMisfit.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
@@ -62,6 +63,8 @@ export function formatNestedFit(summary: NestedFitSummary): string {
   if (m.insertionRankWarning) {
     lines.push(`  warning: the insertion-rank check gives p = ${m.insertionRankPValue.toExponential(1)}: the constrained draws may be biased, so ln Z is suspect (Fowlie, Handley & Su 2020)`);
   }
+  lines.push(`  ${formatMisfit('best fit', m.misfit)}`);
+  if (m.misfit !== undefined) lines.push(`  (${misfitNote(m.misfit)})`);
   lines.push('', 'Parameters (posterior median, central 68% interval)', ...formatParameters(m.parameters));
   for (const p of summary.perturbers) {
     if (p.log10M200 !== null && p.kind !== 'pointMass') {
@@ -82,6 +85,8 @@ export function formatEnsembleFit(summary: EnsembleFitSummary): string {
     `  ${m.evaluations} likelihood evaluations, ${m.seconds.toFixed(0)} s on ${m.threads} thread(s); burn-in ${m.burnInSteps * m.thin} iterations left out; ` +
       `acceptance fraction mean ${m.acceptanceFraction.mean.toFixed(3)}, min ${m.acceptanceFraction.min.toFixed(3)}`,
     `  chain after burn-in: ${formatValue(m.chainLengthInAutocorrelationTimes)} autocorrelation times, ${m.retainedSamples} samples`,
+    `  ${formatMisfit('best sample', m.misfit)}`,
+    ...(m.misfit === undefined ? [] : [`  (${misfitNote(m.misfit)})`]),
     '',
   ];
   const names = m.parameters.map((p) => (p.unit === '' ? p.name : `${p.name} [${p.unit}]`));
