@@ -35,6 +35,8 @@ export interface ComparisonSettings {
   readonly perturbed: EvidenceSettings;
   /** How many of the config's perturbers the perturbed model holds (default 1). */
   readonly perturberCount?: number;
+  /** The detection claim's threshold in ln B (default runDefaults.detection.lnBayesFactorThreshold). */
+  readonly detectionThresholdLnB?: number;
   /** Called as each run starts (both at once when they run side by side, see comparisonSideBySide). */
   readonly onModelStart?: (label: string) => void;
 }

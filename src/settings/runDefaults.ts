@@ -37,11 +37,10 @@ export interface RunSettings {
     readonly move: 'stretch' | 'differentialEvolution';
     readonly checkpointEverySteps: number;
   };
-  /** Vetting of network flags. */
+  /** Vetting of network flags (a flag is confirmed above detection.lnBayesFactorThreshold). */
   readonly vet: {
     /** Side of the square position prior around each flag, arcsec. */
     readonly windowArcsec: number;
-    readonly confirmAboveLnB: number;
     readonly disfavourBelowLnB: number;
     /** Smallest map value that makes a candidate. */
     readonly mapThreshold: number;
@@ -74,6 +73,15 @@ export interface RunSettings {
     readonly falseAlarmRate: number;
     readonly seed: number;
   };
+  /** The detection claim of compare, vet and verdict (results/detectionClaim.ts). */
+  readonly detection: {
+    /**
+     * A perturber is detected when ln B exceeds this (and the smooth model passes the misfit
+     * alarm): 50, the robust-detection threshold of Vegetti et al. 2014 and Ritondale et al. 2019
+     * (10 sigma; see DETECTION_THRESHOLD_SOURCE).
+     */
+    readonly lnBayesFactorThreshold: number;
+  };
 }
 
 type Section = keyof RunSettings;
@@ -90,13 +98,14 @@ export const runDefaults: RunSettings = deepFreeze({
   },
   demo: { livePoints: 50, sliceStepsPerParameter: 1, noiseSeed: 1 },
   ensemble: { maxSteps: 5000, targetAutocorrelationTimes: 50, move: 'stretch', checkpointEverySteps: 100 },
-  vet: { windowArcsec: 0.4, confirmAboveLnB: 3, disfavourBelowLnB: -1, mapThreshold: 0.5, mergeRadiusArcsec: 0.15 },
+  vet: { windowArcsec: 0.4, disfavourBelowLnB: -1, mapThreshold: 0.5, mergeRadiusArcsec: 0.15 },
   sensitivity: {
     livePoints: 50, gridSize: 10, threshold: 5, toleranceDex: 0.05,
     refitStepFraction: 0.01, refitMaxEvaluations: 400, refitChiSquareTolerance: 1e-3,
   },
   comparison: { favouredLnBayesFactor: 1 },
   misfitAlarm: { neighbours: 'rook', permutations: 999, falseAlarmRate: 0.01, seed: 1 },
+  detection: { lnBayesFactorThreshold: 50 },
 } satisfies RunSettings);
 
 /** What each setting may hold: a whole number of at least `min`, a number above or at least `min`, or one of `choices`. */
@@ -112,13 +121,14 @@ const rules: { readonly [S in Section]: { readonly [K in keyof RunSettings[S]]: 
     maxSteps: { whole: 1 }, targetAutocorrelationTimes: { above: 0 }, move: { choices: ['stretch', 'differentialEvolution'] },
     checkpointEverySteps: { whole: 1 },
   },
-  vet: { windowArcsec: { above: 0 }, confirmAboveLnB: { any: true }, disfavourBelowLnB: { any: true }, mapThreshold: { above: 0 }, mergeRadiusArcsec: { atLeast: 0 } },
+  vet: { windowArcsec: { above: 0 }, disfavourBelowLnB: { any: true }, mapThreshold: { above: 0 }, mergeRadiusArcsec: { atLeast: 0 } },
   sensitivity: {
     livePoints: { whole: 2 }, gridSize: { whole: 1 }, threshold: { above: 0 }, toleranceDex: { above: 0 },
     refitStepFraction: { above: 0 }, refitMaxEvaluations: { whole: 1 }, refitChiSquareTolerance: { above: 0 },
   },
   comparison: { favouredLnBayesFactor: { any: true } },
   misfitAlarm: { neighbours: { choices: ['rook', 'queen'] }, permutations: { whole: 1 }, falseAlarmRate: { above: 0 }, seed: { whole: 1 } },
+  detection: { lnBayesFactorThreshold: { any: true } },
 };
 
 /** Overrides of some settings of some sections. */
