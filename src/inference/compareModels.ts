@@ -85,6 +85,11 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
     settings.onModelStart?.('perturbed');
     perturbed = await runModelEvidence(config, data, perturberCount, { ...settings.perturbed, method });
   }
+  return readComparison(smooth, perturbed, config, data);
+}
+
+/** The Bayes factor of two finished runs of one config (smooth and perturbed) and its reading. */
+export function readComparison(smooth: ModelEvidence, perturbed: ModelEvidence, config: ArcsiftConfig, data: ObservedData): Comparison {
   const lnBayesFactor = perturbed.result.lnZ - smooth.result.lnZ;
   const lnBayesFactorError = Math.hypot(perturbed.result.lnZError, smooth.result.lnZError);
   return {

@@ -16,6 +16,7 @@ export type { ComparisonSummary, ComparisonDetection } from './comparisonSummary
 export type { FitSummary, NestedFitSummary, EnsembleFitSummary } from './fitSummary.js';
 export type { CountComparisonSummary, CountRow } from './countComparisonSummary.js';
 export type { VetSummary, VetRunRecord, VetThresholds, VetVerdict } from './vetSummary.js';
+export type { RobustVerdict, RobustVerdictKind, VerdictFamilyRecord, VerdictFitRecord, VerdictSummary } from './verdictSummary.js';
 export type {
   SensitivitySummary, SensitivityRecord, MassDecadeFraction, DetectableMassLimit, RefitSettings,
 } from './sensitivitySummary.js';
