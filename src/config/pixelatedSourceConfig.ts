@@ -9,7 +9,7 @@ export type SourceMeshConfig =
     readonly cellsPerSide: number;
   }
   | {
-    /** Cells whose vertices are the traced positions of a subset of image pixels (Delaunay, barycentric interpolation). */
+    /** Cells whose vertices are the traced positions of a fixed subset of image pixels (Delaunay, natural-neighbour interpolation). */
     readonly kind: 'adaptive';
     /** About how many vertices (cells): every k-th pixel along both axes, k from this. */
     readonly cells: number;
