@@ -43,9 +43,9 @@ const BADGE = { confirmed: 'favoured', 'not-confirmed': 'not-favoured', 'not-evi
 
 /** One row per family: its components, both ln Z, ln B, the smooth chi^2/dof, both misfit tests and whether the verdict rests on it. */
 function familyTable(s: VerdictSummary, folder: string, pageFile: string): string {
-  const rows = s.families.map((f: VerdictFamilyRecord) => {
+  const rows = s.families.map((f: VerdictFamilyRecord, k) => {
     const report = join(folder, f.folder, 'report.html');
-    const name = existsSync(report) ? `<a href="${pageLink(pageFile, report)}">${escapeMarkup(f.name)}</a>` : escapeMarkup(f.name);
+    const name = `<span class="muted">F${k + 1}</span> ${existsSync(report) ? `<a href="${pageLink(pageFile, report)}">${escapeMarkup(f.name)}</a>` : escapeMarkup(f.name)}`;
     return [
       `${name}<br><span class="component">${escapeMarkup(f.components.lens)}; source ${escapeMarkup(f.components.source)}</span>`,
       numberCell(`${fixed(f.smooth.lnEvidence)} <small>&plusmn; ${fixed(f.smooth.lnEvidenceError)}</small>`),
@@ -99,11 +99,18 @@ export function writeVerdictReport(
   const v = s.verdict;
   const { dataFiles, truth } = locateRunData(s.data, folder, summaryFile, notices);
   const observed = readObservedImages(dataFiles, notices, s);
-  const models = s.families.flatMap((f, k) => (['smooth', 'perturbed'] as const).map((m) => readModelImages(join(folder, f.folder, m), `family-${k + 1}-${m}`, `${f.name}, ${m}`, notices)));
+  const models = s.families.flatMap((f, k) => (['smooth', 'perturbed'] as const).map((m) => readModelImages(join(folder, f.folder, m), `family-${k + 1}-${m}`, `F${k + 1} ${m}`, notices)));
   const set = imageSetOf(observed, models, notices);
   const truthValues = new Map((truth?.parameters ?? []).map((p) => [p.name, p.value]));
   const images = set === null ? [] : imageFigures(set, observed, models, perturberTruthMarkers(truth?.perturbers ?? [], truthValues), figuresFolder)
-    .filter((f) => f.key === 'data' || f.key.endsWith('-normalised-residual'));
+    .filter((f) => f.key === 'data' || f.key.endsWith('-normalised-residual'))
+    .map((figure) => {
+      // Panels are titled F1, F2, ... to fit; the caption names the family.
+      const match = /^family-(\d+)-(smooth|perturbed)-normalised-residual$/.exec(figure.key);
+      if (match === null) return figure;
+      const f = s.families[Number(match[1]) - 1];
+      return { ...figure, caption: `F${match[1]}, ${escapeMarkup(f.name)}: (data &minus; model) / noise of the ${match[2]} model's best fit (misfit test ${f[match[2] as 'smooth' | 'perturbed'].misfit.alarm ? 'fails' : 'passes'}, p = ${pValueText(f[match[2] as 'smooth' | 'perturbed'].misfit.pValue)}).` };
+    });
   const forest: ReportFigure = writeSvgFigure(figuresFolder, 'family-bayes-factors', 'family-bayes-factors', {
     section: 'diagnostics',
     title: 'ln B per family',
