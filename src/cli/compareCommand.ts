@@ -44,7 +44,7 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
       const summary = await comparePerturberCounts(config, data, maxCount, out, run.settings, (k) => {
         run.finish();
         if (!args.quiet) process.stderr.write(`model with ${k} perturber(s)\n`);
-      });
+      }, finiteNumberOption('detection-threshold', args['detection-threshold']));
       run.finish();
       process.stdout.write(`${formatCountComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and perturbers-0 ... perturbers-${maxCount} under ${out}\n`);
       return;

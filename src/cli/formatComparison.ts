@@ -94,6 +94,11 @@ export function formatCountComparison(summary: CountComparisonSummary): string {
     lines.push(`  ${String(row.perturbers).padStart(5)}   ${`${fixed(row.lnEvidence)} +- ${fixed(row.lnEvidenceError)}`.padEnd(16)}  ${lnB.padStart(17)}   ${row.reading}`);
   }
   lines.push(`  preferred: ${summary.preferredCount} perturber(s), the count of highest evidence`);
+  if (summary.detection !== undefined) {
+    lines.push(`  detection: ${summary.detection.sentence}`);
+    lines.push(`  threshold: ${summary.detection.thresholdSource}`);
+  }
+  lines.push(`  ${formatMisfit('no perturber ', summary.models[0]?.misfit)}`);
   lines.push(`  label switching: ${summary.labelSwitching}`);
   for (const p of summary.perturbers) {
     const m = p.log10Mass;
