@@ -39,7 +39,7 @@ export function misfitTable(fits: readonly MisfitColumn[]): string {
       row('&chi;<sup>2</sup> at the best fit', (m) => numberCell(formatNumber(m.chiSquare, 1))),
       row('degrees of freedom (pixels &minus; sampled &minus; linear)', (m) => numberCell(`${formatCount(m.degreesOfFreedom)} <small>(${m.freeParameters} + ${formatCount(m.linearAmplitudes)})</small>`)),
       row('&chi;<sup>2</sup> per degree of freedom', (m) => numberCell(formatNumber(m.chiSquarePerDegreeOfFreedom, 3))),
-      row('(&chi;<sup>2</sup> &minus; &nu;) / &radic;(2&nu;)', (m) => numberCell(`${formatNumber(m.chiSquareExcessSigma, 1)} &sigma;`)),
+      row('(&chi;<sup>2</sup> &minus; &nu;) / &radic;(2&nu;)', (m) => numberCell(m.chiSquareExcessSigma === null ? 'n/a' : `${m.chiSquareExcessSigma.toFixed(1)} &sigma;`)),
       row(`Moran's I (${fits.find((f) => f.misfit !== undefined)?.misfit?.neighbours ?? 'rook'} neighbours)`, (m) => numberCell(formatNumber(m.moransI, 4))),
       row('expectation under no structure', (m) => numberCell(formatNumber(m.moransIExpectation, 5))),
       row('z-score (randomisation variance)', (m) => numberCell(formatNumber(m.moransIZScore, 2))),
