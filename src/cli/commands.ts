@@ -6,6 +6,7 @@ import { fitCommand } from './fitCommand.js';
 import { vetCommand } from './vetCommand.js';
 import { sensitivityCommand } from './sensitivityCommand.js';
 import { reportCommand } from './reportCommand.js';
+import { batchCommand } from './batchCommand.js';
 
 /** Every `arcsift` command, in the order `--help` lists them. */
-export const commands: CommandModule<object, any>[] = [simulateCommand, fitCommand, compareCommand, vetCommand, sensitivityCommand, reportCommand, demoCommand];
+export const commands: CommandModule<object, any>[] = [simulateCommand, fitCommand, compareCommand, vetCommand, sensitivityCommand, batchCommand, reportCommand, demoCommand];
