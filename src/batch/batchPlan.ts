@@ -43,8 +43,9 @@ function resultDefining(row: BatchRow): string {
 
 /**
  * The plan of a batch folder: written from the manifest's rows on the first run; on a later run
- * (a re-submission) the rows and run options must be the same, so that finished rows can be
- * kept and interrupted ones resumed with the settings they started with.
+ * (a re-submission) the run options and every earlier row must be the same, so that finished
+ * rows can be kept and interrupted ones resumed with the settings they started with. Rows may
+ * be added (a calibration given more draws).
  */
 export function settleBatchPlan(out: string, manifest: string, rows: readonly BatchRow[], runOptions: readonly string[], reports: boolean): BatchPlan {
   const plan: BatchPlan = { format: BATCH_PLAN_FORMAT, version: 1, manifest: resolve(manifest), rows, runOptions, reports };
@@ -60,11 +61,13 @@ export function settleBatchPlan(out: string, manifest: string, rows: readonly Ba
   const before = new Map(earlier.rows.map((r) => [r.id, r]));
   for (const row of rows) {
     const old = before.get(row.id);
-    if (old === undefined) throw new InputError(`row ${row.id} (${row.origin}) is not in this batch; choose another --out for a new manifest`, { file });
-    if (resultDefining(old) !== resultDefining(row)) throw new InputError(`row ${row.id} (${row.origin}) differs from the row this batch started with; choose another --out for a changed manifest`, { file });
+    if (old !== undefined && resultDefining(old) !== resultDefining(row)) throw new InputError(`row ${row.id} (${row.origin}) differs from the row this batch started with; choose another --out for a changed manifest`, { file });
   }
-  if (rows.length !== earlier.rows.length) throw new InputError(`the manifest has ${rows.length} rows, the batch ${earlier.rows.length}; choose another --out for a changed manifest`, { file });
-  const settled = { ...earlier, reports };
-  if (earlier.reports !== reports) writeJsonAtomic(file, settled);
+  const now = new Set(rows.map((r) => r.id));
+  const dropped = earlier.rows.find((r) => !now.has(r.id));
+  if (dropped !== undefined) throw new InputError(`row ${dropped.id} of this batch is not in the manifest; choose another --out for a changed manifest`, { file });
+  const added = rows.filter((r) => !before.has(r.id));
+  const settled = { ...earlier, rows: [...earlier.rows, ...added], reports };
+  if (earlier.reports !== reports || added.length > 0) writeJsonAtomic(file, settled);
   return settled;
 }
