@@ -38,19 +38,22 @@ const PRIOR_STREAM = 0;
 const NOISE_STREAM = 1_000_000;
 
 /**
- * One prior draw of the model with `perturberCount` perturbers: a uniform point of the unit cube
- * sent through the model's prior transform, the same map the nested sampler uses (priors, region
- * priors on positions, ordering of identical perturbers), so the draw follows the prior the fit
- * assumes. Returns the free parameters by name.
+ * Prior draws of the model with `perturberCount` perturbers: each a uniform point of the unit
+ * cube sent through the model's prior transform, the same map the nested sampler uses (priors,
+ * region priors on positions, ordering of identical perturbers), so the draws follow the prior
+ * the fit assumes. The returned function makes one draw from `stream`: the free parameters by name.
  */
-export function drawFromPrior(config: ArcsiftConfig, perturberCount: number, stream: SeededStream): Record<string, number> {
+export function priorSampler(config: ArcsiftConfig, perturberCount: number): (stream: SeededStream) => Record<string, number> {
   const system = buildLensSystem(config, { perturberCount });
   const space = modelParameterSpace(system);
   const { transform } = modelPriorTransform(system, space, observationAsData(config));
-  const unit = Float64Array.from({ length: space.dim }, () => stream.uniform());
+  const unit = new Float64Array(space.dim);
   const physical = new Float64Array(space.physicalDim);
-  transform(unit, physical);
-  return Object.fromEntries(Array.from(space.freeIndices, (index) => [space.names[index], physical[index]]));
+  return (stream) => {
+    for (let k = 0; k < space.dim; k++) unit[k] = stream.uniform();
+    transform(unit, physical);
+    return Object.fromEntries(Array.from(space.freeIndices, (index) => [space.names[index], physical[index]]));
+  };
 }
 
 /**
@@ -59,13 +62,14 @@ export function drawFromPrior(config: ArcsiftConfig, perturberCount: number, str
  * finished draws of both kinds.
  */
 export function planCalibrationDraws(config: ArcsiftConfig, withPerturber: number, without: number, seed: number): CalibrationDraw[] {
+  const samplers = { perturbed: priorSampler(config, config.perturbers.length), smooth: priorSampler(config, 0) };
   const make = (k: number, perturbed: boolean): CalibrationDraw => {
     const stream = (perturbed ? 0 : 500_000) + k;
     return {
       id: `${perturbed ? 'draw' : 'null'}-${String(k + 1).padStart(4, '0')}`,
       withPerturber: perturbed,
       noiseSeed: derivedSeed(seed, NOISE_STREAM + stream),
-      truth: drawFromPrior(config, perturbed ? config.perturbers.length : 0, SeededStream.fromSeed(derivedSeed(seed, PRIOR_STREAM + stream))),
+      truth: (perturbed ? samplers.perturbed : samplers.smooth)(SeededStream.fromSeed(derivedSeed(seed, PRIOR_STREAM + stream))),
     };
   };
   const draws: CalibrationDraw[] = [];
