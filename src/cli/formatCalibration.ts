@@ -14,7 +14,7 @@ export function formatCalibration(s: CalibrationSummary): string {
   ];
   const table = [
     ['parameter', 'draws', 'rank chi2 p', 'KS p', '68% coverage', '95% coverage'],
-    ...s.parameters.map((p) => [p.name, String(p.draws), pValue(p.chiSquarePValue), pValue(p.ksPValue), percent(p.coverage68), percent(p.coverage95)]),
+    ...s.parameters.map((p) => [p.name, String(p.draws), p.rankHistogram.length > 1 ? pValue(p.chiSquarePValue) : '-', pValue(p.ksPValue), percent(p.coverage68), percent(p.coverage95)]),
   ];
   const widths = table[0].map((_, c) => Math.max(...table.map((line) => line[c].length)));
   lines.push(...table.map((line) => `  ${line.map((cell, c) => (c === 0 ? cell.padEnd(widths[c]) : cell.padStart(widths[c]))).join('  ')}`));

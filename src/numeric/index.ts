@@ -8,6 +8,7 @@ export { derivedSeed } from './random/derivedSeed.js';
 export { equalWeightResample, type EqualWeightSamples } from './resampling/equalWeightResample.js';
 export { enclosingLevels } from './statistics/enclosingLevels.js';
 export { kishEffectiveSampleSize } from './statistics/kishEffectiveSampleSize.js';
+export { binomialQuantile } from './statistics/binomialQuantile.js';
 export { chiSquareSurvival } from './statistics/chiSquareSurvival.js';
 export { wilsonInterval, type ProportionInterval } from './statistics/wilsonInterval.js';
 export { kolmogorovSmirnovPValue, kolmogorovSmirnovUniform } from './statistics/kolmogorovSmirnov.js';
