@@ -6,7 +6,7 @@ import type { BatchJobResult } from './batchJob.js';
 import { batchLayout } from './batchLayout.js';
 import { readBatchPlan } from './batchPlan.js';
 import { rowLocked } from './rowLock.js';
-import { failureCount, givenUp, lastFailure, readRowState, rowSeconds } from './rowState.js';
+import { failureCount, givenUp, lastFailure, readRowState, rowCpuSeconds, rowSeconds } from './rowState.js';
 
 /**
  * Where a row stands: finished (its summary file is there); running (a live runner holds its
@@ -26,6 +26,8 @@ export interface BatchStatusRow {
   readonly failures: number;
   /** Wall-clock seconds over all attempts. */
   readonly seconds: number;
+  /** CPU seconds over all attempts (null where not measured). */
+  readonly cpuSeconds: number | null;
   /** Threads of the last attempt. */
   readonly threads: number | null;
   readonly peakMemoryMb: number | null;
@@ -41,7 +43,7 @@ export interface JobCost {
   readonly finishedRows: number;
   readonly meanSeconds: number;
   readonly maxSeconds: number;
-  /** Mean of seconds x threads: the core-seconds a row takes. */
+  /** Mean CPU seconds of a row (the core-seconds it takes), over the rows where it was measured; else seconds x threads. */
   readonly meanCoreSeconds: number;
   readonly peakMemoryMb: number | null;
 }
@@ -73,7 +75,7 @@ export function jobCosts(rows: readonly BatchStatusRow[]): JobCost[] {
       finishedRows: done.length,
       meanSeconds: done.reduce((s, r) => s + r.seconds, 0) / done.length,
       maxSeconds: Math.max(...done.map((r) => r.seconds)),
-      meanCoreSeconds: done.reduce((s, r) => s + r.seconds * (r.threads ?? 1), 0) / done.length,
+      meanCoreSeconds: done.reduce((s, r) => s + (r.cpuSeconds ?? r.seconds * (r.threads ?? 1)), 0) / done.length,
       peakMemoryMb: memory.length === 0 ? null : Math.max(...memory),
     }];
   });
@@ -107,7 +109,7 @@ export function batchStatus(out: string, options: { maxAttempts?: number; staleS
     const memory = state.attempts.map((a) => a.peakMemoryMb).filter((m): m is number => m !== null);
     return {
       id: row.id, job: row.job, state: rowState, attempts: state.attempts.length, failures: failureCount(state),
-      seconds: rowSeconds(state), threads: last?.threads ?? null, peakMemoryMb: memory.length === 0 ? null : Math.max(...memory),
+      seconds: rowSeconds(state), cpuSeconds: rowCpuSeconds(state), threads: last?.threads ?? null, peakMemoryMb: memory.length === 0 ? null : Math.max(...memory),
       result: read.result, error: read.error, folder,
     };
   });

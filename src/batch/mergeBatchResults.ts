@@ -6,14 +6,14 @@ import { batchStatus, type BatchStatus, type BatchStatusRow } from './batchStatu
 
 /** Columns of results.csv, in order. */
 export const RESULTS_COLUMNS = [
-  'id', 'job', 'state', 'attempts', 'seconds', 'peakMemoryMb', 'lnEvidence', 'lnBayesFactor', 'lnBayesFactorError', 'verdict', 'error', 'folder',
+  'id', 'job', 'state', 'attempts', 'seconds', 'cpuSeconds', 'peakMemoryMb', 'lnEvidence', 'lnBayesFactor', 'lnBayesFactorError', 'verdict', 'error', 'folder',
 ] as const;
 
 function cells(row: BatchStatusRow): (string | number | null)[] {
   const r = row.result;
   const rounded = (v: number | null, digits: number): string | null => (v === null ? null : v.toFixed(digits));
   return [
-    row.id, row.job, row.state, row.attempts, rounded(row.seconds, 1), rounded(row.peakMemoryMb, 0),
+    row.id, row.job, row.state, row.attempts, rounded(row.seconds, 1), rounded(row.cpuSeconds, 1), rounded(row.peakMemoryMb, 0),
     r?.lnEvidence ?? null, r?.lnBayesFactor ?? null, r?.lnBayesFactorError ?? null, r?.verdict ?? null,
     row.state === 'finished' ? null : row.error, row.folder,
   ];

@@ -19,6 +19,8 @@ export interface RowAttempt {
   message: string | null;
   /** Wall-clock seconds of the attempt, updated at every heartbeat. */
   seconds: number;
+  /** CPU seconds of the command (all its threads), sampled every second; null where not measured. */
+  cpuSeconds: number | null;
   /** Largest resident memory of the command's process seen (VmHWM), MB; null where not measured. */
   peakMemoryMb: number | null;
   readonly host: string;
@@ -65,6 +67,12 @@ export function givenUp(state: RowStateRecord, maxAttempts: number): boolean {
 /** Seconds spent on the row over all attempts. */
 export function rowSeconds(state: RowStateRecord): number {
   return state.attempts.reduce((sum, a) => sum + a.seconds, 0);
+}
+
+/** CPU seconds spent on the row over all attempts, or null when no attempt was measured. */
+export function rowCpuSeconds(state: RowStateRecord): number | null {
+  const measured = state.attempts.filter((a) => typeof a.cpuSeconds === 'number');
+  return measured.length === 0 ? null : measured.reduce((sum, a) => sum + (a.cpuSeconds as number), 0);
 }
 
 /** The last failure's message, or null. */

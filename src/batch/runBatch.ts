@@ -10,6 +10,9 @@ import { runBatchRow, type RowRunOutcome } from './runBatchRow.js';
 import { slurmResources, submitBatchToSlurm, type SlurmBatchSettings } from './submitBatchToSlurm.js';
 import type { SlurmSubmission } from './slurmSubmission.js';
 
+/** Slurm's default MaxArraySize is 1001 (array indices 0 to 1000): 1000 tasks per array stays inside it. */
+const DEFAULT_MAX_ARRAY_SIZE = 1000;
+
 export interface BatchSettings {
   /** The manifest (CSV or YAML). */
   readonly manifest: string;
@@ -37,7 +40,7 @@ export interface BatchSettings {
 
 export type BatchOutcome =
   | { readonly mode: 'local'; readonly outcomes: ReadonlyMap<string, RowRunOutcome>; readonly status: BatchStatus }
-  | { readonly mode: 'slurm'; readonly submission: SlurmSubmission | null; readonly status: BatchStatus };
+  | { readonly mode: 'slurm'; readonly submissions: readonly SlurmSubmission[]; readonly status: BatchStatus };
 
 /**
  * Runs a batch manifest into a batch folder: locally, `parallel` rows at a time, or as a Slurm
@@ -70,7 +73,7 @@ export async function runBatch(settings: BatchSettings): Promise<BatchOutcome> {
   }
   let status = batchStatus(out, statusOptions);
   const todo = (s: BatchStatus): string[] => s.rows.filter((r) => r.state === 'waiting' || r.state === 'interrupted' || r.state === 'retrying').map((r) => r.id);
-  if (todo(status).length === 0) return { mode: 'slurm', submission: null, status };
+  if (todo(status).length === 0) return { mode: 'slurm', submissions: [], status };
   if (settings.slurm.minutesPerRow === undefined && status.costs.length === 0) {
     const probe = plan.rows.find((r) => r.id === todo(status)[0])!;
     settings.onNote?.(`no row of this batch has finished yet: running row ${probe.id} here to measure the cost of a row (give --minutes-per-row to skip this)`);
@@ -78,11 +81,17 @@ export async function runBatch(settings: BatchSettings): Promise<BatchOutcome> {
     status = batchStatus(out, statusOptions);
     const measured = status.rows.find((r) => r.id === probe.id)!;
     settings.onNote?.(`row ${probe.id}: ${outcome}, ${measured.seconds.toFixed(1)} s, peak memory ${measured.peakMemoryMb === null ? 'not measured' : `${measured.peakMemoryMb.toFixed(0)} MB`}`);
-    if (todo(status).length === 0) return { mode: 'slurm', submission: null, status };
-    if (status.costs.length === 0) return { mode: 'slurm', submission: null, status };
+    // Nothing left, or the probe row failed (its error is in the status): nothing to size a task by.
+    if (todo(status).length === 0 || status.costs.length === 0) return { mode: 'slurm', submissions: [], status };
   }
   const resources = slurmResources(settings.slurm, threads, status.costs);
   const taskCommand = [rowSettings.nodePath, rowSettings.cliPath, 'batch', 'task', out, '--threads', String(threads), '--max-attempts', String(maxAttempts)];
-  const submission = await submitBatchToSlurm(out, todo(status), settings.slurm, resources, taskCommand);
-  return { mode: 'slurm', submission, status };
+  // One job array per maxArraySize tasks (Slurm refuses larger arrays).
+  const ids = todo(status);
+  const rowsPerArray = (settings.slurm.maxArraySize ?? DEFAULT_MAX_ARRAY_SIZE) * settings.slurm.rowsPerTask;
+  const submissions: SlurmSubmission[] = [];
+  for (let k = 0; k < ids.length; k += rowsPerArray) {
+    submissions.push(await submitBatchToSlurm(out, ids.slice(k, k + rowsPerArray), settings.slurm, resources, taskCommand));
+  }
+  return { mode: 'slurm', submissions, status };
 }

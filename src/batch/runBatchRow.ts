@@ -6,7 +6,7 @@ import { batchJobs } from './batchJobs.js';
 import { batchLayout } from './batchLayout.js';
 import type { BatchPlan } from './batchPlan.js';
 import type { BatchRow } from './batchRow.js';
-import { processPeakMemoryMb } from './processPeakMemory.js';
+import { processUsage } from './processUsage.js';
 import { rowCommand } from './rowCommand.js';
 import { acquireRowLock } from './rowLock.js';
 import { givenUp, readRowState, writeRowState, type RowAttempt } from './rowState.js';
@@ -59,7 +59,7 @@ function attemptRow(settings: RowRunSettings, row: BatchRow, touchLock: () => vo
   const folder = batchLayout.rowFolder(out, row.id);
   const attempt: RowAttempt = {
     startedAt: new Date().toISOString(), endedAt: null, outcome: null, resumed: existsSync(folder),
-    exitCode: null, signal: null, message: null, seconds: 0, peakMemoryMb: null,
+    exitCode: null, signal: null, message: null, seconds: 0, cpuSeconds: null, peakMemoryMb: null,
     host: hostname(), pid: process.pid, slurmTask: settings.slurmTask, threads: settings.threads,
   };
   state.attempts.push(attempt);
@@ -83,9 +83,12 @@ function attemptRow(settings: RowRunSettings, row: BatchRow, touchLock: () => vo
   };
   if (settings.signal?.aborted === true) stop();
   settings.signal?.addEventListener('abort', stop);
+  // Sampled every second: the last sample misses at most the final second of CPU time.
   const measure = (): void => {
-    const mb = child.pid === undefined ? null : processPeakMemoryMb(child.pid);
-    if (mb !== null) attempt.peakMemoryMb = Math.max(attempt.peakMemoryMb ?? 0, mb);
+    const usage = child.pid === undefined ? null : processUsage(child.pid);
+    if (usage === null) return;
+    attempt.peakMemoryMb = Math.max(attempt.peakMemoryMb ?? 0, usage.peakMemoryMb);
+    attempt.cpuSeconds = Math.max(attempt.cpuSeconds ?? 0, usage.cpuSeconds);
   };
   const sampler = setInterval(measure, 1000);
   const heartbeat = setInterval(() => {

@@ -17,6 +17,8 @@ export interface SlurmBatchSettings {
   readonly memoryPerRowMb?: number;
   /** At most this many tasks of the array at once (sbatch --array=...%N). */
   readonly maxRunning?: number;
+  /** Tasks per job array at most (Slurm's MaxArraySize, 1001 by default, allows indices 0-1000); more rows go in further arrays. */
+  readonly maxArraySize?: number;
   readonly partition?: string;
   readonly account?: string;
   readonly sbatchOptions?: readonly string[];

@@ -85,7 +85,7 @@ export async function runCalibration(settings: CalibrationSettings): Promise<Cal
   let batch: BatchOutcome | null = null;
   if (settings.collectOnly !== true) {
     batch = await runBatch({ ...settings.batch, manifest, out: join(out, 'batch'), runOptions, reports: false, onNote: settings.batch?.onNote ?? settings.onNote });
-    if (batch.mode === 'slurm' && batch.submission !== null) return { batch, summary: null, out };
+    if (batch.mode === 'slurm' && batch.submissions.length > 0) return { batch, summary: null, out };
   }
   const summary = collectCalibration({
     out, config, draws: record, job: settings.job, runOptions,

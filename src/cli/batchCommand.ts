@@ -12,6 +12,7 @@ import { wholeNumberOption } from './dataOptions.js';
 import { formatBatchProgress, formatBatchStatus } from './formatBatchStatus.js';
 import { InputError, expectedFound } from '../errors.js';
 import type { SlurmBatchSettings } from '../batch/submitBatchToSlurm.js';
+import type { SlurmSubmission } from '../batch/slurmSubmission.js';
 
 /** Options shared by `batch run` and `calibrate`: where and how rows run. */
 export interface BatchRunArguments {
@@ -23,6 +24,7 @@ export interface BatchRunArguments {
   'minutes-per-row'?: number;
   'memory-per-row'?: number;
   'max-running'?: number;
+  'max-array-size': number;
   partition?: string;
   account?: string;
   sbatch?: string[];
@@ -40,6 +42,7 @@ export function withBatchRunOptions<T>(y: Argv<T>): Argv<T & BatchRunArguments> 
     .option('minutes-per-row', { type: 'number', describe: 'Slurm: minutes a row may take [default: measured on the batch\'s finished rows, or on one row run here first]' })
     .option('memory-per-row', { type: 'number', describe: 'Slurm: memory of a task in MB [default: measured peak x 1.5]' })
     .option('max-running', { type: 'number', describe: 'Slurm: at most this many tasks at once (--array=...%N)' })
+    .option('max-array-size', { type: 'number', default: 1000, describe: 'Slurm: tasks per job array at most (the cluster\'s MaxArraySize less one); more rows go in further arrays' })
     .option('partition', { type: 'string', describe: 'Slurm partition' })
     .option('account', { type: 'string', describe: 'Slurm account' })
     .option('sbatch', { type: 'string', array: true, describe: 'Slurm: a further sbatch option for the script, e.g. --sbatch=--qos=short (repeatable)' })
@@ -71,6 +74,7 @@ export function batchRunSettingsOf(args: BatchRunArguments): {
       minutesPerRow: positive('minutes-per-row', args['minutes-per-row']),
       memoryPerRowMb: positive('memory-per-row', args['memory-per-row']),
       maxRunning: args['max-running'] === undefined ? undefined : wholeNumberOption('max-running', args['max-running'], 1),
+      maxArraySize: wholeNumberOption('max-array-size', args['max-array-size'], 1),
       partition: args.partition,
       account: args.account,
       sbatchOptions: args.sbatch ?? [],
@@ -91,6 +95,12 @@ export function batchRunSettingsOf(args: BatchRunArguments): {
 export function trailingJobOptions(): string[] {
   const at = process.argv.indexOf('--');
   return at < 0 ? [] : process.argv.slice(at + 1);
+}
+
+/** One line on a submission: its job id (or the script to submit), tasks, rows and resources. */
+export function formatSubmission(s: SlurmSubmission): string {
+  const what = `${s.groups.length} task(s) for ${s.groups.flat().length} row(s), ${s.resources.cpusPerTask} CPU, ${s.resources.memoryMb} MB, ${s.resources.timeMinutes} min each (${s.resources.basis})`;
+  return s.jobId === null ? `wrote ${s.script}: ${what}; submit it with: sbatch ${s.script}` : `submitted job array ${s.jobId}: ${what}; script ${s.script}`;
 }
 
 interface RunArguments extends BatchRunArguments {
@@ -120,15 +130,12 @@ const runCommand: CommandModule<object, RunArguments> = {
     const outcome = await runBatch({ manifest: args.manifest, out: args.out, runOptions, reports: args.reports, ...run });
     if (run.onProgress !== undefined && process.stderr.isTTY === true) process.stderr.write('\n');
     if (outcome.mode === 'slurm') {
-      const s = outcome.submission;
-      if (s === null) {
+      if (outcome.submissions.length === 0) {
         process.stdout.write(`nothing to submit: every row is finished, running or given up\n\n${formatBatchStatus(outcome.status)}\n`);
         return;
       }
-      const what = `${s.groups.length} task(s) for ${s.groups.flat().length} row(s), ${s.resources.cpusPerTask} CPU, ${s.resources.memoryMb} MB, ${s.resources.timeMinutes} min each (${s.resources.basis})`;
-      process.stdout.write(s.jobId === null
-        ? `wrote ${s.script}: ${what}; submit it with: sbatch ${s.script}\n`
-        : `submitted job array ${s.jobId}: ${what}\nscript ${s.script}; follow with: arcsift batch status ${args.out}\n`);
+      for (const s of outcome.submissions) process.stdout.write(`${formatSubmission(s)}\n`);
+      process.stdout.write(`follow with: arcsift batch status ${args.out}\n`);
       return;
     }
     const status = mergeBatchResults(args.out, { maxAttempts: run.maxAttempts });

@@ -4,7 +4,7 @@ import { runCalibration } from '../calibration/runCalibration.js';
 import { writeReport } from '../report/writeReport.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { wholeNumberOption } from './dataOptions.js';
-import { batchRunSettingsOf, trailingJobOptions, withBatchRunOptions, type BatchRunArguments } from './batchCommand.js';
+import { batchRunSettingsOf, formatSubmission, trailingJobOptions, withBatchRunOptions, type BatchRunArguments } from './batchCommand.js';
 import { formatCalibration } from './formatCalibration.js';
 import { formatBatchStatus } from './formatBatchStatus.js';
 
@@ -57,9 +57,8 @@ export const calibrateCommand: CommandModule<object, CalibrateArguments> = {
     });
     if (run.onProgress !== undefined && process.stderr.isTTY === true) process.stderr.write('\n');
     if (outcome.summary === null) {
-      const s = outcome.batch?.mode === 'slurm' ? outcome.batch.submission : null;
-      process.stdout.write(`submitted job array ${s?.jobId ?? '(script only)'} for ${s?.groups.flat().length ?? 0} draw(s); ` +
-        `follow with: arcsift batch status ${join(args.out, 'batch')}; when the tasks have ended: arcsift calibrate ... --collect\n`);
+      for (const s of outcome.batch?.mode === 'slurm' ? outcome.batch.submissions : []) process.stdout.write(`${formatSubmission(s)}\n`);
+      process.stdout.write(`follow with: arcsift batch status ${join(args.out, 'batch')}; when the tasks have ended, run this command again with --collect\n`);
       return;
     }
     if (outcome.batch !== null && outcome.batch.mode === 'local' && outcome.batch.status.counts.finished < outcome.batch.status.rows.length) {

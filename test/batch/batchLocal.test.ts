@@ -40,7 +40,7 @@ describe('batch run on this machine', () => {
     expect(status.costs.map((c) => c.job).sort()).toEqual(['compare', 'fit']);
 
     const csv = readFileSync(join(reference, 'results.csv'), 'utf8').trim().split('\n');
-    expect(csv[0]).toBe('id,job,state,attempts,seconds,peakMemoryMb,lnEvidence,lnBayesFactor,lnBayesFactorError,verdict,error,folder');
+    expect(csv[0]).toBe('id,job,state,attempts,seconds,cpuSeconds,peakMemoryMb,lnEvidence,lnBayesFactor,lnBayesFactorError,verdict,error,folder');
     expect(csv).toHaveLength(4);
     const json = JSON.parse(readFileSync(join(reference, 'results.json'), 'utf8'));
     expect(json.counts.finished).toBe(3);

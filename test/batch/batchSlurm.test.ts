@@ -55,8 +55,8 @@ describe.skipIf(skip)(`batch run --slurm on a real cluster${skipNote}`, () => {
     expect(script).toMatch(/^exec .* batch task .* --submission 1 --task "\$SLURM_ARRAY_TASK_ID"$/m);
 
     const task = first.groups.findIndex((g) => g.includes(LONG_ROW));
-    await waitForTaskState(cluster, job, task, ['RUNNING'], { timeoutMs: 30_000 });
-    await waitForFile(join(out, 'rows', LONG_ROW, LONG_ROW_CHECKPOINT), 30_000);
+    await waitForTaskState(cluster, job, task, ['RUNNING'], { timeoutMs: 90_000 });
+    await waitForFile(join(out, 'rows', LONG_ROW, LONG_ROW_CHECKPOINT), 90_000);
     await cancelTask(cluster, job, task);
     const ended = await waitForArray(cluster, job, { timeoutMs: 60_000 });
     expect(ended.get(task)?.state).toBe('CANCELLED');
