@@ -55,7 +55,8 @@ export interface BatchStatus {
   readonly costs: readonly JobCost[];
 }
 
-function readResult(file: string, job: string): { result: BatchJobResult | null; error: string | null } {
+/** The result of a finished row from its summary file (the job's own reading of it). */
+export function readJobResult(file: string, job: string): { result: BatchJobResult | null; error: string | null } {
   try {
     return { result: batchJobs[job].result(JSON.parse(readFileSync(file, 'utf8'))), error: null };
   } catch (error) {
@@ -95,7 +96,10 @@ export function batchStatus(out: string, options: { maxAttempts?: number; staleS
     let read: { result: BatchJobResult | null; error: string | null } = { result: null, error: lastFailure(state) };
     if (existsSync(summary)) {
       rowState = 'finished';
-      const parsed = readResult(summary, row.job);
+      // The result kept in the state at the end of the row, else read from the summary (a batch of
+      // 10^5 rows would otherwise read 10^5 summaries for every status).
+      const kept = last?.outcome === 'finished' ? last.result : undefined;
+      const parsed = kept !== undefined && kept !== null ? { result: kept, error: null } : readJobResult(summary, row.job);
       read = { result: parsed.result, error: parsed.error ?? read.error };
     } else if (rowLocked(out, row.id, staleSeconds)) {
       rowState = 'running';

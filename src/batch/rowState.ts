@@ -1,6 +1,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { InputError } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
+import type { BatchJobResult } from './batchJob.js';
 import { batchLayout } from './batchLayout.js';
 
 /** How one attempt at a row ended; null while it runs (or when its runner was killed). */
@@ -28,6 +29,8 @@ export interface RowAttempt {
   /** `JOBID_TASK` when run by a Slurm array task. */
   readonly slurmTask: string | null;
   readonly threads: number;
+  /** The row's result, read from its summary when the attempt finished it. */
+  result?: BatchJobResult | null;
 }
 
 /** state/ID.json: every attempt at one row. */

@@ -4,6 +4,7 @@ import { hostname } from 'node:os';
 import { dirname, join } from 'node:path';
 import { batchJobs } from './batchJobs.js';
 import { batchLayout } from './batchLayout.js';
+import { readJobResult } from './batchStatus.js';
 import type { BatchPlan } from './batchPlan.js';
 import type { BatchRow } from './batchRow.js';
 import { processUsage } from './processUsage.js';
@@ -109,6 +110,7 @@ function attemptRow(settings: RowRunSettings, row: BatchRow, touchLock: () => vo
         attempt.outcome = 'interrupted';
       } else if (code === 0 && rowFinished(out, row)) {
         attempt.outcome = 'finished';
+        attempt.result = readJobResult(join(batchLayout.rowFolder(out, row.id), batchJobs[row.job].summaryFile), row.job).result;
       } else {
         attempt.outcome = 'failed';
         attempt.message = code === 0
