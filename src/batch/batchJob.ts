@@ -15,7 +15,10 @@ export interface BatchJobResult {
 /**
  * One kind of batch job: which arcsift command runs a row, which file that command writes last
  * (its presence marks the row finished), which manifest columns it needs beyond config and data,
- * the command's arguments for a row, and how to read the result back from that file.
+ * the command's arguments for a row, and how to read the result back from that file. The command
+ * must take the options every row is given (rowCommand.ts): --config, the data options, --out,
+ * --resume (a fresh run when there is no checkpoint), --quiet, --threads and --no-report, and
+ * exit with status 2 on a user mistake.
  */
 export interface BatchJob {
   readonly command: string;
