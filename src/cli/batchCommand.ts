@@ -13,6 +13,7 @@ import { formatBatchProgress, formatBatchStatus } from './formatBatchStatus.js';
 import { InputError, expectedFound } from '../errors.js';
 import type { SlurmBatchSettings } from '../batch/submitBatchToSlurm.js';
 import type { SlurmSubmission } from '../batch/slurmSubmission.js';
+import type { BatchProgress } from '../batch/runBatchLocally.js';
 
 /** Options shared by `batch run` and `calibrate`: where and how rows run. */
 export interface BatchRunArguments {
@@ -56,9 +57,12 @@ function positive(name: string, value: number | undefined): number | undefined {
   return value;
 }
 
-/** The batch settings of the shared options, checked. */
+/**
+ * The batch settings of the shared options, checked, with a progress printer and a signal that
+ * SIGINT or SIGTERM aborts (the rows' commands are then stopped and their rows left interrupted).
+ */
 export function batchRunSettingsOf(args: BatchRunArguments): {
-  threads: number; parallel?: number; maxAttempts: number; slurm?: SlurmBatchSettings; onProgress?: (p: import('../batch/runBatchLocally.js').BatchProgress) => void; onNote: (line: string) => void; signal: AbortSignal;
+  threads: number; parallel?: number; maxAttempts: number; slurm?: SlurmBatchSettings; onProgress?: (p: BatchProgress) => void; onNote: (line: string) => void; signal: AbortSignal;
 } {
   const threads = wholeNumberOption('threads', args.threads, 1);
   const controller = new AbortController();
