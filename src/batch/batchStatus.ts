@@ -10,12 +10,13 @@ import { failureCount, givenUp, lastFailure, readRowState, rowCpuSeconds, rowSec
 
 /**
  * Where a row stands: finished (its summary file is there); running (a live runner holds its
- * lock); failed (given up: maxAttempts failures, or a user mistake); retrying (failed, attempts
- * left: the next run of the batch tries again); interrupted (started, not finished: the next run
- * resumes it from its checkpoints); waiting (never started).
+ * lock); failed (given up: maxAttempts failures, or a user mistake); queued (its Slurm task waits
+ * in the queue, when the caller asked squeue); retrying (failed, attempts left: the next run of
+ * the batch tries again); interrupted (started, not finished: the next run resumes it from its
+ * checkpoints); waiting (never started).
  */
-export type RowState = 'finished' | 'running' | 'failed' | 'retrying' | 'interrupted' | 'waiting';
-export const ROW_STATES: readonly RowState[] = ['finished', 'running', 'failed', 'retrying', 'interrupted', 'waiting'];
+export type RowState = 'finished' | 'running' | 'failed' | 'queued' | 'retrying' | 'interrupted' | 'waiting';
+export const ROW_STATES: readonly RowState[] = ['finished', 'running', 'failed', 'queued', 'retrying', 'interrupted', 'waiting'];
 
 /** One row of the status table (and of the merged results). */
 export interface BatchStatusRow {
@@ -82,8 +83,8 @@ export function jobCosts(rows: readonly BatchStatusRow[]): JobCost[] {
   });
 }
 
-/** The state of every row of a batch folder, read from its files (no scheduler is asked). */
-export function batchStatus(out: string, options: { maxAttempts?: number; staleSeconds?: number } = {}): BatchStatus {
+/** The state of every row of a batch folder, read from its files; rows in `queued` (from squeue, see slurmQueue.ts) read as queued. */
+export function batchStatus(out: string, options: { maxAttempts?: number; staleSeconds?: number; queued?: ReadonlySet<string> } = {}): BatchStatus {
   const plan = readBatchPlan(out);
   const maxAttempts = options.maxAttempts ?? runDefaults.batch.maxAttempts;
   const staleSeconds = options.staleSeconds ?? runDefaults.batch.staleSeconds;
@@ -105,6 +106,8 @@ export function batchStatus(out: string, options: { maxAttempts?: number; staleS
       rowState = 'running';
     } else if (givenUp(state, maxAttempts)) {
       rowState = 'failed';
+    } else if (options.queued?.has(row.id) === true) {
+      rowState = 'queued';
     } else if (last?.outcome === 'failed') {
       rowState = 'retrying';
     } else {

@@ -12,6 +12,7 @@ export { runBatchRow, rowFinished, type RowRunOutcome, type RowRunSettings } fro
 export { runBatchLocally, type BatchProgress, type LocalBatchSettings } from './runBatchLocally.js';
 export { runBatchTask, type BatchTaskSettings } from './runBatchTask.js';
 export { slurmJobScript } from './slurmJobScript.js';
+export { queuedRows } from './slurmQueue.js';
 export { slurmResources, submitBatchToSlurm, type SlurmBatchSettings } from './submitBatchToSlurm.js';
 export { readSlurmSubmission, type SlurmResources, type SlurmSubmission } from './slurmSubmission.js';
 export { runBatch, type BatchOutcome, type BatchSettings } from './runBatch.js';

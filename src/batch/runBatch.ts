@@ -8,6 +8,7 @@ import { checkRunOptions, readBatchManifest } from './readBatchManifest.js';
 import { runBatchLocally, type BatchProgress } from './runBatchLocally.js';
 import { runBatchRow, type RowRunOutcome } from './runBatchRow.js';
 import { slurmResources, submitBatchToSlurm, type SlurmBatchSettings } from './submitBatchToSlurm.js';
+import { queuedRows } from './slurmQueue.js';
 import type { SlurmSubmission } from './slurmSubmission.js';
 
 /** Slurm's default MaxArraySize is 1001 (array indices 0 to 1000): 1000 tasks per array stays inside it. */
@@ -71,14 +72,16 @@ export async function runBatch(settings: BatchSettings): Promise<BatchOutcome> {
     const outcomes = await runBatchLocally({ ...rowSettings, parallel, onProgress: settings.onProgress });
     return { mode: 'local', outcomes, status: batchStatus(out, statusOptions) };
   }
-  let status = batchStatus(out, statusOptions);
+  // Rows whose tasks of an earlier submission still wait in the queue are not submitted again.
+  const slurmStatusOptions = { ...statusOptions, queued: queuedRows(out) };
+  let status = batchStatus(out, slurmStatusOptions);
   const todo = (s: BatchStatus): string[] => s.rows.filter((r) => r.state === 'waiting' || r.state === 'interrupted' || r.state === 'retrying').map((r) => r.id);
   if (todo(status).length === 0) return { mode: 'slurm', submissions: [], status };
   if (settings.slurm.minutesPerRow === undefined && status.costs.length === 0) {
     const probe = plan.rows.find((r) => r.id === todo(status)[0])!;
     settings.onNote?.(`no row of this batch has finished yet: running row ${probe.id} here to measure the cost of a row (give --minutes-per-row to skip this)`);
     const outcome = await runBatchRow({ ...rowSettings, slurmTask: null }, probe);
-    status = batchStatus(out, statusOptions);
+    status = batchStatus(out, slurmStatusOptions);
     const measured = status.rows.find((r) => r.id === probe.id)!;
     settings.onNote?.(`row ${probe.id}: ${outcome}, ${measured.seconds.toFixed(1)} s, peak memory ${measured.peakMemoryMb === null ? 'not measured' : `${measured.peakMemoryMb.toFixed(0)} MB`}`);
     // Nothing left, or the probe row failed (its error is in the status): nothing to size a task by.

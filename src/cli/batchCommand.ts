@@ -5,6 +5,7 @@ import { runBatch } from '../batch/runBatch.js';
 import { batchStatus } from '../batch/batchStatus.js';
 import { mergeBatchResults } from '../batch/mergeBatchResults.js';
 import { runBatchTask } from '../batch/runBatchTask.js';
+import { queuedRows } from '../batch/slurmQueue.js';
 import { batchLayout } from '../batch/batchLayout.js';
 import { arcsiftCliPath } from '../batch/arcsiftCliPath.js';
 import { runDefaults } from '../settings/runDefaults.js';
@@ -156,12 +157,12 @@ interface FolderArguments {
 
 const statusCommand: CommandModule<object, FolderArguments> = {
   command: 'status <folder>',
-  describe: 'The state of every row of a batch: finished, running, failed, retrying, interrupted or waiting',
+  describe: 'The state of every row of a batch: finished, running, failed, queued (squeue asked), retrying, interrupted or waiting',
   builder: (y) => y
     .positional('folder', { type: 'string', demandOption: true, describe: 'batch folder' })
     .option('max-attempts', { type: 'number', default: runDefaults.batch.maxAttempts, describe: 'as given to batch run: a row failed this often is given up' }),
   handler: (args) => {
-    process.stdout.write(`${formatBatchStatus(batchStatus(args.folder, { maxAttempts: args['max-attempts'] }))}\n`);
+    process.stdout.write(`${formatBatchStatus(batchStatus(args.folder, { maxAttempts: args['max-attempts'], queued: queuedRows(args.folder) }))}\n`);
   },
 };
 

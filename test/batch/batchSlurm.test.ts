@@ -5,7 +5,7 @@ import { batchStatus } from '../../src/batch/batchStatus.js';
 import { readRowState } from '../../src/batch/rowState.js';
 import { readSlurmSubmission } from '../../src/batch/slurmSubmission.js';
 import {
-  SLURM_START_HINT, cancelTask, findSlurmCluster, requireSlurmCluster, slurmRequired, waitForArray, waitForTaskState,
+  SLURM_START_HINT, cancelTask, findSlurmCluster, queuedTasks, requireSlurmCluster, slurmRequired, waitForArray, waitForTaskState,
 } from './slurmHarness.js';
 import {
   LONG_ROW, LONG_ROW_CHECKPOINT, arcsift, batchRunArgs, makeBatchFixture, rowResults, waitForFile, type BatchFixture,
@@ -83,4 +83,26 @@ describe.skipIf(skip)(`batch run --slurm on a real cluster${skipNote}`, () => {
     const nothing = arcsift(batchRunArgs(fixture, out, ['--slurm', '--minutes-per-row', '2']), cluster.env);
     expect(nothing.stdout).toMatch(/^nothing to submit/);
   }, 180_000);
+
+  it('does not submit again the rows whose tasks still wait in the queue', async () => {
+    const cluster = requireSlurmCluster();
+    const out = join(fixture.root, 'held');
+    // sbatch --hold leaves the whole array pending until released (sbatch(1)).
+    const held = arcsift(batchRunArgs(fixture, out, ['--slurm', '--minutes-per-row', '2', '--sbatch=--hold']), cluster.env);
+    expect(held.status, held.stderr).toBe(0);
+    const job = readSlurmSubmission(out, 1).jobId!;
+    jobs.push(job);
+    expect(readFileSync(readSlurmSubmission(out, 1).script, 'utf8')).toMatch(/^#SBATCH --hold$/m);
+    const status = arcsift(['batch', 'status', out], cluster.env);
+    expect(status.stdout).toMatch(/3 queued \(of 3\)/);
+    const again = arcsift(batchRunArgs(fixture, out, ['--slurm', '--minutes-per-row', '2']), cluster.env);
+    expect(again.stdout).toMatch(/^nothing to submit/);
+    await cancelTask(cluster, job);
+    // A cancelled pending array leaves one record for all its tasks ("0-2"): wait for the queue instead.
+    for (const deadline = Date.now() + 30_000; (await queuedTasks(cluster, job)).size > 0;) {
+      if (Date.now() > deadline) throw new Error(`job ${job} still queued 30 s after scancel`);
+      await new Promise((resolve) => setTimeout(resolve, 250));
+    }
+    expect(arcsift(['batch', 'status', out], cluster.env).stdout).toMatch(/3 waiting \(of 3\)/);
+  }, 60_000);
 });
