@@ -129,6 +129,11 @@ export function writeCalibrationReport(folder: string, pageFile: string, figures
   // With fewer than 10 draws the ranks make one bin and the chi-square test says nothing: KS alone.
   const binned = (p: CalibrationParameterRecord): boolean => p.rankHistogram.length > 1;
   const uniform = parameters.filter((p) => (!binned(p) || p.chiSquarePValue > 0.01) && p.ksPValue > 0.01).length;
+  // Pooled over parameters: with few draws the rank tests have little power, coverage shows more.
+  const pooled = (pick: (p: CalibrationParameterRecord) => ProportionRecord): string => {
+    const trials = parameters.reduce((n, p) => n + pick(p).trials, 0);
+    return trials === 0 ? '&ndash;' : `${formatNumber((100 * parameters.reduce((n, p) => n + pick(p).successes, 0)) / trials, 0)}%`;
+  };
   const testsTable = htmlTable({
     id: 'calibration-table',
     head: [['parameter', numberCell('draws'), numberCell('rank &chi;<sup>2</sup> p'), numberCell('KS p'), numberCell('68% coverage'), numberCell('95% coverage')]],
@@ -156,7 +161,7 @@ export function writeCalibrationReport(folder: string, pageFile: string, figures
   });
   const body = `<section class="verdict not-favoured" id="verdict">
 <div><span class="label">draws finished</span><span class="big">${formatCount(d.finished)} <small>of ${formatCount(d.planned)}</small></span></div>
-<div><p class="reading">Ranks consistent with uniform (p &gt; 0.01) for ${formatCount(uniform)} of ${formatCount(parameters.length)} parameters.</p>
+<div><p class="reading">The 68% intervals hold the truth in ${pooled((p) => p.coverage68)} and the 95% intervals in ${pooled((p) => p.coverage95)} of all parameters' draws; ranks consistent with uniform (p &gt; 0.01) for ${formatCount(uniform)} of ${formatCount(parameters.length)} parameters.</p>
 <p class="muted">${formatCount(d.withPerturber)} draws with a perturber and ${formatCount(d.withoutPerturber)} without, fitted by <code>arcsift ${escapeMarkup(s.job)}</code>${s.runOptions.length === 0 ? '' : ` with <code>${escapeMarkup(s.runOptions.join(' '))}</code>`}${d.stoppedEarly > 0 ? `; ${formatCount(d.stoppedEarly)} run(s) cut short` : ''}${d.failed > 0 ? `; ${formatCount(d.failed)} failed` : ''}.</p></div>
 </section>
 ${pageSection('ranks', 'Posterior calibration', `${testsTable}\n<p class="note">Rank &chi;<sup>2</sup>: Pearson's test of the binned ranks against uniform (&ndash; below 10 draws: two bins need 5 expected ranks each); KS: Kolmogorov-Smirnov test of the posterior CDF at the truth against uniform. Coverage: share of draws whose truth lies in the reported central 68% and 95% intervals, &plusmn; its binomial standard error.</p>\n${figuresOf(['calibration-ranks', 'calibration-coverage'])}`)}
