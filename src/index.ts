@@ -40,5 +40,7 @@ export * from './verdict/index.js';
 export { loadVerdictConfig, parseVerdictConfig, loadSimulationConfig, type VerdictConfig, type SmoothFamily } from './config/verdictConfig.js';
 export { writeComparisonFolder } from './inference/writeComparisonFolder.js';
 export * from './sensitivity/index.js';
+export * from './batch/index.js';
+export * from './calibration/index.js';
 export * from './report/index.js';
 export { readNpy, decodeNpy, type NpyImage } from './io/readNpy.js';

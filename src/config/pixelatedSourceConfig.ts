@@ -11,7 +11,7 @@ export type SourceMeshConfig =
   | {
     /** Cells whose vertices are the traced positions of a fixed subset of image pixels (Delaunay, natural-neighbour interpolation). */
     readonly kind: 'adaptive';
-    /** About how many vertices (cells): every k-th pixel along both axes, k from this. */
+    /** How many vertices (cells): the traced pixels of a lattice chosen once to hold exactly this many. */
     readonly cells: number;
   };
 

@@ -20,6 +20,9 @@ export type { RobustVerdict, RobustVerdictKind, VerdictFamilyRecord, VerdictFitR
 export type {
   SensitivitySummary, SensitivityRecord, MassDecadeFraction, DetectableMassLimit, RefitSettings,
 } from './sensitivitySummary.js';
+export type {
+  CalibrationSummary, CalibrationParameterRecord, CalibrationDetectionRecord, CalibrationDrawRecord, ProportionRecord,
+} from './calibrationSummary.js';
 export {
   EQUAL_WEIGHT_SAMPLES_TITLE, WEIGHTED_SAMPLES_TITLE, formatEqualWeightSamplesCsv, formatWeightedSamplesCsv,
   writeEqualWeightSamplesCsv, writeWeightedSamplesCsv, type EqualWeightSamplesTable, type WeightedSamplesTable,

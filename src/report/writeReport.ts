@@ -10,6 +10,7 @@ import { reportPage } from './pages/comparisonPage.js';
 import { writeSensitivityReport } from './pages/sensitivityPage.js';
 import { writeVetReport } from './pages/vetPage.js';
 import { writeVerdictReport } from './pages/verdictPage.js';
+import { writeCalibrationReport } from './pages/calibrationPage.js';
 
 /** Default page of a run folder: report.html inside it. */
 export const REPORT_FILE = 'report.html';
@@ -20,8 +21,9 @@ export const FIGURES_FOLDER = 'figures';
  * Writes the report of a run folder: one self-contained HTML page (default
  * `runFolder/report.html`) and its figures as SVG and PNG files in `runFolder/figures/`. The kind
  * of run is read from the folder: a comparison or a fit (summary.json), a vetting (vet.json), a
- * robust verdict (verdict.json, with each family's compare report) or a sensitivity map (sensitivity.json). A folder with none of them, or a malformed one, throws an
- * InputError naming the file. Returns the page's path.
+ * robust verdict (verdict.json, with each family's compare report), a sensitivity map
+ * (sensitivity.json) or a calibration (calibration.json). A folder with none of them, or a
+ * malformed one, throws an InputError naming the file. Returns the page's path.
  */
 export function writeReport(runFolder: string, outFile?: string): string {
   const pageFile = outFile ?? join(runFolder, REPORT_FILE);
@@ -29,9 +31,10 @@ export function writeReport(runFolder: string, outFile?: string): string {
   if (existsSync(join(runFolder, 'vet.json'))) return writeVetReport(runFolder, pageFile, figuresFolder);
   if (existsSync(join(runFolder, 'verdict.json'))) return writeVerdictReport(runFolder, pageFile, figuresFolder, (family) => writeReport(family));
   if (existsSync(join(runFolder, 'sensitivity.json'))) return writeSensitivityReport(runFolder, pageFile, figuresFolder);
+  if (existsSync(join(runFolder, 'calibration.json'))) return writeCalibrationReport(runFolder, pageFile, figuresFolder);
   const summaryFile = join(runFolder, 'summary.json');
   if (!existsSync(summaryFile)) {
-    throw new InputError(`file not found: a finished run folder holds summary.json (compare, fit), vet.json (vet), verdict.json (verdict) or sensitivity.json (sensitivity), and ${runFolder} has none of them`, { file: summaryFile });
+    throw new InputError(`file not found: a finished run folder holds summary.json (compare, fit), vet.json (vet), verdict.json (verdict), sensitivity.json (sensitivity) or calibration.json (calibrate), and ${runFolder} has none of them`, { file: summaryFile });
   }
   const json = readJson(summaryFile);
   if (isMapping(json) && (json as { kind?: unknown }).kind === 'fit') return writeFitReport(runFolder, pageFile, figuresFolder);

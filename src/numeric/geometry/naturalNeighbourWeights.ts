@@ -8,7 +8,8 @@ export const MAX_NATURAL_NEIGHBOURS = 16;
  * Laplace natural-neighbour interpolation weights (Belikov, Ivanov, Kontorovich, Korytnik &
  * Semenov 1997; Sukumar, Moran, Semenov & Belikov 2001, Int. J. Numer. Meth. Eng. 50, 1, eq. 9):
  * a query point q takes as neighbours the vertices whose Voronoi cells it would take area from
- * (the vertices of the Delaunay triangles whose circumcircle holds q: Bowyer 1981, Watson 1981),
+ * (the vertices of the Delaunay triangles whose circumcircle holds q: Bowyer 1981, Watson 1981;
+ * each triangle's circle computed once per call),
  * and vertex j gets w_j = (s_j / d_j) / sum_k (s_k / d_k), s_j the length of the Voronoi edge q
  * would share with j, d_j = |q - v_j|. Unlike the barycentric weights of the holding triangle, the
  * weights are continuous in the query and in the vertex positions (a vertex joins or leaves with
@@ -27,6 +28,8 @@ export class NaturalNeighbourWeights {
   private cavity = new Int32Array(64);
   private edgeFrom = new Int32Array(64);
   private edgeTo = new Int32Array(64);
+  /** Per triangle at 3t: its circumcentre and squared radius, for the calls' in-circle tests. */
+  private circles = new Float64Array(0);
   private readonly ring = new Int32Array(MAX_NATURAL_NEIGHBOURS);
   private readonly centreX = new Float64Array(MAX_NATURAL_NEIGHBOURS);
   private readonly centreY = new Float64Array(MAX_NATURAL_NEIGHBOURS);
@@ -50,42 +53,64 @@ export class NaturalNeighbourWeights {
       this.generation = 0;
     }
     this.fallbacks = 0;
+    this.writeCircles(triangulation);
     let hint = 0;
     let outside = 0;
     for (let i = 0; i < count; i++) {
       const at = per * i;
-      vertices.fill(-1, at, at + per);
-      weights.fill(0, at, at + per);
       const found = locateTriangle(triangulation, qx[i], qy[i], hint);
+      let written = 0;
       if (found < 0) {
         hint = -1 - found;
         outside++;
-        continue;
+      } else {
+        hint = found;
+        written = this.weighOne(triangulation, qx[i], qy[i], found, vertices, weights, at);
       }
-      hint = found;
-      this.weighOne(triangulation, qx[i], qy[i], found, vertices, weights, at);
+      clearTail(vertices, weights, at + written, at + per);
     }
     return outside;
   }
 
-  /** The weights of one query inside triangle `start`. */
+  /** The weights of one query inside triangle `start`; returns how many entries it wrote. */
   private weighOne(
     triangulation: DelaunayTriangulation, x: number, y: number, start: number,
     vertices: Int32Array, weights: Float64Array, at: number,
-  ): void {
+  ): number {
     const cavityCount = this.collectCavity(triangulation, x, y, start);
     const ringCount = this.orderRing(triangulation, cavityCount);
-    if (ringCount < 3 || ringCount > MAX_NATURAL_NEIGHBOURS || !this.laplaceWeights(triangulation.coords, x, y, ringCount, vertices, weights, at)) {
-      this.fallbacks++;
-      triangleWeights(triangulation, x, y, start, vertices, weights, at);
+    if (ringCount >= 3 && ringCount <= MAX_NATURAL_NEIGHBOURS) {
+      const written = this.laplaceWeights(triangulation.coords, x, y, ringCount, vertices, weights, at);
+      if (written > 0) return written;
+    }
+    this.fallbacks++;
+    triangleWeights(triangulation, x, y, start, vertices, weights, at);
+    return 3;
+  }
+
+  /** Circumcentre and squared circumradius of every triangle (a flat one gets an infinite circle). */
+  private writeCircles(triangulation: DelaunayTriangulation): void {
+    const { triangles, coords, triangleCount } = triangulation;
+    if (this.circles.length < 3 * triangleCount) this.circles = new Float64Array(3 * triangleCount);
+    const circles = this.circles;
+    for (let t = 0; t < triangleCount; t++) {
+      const a = 2 * triangles[3 * t], b = 2 * triangles[3 * t + 1], c = 2 * triangles[3 * t + 2];
+      const ax = coords[a], ay = coords[a + 1];
+      const bx = coords[b] - ax, by = coords[b + 1] - ay, cx = coords[c] - ax, cy = coords[c + 1] - ay;
+      const d = 2 * (bx * cy - by * cx);
+      const b2 = bx * bx + by * by, c2 = cx * cx + cy * cy;
+      const ux = (cy * b2 - by * c2) / d, uy = (bx * c2 - cx * b2) / d;
+      circles[3 * t] = ax + ux;
+      circles[3 * t + 1] = ay + uy;
+      circles[3 * t + 2] = ux * ux + uy * uy;
     }
   }
 
   /** The triangles whose circumcircle holds (x, y), by a search from `start` across edges; returns how many. */
   private collectCavity(triangulation: DelaunayTriangulation, x: number, y: number, start: number): number {
-    const { triangles, halfedges, coords } = triangulation;
+    const { halfedges } = triangulation;
     const generation = ++this.generation;
-    const { seen, member } = this;
+    const { seen, member, circles } = this;
     let top = 0;
     let found = 0;
     this.stack[top++] = start;
@@ -101,8 +126,8 @@ export class NaturalNeighbourWeights {
         const u = (twin / 3) | 0;
         if (seen[u] === generation) continue;
         seen[u] = generation;
-        const a = 2 * triangles[3 * u], b = 2 * triangles[3 * u + 1], c = 2 * triangles[3 * u + 2];
-        if (!insideCircumcircle(coords[a], coords[a + 1], coords[b], coords[b + 1], coords[c], coords[c + 1], x, y)) continue;
+        const dx = x - circles[3 * u], dy = y - circles[3 * u + 1];
+        if (!(dx * dx + dy * dy <= circles[3 * u + 2])) continue;
         if (top >= this.stack.length) this.stack = grow(this.stack);
         this.stack[top++] = u;
       }
@@ -150,11 +175,12 @@ export class NaturalNeighbourWeights {
   /**
    * w_j proportional to s_j / d_j over the ring (Sukumar et al. 2001, eq. 9): the Voronoi edge of
    * q and ring vertex j runs between the circumcentres of (q, v_(j-1), v_j) and (q, v_j, v_(j+1)).
-   * False when a circumcentre is not finite (q on a ring edge), for the caller's fallback.
+   * Returns the entries written, 0 when a circumcentre is not finite (q on a ring edge), for the
+   * caller's fallback.
    */
   private laplaceWeights(
     coords: Float64Array, x: number, y: number, n: number, vertices: Int32Array, weights: Float64Array, at: number,
-  ): boolean {
+  ): number {
     const { ring, centreX, centreY } = this;
     for (let j = 0; j < n; j++) {
       const a = 2 * ring[j], b = 2 * ring[j + 1 === n ? 0 : j + 1];
@@ -162,7 +188,7 @@ export class NaturalNeighbourWeights {
       const d = 2 * (ax * by - ay * bx);
       const a2 = ax * ax + ay * ay, b2 = bx * bx + by * by;
       const cx = (by * a2 - ay * b2) / d, cy = (ax * b2 - bx * a2) / d;
-      if (!(Math.abs(cx) < Infinity && Math.abs(cy) < Infinity)) return false;
+      if (!(Math.abs(cx) < Infinity && Math.abs(cy) < Infinity)) return 0;
       centreX[j] = cx;
       centreY[j] = cy;
     }
@@ -172,45 +198,41 @@ export class NaturalNeighbourWeights {
       const dx = coords[v] - x, dy = coords[v + 1] - y;
       const distance = Math.sqrt(dx * dx + dy * dy);
       const previous = j === 0 ? n - 1 : j - 1;
-      const s = Math.hypot(centreX[j] - centreX[previous], centreY[j] - centreY[previous]);
+      const ex = centreX[j] - centreX[previous], ey = centreY[j] - centreY[previous];
+      const s = Math.sqrt(ex * ex + ey * ey);
       if (distance === 0) {
         // The query sits on vertex j: it takes that vertex's value.
-        weights.fill(0, at, at + n);
         vertices[at] = ring[j];
         weights[at] = 1;
-        for (let k = 1; k < n; k++) vertices[at + k] = -1;
-        return true;
+        return 1;
       }
       const w = s / distance;
       vertices[at + j] = ring[j];
       weights[at + j] = w;
       sum += w;
     }
-    if (!(sum > 0 && sum < Infinity)) return false;
-    for (let j = 0; j < n; j++) weights[at + j] /= sum;
-    return true;
+    if (!(sum > 0 && sum < Infinity)) return 0;
+    const inverse = 1 / sum;
+    for (let j = 0; j < n; j++) weights[at + j] *= inverse;
+    return n;
   }
 }
 
-/** Whether (x, y) lies inside or on the circumcircle of (a, b, c), for either orientation (the in-circle determinant; Guibas & Stolfi 1985). */
-function insideCircumcircle(ax: number, ay: number, bx: number, by: number, cx: number, cy: number, x: number, y: number): boolean {
-  const adx = ax - x, ady = ay - y, bdx = bx - x, bdy = by - y, cdx = cx - x, cdy = cy - y;
-  const det = (adx * adx + ady * ady) * (bdx * cdy - cdx * bdy)
-    - (bdx * bdx + bdy * bdy) * (adx * cdy - cdx * ady)
-    + (cdx * cdx + cdy * cdy) * (adx * bdy - bdx * ady);
-  const orientation = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
-  return orientation > 0 ? det >= 0 : det <= 0;
+/** Entries [from, to) unused: vertex -1, weight 0. */
+function clearTail(vertices: Int32Array, weights: Float64Array, from: number, to: number): void {
+  for (let k = from; k < to; k++) {
+    vertices[k] = -1;
+    weights[k] = 0;
+  }
 }
 
-/** The barycentric weights of (x, y) in triangle t (the fallback), padded with -1. */
+/** The barycentric weights of (x, y) in triangle t (the fallback), in the first three entries. */
 function triangleWeights(triangulation: DelaunayTriangulation, x: number, y: number, t: number, vertices: Int32Array, weights: Float64Array, at: number): void {
   const m = triangulation.barycentricTransforms;
   const o = 6 * t;
   const dx = x - m[o], dy = y - m[o + 1];
   const la = m[o + 2] * dx + m[o + 3] * dy;
   const lb = m[o + 4] * dx + m[o + 5] * dy;
-  vertices.fill(-1, at, at + MAX_NATURAL_NEIGHBOURS);
-  weights.fill(0, at, at + MAX_NATURAL_NEIGHBOURS);
   vertices[at] = triangulation.triangles[3 * t];
   vertices[at + 1] = triangulation.triangles[3 * t + 1];
   vertices[at + 2] = triangulation.triangles[3 * t + 2];
