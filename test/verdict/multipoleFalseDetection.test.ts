@@ -86,6 +86,9 @@ describe('a smooth lens with 1% multipoles and no subhalo', () => {
     expect(html).toContain('id="family-table"');
     expect(html).toContain('id="misfit-table"');
     expect(html).toContain('id="prior-table"');
+    // Each family's column shows the perturber's mask prior in place of its box (x and y rows).
+    expect(html.match(/position uniform over the used pixels of the mask/g)).toHaveLength(2 * summary.families.length);
+    expect(html).toContain('<div class="row-label">F2 isothermal ellipsoid + m = 3, 4 multipoles: ');
     for (const f of summary.families) expect(existsSync(join(out, f.folder, 'report.html'))).toBe(true);
     expect(html).toContain('href="families/isothermal-ellipsoid/report.html"');
     expect(existsSync(join(out, 'figures', 'family-bayes-factors.svg'))).toBe(true);

@@ -55,7 +55,7 @@ function familyTable(s: VerdictSummary, folder: string, pageFile: string): strin
       numberCell(`${misfitBadge(f.smooth.misfit)} <small>p ${pValueText(f.smooth.misfit.pValue)}</small>`),
       numberCell(`${misfitBadge(f.perturbed.misfit)} <small>p ${pValueText(f.perturbed.misfit.pValue)}</small>`),
       f.acceptable ? '<span class="tag fits">acceptable</span>' : '<span class="tag held">set aside</span>',
-      `<span class="tag claim-${f.claim.claim}">${escapeMarkup(f.claim.claim)}</span>`,
+      `<span class="tag claim-${f.claim.claim}">${escapeMarkup(f.claim.claim.replaceAll('-', ' '))}</span>`,
     ];
   });
   return htmlTable({
@@ -63,6 +63,19 @@ function familyTable(s: VerdictSummary, folder: string, pageFile: string): strin
     head: [['family', numberCell('ln Z smooth'), numberCell('ln Z perturbed'), numberCell('ln B'), numberCell('smooth &chi;<sup>2</sup>/dof'), numberCell('smooth misfit test'), numberCell('perturbed misfit test'), 'verdict rests on it', 'claim within the family']],
     rows,
   });
+}
+
+/** The observed image on a row of its own, then one row per family: its smooth and its perturbed residuals side by side. */
+function imageRows(s: VerdictSummary, images: readonly ReportFigure[], pageFile: string): string {
+  const row = (label: string, keys: readonly string[]): string => {
+    const chosen = keys.map((k) => images.find((f) => f.key === k)).filter((f): f is ReportFigure => f !== undefined);
+    return chosen.length === 0 ? '' : `<div class="row-label">${label}</div>${chosen.map((f) => figureHtml(f, pageFile)).join('\n')}`;
+  };
+  return [
+    row('Observed data', ['data']),
+    ...s.families.map((f, k) => row(`F${k + 1} ${escapeMarkup(f.name)}: <span class="swatch smooth"></span>smooth, <span class="swatch perturbed"></span>perturbed`,
+      [`family-${k + 1}-smooth-normalised-residual`, `family-${k + 1}-perturbed-normalised-residual`])),
+  ].join('\n');
 }
 
 /** Each family's own compare report, written beside its folder so the page can link to it; a failure becomes a notice. */
@@ -140,8 +153,8 @@ ${pageSection('misfit', 'Misfit of each best fit', `${misfitTable(columns)}${mis
 ${pageSection('limits', 'Rule, what was not tried, and limits', `<h3>The rule</h3><p>${escapeMarkup(s.rule)}</p>
 <h3>Not tried</h3><ul>${v.suggestions.map((t) => `<li>${escapeMarkup(t)}</li>`).join('')}</ul>
 <h3>What the verdict does not guarantee</h3><p>${escapeMarkup(s.limits)}</p>`)}
-${pageSection('priors', 'Priors behind every Bayes factor', `<p class="note">The perturbed model of each family (its smooth model has the same without the perturber). Parameters a family lacks read &ldquo;not in this model&rdquo;.</p>${priorColumnsTable(s.families.map((f) => ({ label: f.name, priors: f.priors.perturbed })), s.amplitudePrior, new Map((s.families[0].positionPriors ?? []).map((r) => [r.key, r.region])))}`)}
-${pageSection('images', 'Observed image and each family\'s normalised residuals', images.length === 0 ? '<p class="note">No image could be read; see the notices.</p>' : `<div class="image-grid">${images.map((f) => figureHtml(f, pageFile)).join('\n')}</div><p class="note">Residuals (data &minus; model) / noise of every family's smooth and perturbed best fits on one symmetric scale; row 0 at the bottom, x right and y up in arcsec from the image centre.</p>`)}
+${pageSection('priors', 'Priors behind every Bayes factor', `<p class="note">The perturbed model of each family (its smooth model has the same without the perturber). Parameters a family lacks read &ldquo;not in this model&rdquo;.</p>${priorColumnsTable(s.families.map((f) => ({ label: f.name, priors: f.priors.perturbed, regions: new Map((f.positionPriors ?? []).map((r) => [r.key, r.region])) })), s.amplitudePrior)}`)}
+${pageSection('images', 'Observed image and each family\'s normalised residuals', images.length === 0 ? '<p class="note">No image could be read; see the notices.</p>' : `<div class="image-grid">${imageRows(s, images, pageFile)}</div><p class="note">Residuals (data &minus; model) / noise of every family's smooth and perturbed best fits on one symmetric scale; row 0 at the bottom, x right and y up in arcsec from the image centre.</p>`)}
 ${notices.length === 0 ? '' : pageSection('notices', 'Notices', `<ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`)}
 ${pageSection('files', 'Files', `<ul class="files">${files.map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
 ${pageSection('about', 'About the figures', colourMapRows())}`;
