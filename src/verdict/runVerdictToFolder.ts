@@ -5,7 +5,7 @@ import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { amplitudePriorText } from '../inference/amplitudePriorText.js';
 import type { EvidenceSettings } from '../inference/runModelEvidence.js';
 import { writeComparisonFolder } from '../inference/writeComparisonFolder.js';
-import { priorCaution } from '../records/cautions.js';
+import { verdictCaution } from '../records/cautions.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import { runProvenance } from '../records/provenance.js';
@@ -100,7 +100,7 @@ export async function runVerdictToFolder(
     rule: VERDICT_RULE,
     limits: VERDICT_LIMITS,
     amplitudePrior: amplitudePriorText(verdictConfig.base),
-    caution: priorCaution,
+    caution: verdictCaution,
   };
   writeJsonAtomic(join(folder, 'verdict.json'), summary);
   return { families: compared, summary };
