@@ -39,7 +39,7 @@ export const verdictCommand: CommandModule<object, VerdictArguments> = {
     .option('perturbers', { type: 'number', default: 1, describe: 'how many of the config\'s perturbers the perturbed models hold' })
     .option('detection-threshold', { type: 'number', default: runDefaults.detection.lnBayesFactorThreshold, describe: 'a family needs the perturber when its ln B exceeds this (default: the published robust-detection threshold, about 10 sigma)' })
     .option('report', { type: 'boolean', default: true, describe: 'write report.html (and each family\'s compare report) at the end (--no-report to skip)' })), { livePoints: runDefaults.nested.livePoints })
-    .example('$0 verdict --config configs/verdict-demo.yaml --data chains/kestrel-mock', 'weigh a perturber under four smooth families'),
+    .example('$0 verdict --config configs/verdict-demo.yaml --data chains/kestrel-verdict-mock', 'weigh a perturber under four smooth families'),
   handler: async (args) => {
     const verdictConfig = loadVerdictConfig(args.config);
     const out = args.out ?? join('chains', `${basename(args.config, extname(args.config))}-verdict`);
