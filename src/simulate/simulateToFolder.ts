@@ -60,7 +60,7 @@ export function truthRecord(config: ArcsiftConfig, simulation: Simulation, optio
     imageUnit: 'counts/s per pixel',
     files: {
       'image.fits': 'observed image (model plus noise, or the model with --noiseless)',
-      'noise.fits': 'per-pixel 1-sigma noise: sqrt(backgroundRms^2 + model / exposureSeconds)',
+      'noise.fits': 'per-pixel 1-sigma noise: sqrt(skySigma^2 + model / integrationSeconds)',
       'psf.fits': 'PSF kernel, summing to 1',
       'mask.fits': '1 where a pixel is used in a fit, 0 elsewhere',
     },
