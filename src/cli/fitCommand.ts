@@ -165,7 +165,7 @@ export const fitCommand: CommandModule<object, FitArguments> = {
     .option('steps', { type: 'number', default: runDefaults.ensemble.maxSteps, describe: 'ensemble: largest number of iterations' })
     .option('target-autocorrelation-times', { type: 'number', default: runDefaults.ensemble.targetAutocorrelationTimes, describe: 'ensemble: stop once the chain after burn-in is this many autocorrelation times long' })
     .option('move', { choices: ['stretch', 'differentialEvolution'] as const, default: runDefaults.ensemble.move, describe: 'ensemble: proposal move' })
-    .option('start-from', { type: 'string', describe: 'ensemble: start the walkers from the equal-weight samples of an earlier nested fit (its folder, or a samples CSV such as an ensemble fit\'s chain.csv) [default: a small ball around the config\'s values]' })), { livePoints: runDefaults.nested.livePoints })
+    .option('start-from', { type: 'string', describe: 'ensemble: start the walkers from the posterior draws of an earlier fit (its folder, or its posterior-draws.csv or walker-paths.csv) [default: a small ball around the config\'s values]' })), { livePoints: runDefaults.nested.livePoints })
     .example('$0 fit --config configs/demo.yaml --data chains/mock --perturbers 0', 'nested-sampling fit of the smooth model')
     .example('$0 fit --config configs/demo.yaml --data chains/mock --sampler ensemble --start-from chains/demo-fit --out chains/demo-mcmc', 'ensemble MCMC started from a nested fit'),
   handler: async (args) => {

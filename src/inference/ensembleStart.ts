@@ -5,7 +5,8 @@ import type { LensSystem } from '../model/lensSystem.js';
 import type { EnsembleStart } from '../sampling/ensemble/index.js';
 import type { ParameterSpace } from '../priors/parameterSpace.js';
 import type { Prior } from '../priors/prior.js';
-import { readSamplesTable } from '../records/readSamplesTable.js';
+import { POSTERIOR_TABLES } from '../records/posteriorTables.js';
+import { readPosteriorTable } from '../records/readPosteriorTable.js';
 
 /** Radius of the starting ball as a fraction of each prior's width (sigma for normal priors). */
 export const startBallFraction = 1e-3;
@@ -47,18 +48,24 @@ export function ballAroundConfiguredValues(system: LensSystem, space: ParameterS
   return { ball: { center, scale } };
 }
 
-/** The equal-weight samples file of a finished nested run in `folder` (or `folder` itself when it is a file). */
+/**
+ * The posterior draws of a finished run in `folder`: a nested fit's posterior-draws.csv, else an
+ * ensemble fit's walker-paths.csv (or `folder` itself when it is a file).
+ */
 export function startSamplesFile(folder: string): string {
-  return existsSync(folder) && statSync(folder).isFile() ? folder : join(folder, 'equal-weight-samples.csv');
+  if (existsSync(folder) && statSync(folder).isFile()) return folder;
+  const draws = join(folder, `${POSTERIOR_TABLES.draws}.csv`);
+  const paths = join(folder, `${POSTERIOR_TABLES.walkerPaths}.csv`);
+  return existsSync(draws) || !existsSync(paths) ? draws : paths;
 }
 
 /**
- * The walkers' start as a pick of posterior draws of an earlier run (equal-weight-samples.csv of
- * a nested fit, or chain.csv of an ensemble fit): its parameter columns must be the model's, in
- * the model's order, and it must hold at least one draw per walker.
+ * The walkers' start as a pick of posterior draws of an earlier run (posterior-draws.csv of a
+ * nested fit, or walker-paths.csv of an ensemble fit): its parameter columns must be the model's,
+ * in the model's order, and it must hold at least one draw per walker.
  */
 export function startFromSamples(folder: string, space: ParameterSpace, walkers: number): EnsembleStart {
-  const table = readSamplesTable(startSamplesFile(folder));
+  const table = readPosteriorTable(startSamplesFile(folder));
   const same = table.names.length === space.names.length && table.names.every((name, c) => name === space.names[c]);
   if (!same) {
     const at = space.names.findIndex((name, c) => table.names[c] !== name);

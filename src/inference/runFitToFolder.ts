@@ -66,8 +66,8 @@ function plainSettings(settings: EvidenceSettings | EnsembleFitSettings): Record
 
 /**
  * Fits one model (the config's first perturberCount perturbers) and writes everything into
- * `folder`: with nested sampling the weighted and equal-weight samples, with ensemble MCMC the
- * chain after burn-in (chain.csv); corner-plot data, best-fit model and residual images, a
+ * `folder`: with nested sampling the weighted and equal-weight posterior tables, with ensemble
+ * MCMC the chain after burn-in (walker-paths); corner-plot data, best-fit model and residual images, a
  * checkpoint (checkpoint.json), and summary.json last, so a summary exists only for a finished run.
  */
 export async function runFitToFolder(

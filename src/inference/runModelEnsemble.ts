@@ -22,7 +22,7 @@ export interface EnsembleFitSettings {
   /** Stop once the chain after burn-in is longer than this many autocorrelation times (and they are stable). */
   readonly targetAutocorrelationTimes: number;
   readonly move: EnsembleMoveOption;
-  /** Start from the draws in this equal-weight samples file, or in a folder's equal-weight-samples.csv; default a ball around the config's values. */
+  /** Start from the draws in this posterior table, or in a fit folder's posterior-draws.csv or walker-paths.csv; default a ball around the config's values. */
   readonly startFrom?: string;
   /** Checkpoint file, written every `checkpointEverySteps` iterations; with `resume`, an existing one is continued. */
   readonly checkpointPath?: string;

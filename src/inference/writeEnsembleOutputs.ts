@@ -3,7 +3,7 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { cornerData, parameterColumn, parameterSummary } from '../results/index.js';
-import { writeEqualWeightSamplesCsv } from '../records/samplesCsv.js';
+import { writePosteriorTables } from '../records/posteriorTables.js';
 import type { ModelEnsemble } from './runModelEnsemble.js';
 import { writeFitImages } from './writeFitImages.js';
 import { ImagePlaneSky } from '../data/imagePlaneSky.js';
@@ -19,9 +19,9 @@ export const reliableChainLengthInTau = 50;
 const finiteOrNull = (v: number): number | null => (Number.isFinite(v) ? v : null);
 
 /**
- * Writes one model's ensemble chain after burn-in (chain.csv: every walker's retained positions,
- * flattened, in the equal-weight samples format with ln L), its corner-plot data over the free
- * parameters, and the images of its highest-ln L retained sample into `folder`; returns its record.
+ * Writes one model's ensemble chain after burn-in (walker-paths.csv and .npy, walker by walker,
+ * with posterior.json), its corner-plot data over the free parameters, and the images of its
+ * highest-ln L retained sample into `folder`; returns its record.
  */
 export function writeEnsembleOutputs(
   ensemble: ModelEnsemble, config: ArcsiftConfig, data: ObservedData, folder: string,
@@ -42,9 +42,17 @@ export function writeEnsembleOutputs(
     lnLikelihood[r] = result.logPosterior[result.retainedFrom * walkers + r] - space.logPrior(physical, r * width);
     if (lnLikelihood[r] > lnLikelihood[best]) best = r;
   }
-  const files: Record<string, string> = {};
-  files.chain = join(folder, 'chain.csv');
-  writeEqualWeightSamplesCsv(files.chain, { names: space.names, units, points: physical, lnLikelihood });
+  const steps = result.steps - result.retainedFrom;
+  const files = writePosteriorTables(folder, {
+    sampler: 'ensemble', names: space.names, units,
+    walkerPaths: {
+      walkers,
+      iterations: Float64Array.from({ length: steps }, (_, s) => (result.retainedFrom + s + 1) * result.thin),
+      points: physical,
+      lnPosterior: result.logPosterior.subarray(result.retainedFrom * walkers),
+      lnLikelihood,
+    },
+  });
   const weights = new Float64Array(count).fill(1);
   files.cornerData = join(folder, 'corner.json');
   writeJsonAtomic(files.cornerData, cornerData(space.freeNames, freeUnits, free, weights));

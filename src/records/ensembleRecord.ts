@@ -21,9 +21,9 @@ export interface EnsembleRecord {
   readonly iterations: number;
   readonly storedSteps: number;
   readonly thin: number;
-  /** Stored steps left out as burn-in, before chain.csv and every diagnostic. */
+  /** Stored steps left out as burn-in, before walker-paths.csv and every diagnostic. */
   readonly burnInSteps: number;
-  /** Rows of chain.csv: retained steps times walkers. */
+  /** Rows of walker-paths.csv: retained steps times walkers. */
   readonly retainedSamples: number;
   readonly evaluations: number;
   readonly nonFiniteProposals: number;

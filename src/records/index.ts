@@ -19,8 +19,10 @@ export type {
   SensitivitySummary, SensitivityRecord, MassDecadeFraction, DetectableMassLimit, RefitSettings,
 } from './sensitivitySummary.js';
 export {
-  EQUAL_WEIGHT_SAMPLES_TITLE, WEIGHTED_SAMPLES_TITLE, formatEqualWeightSamplesCsv, formatWeightedSamplesCsv,
-  writeEqualWeightSamplesCsv, writeWeightedSamplesCsv, type EqualWeightSamplesTable, type WeightedSamplesTable,
-} from './samplesCsv.js';
-export { readSamplesTable, type SamplesTable } from './readSamplesTable.js';
-export { readWeightedSamples, type WeightedSamplesColumns } from './readWeightedSamples.js';
+  LEADING_COLUMNS, POSTERIOR_FILE_NAMES, POSTERIOR_FORMAT, POSTERIOR_FORMAT_VERSION, POSTERIOR_SIDECAR, POSTERIOR_TABLES, SAMPLER_COLUMNS,
+  writePosteriorTables, type PosteriorDraws, type PosteriorSidecar, type PosteriorTableEntry, type PosteriorTableName,
+  type PosteriorTablesContent, type WalkerPaths, type WeightedPosterior,
+} from './posteriorTables.js';
+export { readPosteriorSidecar } from './readPosteriorSidecar.js';
+export { readPosteriorTable, type PosteriorTable } from './readPosteriorTable.js';
+export { readWeightedPosterior, type WeightedPosteriorColumns } from './readWeightedPosterior.js';

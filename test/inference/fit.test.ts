@@ -11,7 +11,7 @@ import { InputError } from '../../src/errors.js';
 import { readFitsImage } from '../../src/fits/index.js';
 import { ballAroundConfiguredValues } from '../../src/inference/ensembleStart.js';
 import { modelParameterSpace } from '../../src/model/modelParameterSpace.js';
-import { readSamplesTable } from '../../src/records/readSamplesTable.js';
+import { readPosteriorTable } from '../../src/records/readPosteriorTable.js';
 import { runFitToFolder } from '../../src/inference/runFitToFolder.js';
 import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
@@ -125,7 +125,7 @@ describe('runFitToFolder with the ensemble sampler', () => {
 
   it('brackets the truth of every free smooth parameter within the central 99.7% of its posterior', () => {
     const truth = buildLensSystem(smoothTruth).configuredValues();
-    const table = readSamplesTable(join(fitDir, 'chain.csv'));
+    const table = readPosteriorTable(join(fitDir, 'walker-paths.csv'));
     const weights = new Float64Array(table.count).fill(1);
     for (const p of summary.model.parameters) {
       const index = table.names.indexOf(p.name);
@@ -137,12 +137,12 @@ describe('runFitToFolder with the ensemble sampler', () => {
   });
 
   it('writes the chain after burn-in with ln L matching the pixel likelihood', () => {
-    const table = readSamplesTable(join(fitDir, 'chain.csv'));
+    const table = readPosteriorTable(join(fitDir, 'walker-paths.csv'));
     const m = summary.model;
     expect(table.count).toBe(m.retainedSamples);
     expect(table.count).toBe((m.storedSteps - m.burnInSteps) * m.walkers);
     expect(table.names).toEqual(buildLensSystem(config, { perturberCount: 0 }).parameters.map((p) => p.name));
-    const lnL = table.lnLikelihood!;
+    const lnL = table.samplerColumns.get('lnLikelihood')!;
     expect(Math.max(...lnL)).toBe(m.bestLnLikelihood);
     // ln L = ln posterior - ln prior from the sampler must equal a direct evaluation up to the
     // rounding of that subtraction (a few ulps of |ln L| ~ 3.6e3, so 1e-9 absolute is generous).
@@ -174,12 +174,12 @@ describe('runFitToFolder with the ensemble sampler', () => {
   });
 
   it('starts a CLI ensemble run from the chain, and refuses a chain of another model', () => {
-    const chain = join(fitDir, 'chain.csv');
+    const chain = join(fitDir, 'walker-paths.csv');
     const common = ['fit', '--config', configPath, '--data', dataDir, '--sampler', 'ensemble', '--threads', '2', '--quiet'];
     const ok = arcsift([...common, '--perturbers', '0', '--steps', '20', '--start-from', chain, '--out', join(out, 'restart')]);
     expect(ok.status, ok.stderr).toBe(0);
     const restarted = JSON.parse(readFileSync(join(out, 'restart', 'summary.json'), 'utf8')) as EnsembleFitSummary;
-    expect(restarted.model.start).toContain('chain.csv');
+    expect(restarted.model.start).toContain('walker-paths.csv');
     const wrong = arcsift([...common, '--perturbers', '1', '--steps', '20', '--start-from', chain, '--out', join(out, 'wrong')]);
     expect(wrong.status).toBe(2);
     expect(wrong.stderr).toContain('another model');
@@ -215,7 +215,7 @@ describe('arcsift fit on the command line', () => {
     expect(summary.priors).toHaveLength(12);
     expect(summary.priors.filter((p) => !p.fixed).map((p) => p.kind)).toEqual(['uniform', 'uniform', 'logUniform', 'uniform', 'uniform']);
     expect(summary.perturbers).toEqual([]);
-    for (const file of ['samples.csv', 'equal-weight-samples.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
+    for (const file of ['posterior-weighted.csv', 'posterior-weighted.npy', 'posterior-draws.csv', 'posterior-draws.npy', 'posterior.json', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
       expect(existsSync(join(folder, file)), file).toBe(true);
     }
     expect(run.stdout).toContain('ln Z = ');

@@ -13,6 +13,7 @@ import { priorTable } from '../tables/priorTable.js';
 import { reportStyle } from './reportStyle.js';
 import { MODEL_NAMES, type RunFolder } from '../runFolder/readRunFolder.js';
 import type { ReportFigure } from '../plots/reportFigure.js';
+import { POSTERIOR_FILE_NAMES } from '../../records/posteriorTables.js';
 
 function verdict(run: RunFolder): string {
   const b = run.summary.bayesFactor;
@@ -42,7 +43,7 @@ ${lines.join('\n')}
 function runFiles(run: RunFolder): string[] {
   const files = [run.summaryFile];
   for (const m of MODEL_NAMES) {
-    for (const name of ['samples.csv', 'equal-weight-samples.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
+    for (const name of [...POSTERIOR_FILE_NAMES, 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
       files.push(join(run.folder, m, name));
     }
   }

@@ -15,7 +15,8 @@ import { parameterLabel } from '../text/parameterLabel.js';
 import { perturberTable } from '../tables/perturberTable.js';
 import { priorColumnsTable } from '../tables/priorTable.js';
 import { readFitFolder, type FitFolder } from '../runFolder/readFitFolder.js';
-import { readWeightedSamples } from '../../records/readWeightedSamples.js';
+import { POSTERIOR_FILE_NAMES, POSTERIOR_TABLES } from '../../records/posteriorTables.js';
+import { readWeightedPosterior } from '../../records/readWeightedPosterior.js';
 import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
 import { pixelatedSourceFigures, readModelSource } from '../plots/pixelatedSourceFigures.js';
 import { modelColours, type ModelTone } from '../colour/reportPalette.js';
@@ -62,17 +63,17 @@ function fitFigures(run: FitFolder, tone: ModelTone, figuresFolder: string, noti
     }));
   }
   if (s.sampler === 'nested') {
-    const file = join(run.folder, 'samples.csv');
-    if (existsSync(file)) figures.push(nestedTraceFigure([{ label: `${tone} model`, colour: modelColours(tone).line, samples: readWeightedSamples(file) }], figuresFolder));
+    const file = join(run.folder, `${POSTERIOR_TABLES.weighted}.csv`);
+    if (existsSync(file)) figures.push(nestedTraceFigure([{ label: `${tone} model`, colour: modelColours(tone).line, samples: readWeightedPosterior(file) }], figuresFolder));
   } else {
-    const file = join(run.folder, 'chain.csv');
+    const file = join(run.folder, `${POSTERIOR_TABLES.walkerPaths}.csv`);
     if (existsSync(file)) {
       const m = s.model;
       figures.push(writeSvgFigure(figuresFolder, 'trace', 'trace', {
         section: 'diagnostics',
         title: 'Trace plots',
         caption: `Each free parameter over the iterations after burn-in (${formatCount(m.burnInSteps * m.thin)} iterations left out): the median of the ${m.walkers} walkers with the band holding the central 68% of them, and three single walkers. A mixed chain shows flat, overlapping traces with no drift.`,
-        svg: ensembleTraceSvg(file, m.walkers, m.thin, m.burnInSteps, m.diagnostics.map((d) => d.name), m.diagnostics.map((d) => d.unit)),
+        svg: ensembleTraceSvg(file, m.walkers, m.diagnostics.map((d) => d.name), m.diagnostics.map((d) => d.unit)),
       }));
     } else notices.push(`${file} not found: the trace plots are left out`);
   }
@@ -145,7 +146,7 @@ export function writeFitReport(folder: string, pageFile: string, figuresFolder: 
   const diagnostics = s.sampler === 'nested'
     ? `${nestedDiagnosticsTable([{ tone, label, record: s.model }])}\n${inSection('diagnostics')}`
     : `${ensembleDiagnosticsTable(s)}<p class="note">R-hat is the rank-normalised split R-hat with walkers as chains (Vehtari et al. 2021); values above 1.01 are flagged. Autocorrelation times by Sokal's windowed estimate; the chain should be at least 50 of them long.</p>\n${inSection('diagnostics')}`;
-  const files = [run.summaryFile, ...['samples.csv', 'equal-weight-samples.csv', 'chain.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits', 'source.json'].map((f) => join(folder, f))]
+  const files = [run.summaryFile, ...[...POSTERIOR_FILE_NAMES, 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits', 'source.json'].map((f) => join(folder, f))]
     .filter((f) => existsSync(f))
     .concat(figures.flatMap((f) => f.files));
   const body = `${headline}
