@@ -11,11 +11,6 @@ import { eastOfNorthField } from './positionAngleOnSky.js';
 import type { EnsembleParameterDiagnostics, EnsembleRecord } from '../records/ensembleRecord.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 
-/** R-hat above which a parameter's chains are called unmixed (Vehtari et al. 2021, sec. 4). */
-export const rHatLimit = 1.01;
-/** Length of the chain after burn-in, in autocorrelation times, below which tau itself is unreliable (common practice for ensemble samplers). */
-export const reliableChainLengthInTau = 50;
-
 const finiteOrNull = (v: number): number | null => (Number.isFinite(v) ? v : null);
 
 /**
@@ -47,7 +42,7 @@ export function writeEnsembleOutputs(
     sampler: 'ensemble', names: space.names, units,
     walkerPaths: {
       walkers,
-      iterations: Float64Array.from({ length: steps }, (_, s) => (result.retainedFrom + s + 1) * result.thin),
+      sweeps: Float64Array.from({ length: steps }, (_, s) => (result.retainedFrom + s + 1) * result.thin),
       points: physical,
       lnPosterior: result.logPosterior.subarray(result.retainedFrom * walkers),
       lnLikelihood,
@@ -71,28 +66,28 @@ export function writeEnsembleOutputs(
     bulkEffectiveSampleSize: finiteOrNull(result.effectiveSampleSize[k]),
     tailEffectiveSampleSize: finiteOrNull(result.tailEffectiveSampleSize[k]),
   }));
-  const tauMax = Math.max(...result.autocorrelationTime);
-  const lengthInTau = finiteOrNull(((result.steps - result.retainedFrom) * result.thin) / tauMax);
+  const smallestEss = finiteOrNull(Math.min(...result.effectiveSampleSize, ...result.tailEffectiveSampleSize));
   const maxRHat = finiteOrNull(Math.max(...result.rHat));
   return {
     label: ensemble.label,
     start: ensemble.start,
     walkers,
-    iterations: result.iterations,
-    storedSteps: result.steps,
+    sweeps: result.sweeps,
+    storedSweeps: result.steps,
     thin: result.thin,
-    burnInSteps: result.retainedFrom,
+    burnInSweeps: result.retainedFrom * result.thin,
     retainedSamples: count,
     evaluations: result.evaluations,
     nonFiniteProposals: result.nonFiniteProposals,
+    stopRule: ensemble.stopRule,
     converged: result.converged,
     stopped: result.stopped,
     acceptanceFraction: { mean: mean(result.acceptanceFraction), min: Math.min(...result.acceptanceFraction) },
     autocorrelationReliable: result.autocorrelationReliable,
-    chainLengthInAutocorrelationTimes: lengthInTau,
+    smallestEffectiveSampleSize: smallestEss,
     maxRHat,
     diagnostics,
-    warnings: chainWarnings(diagnostics, lengthInTau, result.autocorrelationReliable),
+    warnings: chainWarnings(diagnostics, ensemble.stopRule, result.converged, result.sweeps, result.autocorrelationReliable),
     bestLnLikelihood: lnLikelihood[best],
     bestFit,
     bestFitAmplitudes: images.amplitudes,
@@ -113,16 +108,23 @@ export function writeEnsembleOutputs(
 
 /** The reasons, in words, not to trust a chain yet. */
 function chainWarnings(
-  diagnostics: readonly EnsembleParameterDiagnostics[], lengthInTau: number | null, reliable: boolean,
+  diagnostics: readonly EnsembleParameterDiagnostics[], rule: ModelEnsemble['stopRule'], converged: boolean, sweeps: number,
+  autocorrelationReliable: boolean,
 ): string[] {
   const warnings: string[] = [];
-  const unmixed = diagnostics.filter((d) => d.rHat === null || d.rHat > rHatLimit);
-  if (unmixed.length > 0) {
-    warnings.push(`R-hat above ${rHatLimit} (or not computable) for ${unmixed.map((d) => `${d.name} (${d.rHat === null ? 'n/a' : d.rHat.toFixed(3)})`).join(', ')}: the walkers have not mixed; run longer`);
+  if (!converged) {
+    const few = diagnostics.filter((d) => !(Math.min(d.bulkEffectiveSampleSize ?? 0, d.tailEffectiveSampleSize ?? 0) >= rule.minEffectiveSampleSize));
+    const unmixed = diagnostics.filter((d) => !((d.rHat ?? Infinity) <= rule.maxRHat));
+    const ess = (d: EnsembleParameterDiagnostics): string => (d.bulkEffectiveSampleSize === null || d.tailEffectiveSampleSize === null
+      ? 'n/a' : Math.min(d.bulkEffectiveSampleSize, d.tailEffectiveSampleSize).toFixed(0));
+    const reasons = [
+      ...(few.length > 0 ? [`bulk or tail ESS below ${rule.minEffectiveSampleSize} for ${few.map((d) => `${d.name} (${ess(d)})`).join(', ')}`] : []),
+      ...(unmixed.length > 0 ? [`R-hat above ${rule.maxRHat} for ${unmixed.map((d) => `${d.name} (${d.rHat === null ? 'n/a' : d.rHat.toFixed(3)})`).join(', ')}`] : []),
+    ];
+    warnings.push(`the walkers have not mixed after ${sweeps} sweeps (${reasons.join('; ') || 'the rule was not checked'}): the intervals are not final; resume with --resume and a larger --max-sweeps`);
   }
-  if (lengthInTau === null || lengthInTau < reliableChainLengthInTau || !reliable) {
-    const length = lengthInTau === null ? 'an unknown number of' : lengthInTau.toFixed(1);
-    warnings.push(`the chain after burn-in is ${length} autocorrelation times long, fewer than ${reliableChainLengthInTau}: tau and the intervals are not yet reliable; run longer (--steps) or resume`);
+  if (!autocorrelationReliable) {
+    warnings.push('some autocorrelation time comes from a series too short for Sokal\'s window to close: read tau as a lower bound');
   }
   return warnings;
 }

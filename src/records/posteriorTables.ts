@@ -15,14 +15,14 @@ import { checkRows } from '../numeric/statistics/sampleChecks.js';
  *   posterior-draws      (nested sampling) equal-weight draws, systematically resampled from the
  *                        weighted table: lnLikelihood, then the parameters
  *   walker-paths         (ensemble MCMC) every walker's positions after burn-in, walker by walker
- *                        (all of walker 0's iterations, then walker 1's, ...): walker, iteration,
+ *                        (all of walker 0's stored sweeps, then walker 1's, ...): walker, sweep,
  *                        lnPosterior (ln prior + ln L), lnLikelihood, then the parameters
  *
  * CSV: the header is the first line (no comment lines), RFC 4180 quoting, "\n" line ends;
  * numbers are written by String(x) (the shortest text that reads back as the same double,
  * ECMA-262 Number::toString), negative zero as "-0", non-finite values as NaN, Infinity,
  * -Infinity. NPY: a 1-D structured array of named little-endian float64 fields (int64 for
- * walker and iteration), so `numpy.load(...)['lnLikelihood']` is a column.
+ * walker and sweep), so `numpy.load(...)['lnLikelihood']` is a column.
  *
  * posterior.json beside them names the sampler, every parameter with its unit, ln Z and its
  * error (nested sampling), and each table's files, rows and columns. It is written last.
@@ -48,20 +48,20 @@ export const POSTERIOR_FILE_NAMES: readonly string[] = [
 export const LEADING_COLUMNS: Readonly<Record<PosteriorTableName, readonly string[]>> = {
   'posterior-weighted': ['lnLikelihood', 'lnWeight', 'weight'],
   'posterior-draws': ['lnLikelihood'],
-  'walker-paths': ['walker', 'iteration', 'lnPosterior', 'lnLikelihood'],
+  'walker-paths': ['walker', 'sweep', 'lnPosterior', 'lnLikelihood'],
 };
 
 /** Every column name that is not a parameter. */
 export const SAMPLER_COLUMNS: ReadonlySet<string> = new Set(Object.values(LEADING_COLUMNS).flat());
 
 /** Columns stored as integers in the NPY copy. */
-const INTEGER_COLUMNS: ReadonlySet<string> = new Set(['walker', 'iteration']);
+const INTEGER_COLUMNS: ReadonlySet<string> = new Set(['walker', 'sweep']);
 
 /** What each table's rows are, in words (written into posterior.json). */
 const ROWS_ARE: Readonly<Record<PosteriorTableName, string>> = {
   'posterior-weighted': 'every dead point of the nested run and its final live points, ln L increasing; weight = exp(lnWeight) is the normalised posterior weight (the weights sum to 1)',
   'posterior-draws': 'equal-weight posterior draws, systematically resampled from posterior-weighted',
-  'walker-paths': 'every walker\'s positions after burn-in, walker by walker (all iterations of walker 0, then of walker 1, ...); lnPosterior = ln prior + ln L',
+  'walker-paths': 'every walker\'s positions after burn-in, walker by walker (all stored sweeps of walker 0, then of walker 1, ...); lnPosterior = ln prior + ln L',
 };
 
 /** Weighted samples of a nested-sampling run. */
@@ -83,8 +83,8 @@ export interface PosteriorDraws {
 /** An ensemble chain after burn-in, as the sampler stores it: step by step, all walkers in each. */
 export interface WalkerPaths {
   readonly walkers: number;
-  /** The iteration number of each stored step (steps = iterations.length). */
-  readonly iterations: ArrayLike<number>;
+  /** The sweep number of each stored step (steps = sweeps.length). */
+  readonly sweeps: ArrayLike<number>;
   /** steps x walkers rows of the parameters. */
   readonly points: ArrayLike<number>;
   /** steps x walkers values each. */
@@ -190,7 +190,7 @@ function drawColumns(table: PosteriorDraws, dim: number): TableColumns {
 
 function walkerColumns(table: WalkerPaths, dim: number): TableColumns {
   const { walkers } = table;
-  const steps = table.iterations.length;
+  const steps = table.sweeps.length;
   const count = steps * walkers;
   checkRows(table.points, count, dim, 'walker-paths: points');
   checkLength(table.lnPosterior, count, 'walker-paths: lnPosterior');
@@ -199,7 +199,7 @@ function walkerColumns(table: WalkerPaths, dim: number): TableColumns {
   const stored = (r: number): number => (r % steps) * walkers + Math.floor(r / steps);
   const leading = [
     (r: number) => Math.floor(r / steps),
-    (r: number) => table.iterations[r % steps],
+    (r: number) => table.sweeps[r % steps],
     (r: number) => table.lnPosterior[stored(r)],
     (r: number) => table.lnLikelihood[stored(r)],
   ];

@@ -22,7 +22,7 @@ export interface PosteriorTable {
 /**
  * Reads a posterior table's CSV as writePosteriorTables writes it: a header line, then one row
  * of numbers per sample. Columns named as sampler columns (lnLikelihood, lnWeight, weight,
- * walker, iteration, lnPosterior) are kept apart; every other column is a parameter. Every value
+ * walker, sweep, lnPosterior) are kept apart; every other column is a parameter. Every value
  * must be a number (ln L and ln weights may be infinite); an InputError names the file and line.
  */
 export function readPosteriorTable(file: string): PosteriorTable {

@@ -124,32 +124,32 @@ describe('nested-sampling tables', () => {
 });
 
 describe('walker paths', () => {
-  // 2 stored steps (iterations 10 and 20) of 3 walkers, one parameter: value = 100 step + walker.
+  // 2 stored steps (sweeps 10 and 20) of 3 walkers, one parameter: value = 100 step + walker.
   const folder = join(root, 'ensemble');
   const files = writePosteriorTables(folder, {
     sampler: 'ensemble', names: ['a.b'], units: ['kpc'],
     walkerPaths: {
-      walkers: 3, iterations: [10, 20],
+      walkers: 3, sweeps: [10, 20],
       points: [0, 1, 2, 100, 101, 102], lnPosterior: [-0, -1, -2, -3, -4, -5], lnLikelihood: [5, 4, 3, 2, 1, 0],
     },
   });
 
-  it('are written walker by walker with explicit walker and iteration columns', () => {
+  it('are written walker by walker with explicit walker and sweep columns', () => {
     expect(readFileSync(files.walkerPaths, 'utf8')).toBe([
-      'walker,iteration,lnPosterior,lnLikelihood,a.b',
+      'walker,sweep,lnPosterior,lnLikelihood,a.b',
       '0,10,-0,5,0', '0,20,-3,2,100',
       '1,10,-1,4,1', '1,20,-4,1,101',
       '2,10,-2,3,2', '2,20,-5,0,102', '',
     ].join('\n'));
   });
 
-  it('store walker and iteration as int64 in the NPY copy', () => {
+  it('store walker and sweep as int64 in the NPY copy', () => {
     const parsed = python([
       'import json, sys, numpy as np',
       'a = np.load(sys.argv[1])',
-      'print(json.dumps({"kinds": [a.dtype[n].str for n in a.dtype.names], "walker": a["walker"].tolist(), "iteration": a["iteration"].tolist(), "a": a["a.b"].tolist()}))',
+      'print(json.dumps({"kinds": [a.dtype[n].str for n in a.dtype.names], "walker": a["walker"].tolist(), "sweep": a["sweep"].tolist(), "a": a["a.b"].tolist()}))',
     ].join('\n'), files.walkerPathsNpy);
-    expect(parsed).toEqual({ kinds: ['<i8', '<i8', '<f8', '<f8', '<f8'], walker: [0, 0, 1, 1, 2, 2], iteration: [10, 20, 10, 20, 10, 20], a: [0, 100, 1, 101, 2, 102] });
+    expect(parsed).toEqual({ kinds: ['<i8', '<i8', '<f8', '<f8', '<f8'], walker: [0, 0, 1, 1, 2, 2], sweep: [10, 20, 10, 20, 10, 20], a: [0, 100, 1, 101, 2, 102] });
   });
 });
 

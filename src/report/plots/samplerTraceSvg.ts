@@ -60,8 +60,8 @@ export function nestedTraceSvg(runs: readonly { readonly label: string; readonly
 const SINGLE_WALKERS = 3;
 
 /**
- * Trace plots of an ensemble chain (walker-paths.csv: each walker's retained iterations in turn):
- * per free parameter, the median across walkers at each iteration with the band holding the
+ * Trace plots of an ensemble chain (walker-paths.csv: each walker's retained sweeps in turn):
+ * per free parameter, the median across walkers at each sweep with the band holding the
  * central 68% of walkers, and a few single walkers. Flat, overlapping traces are what a mixed
  * chain looks like (common practice).
  */
@@ -69,8 +69,8 @@ export function ensembleTraceSvg(pathsFile: string, walkers: number, freeNames: 
   const table = readPosteriorTable(pathsFile);
   const steps = Math.floor(table.count / walkers);
   const width = table.names.length;
-  const iteration = table.samplerColumns.get('iteration');
-  const x = Float64Array.from({ length: steps }, (_, s) => iteration?.[s] ?? s);
+  const sweep = table.samplerColumns.get('sweep');
+  const x = Float64Array.from({ length: steps }, (_, s) => sweep?.[s] ?? s);
   const column = new Float64Array(walkers);
   const panels: LinePanel[] = freeNames.map((name, k) => {
     const c = table.names.indexOf(name);
@@ -89,7 +89,7 @@ export function ensembleTraceSvg(pathsFile: string, walkers: number, freeNames: 
     const label = parameterLabel(name, units[k]);
     return {
       title: `${label.component === '' ? '' : `${label.component}: `}${label.quantity}`,
-      xLabel: 'iteration',
+      xLabel: 'sweep',
       yLabel: label.unit === '' ? 'value' : label.unit,
       series: [
         ...single.map((y) => ({ x, y, colour: reportPalette.muted, widthPx: 0.6, opacity: 0.7 })),
