@@ -4,6 +4,8 @@ import type { MassTerm } from '../lensing/massTerm.js';
 
 /** Buckets of the ordering by local spacing (log-spaced); ties within a bucket keep image order. */
 const ORDER_BUCKETS = 64;
+/** Passes that rescale the accept radius towards the wanted vertex count (each ~sqrt of the miss). */
+const COUNT_PASSES = 3;
 
 /**
  * The vertices of the adaptive source mesh, chosen so their density follows the magnification
@@ -15,6 +17,9 @@ const ORDER_BUCKETS = 64;
  * `spacing` delta of it: an image's candidates keep the lattice of that image, and where several
  * images overlap in the source plane the most magnified one sets the density, instead of their
  * sum (which would crowd cells where a low-magnification image's pixels cover many of them).
+ * The accept radius is rescaled by sqrt(kept / wanted) for a few passes, so the count comes
+ * close to the one asked for at every call (each pass depends only on the lens, so the mesh is a
+ * function of the parameters).
  */
 export class VertexSelection {
   /** Source-plane positions of the kept vertices (count of them). */
@@ -32,6 +37,7 @@ export class VertexSelection {
   private readonly order: Int32Array;
   private readonly bucketStart = new Int32Array(ORDER_BUCKETS + 1);
   private readonly spacing: number;
+  private readonly wanted: number;
   // Spatial hash of the kept vertices: cells of side `cellSize`, chained through `next`.
   private head = new Int32Array(0);
   private readonly next: Int32Array;
@@ -40,12 +46,14 @@ export class VertexSelection {
   private readonly keptY: Float64Array;
 
   /**
-   * `cells`: about how many vertices are wanted; the accept radius is sqrt(used / cells) local
-   * pixel sizes, and the lattice of candidates half that (at least every pixel).
+   * `cells`: how many vertices are wanted; the accept radius starts at sqrt(used / cells) local
+   * pixel sizes, and the lattice of candidates is a third of that (at least every pixel), dense
+   * enough for the passes that shrink it.
    */
   constructor(grid: PixelGrid, used: Int32Array, cells: number) {
+    this.wanted = cells;
     this.spacing = Math.max(1, Math.sqrt(used.length / cells));
-    const k = Math.max(1, Math.floor(this.spacing / 2));
+    const k = Math.max(1, Math.floor(this.spacing / 3));
     const { columns, rows, pixelScaleArcsec: scale } = grid;
     const chosen = used.filter((p) => {
       const i = p % columns;
@@ -85,7 +93,13 @@ export class VertexSelection {
     traceRays(massTerms, p, this.rayX, this.rayY, 3 * this.candidates, this.alphaX, this.alphaY, this.betaX, this.betaY);
     const range = this.localSizes();
     this.orderBySize(range[0], range[1]);
-    this.keep();
+    let spacing = this.spacing;
+    for (let pass = 0; ; pass++) {
+      this.keep(spacing);
+      if (pass + 1 >= COUNT_PASSES || this.count === 0 || this.count === this.wanted) break;
+      spacing *= Math.sqrt(this.count / this.wanted);
+    }
+    this.zOrder();
   }
 
   /** delta of each candidate (2 |cross product| of the half-pixel steps, square-rooted); returns [min, max]. */
@@ -115,8 +129,8 @@ export class VertexSelection {
     for (let c = 0; c < this.candidates; c++) order[bucketStart[toBucket(delta[c])]++] = c;
   }
 
-  /** Greedy keeping in order, with a spatial hash of the kept vertices. */
-  private keep(): void {
+  /** Greedy keeping in order with accept radius `spacing` delta, with a spatial hash of the kept vertices. */
+  private keep(spacing: number): void {
     const { betaX, betaY, delta, order, next, x, y } = this;
     let xMin = Infinity, xMax = -Infinity, yMin = Infinity, yMax = -Infinity, sizeSum = 0;
     for (let c = 0; c < this.candidates; c++) {
@@ -127,7 +141,7 @@ export class VertexSelection {
       if (by > yMax) yMax = by;
       sizeSum += delta[c];
     }
-    const cellSize = Math.max(1e-12, (this.spacing * sizeSum) / Math.max(1, this.candidates));
+    const cellSize = Math.max(1e-12, (spacing * sizeSum) / Math.max(1, this.candidates));
     const nx = Math.max(1, Math.min(512, Math.ceil((xMax - xMin) / cellSize) + 1));
     const ny = Math.max(1, Math.min(512, Math.ceil((yMax - yMin) / cellSize) + 1));
     const sx = (xMax - xMin) / nx || 1, sy = (yMax - yMin) / ny || 1;
@@ -138,7 +152,7 @@ export class VertexSelection {
       const c = order[t];
       const bx = betaX[3 * c], by = betaY[3 * c];
       if (!Number.isFinite(bx) || !Number.isFinite(by)) continue;
-      const radius = this.spacing * delta[c];
+      const radius = spacing * delta[c];
       const ci = Math.min(nx - 1, Math.floor((bx - xMin) / sx));
       const cj = Math.min(ny - 1, Math.floor((by - yMin) / sy));
       const ri = Math.ceil(radius / sx), rj = Math.ceil(radius / sy);
@@ -151,7 +165,6 @@ export class VertexSelection {
       kept++;
     }
     this.count = kept;
-    this.zOrder(xMin, xMax, yMin, yMax);
   }
 
   /**
@@ -159,8 +172,15 @@ export class VertexSelection {
    * cells close in the source plane get close numbers: the cells of one pixel's footprint then
    * touch few rows of the normal matrix, and its ordering starts from a coherent labelling.
    */
-  private zOrder(xMin: number, xMax: number, yMin: number, yMax: number): void {
+  private zOrder(): void {
     const { x, y, keys, count } = this;
+    let xMin = Infinity, xMax = -Infinity, yMin = Infinity, yMax = -Infinity;
+    for (let v = 0; v < count; v++) {
+      if (x[v] < xMin) xMin = x[v];
+      if (x[v] > xMax) xMax = x[v];
+      if (y[v] < yMin) yMin = y[v];
+      if (y[v] > yMax) yMax = y[v];
+    }
     const sx = 65535 / Math.max(1e-300, xMax - xMin), sy = 65535 / Math.max(1e-300, yMax - yMin);
     for (let v = 0; v < count; v++) {
       const code = interleave(Math.floor((x[v] - xMin) * sx)) * 2 + interleave(Math.floor((y[v] - yMin) * sy));
