@@ -55,3 +55,17 @@ export function describeValue(value: unknown): string {
   if (Array.isArray(value)) return `a list of ${value.length}`;
   return 'a mapping';
 }
+
+/**
+ * A run stopped on request (SIGTERM or SIGINT) after writing its last checkpoints: not a fault.
+ * The CLI says how to resume and exits with status 4.
+ */
+export class RunInterrupted extends Error {
+  readonly checkpoints: readonly string[];
+
+  constructor(checkpoints: readonly string[]) {
+    super(`stopped on request; checkpoints: ${checkpoints.length === 0 ? 'none' : checkpoints.join(', ')}`);
+    this.name = 'RunInterrupted';
+    this.checkpoints = checkpoints;
+  }
+}

@@ -10,6 +10,7 @@ import { comparisonSideBySide } from '../inference/compareModels.js';
 import { comparePerturberCounts } from '../inference/comparePerturberCounts.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { checkOutputFolder } from '../inference/checkOutputFolder.js';
+import { reportUnfinished } from './reportUnfinished.js';
 
 interface CompareArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -45,6 +46,7 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
       });
       run.finish();
       process.stdout.write(`${formatCountComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and perturbers-0 ... perturbers-${maxCount} under ${out}\n`);
+      reportUnfinished(summary, join(out, 'summary.json'));
       return;
     }
     checkOutputFolder(out, args.resume, ['smooth', 'perturbed']);
@@ -61,5 +63,6 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
     perturbed.finish();
     process.stdout.write(`${formatComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
     if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+    reportUnfinished(summary, join(out, 'summary.json'));
   },
 };

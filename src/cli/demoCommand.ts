@@ -7,6 +7,8 @@ import type { TruthPlacement } from '../inference/truthComparison.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison } from './formatComparison.js';
+import { reportUnfinished } from './reportUnfinished.js';
+import { join } from 'node:path';
 
 interface DemoArguments extends SamplerArguments {
   config?: string;
@@ -65,5 +67,6 @@ export const demoCommand: CommandModule<object, DemoArguments> = {
     process.stdout.write(`${formatTruthTable(outcome.truth, comparison.perturberFavoured, comparison.lnBayesFactor, comparison.lnBayesFactorError)}\n`);
     if (args.report) process.stdout.write(`\nreport (open it in a browser): ${writeReport(outcome.compareFolder)}\n`);
     process.stdout.write(`\ndemo finished in ${((performance.now() - started) / 1000).toFixed(0)} s; results in ${outcome.compareFolder}\n`);
+    reportUnfinished(summary, join(outcome.compareFolder, 'summary.json'));
   },
 };

@@ -15,6 +15,7 @@ import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from '.
 import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import { checkOutputFolder } from '../inference/checkOutputFolder.js';
+import { reportUnfinished } from './reportUnfinished.js';
 
 interface FitArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -176,6 +177,7 @@ function ensembleSettingsOf(
     checkpointSeconds: nested.checkpointSeconds,
     resume: args.resume,
     onProgress,
+    signal: nested.signal,
   };
 }
 
@@ -211,19 +213,23 @@ export const fitCommand: CommandModule<object, FitArguments> = {
     const data = loadDataOf(args, config);
     const label = perturberCount === 0 ? 'smooth' : 'perturbed';
     const nested = evidenceSettingsOf(args, label);
+    let summary: NestedFitSummary | EnsembleFitSummary;
     let text: string;
     if (args.sampler === 'nested') {
-      const { summary } = await runFitToFolder(config, data, out, { sampler: 'nested', perturberCount, nested: nested.settings });
+      const outcome = await runFitToFolder(config, data, out, { sampler: 'nested', perturberCount, nested: nested.settings });
       nested.finish();
-      text = formatNestedFit(summary as NestedFitSummary);
+      summary = outcome.summary as NestedFitSummary;
+      text = formatNestedFit(summary);
     } else {
       const printer = ensembleProgressPrinter(label, { quiet: args.quiet });
       const ensemble = ensembleSettingsOf(args, nested.settings, printer.onProgress);
-      const { summary } = await runFitToFolder(config, data, out, { sampler: 'ensemble', perturberCount, ensemble });
+      const outcome = await runFitToFolder(config, data, out, { sampler: 'ensemble', perturberCount, ensemble });
       printer.finish();
-      text = formatEnsembleFit(summary as EnsembleFitSummary);
+      summary = outcome.summary as EnsembleFitSummary;
+      text = formatEnsembleFit(summary);
     }
     process.stdout.write(`${text}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
     if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+    reportUnfinished(summary, join(out, 'summary.json'));
   },
 };

@@ -1,5 +1,4 @@
 import type { CommandModule } from 'yargs';
-import { existsSync } from 'node:fs';
 import { basename, dirname, extname, join } from 'node:path';
 import { loadConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
@@ -10,6 +9,8 @@ import { smoothBestFitFromFolder, smoothBestFitFromRun } from '../sensitivity/sm
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { reportUnfinished } from './reportUnfinished.js';
+import { checkOutputFolder } from '../inference/checkOutputFolder.js';
 import type { SensitivitySummary } from '../records/sensitivitySummary.js';
 
 interface SensitivityArguments extends DataArguments, SamplerArguments {
@@ -67,7 +68,7 @@ export const sensitivityCommand: CommandModule<object, SensitivityArguments> = {
     const gridSize = wholeNumberOption('grid', args.grid, 1);
     if (!(args.threshold > 0) || !Number.isFinite(args.threshold)) throw new InputError(`--threshold: ${expectedFound('a number > 0', args.threshold)}`);
     if (!(args['mass-tolerance'] > 0)) throw new InputError(`--mass-tolerance: ${expectedFound('a number > 0', args['mass-tolerance'])}`);
-    if (existsSync(join(out, 'sensitivity.json'))) throw new InputError(`${out} already holds a finished sensitivity map (sensitivity.json); choose another --out or remove it`);
+    checkOutputFolder(out, args.resume, ['smooth'], 'sensitivity.json');
     const data = loadDataOf(args, config);
     const run = evidenceSettingsOf(args, 'smooth best fit');
     let bestFit;
@@ -85,10 +86,12 @@ export const sensitivityCommand: CommandModule<object, SensitivityArguments> = {
       threads: run.settings.threads,
       seed: run.settings.seed,
       bestFit,
+      signal: run.settings.signal,
       onPoint: terminal ? (done, total) => process.stderr.write(`\r\x1b[2Ksensitivity: ${done} of ${total} grid points`) : undefined,
     });
     if (terminal) process.stderr.write('\n');
     process.stdout.write(`${formatSensitivity(summary)}\n\nwrote ${summary.files.map}, ${summary.files.table} and ${summary.files.summary}\n`);
     if (args.report) process.stdout.write(`report: ${writeReport(dirname(summary.files.summary))}\n`);
+    reportUnfinished(summary, summary.files.summary);
   },
 };

@@ -12,6 +12,8 @@ import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.j
 import { formatPriors } from './formatComparison.js';
 import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
+import { reportUnfinished } from './reportUnfinished.js';
+import { checkOutputFolder } from '../inference/checkOutputFolder.js';
 
 interface VetArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -58,7 +60,7 @@ export function formatVetTable(summary: VetSummary): string {
       r.flag === null ? 'map prior' : `(${fixed(r.flag.xArcsec, 3)}, ${fixed(r.flag.yArcsec, 3)})`,
       fixed(r.score),
       `${fixed(r.lnBayesFactor)} +- ${fixed(r.lnBayesFactorError)}`,
-      r.verdict,
+      r.finished === false ? `${r.verdict} (NOT FINAL)` : r.verdict,
       massText(r),
       `(${fixed(r.position.xArcsec.median, 3)}, ${fixed(r.position.yArcsec.median, 3)})`,
       fixed(r.offsetArcsec, 3),
@@ -80,7 +82,9 @@ export function formatVetTable(summary: VetSummary): string {
       lines.push(`  warning: the insertion-rank check of run ${r.id} gives p = ${r.model.insertionRankPValue.toExponential(1)}: ` +
         'its constrained draws may be biased, so its ln Z is suspect (Fowlie, Handley & Su 2020)');
     }
-    if (r.model.stopReason !== 'converged') lines.push(`  warning: run ${r.id} stopped (${r.model.stopReason}) before converging: its ln Z is not final`);
+    if (r.model.stopReason !== 'converged') {
+      lines.push(`  warning: run ${r.id} stopped (${r.model.stopReason}) before converging: its ln Z, and every ln B and verdict that uses it, are not final`);
+    }
   }
   lines.push(
     '',
@@ -131,9 +135,7 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     const windowArcsec = finiteOption('window', args.window, true);
     const thresholds = { confirmAboveLnB: finiteOption('confirm-above', args['confirm-above'], false), disfavourBelowLnB: finiteOption('disfavour-below', args['disfavour-below'], false) };
     const mapSettings = { threshold: finiteOption('map-threshold', args['map-threshold'], false), mergeRadiusArcsec: finiteOption('merge-radius', args['merge-radius'], false) };
-    if (existsSync(join(out, 'vet.json')) && !args.resume) throw new InputError(`${out} already holds a finished vetting (vet.json); choose another --out or remove it`);
-    const interrupted = existsSync(out) && readdirSync(out).some((name) => existsSync(join(out, name, 'checkpoint.json')));
-    if (interrupted && !args.resume) throw new InputError(`${out} holds an interrupted vetting; pass --resume to continue it, or choose another --out`);
+    checkOutputFolder(out, args.resume, existsSync(out) ? readdirSync(out) : [], 'vet.json');
     const data = loadDataOf(args, config);
     const flags = readFlags(args.flags, data, mapSettings);
     if (args['map-prior'] && flags.map === undefined) {
@@ -159,5 +161,6 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     const written = summary.smooth === null ? '' : " and each run's samples and images";
     process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')}${written} under ${out}\n`);
     if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+    reportUnfinished(summary, join(out, 'vet.json'));
   },
 };

@@ -18,6 +18,7 @@ import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary
 import type { ModelRecord } from '../records/modelRecord.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { unfinishedRuns } from '../records/unfinishedRuns.js';
 import { POSTERIOR_SIDECAR, POSTERIOR_TABLES } from '../records/posteriorTables.js';
 
 /** How one model is fitted: nested sampling (evidence and posterior) or ensemble MCMC (posterior only). */
@@ -123,7 +124,7 @@ export async function runFitToFolder(
     const model = writeModelOutputs(run, config, data, folder, settings.nested.seed);
     const summary: NestedFitSummary = {
       ...common,
-      ...runProvenance(config, data, settings.nested.seed, started),
+      ...runProvenance(config, data, settings.nested.seed, started, unfinishedRuns([{ label: run.label, stopReason: run.result.stopReason }])),
       sampler: 'nested',
       settings: { ...plainSettings(settings.nested), checkpointPath },
       priors: run.space.describe(),
@@ -145,7 +146,7 @@ export async function runFitToFolder(
   const { start: _start, onProgress: _progress, signal: _signal, ...ensembleSettings } = settings.ensemble;
   const summary: EnsembleFitSummary = {
     ...common,
-    ...runProvenance(config, data, settings.ensemble.seed, started),
+    ...runProvenance(config, data, settings.ensemble.seed, started, run.result.converged ? [] : [`${run.label} ensemble (sweep limit reached before the walkers mixed)`]),
     sampler: 'ensemble',
     settings: { ...ensembleSettings, walkers: run.result.walkers, checkpointPath },
     priors: run.space.describe(),

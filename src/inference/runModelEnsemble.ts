@@ -9,6 +9,8 @@ import type { ParameterSpace } from '../priors/parameterSpace.js';
 import { configuredStartFraction, posteriorDrawsFile, startAtConfiguredValues, startFromPosterior } from './ensembleStart.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { runDefaults } from '../settings/runDefaults.js';
+import { RunInterrupted } from '../errors.js';
+import { refuseAnotherRun, runIdentity } from '../records/runIdentity.js';
 
 /** Where the walkers start: draws of an earlier fit's posterior (its folder or a posterior table), or at the config's values. */
 export type EnsembleWalkerStart = { readonly posteriorFrom: string } | 'configuredValues';
@@ -60,7 +62,8 @@ export function defaultWalkerCount(dim: number): number {
 /**
  * Ensemble MCMC of one lens model (smooth when perturberCount = 0) on observed data: the
  * posterior is the log prior plus the pixel log likelihood, evaluated in batches on the worker
- * pool, so a seed fixes the chain whatever the thread count.
+ * pool, so a seed fixes the chain whatever the thread count. Checkpoints hold the run's identity
+ * (a resume refuses another); a run stopped by `settings.signal` throws RunInterrupted.
  */
 export async function runModelEnsemble(
   config: ArcsiftConfig, data: ObservedData, perturberCount: number, settings: EnsembleFitSettings,
@@ -70,6 +73,7 @@ export async function runModelEnsemble(
   const walkers = settings.walkers ?? defaultWalkerCount(space.dim);
   const from = settings.start;
   const start = from === 'configuredValues' ? startAtConfiguredValues(system, space) : startFromPosterior(from.posteriorFrom, space, walkers);
+  const identity = settings.checkpointPath === undefined ? undefined : runIdentity(config, data, settings.seed);
   const started = performance.now();
   const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads);
   try {
@@ -81,12 +85,17 @@ export async function runModelEnsemble(
       proposal: settings.proposal,
       stopRule: settings.stopRule,
       checkEverySweeps: settings.checkEverySweeps ?? runDefaults.ensemble.checkEverySweeps,
-      checkpoint: settings.checkpointPath === undefined ? undefined
-        : { path: settings.checkpointPath, everySeconds: settings.checkpointSeconds ?? runDefaults.nested.checkpointSeconds },
+      checkpoint: settings.checkpointPath === undefined || identity === undefined ? undefined : {
+        path: settings.checkpointPath,
+        everySeconds: settings.checkpointSeconds ?? runDefaults.nested.checkpointSeconds,
+        identity,
+        checkIdentity: refuseAnotherRun(identity),
+      },
       resume: settings.resume,
       onProgress: settings.onProgress,
       signal: settings.signal,
     });
+    if (result.stopped) throw new RunInterrupted(settings.checkpointPath === undefined ? [] : [settings.checkpointPath]);
     return {
       label: perturberCount === 0 ? 'smooth' : 'perturbed',
       perturberCount,

@@ -3,6 +3,8 @@
 export type { RunProvenance } from './provenance.js';
 export { runProvenance } from './provenance.js';
 export { configHash } from './configHash.js';
+export { identityChanges, refuseAnotherRun, runIdentity, type DataFileIdentity, type RunIdentity } from './runIdentity.js';
+export { qualifiedReading, unfinishedRuns, type RunStop } from './unfinishedRuns.js';
 export { packageVersion } from '../io/packageVersion.js';
 export type { TruthFile, TruthParameter, TruthPerturber } from './truthFile.js';
 export type { SourceFile } from './sourceFile.js';

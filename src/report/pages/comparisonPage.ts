@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { parseFitsLocator } from '../../fits/index.js';
 import { basename, dirname, join, relative, resolve } from 'node:path';
 import { bayesFactorTable } from '../tables/bayesFactorTable.js';
-import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
+import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
 import { diagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
 import { LN_EVIDENCE_DIGITS, evidenceTable } from '../tables/evidenceTable.js';
@@ -92,6 +92,7 @@ ${imageRow('Lens and source planes', ['perturbed-convergence', 'perturbed-source
   ].join(' &middot; ');
 
   const body = `${verdict(run)}
+${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 <nav class="contents"><a href="#evidence">Evidence</a><a href="#priors">Priors</a><a href="#perturber">Perturber</a><a href="#images">Images</a><a href="#posterior">Posteriors</a><a href="#diagnostics">Sampler diagnostics</a><a href="#files">Files</a><a href="#about">About the figures</a></nav>
 ${section('evidence', 'Evidence and Bayes factor', `<div><h3>Evidence of each model</h3>${evidenceTable(s)}<p class="note">ln Z is the natural log of the evidence (marginal likelihood). The first error follows from the information H (Skilling 2006); the second from simulated prior-volume shrinkage. Settings: ${MODEL_NAMES.map((m) => `${m} ${s.models[m].livePoints} live points`).join(', ')}${settings?.lnZTolerance === undefined ? '' : `, stop when the remaining evidence is below ${settings.lnZTolerance} in ln Z`}.</p></div>

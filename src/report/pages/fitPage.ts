@@ -9,7 +9,7 @@ import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
 import type { ImageMarker } from '../plots/imagePanelSvg.js';
-import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
+import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
 import { parameterColumnsTable } from '../tables/parameterTable.js';
 import { parameterLabel } from '../text/parameterLabel.js';
 import { perturberTable } from '../tables/perturberTable.js';
@@ -150,6 +150,7 @@ export function writeFitReport(folder: string, pageFile: string, figuresFolder: 
     .filter((f) => existsSync(f))
     .concat(figures.flatMap((f) => f.files));
   const body = `${headline}
+${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 ${pageSection('priors', 'Priors', `<p class="note">Every posterior${s.sampler === 'nested' ? ' and the evidence' : ''} below holds for these priors only.</p>${priorColumnsTable([{ label, priors: s.priors }], s.amplitudePrior)}`)}
 ${perturbers}

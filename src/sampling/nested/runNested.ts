@@ -32,7 +32,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   if (options.resume === true && checkpointPath === undefined) {
     throw new InputError(`nested sampling resume: ${expectedFound('a checkpoint.path to resume from', undefined)}`);
   }
-  const record = options.resume === true && checkpointPath !== undefined ? readCheckpoint(checkpointPath, settings) : null;
+  const record = options.resume === true && checkpointPath !== undefined ? readCheckpoint(checkpointPath, settings, options.checkpoint?.checkIdentity) : null;
   const evaluator = new BatchEvaluator(problem);
   const early = problem.runSliceChain !== undefined && problem.idleThreads !== undefined
     ? new EarlyChains((request, stop) => problem.runSliceChain!(request, stop), () => problem.idleThreads!())
@@ -53,7 +53,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   const saveCheckpoint = () => {
     if (checkpointPath === undefined) return;
     state.elapsedSeconds = elapsed();
-    writeCheckpoint(checkpointPath, recordState(state));
+    writeCheckpoint(checkpointPath, recordState(state), options.checkpoint?.identity);
     lastCheckpointTime = Date.now();
     lastCheckpointIteration = iterationsOf(state);
   };
