@@ -1,6 +1,6 @@
 import type { CommandModule } from 'yargs';
 import { basename, extname, join } from 'node:path';
-import { loadConfig } from '../config/arcsiftConfig.js';
+import { loadConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { FIT_CHECKPOINT_FOLDERS, fitPerturberCount, runFitToFolder, type FitEnsembleSettings, type FitWalkerStart } from '../inference/runFitToFolder.js';
@@ -11,10 +11,9 @@ import { PROPOSAL_KINDS, type EnsembleProposalKind, type EnsembleProgress } from
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { formatSky } from './formatSky.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
-import { checkOutputFolder } from '../inference/checkOutputFolder.js';
 import { reportUnfinished } from './reportUnfinished.js';
 
 interface FitArguments extends DataArguments, SamplerArguments {
@@ -89,7 +88,7 @@ export function formatEnsembleFit(summary: EnsembleFitSummary): string {
     : m.stopped ? 'stopped on request' : 'sweep limit reached before the walkers mixed';
   const lines = [
     `Fit of the ${m.label} model by ensemble MCMC (${m.walkers} walkers, ${m.sweeps} sweeps, ${stop})`,
-    `  walkers started at ${m.start}`,
+    `  walkers started: ${m.start}`,
     `  ${m.evaluations} likelihood evaluations, ${m.seconds.toFixed(0)} s on ${m.threads} thread(s); burn-in ${m.burnInSweeps} sweeps left out; ` +
       `acceptance fraction mean ${m.acceptanceFraction.mean.toFixed(3)}, min ${m.acceptanceFraction.min.toFixed(3)}`,
     `  after burn-in: ${m.retainedSamples} samples, smallest ESS ${formatValue(m.smallestEffectiveSampleSize)}, largest R-hat ${formatValue(m.maxRHat)}`,
@@ -209,27 +208,31 @@ export const fitCommand: CommandModule<object, FitArguments> = {
       }
     }
     const out = args.out ?? join('chains', `${basename(args.config, extname(args.config))}-fit`);
-    checkOutputFolder(out, args.resume, FIT_CHECKPOINT_FOLDERS);
-    const data = loadDataOf(args, config);
-    const label = perturberCount === 0 ? 'smooth' : 'perturbed';
-    const nested = evidenceSettingsOf(args, label);
-    let summary: NestedFitSummary | EnsembleFitSummary;
-    let text: string;
-    if (args.sampler === 'nested') {
-      const outcome = await runFitToFolder(config, data, out, { sampler: 'nested', perturberCount, nested: nested.settings });
-      nested.finish();
-      summary = outcome.summary as NestedFitSummary;
-      text = formatNestedFit(summary);
-    } else {
-      const printer = ensembleProgressPrinter(label, { quiet: args.quiet });
-      const ensemble = ensembleSettingsOf(args, nested.settings, printer.onProgress);
-      const outcome = await runFitToFolder(config, data, out, { sampler: 'ensemble', perturberCount, ensemble });
-      printer.finish();
-      summary = outcome.summary as EnsembleFitSummary;
-      text = formatEnsembleFit(summary);
-    }
-    process.stdout.write(`${text}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
-    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
-    reportUnfinished(summary, join(out, 'summary.json'));
+    await inOutputFolder(out, args, FIT_CHECKPOINT_FOLDERS, undefined, () => fitIntoFolder(args, config, perturberCount, out));
   },
 };
+
+/** The fit itself, into a folder the command holds. */
+async function fitIntoFolder(args: FitArguments, config: ArcsiftConfig, perturberCount: number, out: string): Promise<void> {
+  const data = loadDataOf(args, config);
+  const label = perturberCount === 0 ? 'smooth' : 'perturbed';
+  const nested = evidenceSettingsOf(args, label);
+  let summary: NestedFitSummary | EnsembleFitSummary;
+  let text: string;
+  if (args.sampler === 'nested') {
+    const outcome = await runFitToFolder(config, data, out, { sampler: 'nested', perturberCount, nested: nested.settings });
+    nested.finish();
+    summary = outcome.summary as NestedFitSummary;
+    text = formatNestedFit(summary);
+  } else {
+    const printer = ensembleProgressPrinter(label, { quiet: args.quiet });
+    const ensemble = ensembleSettingsOf(args, nested.settings, printer.onProgress);
+    const outcome = await runFitToFolder(config, data, out, { sampler: 'ensemble', perturberCount, ensemble });
+    printer.finish();
+    summary = outcome.summary as EnsembleFitSummary;
+    text = formatEnsembleFit(summary);
+  }
+  process.stdout.write(`${text}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
+  if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+  reportUnfinished(summary, join(out, 'summary.json'));
+}

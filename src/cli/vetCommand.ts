@@ -1,7 +1,7 @@
 import type { CommandModule } from 'yargs';
-import { existsSync, readdirSync } from 'node:fs';
+import { readdirSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
-import { loadConfig } from '../config/arcsiftConfig.js';
+import { loadConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { readFlags } from '../vet/readFlags.js';
@@ -10,10 +10,9 @@ import { vetConcurrency } from '../vet/vetFlags.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
 import { reportUnfinished } from './reportUnfinished.js';
-import { checkOutputFolder } from '../inference/checkOutputFolder.js';
 
 interface VetArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -135,32 +134,39 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     const windowArcsec = finiteOption('window', args.window, true);
     const thresholds = { confirmAboveLnB: finiteOption('confirm-above', args['confirm-above'], false), disfavourBelowLnB: finiteOption('disfavour-below', args['disfavour-below'], false) };
     const mapSettings = { threshold: finiteOption('map-threshold', args['map-threshold'], false), mergeRadiusArcsec: finiteOption('merge-radius', args['merge-radius'], false) };
-    checkOutputFolder(out, args.resume, existsSync(out) ? readdirSync(out) : [], 'vet.json');
-    const data = loadDataOf(args, config);
-    const flags = readFlags(args.flags, data, mapSettings);
-    if (args['map-prior'] && flags.map === undefined) {
-      throw new InputError('--map-prior takes the probability map as the position prior: expected --flags to name a .fits or .npy map, found a list', { file: args.flags });
-    }
-    const { settings: checked } = evidenceSettingsOf(args, 'check');
-    const runs = 1 + flags.candidates.length + (args['map-prior'] ? 1 : 0);
-    const sideBySide = vetConcurrency(checked.threads, runs) > 1;
-    if (sideBySide && !args.quiet) process.stderr.write(`${runs} runs, ${vetConcurrency(checked.threads, runs)} side by side\n`);
-    let finish: (() => void) | undefined;
-    const { summary } = await runVetToFolder(config, data, flags, out, {
-      windowArcsec,
-      thresholds,
-      mapPrior: args['map-prior'] && flags.map !== undefined ? { map: flags.map } : undefined,
-      evidence: (label) => {
-        const run = evidenceSettingsOf(args, label, { plainLines: sideBySide });
-        if (!sideBySide) finish = run.finish;
-        return run.settings;
-      },
-      onRunStart: () => finish?.(),
-    });
-    finish?.();
-    const written = summary.smooth === null ? '' : " and each run's samples and images";
-    process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')}${written} under ${out}\n`);
-    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
-    reportUnfinished(summary, join(out, 'vet.json'));
+    await inOutputFolder(out, args, () => readdirSync(out), 'vet.json', () => vetIntoFolder(args, config, out, windowArcsec, thresholds, mapSettings));
   },
 };
+
+/** The vetting itself, into a folder the command holds. */
+async function vetIntoFolder(
+  args: VetArguments, config: ArcsiftConfig, out: string, windowArcsec: number,
+  thresholds: { confirmAboveLnB: number; disfavourBelowLnB: number }, mapSettings: { threshold: number; mergeRadiusArcsec: number },
+): Promise<void> {
+  const data = loadDataOf(args, config);
+  const flags = readFlags(args.flags, data, mapSettings);
+  if (args['map-prior'] && flags.map === undefined) {
+    throw new InputError('--map-prior takes the probability map as the position prior: expected --flags to name a .fits or .npy map, found a list', { file: args.flags });
+  }
+  const { settings: checked } = evidenceSettingsOf(args, 'check');
+  const runs = 1 + flags.candidates.length + (args['map-prior'] ? 1 : 0);
+  const sideBySide = vetConcurrency(checked.threads, runs) > 1;
+  if (sideBySide && !args.quiet) process.stderr.write(`${runs} runs, ${vetConcurrency(checked.threads, runs)} side by side\n`);
+  let finish: (() => void) | undefined;
+  const { summary } = await runVetToFolder(config, data, flags, out, {
+    windowArcsec,
+    thresholds,
+    mapPrior: args['map-prior'] && flags.map !== undefined ? { map: flags.map } : undefined,
+    evidence: (label) => {
+      const run = evidenceSettingsOf(args, label, { plainLines: sideBySide });
+      if (!sideBySide) finish = run.finish;
+      return run.settings;
+    },
+    onRunStart: () => finish?.(),
+  });
+  finish?.();
+  const written = summary.smooth === null ? '' : " and each run's samples and images";
+  process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')}${written} under ${out}\n`);
+  if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+  reportUnfinished(summary, join(out, 'vet.json'));
+}

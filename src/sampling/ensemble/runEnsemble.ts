@@ -10,6 +10,7 @@ import { evaluateBatch } from './evaluateBatch.js';
 import { GrowableChain } from './growableChain.js';
 import { periodicTable, wrapRows } from './periodicWrap.js';
 import { startingEnsemble } from './startingEnsemble.js';
+import { eventLoopTurn } from '../eventLoopTurn.js';
 import { proposeStretch } from './stretchMove.js';
 
 /**
@@ -47,6 +48,7 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
   };
 
   while (state.sweep < settled.maxSweeps && state.lastCheck?.met !== true) {
+    await eventLoopTurn();
     if (options.signal?.stopRequested) {
       stopped = true;
       break;

@@ -10,6 +10,7 @@ import { iterationsOf, drawInitialLivePoints, maxLiveLnL } from './liveSet.js';
 import { ellipsoidStep } from './ellipsoidStep.js';
 import { sliceStep } from './sliceStep.js';
 import { nestedResultOf } from './nestedResult.js';
+import { eventLoopTurn } from '../eventLoopTurn.js';
 
 /**
  * Nested sampling (Skilling 2004, 2006) of a problem on the unit hypercube. Each step removes the k
@@ -61,6 +62,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
 
   let stopReason: NestedStopReason;
   for (;;) {
+    await eventLoopTurn();
     const reason = stopReasonOf(state, options, tolerance);
     if (reason !== null) {
       stopReason = reason;
