@@ -11,6 +11,7 @@ import { PROPOSAL_KINDS, type EnsembleProposalKind, type EnsembleProgress } from
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { formatSky } from './formatSky.js';
+import { cosmologyText } from '../report/text/cosmologyText.js';
 import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
@@ -53,7 +54,10 @@ function formatParameters(parameters: ModelRecord['parameters']): string[] {
 }
 
 function formatPriorBlock(summary: NestedFitSummary | EnsembleFitSummary, what: string): string[] {
-  return [`Priors behind ${what}:`, ...formatPriors(summary.priors), `    amplitudes: ${summary.amplitudePrior}`, '', `Caution: ${summary.caution}`];
+  return [
+    `Priors behind ${what}:`, ...formatPriors(summary.priors), `    amplitudes: ${summary.amplitudePrior}`,
+    `Cosmology (distances, Sigma_crit, M200): ${cosmologyText(summary.cosmology)}`, '', `Caution: ${summary.caution}`,
+  ];
 }
 
 /** The plain-text result of a nested-sampling fit: ln Z with its priors, and the parameters. */

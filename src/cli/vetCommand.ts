@@ -10,6 +10,7 @@ import { vetConcurrency } from '../vet/vetFlags.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
+import { cosmologyText } from '../report/text/cosmologyText.js';
 import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
 import { reportUnfinished } from './reportUnfinished.js';
@@ -91,6 +92,7 @@ export function formatVetTable(summary: VetSummary): string {
     ...formatPriors(summary.priors.perturbed),
     `    ${summary.priors.positionPrior}`,
     `    amplitudes: ${summary.amplitudePrior}`,
+    `Cosmology (distances, Sigma_crit, M200): ${cosmologyText(summary.cosmology)}`,
     '',
   );
   if (summary.mapPriorNote !== null) lines.push(`Note: ${summary.mapPriorNote}`);

@@ -99,10 +99,14 @@ export interface ObservationConfig {
   readonly mask: MaskConfig | undefined;
 }
 
-export interface CosmologyConfig {
-  readonly hubbleConstantKmPerSecPerMpc: number;
-  readonly matterDensity: number;
-}
+/**
+ * The cosmology a config asks for: a named published parameter set (`cosmology: wmap9`; the
+ * cosmology module knows the names), or explicit values (`cosmology: { hubbleConstant: 70,
+ * matterDensity: 0.3 }`).
+ */
+export type CosmologyConfig =
+  | { readonly set: string }
+  | { readonly hubbleConstantKmPerSecPerMpc: number; readonly matterDensity: number };
 
 export interface ArcsiftConfig {
   /** The file the config came from (for messages). */
@@ -218,6 +222,8 @@ function readObservation(node: ConfigNode): ObservationConfig {
 
 function readCosmology(node: ConfigNode): CosmologyConfig | undefined {
   if (node.value === undefined) return undefined;
+  if (typeof node.value === 'string') return { set: node.string() };
+  if (!node.isMapping()) node.fail(expectedFound('the name of a parameter set (e.g. planck2018) or { hubbleConstant, matterDensity }', node.value));
   const hubbleConstantKmPerSecPerMpc = node.get('hubbleConstant').number({ min: 0, exclusiveMin: true });
   const matterDensity = node.get('matterDensity').number({ min: 0, exclusiveMin: true, max: 1 });
   node.finish();

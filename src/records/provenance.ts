@@ -3,6 +3,7 @@ import type { CutoutBox } from '../data/cutoutBox.js';
 import type { ObservedData, ObservedDataFiles } from '../data/observedData.js';
 import type { CelestialWcsDescription } from '../fits/celestialWcs.js';
 import { configHash } from './configHash.js';
+import { configuredCosmology, type CosmologyRecord } from '../cosmology/configuredCosmology.js';
 import { packageVersion } from '../io/packageVersion.js';
 
 /**
@@ -26,6 +27,8 @@ export interface RunProvenance {
   /** What was assumed or changed while loading the data. */
   readonly dataNotices: readonly string[];
   readonly seed: number;
+  /** The cosmology behind every distance, critical density and M200 of the run. */
+  readonly cosmology: CosmologyRecord;
   readonly runSeconds: number;
   /** The celestial WCS of the fitted pixels (after any cut-out), when the image has one. */
   readonly wcs?: CelestialWcsDescription;
@@ -49,6 +52,7 @@ export function runProvenance(
     dataSha256: data.fileSha256 ?? {},
     dataNotices: data.notices,
     seed,
+    cosmology: configuredCosmology(config).record,
     runSeconds: (performance.now() - startedMs) / 1000,
     ...(data.wcs === undefined ? {} : { wcs: data.wcs }),
     ...(data.cutout === undefined ? {} : { cutout: data.cutout }),

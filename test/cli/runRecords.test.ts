@@ -80,6 +80,8 @@ describe('a fit cut short, then resumed', () => {
     });
     expect(summary.seed).toBe(7);
     expect(summary.arcsiftVersion).toBe(packageVersion);
+    // No cosmology in the config: Planck 2018 (the table it comes from is tested in test/cosmology).
+    expect(summary.cosmology).toMatchObject({ set: 'planck2018', hubbleConstantKmPerSecPerMpc: 67.66, matterDensity: 0.3111 });
     const checkpoint = JSON.parse(readFileSync(join(out(), 'checkpoint.json'), 'utf8'));
     expect(checkpoint.runIdentity).toMatchObject({
       arcsiftVersion: packageVersion, configSha256: sha256(config), seed: 7,
@@ -125,16 +127,36 @@ describe('a fit cut short, then resumed', () => {
   });
 });
 
-describe('a comparison cut short', () => {
-  it('prints and records its Bayes-factor reading as not final, and exits with status 3', () => {
+describe('a comparison cut short, with a named cosmology', () => {
+  it('prints and records its Bayes-factor reading as not final and its cosmology, in the report too; exit status 3', () => {
     const out = join(root, 'compare');
-    const run = arcsift(['compare', '--config', config, '--data', data, '--out', out, '--live-points', '20', '--threads', '1',
-      '--max-evaluations', '300', '--quiet', '--no-report']);
+    const wmap = join(root, 'wmap.yaml');
+    writeFileSync(wmap, `cosmology: wmap9\n${readFileSync(fixture, 'utf8')}`);
+    const run = arcsift(['compare', '--config', wmap, '--data', data, '--out', out, '--live-points', '20', '--threads', '1',
+      '--max-evaluations', '300', '--quiet']);
     expect(run.status, run.stderr).toBe(3);
     expect(run.stdout).toMatch(/reading \(Kass & Raftery 1995\): NOT FINAL, from runs cut short before converging \(smooth \(maxEvaluations\), perturbed \(maxEvaluations\)\): /);
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
     expect(summary.finished).toBe(false);
     expect(summary.bayesFactor.reading).toMatch(/^NOT FINAL, from runs cut short/);
     expect(existsSync(join(out, 'smooth', 'checkpoint.json'))).toBe(true);
+    expect(summary.cosmology).toEqual({
+      set: 'wmap9', name: 'WMAP nine-year WMAP+eCMB+BAO+H0', reference: 'Hinshaw et al. 2013, ApJS 208, 19, Table 4, last column',
+      hubbleConstantKmPerSecPerMpc: 69.32, matterDensity: 0.2865, darkEnergyDensity: 1 - 0.2865,
+    });
+    expect(run.stdout).toContain('Cosmology (distances, Sigma_crit, M200): WMAP nine-year WMAP+eCMB+BAO+H0: H0 = 69.32 km/s/Mpc, Omega_m = 0.2865, flat');
+    const html = readFileSync(join(out, 'report.html'), 'utf8');
+    expect(html).toContain('cosmology WMAP nine-year WMAP+eCMB+BAO+H0: H0 = 69.32 km/s/Mpc, Omega_m = 0.2865, flat (Hinshaw et al. 2013, ApJS 208, 19, Table 4, last column)');
+    expect(html).toContain('id="unfinished"');
+  });
+
+  it('refuses a cosmology it does not know, naming the key, before anything is run', () => {
+    const unknown = join(root, 'unknown-cosmology.yaml');
+    writeFileSync(unknown, `cosmology: planck2015\n${readFileSync(fixture, 'utf8')}`);
+    const out = join(root, 'never');
+    const run = arcsift(['compare', '--config', unknown, '--data', data, '--out', out, '--live-points', '20', '--threads', '1', '--quiet']);
+    expect(run.status).toBe(2);
+    expect(run.stderr).toBe(`arcsift: ${unknown}, key cosmology: no such cosmology: expected one of planck2018, wmap9, or { hubbleConstant, matterDensity }, found "planck2015"\n`);
+    expect(existsSync(out)).toBe(false);
   });
 });

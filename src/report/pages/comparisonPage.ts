@@ -5,6 +5,7 @@ import { bayesFactorTable } from '../tables/bayesFactorTable.js';
 import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
 import { diagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { LN_EVIDENCE_DIGITS, evidenceTable } from '../tables/evidenceTable.js';
 import { formatNumber } from '../text/formatNumber.js';
 import { parameterTable } from '../tables/parameterTable.js';
@@ -87,6 +88,7 @@ ${imageRow('Lens and source planes', ['perturbed-convergence', 'perturbed-source
     `config <code>${escapeMarkup(s.config)}</code> (sha256 ${escapeMarkup(s.configSha256.slice(0, 12))}&hellip;)`,
     `data <code>${escapeMarkup(dirname(s.data.image))}</code>`,
     `seed ${s.seed}`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
     `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
     `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
   ].join(' &middot; ');

@@ -5,6 +5,7 @@ import { packageVersion } from '../../io/packageVersion.js';
 import { cornerPlotSvg } from '../plots/cornerPlotSvg.js';
 import { nestedDiagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
@@ -163,6 +164,7 @@ ${pageSection('about', 'About the figures', colourMapRows())}`;
     `config <code>${escapeMarkup(s.config)}</code> (sha256 ${escapeMarkup(s.configSha256.slice(0, 12))}&hellip;)`,
     `${s.sampler === 'nested' ? 'nested sampling' : 'ensemble MCMC'}`,
     `seed ${s.seed}`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
     `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
     `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
   ].join(' &middot; ');

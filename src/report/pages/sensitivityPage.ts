@@ -4,6 +4,7 @@ import { readFitsImage } from '../../fits/index.js';
 import { writeFileAtomic } from '../../io/writeFileAtomic.js';
 import { packageVersion } from '../../io/packageVersion.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
 import { imagePanelSvg, type ImageMarker } from '../plots/imagePanelSvg.js';
@@ -76,7 +77,12 @@ ${pageSection('map', 'Sensitivity map', `${figures.map((f) => figureHtml(f, page
 ${pageSection('settings', 'Settings', `<p class="note">Grid ${s.settings.gridSize} &times; ${s.settings.gridSize} over the mask; detection threshold ${formatNumber(s.settings.threshold, 2)} in &Delta;&chi;<sup>2</sup>/2 (&Delta;&chi;<sup>2</sup> &ge; ${formatNumber(s.settings.deltaChiSquareThreshold, 1)}); bisection to ${s.settings.toleranceDex} dex; smooth best fit from ${escapeMarkup(s.bestFit.from)} (ln L ${formatNumber(s.bestFit.lnLikelihood, 2)}).</p>${notices.length === 0 ? '' : `<ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
 ${pageSection('files', 'Files', `<ul class="files">${[summaryFile, join(folder, 'sensitivity.csv'), mapFile, ...figures.flatMap((f) => f.files)].filter((f) => existsSync(f)).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
 ${pageSection('about', 'About the figures', colourMapRows())}`;
-  const meta = [`config <code>${escapeMarkup(s.config)}</code>`, `run time ${formatNumber(s.runSeconds / 60, 1)} min`, `arcsift ${escapeMarkup(s.arcsiftVersion)}`].join(' &middot; ');
+  const meta = [
+    `config <code>${escapeMarkup(s.config)}</code>`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
+    `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
+    `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
+  ].join(' &middot; ');
   writeFileAtomic(pageFile, pageFrame({
     name: relative(resolve(folder, '..'), resolve(folder)), brand: 'arcsift &middot; detection sensitivity', subtitle: truth?.title, meta, body, arcsiftVersion: packageVersion(), folder,
   }));

@@ -4,6 +4,7 @@ import { writeFileAtomic } from '../../io/writeFileAtomic.js';
 import { packageVersion } from '../../io/packageVersion.js';
 import { nestedDiagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';
 import { formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
@@ -136,6 +137,7 @@ ${pageSection('about', 'About the figures', colourMapRows())}`;
     `flags <code>${escapeMarkup(s.flags.file)}</code> (${s.flags.kind})`,
     `window ${s.windowArcsec}&Prime;`,
     `seed ${s.seed}`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
     `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
     `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
   ].join(' &middot; ');
