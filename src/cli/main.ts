@@ -1,10 +1,9 @@
 #!/usr/bin/env node
 import yargs from 'yargs';
 import { hideBin } from 'yargs/helpers';
-import { InputError, RunInterrupted } from '../errors.js';
+import { EXIT_STATUS, InputError, RunInterrupted } from '../errors.js';
 import { commands } from './commands.js';
 import { closestOption, unknownOptionNames } from './closestOption.js';
-import { EXIT_STATUS } from './exitStatus.js';
 import { resumeCommandLine } from './resumeCommandLine.js';
 
 /**

@@ -1,4 +1,4 @@
-import { EXIT_STATUS } from './exitStatus.js';
+import { EXIT_STATUS } from '../errors.js';
 
 /**
  * After a command wrote its summary: a run a limit cut short says so on standard error in one

@@ -1,4 +1,4 @@
-import { EXIT_STATUS } from './exitStatus.js';
+import { EXIT_STATUS } from '../errors.js';
 
 let shared: { stopRequested: boolean } | undefined;
 

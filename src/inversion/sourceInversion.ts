@@ -120,7 +120,7 @@ export class SourceInversion {
       this.regular = null;
       this.adaptive = new AdaptiveMesh();
       this.mesh = this.adaptive;
-      this.vertices = new VertexSelection(grid, used, settings.mesh.cells);
+      this.vertices = new VertexSelection(grid, computed, settings.mesh.cells);
     }
     const perRay = this.mesh.entriesPerRay;
     this.cells = new Int32Array(this.rays.count * perRay);

@@ -20,10 +20,13 @@ export type { VetSummary, VetRunRecord, VetThresholds, VetVerdict } from './vetS
 export type {
   SensitivitySummary, SensitivityRecord, MassDecadeFraction, DetectableMassLimit, RefitSettings,
 } from './sensitivitySummary.js';
+export type {
+  CalibrationSummary, CalibrationParameterRecord, CalibrationDetectionRecord, CalibrationDrawRecord, ProportionRecord,
+} from './calibrationSummary.js';
 export {
   LEADING_COLUMNS, POSTERIOR_FILE_NAMES, POSTERIOR_FORMAT, POSTERIOR_FORMAT_VERSION, POSTERIOR_SIDECAR, POSTERIOR_TABLES, SAMPLER_COLUMNS,
   writePosteriorTables, type PosteriorDraws, type PosteriorSidecar, type PosteriorTableEntry, type PosteriorTableName,
-  type PosteriorTablesContent, type WalkerPaths, type WeightedPosterior,
+  type PosteriorTablesContent, type WalkerPaths, type WeightedPosteriorRows,
 } from './posteriorTables.js';
 export { readPosteriorSidecar } from './readPosteriorSidecar.js';
 export { readPosteriorTable, type PosteriorTable } from './readPosteriorTable.js';

@@ -65,7 +65,7 @@ const ROWS_ARE: Readonly<Record<PosteriorTableName, string>> = {
 };
 
 /** Weighted samples of a nested-sampling run. */
-export interface WeightedPosterior {
+export interface WeightedPosteriorRows {
   /** lnWeight.length rows of the parameters, row-major. */
   readonly points: ArrayLike<number>;
   /** Normalised posterior log weights (logsumexp = 0). */
@@ -99,7 +99,7 @@ export interface PosteriorTablesContent {
   readonly units: readonly string[];
   readonly lnEvidence?: number;
   readonly lnEvidenceError?: number;
-  readonly weighted?: WeightedPosterior;
+  readonly weighted?: WeightedPosteriorRows;
   readonly draws?: PosteriorDraws;
   readonly walkerPaths?: WalkerPaths;
 }
@@ -174,7 +174,7 @@ function checkNames(names: readonly string[], units: readonly string[]): number 
   return names.length;
 }
 
-function weightedColumns(table: WeightedPosterior, dim: number): TableColumns {
+function weightedColumns(table: WeightedPosteriorRows, dim: number): TableColumns {
   const count = table.lnWeight.length;
   checkRows(table.points, count, dim, 'posterior-weighted: points');
   checkLength(table.lnLikelihood, count, 'posterior-weighted: lnLikelihood');
