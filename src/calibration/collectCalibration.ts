@@ -12,6 +12,7 @@ import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import { packageVersion } from '../io/packageVersion.js';
+import { configuredCosmology } from '../cosmology/configuredCosmology.js';
 import { readWeightedPosterior } from '../records/readWeightedPosterior.js';
 import { POSTERIOR_TABLES } from '../records/posteriorTables.js';
 import type { CalibrationDraw, CalibrationDrawsRecord } from './calibrationDraws.js';
@@ -158,6 +159,7 @@ export function collectCalibration(settings: CollectSettings): CalibrationSummar
     title: config.title,
     job: settings.job,
     seed: record.seed,
+    cosmology: configuredCosmology(config).record,
     runOptions: settings.runOptions,
     rankDraws: settings.rankDraws,
     draws: {
