@@ -167,6 +167,40 @@ describe('file-system faults are user errors naming the path, found before sampl
   });
 });
 
+describe('a comparison under SIGTERM', () => {
+  it('stops both models with their last checkpoints, and the command it prints resumes to the uninterrupted Bayes factor', async () => {
+    const compare = (out: string): string[] => [
+      'compare', '--config', config, '--data', data, '--out', out, '--live-points', '20', '--method', 'slice', '--tolerance', '0.5',
+      '--threads', '2', '--seed', '6', '--quiet', '--no-report', '--checkpoint-seconds', '3600',
+    ];
+    const whole = arcsift(compare(join(root, 'compare-whole')));
+    expect(whole.status, whole.stderr).toBe(0);
+
+    const out = join(root, 'compare-stopped');
+    const run = start(compare(out));
+    await until(() => existsSync(join(out, 'arcsift.lock')));
+    await new Promise((resolve) => { setTimeout(resolve, 2500); }); // both models sampling, side by side
+    run.child.kill('SIGTERM');
+    expect(await run.exited).toBe(4);
+    // No checkpoint was due for an hour: both are the signal's.
+    expect(run.stderr()).toContain(`checkpoints written: ${join(out, 'smooth', 'checkpoint.json')}, ${join(out, 'perturbed', 'checkpoint.json')}`);
+    expect(existsSync(join(out, 'summary.json'))).toBe(false);
+    expect(leftovers(out)).toEqual([]);
+
+    // The printed command line, run as printed (its words need no shell quoting here).
+    const hint = /arcsift: continue with: arcsift (.*)\n/.exec(run.stderr());
+    expect(hint).not.toBeNull();
+    const resumed = arcsift(hint![1].split(' '));
+    expect(resumed.status, resumed.stderr).toBe(0);
+    const summaryOf = (folder: string): { bayesFactor: { lnBayesFactor: number } } => JSON.parse(readFileSync(join(folder, 'summary.json'), 'utf8'));
+    expect(summaryOf(out).bayesFactor.lnBayesFactor).toBe(summaryOf(join(root, 'compare-whole')).bayesFactor.lnBayesFactor);
+    for (const model of ['smooth', 'perturbed']) {
+      expect(readFileSync(join(out, model, 'posterior-weighted.csv'), 'utf8')).toBe(readFileSync(join(root, 'compare-whole', model, 'posterior-weighted.csv'), 'utf8'));
+    }
+    expect(leftovers(out)).toEqual([]);
+  }, 300_000);
+});
+
 describe('the ensemble sampler under --checkpoint-seconds and SIGINT', () => {
   it('checkpoints by the clock, stops on SIGINT with a last checkpoint, and resumes bit-identically', async () => {
     const ensemble = (out: string): string[] => [
