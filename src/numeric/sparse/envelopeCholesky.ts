@@ -1,4 +1,5 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js';
+import { invertPermutation } from './invertPermutation.js';
 import type { SymmetricCsr } from './symmetricCsr.js';
 
 /**
@@ -164,17 +165,6 @@ export class EnvelopeCholesky {
       subtractMultiple(work, first[i], lower, base + first[i], zi, i - first[i]);
     }
   }
-}
-
-/** position[order[k]] = k; returns the first k where order is not a permutation, or -1. */
-function invertPermutation(order: Int32Array, n: number, ownOrder: Int32Array, position: Int32Array): number {
-  for (let k = 0; k < n; k++) {
-    const v = order[k];
-    if (!(v >= 0 && v < n) || position[v] >= 0) return k;
-    position[v] = k;
-    ownOrder[k] = v;
-  }
-  return -1;
 }
 
 /** first[i] = least permuted column of a nonzero in permuted row i (i itself when none is left of it). */
