@@ -38,6 +38,14 @@ export class EnvelopeCholesky {
     return this.rowStartBuffer[this.n];
   }
 
+  /**
+   * Floating-point operations of one factor: sum over the columns of the envelope of (their
+   * entries, diagonal included)^2, the count MultifrontalCholesky.flops gives for its structure.
+   */
+  get flops(): number {
+    return envelopeOperations(this.firstBuffer, this.n, this.work);
+  }
+
   /** order[k]: original index of row k of the permuted matrix (read only). */
   get order(): Int32Array {
     return this.orderBuffer;
@@ -180,6 +188,22 @@ function leftmostColumns(matrix: SymmetricCsr, position: Int32Array, first: Int3
       } else if (pr < first[pc]) first[pc] = pr;
     }
   }
+}
+
+/** sum_j c_j^2, c_j = 1 + number of rows i > j with first[i] <= j (a difference array in `work`). */
+function envelopeOperations(first: Int32Array, n: number, work: Float64Array): number {
+  work.fill(0, 0, n);
+  for (let i = 0; i < n; i++) {
+    work[first[i]]++;
+    work[i]--;
+  }
+  let count = 1;
+  let sum = 0;
+  for (let j = 0; j < n; j++) {
+    count += work[j];
+    sum += count * count;
+  }
+  return sum;
 }
 
 function rowStarts(first: Int32Array, n: number, rowStart: Int32Array): void {

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { EnvelopeCholesky } from '../../../src/numeric/sparse/envelopeCholesky.js';
+import { MultifrontalCholesky } from '../../../src/numeric/sparse/multifrontalCholesky.js';
+import { SupernodeChain } from '../../../src/numeric/sparse/supernodeChain.js';
 import { SymmetricSparseAccumulator } from '../../../src/numeric/sparse/symmetricSparseAccumulator.js';
 import { denseLogDet, denseSolve, emptyMatrix, expectSameSolutions, expectSpoiledMatricesFail, factorCase, gershgorinConditionBound, newKernel, randomVector, relativeDifference } from './factorCase.js';
 import { patternOf, scipyCases } from './rcmTestTools.js';
@@ -69,6 +71,24 @@ describe('EnvelopeCholesky', () => {
   it("keeps exactly the profile measured by scipy's fixture script, plus the diagonal", () => {
     const cholesky = new EnvelopeCholesky();
     for (const c of scipyCases) expect(cholesky.analyse(patternOf(c), Int32Array.from(c.scipyOrder)), c.name).toBe(c.scipyProfile + c.n);
+  });
+
+  it('counts sum over columns of (envelope entries)^2 operations: n(n + 1)(2n + 1) / 6 dense (common practice), as a chain of single columns', () => {
+    const u = uniformStream(27);
+    const n = 23;
+    const full = dominantCase('dense 23', n, Array.from({ length: n }, (_, i) => Array.from({ length: i }, (_, j) => [i, j] as [number, number])).flat(), u);
+    const dense = new EnvelopeCholesky();
+    dense.analyse(accumulate(new SymmetricSparseAccumulator(), full, u), Int32Array.from({ length: n }, (_, i) => i));
+    expect(dense.flops).toBe((n * (n + 1) * (2 * n + 1)) / 6);
+    // A chain of single-column supernodes keeps the envelope (multifrontalCholesky.test.ts checks it against scipy's profile).
+    for (const c of scipyCases) {
+      const order = Int32Array.from(c.scipyOrder);
+      const envelope = new EnvelopeCholesky();
+      envelope.analyse(patternOf(c), order);
+      const chain = new MultifrontalCholesky();
+      chain.analyse(patternOf(c), order, new SupernodeChain().build(c.n, 1));
+      expect(envelope.flops, c.name).toBe(chain.flops);
+    }
   });
 
   it('returns NaN without throwing for a negative pivot early or late, a zero matrix and a NaN entry', () => {
