@@ -1,3 +1,4 @@
+import { dot } from './dot.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js';
 import { invertPermutation } from './invertPermutation.js';
 import { partialCholesky } from './partialCholesky.js';
@@ -38,7 +39,6 @@ export class MultifrontalCholesky implements SupernodalFactor {
   private positionBuffer = new Int32Array(0);
   private startBuffer = new Int32Array(1);
   private parentBuffer = new Int32Array(0);
-  private supernodeOf = new Int32Array(0);
   private firstChild = new Int32Array(0);
   private nextSibling = new Int32Array(0);
   private mark = new Int32Array(0);
@@ -47,7 +47,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
   private rowIndexBuffer = new Int32Array(0);
   private relativeBuffer = new Int32Array(0);
   private factorStartBuffer = new Int32Array(1);
-  private entryStart = new Int32Array(1);
+  private columnStart = new Int32Array(1);
   private entrySource = new Int32Array(0);
   private entryTarget = new Int32Array(0);
   private entryHigh = new Int32Array(0);
@@ -58,6 +58,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
   private frontOdd = new Float64Array(0);
   private stack = new Float64Array(0);
   private work = new Float64Array(0);
+  private structureWork = new Float64Array(0);
 
   /** Order of the matrix last analysed. */
   get size(): number {
@@ -148,6 +149,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
     this.stack = ensureFloat64Capacity(this.stack, this.stackPeak());
     this.lowerBuffer = ensureFloat64Capacity(this.lowerBuffer, this.factorStartBuffer[this.count]);
     this.work = ensureFloat64Capacity(this.work, n);
+    this.structureWork = ensureFloat64Capacity(this.structureWork, n);
     this.analysed = true;
     return this.factorNonzeros;
   }
@@ -197,7 +199,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
     if (bad >= 0) throw new RangeError(`ordering: entry ${bad} (${order[bad]}) is out of range 0 .. ${n - 1} or repeated`);
   }
 
-  /** Copies and checks the tree; builds supernodeOf and the child lists (children in increasing order). */
+  /** Copies and checks the tree; builds the child lists (children in increasing order). */
   private copyTree(tree: SupernodeTree, n: number): void {
     const count = tree.count;
     if (!(Number.isInteger(count) && count >= 0)) throw new RangeError(`supernode tree: expected a whole number of supernodes, found ${count}`);
@@ -205,10 +207,9 @@ export class MultifrontalCholesky implements SupernodalFactor {
     // Sized by n (no partition has more supernodes), so a smaller matrix never reallocates.
     this.startBuffer = ensureInt32Capacity(this.startBuffer, Math.max(count, n) + 1);
     this.parentBuffer = ensureInt32Capacity(this.parentBuffer, Math.max(count, n));
-    this.supernodeOf = ensureInt32Capacity(this.supernodeOf, n);
     this.firstChild = ensureInt32Capacity(this.firstChild, Math.max(count, n));
     this.nextSibling = ensureInt32Capacity(this.nextSibling, Math.max(count, n));
-    const problem = copySupernodes(tree, n, this.startBuffer, this.parentBuffer, this.supernodeOf);
+    const problem = copySupernodes(tree, n, this.startBuffer, this.parentBuffer);
     if (problem !== '') throw new RangeError(`supernode tree: ${problem}`);
     this.firstChild.fill(-1, 0, count);
     linkChildren(this.parentBuffer, count, this.firstChild, this.nextSibling);
@@ -234,20 +235,22 @@ export class MultifrontalCholesky implements SupernodalFactor {
   }
 
   /**
-   * Groups A's stored entries by the supernode of their smaller permuted index: entry t of
-   * supernode s (entryStart[s] <= t < entryStart[s + 1]) is stored entry entrySource[t], at
-   * permuted (entryHigh[t], entryTarget[t]) until analyseSupernode turns the column into the
-   * entry's place in the front.
+   * Groups A's stored entries by the smaller of their permuted indices (a counting sort): the
+   * entries of permuted column j are t = columnStart[j] .. columnStart[j + 1] - 1, stored entry
+   * entrySource[t] in permuted row entryHigh[t] >= j. A supernode's columns are contiguous, so
+   * are its entries. (By column rather than by supernode: a few hundred counters spread the
+   * increments that a few dozen would queue on one another.)
    */
   private bucketEntries(matrix: SymmetricCsr): void {
-    this.entryStart = ensureInt32Capacity(this.entryStart, Math.max(this.count, this.n) + 2);
+    const n = this.n;
+    this.columnStart = ensureInt32Capacity(this.columnStart, n + 2);
     this.entrySource = ensureInt32Capacity(this.entrySource, this.entries);
     this.entryTarget = ensureInt32Capacity(this.entryTarget, this.entries);
     this.entryHigh = ensureInt32Capacity(this.entryHigh, this.entries);
-    this.entryStart.fill(0, 0, this.count + 2);
-    countEntries(matrix, this.positionBuffer, this.supernodeOf, this.entryStart);
-    runningSum(this.entryStart, this.count + 1);
-    fillEntries(matrix, this.positionBuffer, this.supernodeOf, this.entryStart, this.entrySource, this.entryTarget, this.entryHigh);
+    this.columnStart.fill(0, 0, n + 2);
+    countEntries(matrix, this.positionBuffer, this.columnStart);
+    runningSum(this.columnStart, n + 1);
+    fillEntries(matrix, this.positionBuffer, this.columnStart, this.entrySource, this.entryHigh);
   }
 
   /** The symbolic pass over the supernodes in post-order; returns the largest front. */
@@ -278,13 +281,13 @@ export class MultifrontalCholesky implements SupernodalFactor {
     this.floatingPointOperations += columnOperations(frontSize, width);
     setLocalPositions(this.rowIndexBuffer, from, from + marked, width, this.local);
     this.relativePositions(s, first, end);
-    entryTargets(this.entryTarget, this.entryHigh, this.entryStart[s], this.entryStart[s + 1], first, end, frontSize, this.local);
+    entryTargets(this.entryTarget, this.entryHigh, this.columnStart, first, end, frontSize, this.local);
     return frontSize;
   }
 
   /** Marks (with s) the rows below supernode s that its entries and its children's structures reach; returns how many. */
   private markStructure(s: number, first: number, end: number): number {
-    const marked = markEntryRows(this.entryHigh, this.entryStart[s], this.entryStart[s + 1], end, s, this.mark);
+    const marked = markEntryRows(this.entryHigh, this.columnStart[first], this.columnStart[end], end, s, this.mark);
     let total = marked;
     for (let c = this.firstChild[s]; c >= 0; c = this.nextSibling[c]) {
       const reached = markChildRows(this.rowIndexBuffer, this.structureStartBuffer[c], this.structureStartBuffer[c + 1], first, end, s, this.mark);
@@ -351,7 +354,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
     const frontSize = width + m;
     const front = this.frontOf(s);
     zeroLower(front, frontSize);
-    assembleEntries(front, value, this.entrySource, this.entryTarget, this.entryStart[s], this.entryStart[s + 1]);
+    assembleEntries(front, value, this.entrySource, this.entryTarget, this.columnStart[this.startBuffer[s]], this.columnStart[this.startBuffer[s + 1]]);
     this.extendAddChildren(s, front, frontSize);
     const logDet = partialCholesky(front, frontSize, frontSize, width);
     if (Number.isNaN(logDet)) return Number.NaN;
@@ -391,7 +394,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
       const width = this.startBuffer[s + 1] - first;
       const from = this.structureStartBuffer[s];
       const m = this.structureStartBuffer[s + 1] - from;
-      forwardSupernode(this.lowerBuffer, this.factorStartBuffer[s], width + m, width, first, this.rowIndexBuffer, from, this.work);
+      forwardSupernode(this.lowerBuffer, this.factorStartBuffer[s], width + m, width, first, this.rowIndexBuffer, from, this.work, this.structureWork);
     }
   }
 
@@ -402,13 +405,13 @@ export class MultifrontalCholesky implements SupernodalFactor {
       const width = this.startBuffer[s + 1] - first;
       const from = this.structureStartBuffer[s];
       const m = this.structureStartBuffer[s + 1] - from;
-      backSupernode(this.lowerBuffer, this.factorStartBuffer[s], width + m, width, first, this.rowIndexBuffer, from, this.work);
+      backSupernode(this.lowerBuffer, this.factorStartBuffer[s], width + m, width, first, this.rowIndexBuffer, from, this.work, this.structureWork);
     }
   }
 }
 
-/** Copies the supernode ranges and parents, and supernodeOf each column; returns '' or what is wrong. */
-function copySupernodes(tree: SupernodeTree, n: number, start: Int32Array, parent: Int32Array, supernodeOf: Int32Array): string {
+/** Copies the supernode ranges and parents; returns '' or what is wrong. */
+function copySupernodes(tree: SupernodeTree, n: number, start: Int32Array, parent: Int32Array): string {
   const count = tree.count;
   if (tree.start.length < count + 1 || tree.parent.length < count) return `expected arrays for ${count} supernodes`;
   if (tree.start[0] !== 0 || tree.start[count] !== n) return `the supernodes cover columns ${tree.start[0]} .. ${tree.start[count] - 1}, not 0 .. ${n - 1}`;
@@ -421,7 +424,6 @@ function copySupernodes(tree: SupernodeTree, n: number, start: Int32Array, paren
     if (!(p === -1 || (p > s && p < count))) return `supernode ${s} has parent ${p}; expected -1 or a later supernode`;
     start[s + 1] = end;
     parent[s] = p;
-    supernodeOf.fill(s, first, end);
   }
   return '';
 }
@@ -468,35 +470,30 @@ function sameInt32(a: Int32Array, b: Int32Array, length: number): boolean {
   return true;
 }
 
-/** entryStart[s + 2] = number of entries whose smaller permuted index lies in supernode s. */
-function countEntries(matrix: SymmetricCsr, position: Int32Array, supernodeOf: Int32Array, entryStart: Int32Array): void {
+/** columnStart[j + 2] = number of entries whose smaller permuted index is j. */
+function countEntries(matrix: SymmetricCsr, position: Int32Array, columnStart: Int32Array): void {
   const { rowStart, column } = matrix;
   for (let r = 0; r < matrix.size; r++) {
     const pr = position[r];
     for (let p = rowStart[r]; p < rowStart[r + 1]; p++) {
       const pc = position[column[p]];
-      entryStart[supernodeOf[pc < pr ? pc : pr] + 2]++;
+      columnStart[(pc < pr ? pc : pr) + 2]++;
     }
   }
 }
 
 /**
- * Stable counting-sort scatter of the entries by supernode (entryStart[s + 1] ends as the start
- * of s's entries): each entry's index, larger and smaller permuted index.
+ * Stable counting-sort scatter of the entries by smaller permuted index (columnStart[j + 1] ends
+ * as the start of column j's entries): each entry's index and larger permuted index.
  */
-function fillEntries(
-  matrix: SymmetricCsr, position: Int32Array, supernodeOf: Int32Array, entryStart: Int32Array,
-  entrySource: Int32Array, entryLow: Int32Array, entryHigh: Int32Array,
-): void {
+function fillEntries(matrix: SymmetricCsr, position: Int32Array, columnStart: Int32Array, entrySource: Int32Array, entryHigh: Int32Array): void {
   const { rowStart, column } = matrix;
   for (let r = 0; r < matrix.size; r++) {
     const pr = position[r];
     for (let p = rowStart[r]; p < rowStart[r + 1]; p++) {
       const pc = position[column[p]];
-      const low = pc < pr ? pc : pr;
-      const t = entryStart[supernodeOf[low] + 1]++;
+      const t = columnStart[(pc < pr ? pc : pr) + 1]++;
       entrySource[t] = p;
-      entryLow[t] = low;
       entryHigh[t] = pc < pr ? pr : pc;
     }
   }
@@ -571,14 +568,16 @@ function relativeRows(rowIndex: Int32Array, relative: Int32Array, from: number, 
   }
 }
 
-/** Turns each entry's smaller permuted index (in entryTarget) into its column-major place in the front. */
+/** Each entry of the supernode's columns first .. end - 1: its column-major place in the front. */
 function entryTargets(
-  entryTarget: Int32Array, entryHigh: Int32Array, from: number, to: number, first: number, end: number, frontSize: number, local: Int32Array,
+  entryTarget: Int32Array, entryHigh: Int32Array, columnStart: Int32Array, first: number, end: number, frontSize: number, local: Int32Array,
 ): void {
-  for (let t = from; t < to; t++) {
-    const high = entryHigh[t];
-    const row = high < end ? high - first : local[high];
-    entryTarget[t] = (entryTarget[t] - first) * frontSize + row;
+  for (let j = first; j < end; j++) {
+    const columnBase = (j - first) * frontSize;
+    for (let t = columnStart[j]; t < columnStart[j + 1]; t++) {
+      const high = entryHigh[t];
+      entryTarget[t] = columnBase + (high < end ? high - first : local[high]);
+    }
   }
 }
 
@@ -618,28 +617,51 @@ function zeroLower(front: Float64Array, size: number): void {
   for (let j = 0; j < size; j++) front.fill(0, j * size + j, (j + 1) * size);
 }
 
-/** Forward substitution with one supernode's columns: its own unknowns, then the updates of its structure rows. */
+/**
+ * Forward substitution with one supernode's columns: its own unknowns (dense lower triangle),
+ * then the updates of its structure rows, summed in `structure` (contiguous column operations)
+ * and subtracted from their rows of `work` once.
+ */
 function forwardSupernode(
-  lower: Float64Array, base: number, frontSize: number, width: number, first: number, rowIndex: Int32Array, from: number, work: Float64Array,
+  lower: Float64Array, base: number, frontSize: number, width: number, first: number, rowIndex: Int32Array, from: number,
+  work: Float64Array, structure: Float64Array,
 ): void {
+  const m = frontSize - width;
+  solveDiagonalBlock(lower, base, frontSize, width, first, work);
+  structure.fill(0, 0, m);
+  for (let j = 0; j < width; j++) addMultiple(structure, lower, base + j * frontSize + width, work[first + j], m);
+  for (let t = 0; t < m; t++) work[rowIndex[from + t]] -= structure[t];
+}
+
+/** L11 x = b in place on work[first .. first + width - 1], column by column. */
+function solveDiagonalBlock(lower: Float64Array, base: number, frontSize: number, width: number, first: number, work: Float64Array): void {
   for (let j = 0; j < width; j++) {
     const column = base + j * frontSize;
     const xj = work[first + j] / lower[column + j];
     work[first + j] = xj;
     for (let i = j + 1; i < width; i++) work[first + i] -= lower[column + i] * xj;
-    for (let t = width; t < frontSize; t++) work[rowIndex[from + t - width]] -= lower[column + t] * xj;
   }
 }
 
-/** Back substitution with one supernode's columns, last column first. */
+/** y[0 .. length - 1] += factor * a[p ..]. */
+function addMultiple(y: Float64Array, a: Float64Array, p: number, factor: number, length: number): void {
+  for (let t = 0; t < length; t++) y[t] += factor * a[p + t];
+}
+
+/**
+ * Back substitution with one supernode's columns, last column first: the structure rows'
+ * values gathered into `structure` once, then a contiguous dot product per column.
+ */
 function backSupernode(
-  lower: Float64Array, base: number, frontSize: number, width: number, first: number, rowIndex: Int32Array, from: number, work: Float64Array,
+  lower: Float64Array, base: number, frontSize: number, width: number, first: number, rowIndex: Int32Array, from: number,
+  work: Float64Array, structure: Float64Array,
 ): void {
+  const m = frontSize - width;
+  for (let t = 0; t < m; t++) structure[t] = work[rowIndex[from + t]];
   for (let j = width - 1; j >= 0; j--) {
     const column = base + j * frontSize;
-    let sum = work[first + j];
+    let sum = work[first + j] - dot(lower, column + width, structure, 0, m);
     for (let i = j + 1; i < width; i++) sum -= lower[column + i] * work[first + i];
-    for (let t = width; t < frontSize; t++) sum -= lower[column + t] * work[rowIndex[from + t - width]];
     work[first + j] = sum / lower[column + j];
   }
 }

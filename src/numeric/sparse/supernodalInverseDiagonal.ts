@@ -1,3 +1,4 @@
+import { dot } from './dot.js';
 import type { SupernodalFactor } from './supernodalFactor.js';
 
 /**
@@ -87,28 +88,11 @@ function takahashiColumns(lower: Float64Array, lowerBase: number, z: Float64Arra
 function takahashiColumn(lower: Float64Array, column: number, z: Float64Array, base: number, f: number, j: number): void {
   const ljj = lower[column + j];
   for (let i = j + 1; i < f; i++) {
-    const zij = -columnDot(lower, column, z, base + i * f, j + 1, f) / ljj;
+    const zij = -dot(lower, column + j + 1, z, base + i * f + j + 1, f - j - 1) / ljj;
     z[base + j * f + i] = zij;
     z[base + i * f + j] = zij;
   }
-  z[base + j * f + j] = (1 / ljj - columnDot(lower, column, z, base + j * f, j + 1, f)) / ljj;
-}
-
-/** sum_{k = from}^{to - 1} L[k] Z[k] over one column of each (four partial sums). */
-function columnDot(lower: Float64Array, column: number, z: Float64Array, zColumn: number, from: number, to: number): number {
-  let s0 = 0;
-  let s1 = 0;
-  let s2 = 0;
-  let s3 = 0;
-  let k = from;
-  for (; k + 3 < to; k += 4) {
-    s0 += lower[column + k] * z[zColumn + k];
-    s1 += lower[column + k + 1] * z[zColumn + k + 1];
-    s2 += lower[column + k + 2] * z[zColumn + k + 2];
-    s3 += lower[column + k + 3] * z[zColumn + k + 3];
-  }
-  for (; k < to; k++) s0 += lower[column + k] * z[zColumn + k];
-  return s0 + s1 + s2 + s3;
+  z[base + j * f + j] = (1 / ljj - dot(lower, column + j + 1, z, base + j * f + j + 1, f - j - 1)) / ljj;
 }
 
 function copyFrontDiagonal(z: Float64Array, base: number, f: number, width: number, order: Int32Array, first: number, out: Float64Array): void {
