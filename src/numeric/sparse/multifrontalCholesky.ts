@@ -154,13 +154,18 @@ export class MultifrontalCholesky implements SupernodalFactor {
     return this.factorNonzeros;
   }
 
+  /** Whether the last successful `analyse` was for `matrix`'s pattern (then `factor` needs no new one). */
+  isAnalysedFor(matrix: SymmetricCsr): boolean {
+    return this.analysed && matrix.size === this.n && this.samePattern(matrix);
+  }
+
   /**
    * Numeric step: factors `matrix`, whose pattern (rowStart and column arrays) must be the one
    * last analysed successfully (Error otherwise). Returns ln det A = 2 sum ln L_ii, or NaN when a pivot is
    * not positive (A is not positive definite, or holds NaN); it does not throw for that.
    */
   factor(matrix: SymmetricCsr): number {
-    if (!this.analysed || matrix.size !== this.n || !this.samePattern(matrix)) {
+    if (!this.isAnalysedFor(matrix)) {
       throw new Error('multifrontal Cholesky: the pattern differs from the one analysed; call analyse first');
     }
     this.factored = false;
