@@ -4,18 +4,24 @@ import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/en
 import { MultifrontalCholesky } from '../numeric/sparse/multifrontalCholesky.js';
 import { NestedDissection, type PlanePoints } from '../numeric/sparse/nestedDissection.js';
 import { ReverseCuthillMcKee } from '../numeric/sparse/reverseCuthillMcKee.js';
+import { SupernodeChain } from '../numeric/sparse/supernodeChain.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
 import type { NormalMatrix } from './normalMatrix.js';
 
 /**
- * Matrices whose stored fraction (2 nnz - n) / n^2 is at most this go to the multifrontal
- * Cholesky, denser ones to the envelope Cholesky (the commit that set it has the measurements:
- * the nested dissection saves flops only where the coupling is short against the mesh).
+ * Matrices whose stored fraction (2 nnz - n) / n^2 is at most this are ordered by nested
+ * dissection, denser ones by reverse Cuthill-McKee (the commit that set it has the
+ * measurements: the dissection saves work only where the coupling is short against the mesh).
  */
-export const MULTIFRONTAL_DENSITY = 0.12;
+export const NESTED_DISSECTION_DENSITY = 0.12;
 
-/** Which sparse Cholesky factors A: chosen per call by MULTIFRONTAL_DENSITY, or forced (tests, benchmarks). */
-export type LinearEvidenceFactorisation = 'automatic' | 'envelope' | 'multifrontal';
+/**
+ * How A is factored: `nestedDissection` (multifrontal Cholesky over the separator tree),
+ * `profileChain` (multifrontal Cholesky over blocks of a reverse Cuthill-McKee order),
+ * `envelope` (envelope Cholesky in that order, the earlier method, kept for comparison), or
+ * `automatic` (one of the first two by NESTED_DISSECTION_DENSITY, per call).
+ */
+export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'profileChain' | 'envelope';
 
 /**
  * The evidence of a linear Gaussian model with its unknowns integrated out: data d with inverse
@@ -23,24 +29,28 @@ export type LinearEvidenceFactorisation = 'automatic' | 'envelope' | 'multifront
  * and b = R^T W d (NormalMatrix),
  *   ln Z = -1/2 sum_i ln(2 pi / w_i) - 1/2 d^T W d + 1/2 b^T A^-1 b - 1/2 ln det A + 1/2 ln det P
  * (the Gaussian integral over x; e.g. MacKay 2003, ch. 28; Suyu et al. 2006 give it for a
- * regularised source). A is factored, with the dense amplitude rows last, either by the envelope
- * Cholesky in reverse Cuthill-McKee order or by the multifrontal Cholesky in nested-dissection
- * order (the unknowns' plane coordinates guide it); both give ln Z to rounding. The
- * multifrontal ordering and analysis are kept while A's pattern stays the same. The caller
- * passes ln det P. Buffers are reused.
+ * regularised source). A is factored with the dense amplitude rows last, by default with the
+ * multifrontal Cholesky in nested-dissection order (the unknowns' plane coordinates guide it)
+ * or in reverse Cuthill-McKee order, whichever suits A's density; every choice gives ln Z to
+ * rounding. An ordering and its analysis are kept while A's pattern (and the coordinates, for
+ * the dissection) stay the same, so the ordering is a function of those alone: results do not
+ * depend on which calls came before (threads, resumed runs). The caller passes ln det P.
+ * Buffers are reused.
  */
 export class LinearEvidence {
   private readonly ordering = new ReverseCuthillMcKee();
   private readonly envelope = new EnvelopeCholesky();
   private readonly dissection = new NestedDissection();
+  private readonly chain = new SupernodeChain();
   private readonly multifrontal = new MultifrontalCholesky();
   private order = new Int32Array(0);
   private last = new Int32Array(0);
-  private usedMultifrontal = false;
-  /** The coordinates and dense count of the last multifrontal analysis (pointCount -1: none given). */
+  private used: Exclude<LinearEvidenceFactorisation, 'automatic'> = 'envelope';
+  /** What the multifrontal factor was last analysed for: the ordering, coordinates (pointCount -1: none) and dense count. */
+  private analysedFor: 'nestedDissection' | 'profileChain' | null = null;
   private pointX = new Float64Array(0);
   private pointY = new Float64Array(0);
-  private pointCount = -2;
+  private pointCount = -1;
   private analysedLast = -1;
   /** A^-1 b of the last successful evaluation (the posterior mean of the unknowns). */
   solution = new Float64Array(0);
@@ -55,12 +65,12 @@ export class LinearEvidence {
 
   /** Order of A in the last evaluation. */
   get size(): number {
-    return this.usedMultifrontal ? this.multifrontal.size : this.envelope.size;
+    return this.used === 'envelope' ? this.envelope.size : this.multifrontal.size;
   }
 
-  /** Whether the last evaluation factored A with the multifrontal Cholesky. */
-  get lastUsedMultifrontal(): boolean {
-    return this.usedMultifrontal;
+  /** The factorisation the last evaluation used. */
+  get lastFactorisation(): Exclude<LinearEvidenceFactorisation, 'automatic'> {
+    return this.used;
   }
 
   /**
@@ -71,12 +81,12 @@ export class LinearEvidence {
     const size = normal.size;
     this.last = ensureInt32Capacity(this.last, Math.max(1, lastCount));
     for (let a = 0; a < lastCount; a++) this.last[a] = size - lastCount + a;
-    this.usedMultifrontal = this.chooseMultifrontal(normal);
-    const logDetA = this.usedMultifrontal ? this.factorMultifrontal(normal, lastCount, points) : this.factorEnvelope(normal, lastCount);
+    this.used = this.choose(normal);
+    const logDetA = this.used === 'envelope' ? this.factorEnvelope(normal, lastCount) : this.factorMultifrontal(normal, lastCount, points);
     if (Number.isNaN(logDetA)) return Number.NaN;
     this.solution = ensureFloat64Capacity(this.solution, size);
-    if (this.usedMultifrontal) this.multifrontal.solve(normal.rhs, this.solution);
-    else this.envelope.solve(normal.rhs, this.solution);
+    if (this.used === 'envelope') this.envelope.solve(normal.rhs, this.solution);
+    else this.multifrontal.solve(normal.rhs, this.solution);
     let quadratic = 0;
     for (let i = 0; i < size; i++) quadratic += normal.rhs[i] * this.solution[i];
     return this.constantTerm + 0.5 * quadratic - 0.5 * logDetA + 0.5 * logDetPrior;
@@ -87,14 +97,14 @@ export class LinearEvidence {
    * variances; Takahashi recurrences on the factor used). It allocates: once per run, for reports.
    */
   inverseDiagonal(out: Float64Array): void {
-    if (this.usedMultifrontal) this.multifrontal.inverseDiagonal(out);
-    else envelopeInverseDiagonal(this.envelope, out);
+    if (this.used === 'envelope') envelopeInverseDiagonal(this.envelope, out);
+    else this.multifrontal.inverseDiagonal(out);
   }
 
-  private chooseMultifrontal(normal: SymmetricCsr): boolean {
-    if (this.factorisation !== 'automatic') return this.factorisation === 'multifrontal';
+  private choose(normal: SymmetricCsr): Exclude<LinearEvidenceFactorisation, 'automatic'> {
+    if (this.factorisation !== 'automatic') return this.factorisation;
     const n = normal.size;
-    return 2 * normal.rowStart[n] - n <= MULTIFRONTAL_DENSITY * n * n;
+    return 2 * normal.rowStart[n] - n <= NESTED_DISSECTION_DENSITY * n * n ? 'nestedDissection' : 'profileChain';
   }
 
   private factorEnvelope(normal: NormalMatrix, lastCount: number): number {
@@ -104,16 +114,22 @@ export class LinearEvidence {
     return this.envelope.factor(normal);
   }
 
-  /**
-   * Orders and analyses only when the pattern, the coordinates or the dense count changed, so
-   * the ordering stays a function of those alone (a resumed run factors as the first did).
-   */
+  /** Orders and analyses unless the kept analysis was for this ordering, pattern, dense count and coordinates. */
   private factorMultifrontal(normal: NormalMatrix, lastCount: number, points: PlanePoints | null): number {
-    if (!(this.multifrontal.isAnalysedFor(normal) && lastCount === this.analysedLast && this.samePoints(points))) {
+    const dissect = this.used === 'nestedDissection';
+    const kept = this.analysedFor === this.used && lastCount === this.analysedLast
+      && (!dissect || this.samePoints(points)) && this.multifrontal.isAnalysedFor(normal);
+    if (!kept) {
+      this.analysedFor = null;
       this.order = ensureInt32Capacity(this.order, normal.size);
-      const tree = this.dissection.order(normal, points, this.last.subarray(0, lastCount), this.order);
-      this.multifrontal.analyse(normal, this.order, tree);
-      this.keepPoints(points);
+      const last = this.last.subarray(0, lastCount);
+      if (dissect) {
+        this.multifrontal.analyse(normal, this.order, this.dissection.order(normal, points, last, this.order));
+        this.keepPoints(points);
+      } else {
+        this.multifrontal.analyse(normal, this.ordering.order(normal, this.order, last), this.chain.build(normal.size));
+      }
+      this.analysedFor = this.used === 'nestedDissection' ? 'nestedDissection' : 'profileChain';
       this.analysedLast = lastCount;
     }
     return this.multifrontal.factor(normal);

@@ -114,9 +114,9 @@ describe('the evidence of a regularised linear inversion', () => {
     // Two routes to one Gaussian integral: A = P + R^T W R in the unknowns' space (the code) and
     // the N x N covariance C + R P^-1 R^T in data space (Woodbury's identity makes them equal).
     // Both round at ~1e-13 relative here; 1e-9 leaves room for the conditioning of A.
-    // Each factorisation (envelope, multifrontal, and the automatic choice) on each problem; the
-    // 150-cell problem is sparse enough for the automatic choice to take the multifrontal one.
-    const factorisations: LinearEvidenceFactorisation[] = ['automatic', 'envelope', 'multifrontal'];
+    // Each factorisation, and the automatic choice, on each problem; the 150-cell problem is
+    // sparse enough for the automatic choice to take the nested dissection.
+    const factorisations: LinearEvidenceFactorisation[] = ['automatic', 'nestedDissection', 'profileChain', 'envelope'];
     for (const [n, cells, extras, seed] of [[40, 6, 2, 3], [60, 12, 0, 5], [30, 3, 1, 8], [400, 150, 2, 21]] as const) {
       const p = problem(n, cells, extras, seed);
       const expected = dataSpaceEvidence(p);
@@ -126,27 +126,39 @@ describe('the evidence of a regularised linear inversion', () => {
     }
   });
 
-  it('chooses the multifrontal Cholesky for a sparse A only, and reuses its analysis only for the same pattern and points', () => {
+  it('takes the nested dissection for a sparse A only', () => {
     const sparse = problem(400, 150, 2, 21);
     const { normal, logDetPrior } = normalOf(sparse);
     const evidence = new LinearEvidence(sparse.d, sparse.w);
     evidence.evaluate(normal, sparse.extras, logDetPrior, linePoints(sparse.cells));
-    expect(evidence.lastUsedMultifrontal).toBe(true);
+    expect(evidence.lastFactorisation).toBe('nestedDissection');
     const dense = problem(40, 6, 2, 3);
     const small = normalOf(dense);
     const denseEvidence = new LinearEvidence(dense.d, dense.w);
     denseEvidence.evaluate(small.normal, dense.extras, small.logDetPrior, linePoints(dense.cells));
-    expect(denseEvidence.lastUsedMultifrontal).toBe(false);
+    expect(denseEvidence.lastFactorisation).toBe('profileChain');
+  });
+
+  it('keeps an analysis for the same pattern and points only, with the result of a fresh one', () => {
     // New values on the same pattern (inverse variances scaled): a kept analysis must give what a
-    // fresh instance gives, bit for bit (same ordering, same operations).
+    // fresh instance gives, bit for bit (same ordering, same operations). Then the same pattern
+    // with moved points must be ordered afresh: again equal to a fresh instance.
+    const sparse = problem(400, 150, 2, 21);
+    const first = normalOf(sparse);
     const scaled = { ...sparse, w: sparse.w.map((v) => 1.7 * v) };
     const again = normalOf(scaled);
-    const kept = new LinearEvidence(scaled.d, scaled.w);
-    kept.evaluate(normal, sparse.extras, logDetPrior, linePoints(sparse.cells));
-    const reused = kept.evaluate(again.normal, scaled.extras, again.logDetPrior, linePoints(scaled.cells));
-    const fresh = new LinearEvidence(scaled.d, scaled.w).evaluate(again.normal, scaled.extras, again.logDetPrior, linePoints(scaled.cells));
-    expect(reused).toBe(fresh);
-    expect(Math.abs(reused - dataSpaceEvidence(scaled))).toBeLessThan(1e-9 * Math.abs(reused));
+    const moved = linePoints(scaled.cells);
+    for (let c = 0; c < scaled.cells; c++) moved.x[c] = c < 75 ? 149 - c : c - 75;
+    for (const factorisation of ['nestedDissection', 'profileChain'] as const) {
+      const kept = new LinearEvidence(scaled.d, scaled.w, factorisation);
+      kept.evaluate(first.normal, sparse.extras, first.logDetPrior, linePoints(sparse.cells));
+      const reused = kept.evaluate(again.normal, scaled.extras, again.logDetPrior, linePoints(scaled.cells));
+      const fresh = new LinearEvidence(scaled.d, scaled.w, factorisation).evaluate(again.normal, scaled.extras, again.logDetPrior, linePoints(scaled.cells));
+      expect(reused).toBe(fresh);
+      expect(Math.abs(reused - dataSpaceEvidence(scaled))).toBeLessThan(1e-9 * Math.abs(reused));
+      const reordered = kept.evaluate(again.normal, scaled.extras, again.logDetPrior, moved);
+      expect(reordered).toBe(new LinearEvidence(scaled.d, scaled.w, factorisation).evaluate(again.normal, scaled.extras, again.logDetPrior, moved));
+    }
   });
 
   it('gives the diagonal of A^-1 of ml-matrix with either factorisation', () => {
@@ -162,10 +174,10 @@ describe('the evidence of a regularised linear inversion', () => {
       a.set(normal.column[k], i, normal.value[k]);
     }
     const expected = inverse(a);
-    for (const factorisation of ['envelope', 'multifrontal'] as const) {
+    for (const factorisation of ['nestedDissection', 'profileChain', 'envelope'] as const) {
       const evidence = new LinearEvidence(p.d, p.w, factorisation);
       evidence.evaluate(normal, p.extras, logDetPrior, linePoints(p.cells));
-      expect(evidence.lastUsedMultifrontal).toBe(factorisation === 'multifrontal');
+      expect(evidence.lastFactorisation).toBe(factorisation);
       const variance = new Float64Array(size);
       evidence.inverseDiagonal(variance);
       for (let i = 0; i < size; i++) expect(Math.abs(variance[i] - expected.get(i, i))).toBeLessThan(1e-10 * expected.get(i, i));
