@@ -24,7 +24,7 @@ function scenario(log10M200: number | null): unknown {
     observation: {
       columns: 40, rows: 40, pixelScaleArcsec: 0.09, supersampling: 1,
       psf: { shape: 'gaussian', fwhmArcsec: 0.18, sizePixels: 7 },
-      noise: { backgroundRms: 0.002, exposureSeconds: 3000 },
+      noise: { skySigma: 0.002, integrationSeconds: 3000 },
       mask: { shape: 'annulus', innerRadiusArcsec: 0.5, outerRadiusArcsec: 1.7 },
     },
     redshifts: { lens: 0.5, source: 2.0 },

@@ -1,15 +1,14 @@
 import type { CommandModule } from 'yargs';
-import { existsSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
-import { FAMILIES_KEY, loadVerdictConfig } from '../config/verdictConfig.js';
-import { InputError } from '../errors.js';
+import { FAMILIES_KEY, loadVerdictConfig, type VerdictConfig } from '../config/verdictConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { checkFamilies } from '../verdict/compareFamilies.js';
 import { familyFolder, runVerdictToFolder } from '../verdict/runVerdictToFolder.js';
 import { finiteNumberOption, loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatVerdict } from './formatVerdict.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { reportUnfinished } from './reportUnfinished.js';
 
 interface VerdictArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -47,33 +46,39 @@ export const verdictCommand: CommandModule<object, VerdictArguments> = {
     const detectionThresholdLnB = finiteNumberOption('detection-threshold', args['detection-threshold']);
     const { settings: checked } = evidenceSettingsOf(args, 'check');
     checkFamilies(verdictConfig.families, { evidence: () => checked, perturberCount });
-    if (existsSync(join(out, 'verdict.json')) && !args.resume) throw new InputError(`${out} already holds a finished verdict (verdict.json); choose another --out or remove it`);
-    const interrupted = verdictConfig.families.some((f) => ['smooth', 'perturbed'].some((m) => existsSync(join(out, familyFolder(f), m, 'checkpoint.json'))));
-    if (interrupted && !args.resume) throw new InputError(`${out} holds an interrupted verdict; pass --resume to continue it, or choose another --out`);
-    const data = loadDataOf(args, verdictConfig.base);
-    const runs = 2 * verdictConfig.families.length;
-    const sideBySide = checked.threads >= 2;
-    if (!args.quiet) {
-      process.stderr.write(`${verdictConfig.families.length} families, ${runs} nested runs${sideBySide ? ` side by side on ${checked.threads} threads` : ' one after another'}\n`);
-    }
-    const finishers: (() => void)[] = [];
-    let started = 0;
-    const { summary } = await runVerdictToFolder(verdictConfig, data, out, {
-      perturberCount,
-      detectionThresholdLnB,
-      evidence: (family, model) => {
-        const run = evidenceSettingsOf(args, `${family.name} / ${model}`, { plainLines: sideBySide });
-        finishers.push(run.finish);
-        return run.settings;
-      },
-      // One after another, each run's in-place progress line ends when the next run starts.
-      onRunStart: () => {
-        if (!sideBySide && started > 0) finishers[started - 1]();
-        started++;
-      },
-    });
-    for (const finish of finishers) finish();
-    process.stdout.write(`${formatVerdict(summary)}\n\nwrote ${join(out, 'verdict.json')} and one compare folder per family under ${join(out, 'families')}\n`);
-    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+    const checkpointFolders = verdictConfig.families.flatMap((f) => ['smooth', 'perturbed'].map((m) => join(familyFolder(f), m)));
+    await inOutputFolder(out, args, checkpointFolders, 'verdict.json', () => verdictIntoFolder(args, verdictConfig, out, perturberCount, detectionThresholdLnB, checked.threads));
   },
 };
+
+/** The verdict itself, into a folder the command holds. */
+async function verdictIntoFolder(
+  args: VerdictArguments, verdictConfig: VerdictConfig, out: string, perturberCount: number, detectionThresholdLnB: number, threads: number,
+): Promise<void> {
+  const data = loadDataOf(args, verdictConfig.base);
+  const runs = 2 * verdictConfig.families.length;
+  const sideBySide = threads >= 2;
+  if (!args.quiet) {
+    process.stderr.write(`${verdictConfig.families.length} families, ${runs} nested runs${sideBySide ? ` side by side on ${threads} threads` : ' one after another'}\n`);
+  }
+  const finishers: (() => void)[] = [];
+  let started = 0;
+  const { summary } = await runVerdictToFolder(verdictConfig, data, out, {
+    perturberCount,
+    detectionThresholdLnB,
+    evidence: (family, model) => {
+      const run = evidenceSettingsOf(args, `${family.name} / ${model}`, { plainLines: sideBySide });
+      finishers.push(run.finish);
+      return run.settings;
+    },
+    // One after another, each run's in-place progress line ends when the next run starts.
+    onRunStart: () => {
+      if (!sideBySide && started > 0) finishers[started - 1]();
+      started++;
+    },
+  });
+  for (const finish of finishers) finish();
+  process.stdout.write(`${formatVerdict(summary)}\n\nwrote ${join(out, 'verdict.json')} and one compare folder per family under ${join(out, 'families')}\n`);
+  if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+  reportUnfinished(summary, join(out, 'verdict.json'));
+}

@@ -17,6 +17,7 @@ import type { CountComparisonSummary, CountRow } from '../records/countCompariso
 import type { ModelRecord } from '../records/modelRecord.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { qualifiedReading, unfinishedRuns } from '../records/unfinishedRuns.js';
 
 /** The config with exactly `count` perturbers: the listed ones, then copies of the last listed. */
 export function withPerturberCount(config: ArcsiftConfig, count: number): ArcsiftConfig {
@@ -53,6 +54,7 @@ export async function comparePerturberCounts(
     runs.push(await runModelEvidence(full, data, k, { ...settings, method, checkpointPath: join(folder, `perturbers-${k}`, 'checkpoint.json') }));
   }
   const models = runs.map((run, k) => writeModelOutputs(run, full, data, join(folder, `perturbers-${k}`), settings.seed));
+  const stops = runs.map((run, k) => ({ label: `${k} perturber(s)`, stopReason: run.result.stopReason }));
   const rows: CountRow[] = runs.map((run, k) => {
     const toPrevious = k === 0 ? null : run.result.lnZ - runs[k - 1].result.lnZ;
     return {
@@ -61,7 +63,7 @@ export async function comparePerturberCounts(
       lnEvidenceError: run.result.lnZError,
       lnBayesFactorToPrevious: toPrevious,
       lnBayesFactorToSmooth: run.result.lnZ - runs[0].result.lnZ,
-      reading: toPrevious === null ? '' : bayesFactorReading(toPrevious, `${k} perturbers`, `${k - 1}`).sentence,
+      reading: toPrevious === null ? '' : qualifiedReading(bayesFactorReading(toPrevious, `${k} perturbers`, `${k - 1}`).sentence, unfinishedRuns(stops.slice(k - 1, k + 1))),
       relabelled: run.relabelled,
     };
   });
@@ -76,7 +78,7 @@ export async function comparePerturberCounts(
       (detectedCount < maxCount ? `, count ${detectedCount + 1} does not` : '');
   const summary: CountComparisonSummary = {
     kind: 'perturberCount',
-    ...runProvenance(config, data, settings.seed, started),
+    ...runProvenance(config, data, settings.seed, started, unfinishedRuns(stops)),
     rows,
     preferredCount: preferred,
     detection: { thresholdLnB: detectionThresholdLnB, thresholdSource: thresholdSource(detectionThresholdLnB), detectedCount: smoothMisfit ? 0 : detectedCount, smoothMisfit, sentence },

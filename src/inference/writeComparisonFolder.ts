@@ -10,6 +10,7 @@ import { writeModelOutputs } from './writeModelOutputs.js';
 import { priorCaution } from '../records/cautions.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { qualifiedReading, unfinishedRuns } from '../records/unfinishedRuns.js';
 import { runDefaults } from '../settings/runDefaults.js';
 
 /** Plain words for each perturber's region prior. */
@@ -41,19 +42,20 @@ export function writeComparisonFolder(
   const perturbed = writeModelOutputs(comparison.perturbed, config, data, join(folder, 'perturbed'), seed);
   const { onProgress: _a, signal: _b, ...smoothSettings } = settings.smooth;
   const { onProgress: _c, signal: _d, ...perturbedSettings } = settings.perturbed;
+  const unfinished = unfinishedRuns([comparison.smooth, comparison.perturbed].map((m) => ({ label: m.label, stopReason: m.result.stopReason })));
   const thresholdLnB = settings.detectionThresholdLnB ?? runDefaults.detection.lnBayesFactorThreshold;
   const claim = detectionClaim({
     lnBayesFactor: comparison.lnBayesFactor, thresholdLnB, smoothMisfit: smooth.misfit.alarm, perturbedMisfit: perturbed.misfit.alarm,
   });
   const summary: ComparisonSummary = {
     kind: 'comparison',
-    ...runProvenance(config, data, seed, startedMs),
+    ...runProvenance(config, data, seed, startedMs, unfinished),
     settings: { smooth: smoothSettings, perturbed: perturbedSettings, perturberCount: settings.perturberCount ?? 1 },
     models: { smooth, perturbed },
     bayesFactor: {
       lnBayesFactor: comparison.lnBayesFactor,
       lnBayesFactorError: comparison.lnBayesFactorError,
-      reading: comparison.reading.sentence,
+      reading: qualifiedReading(comparison.reading.sentence, unfinished),
       kassRafteryGrade: comparison.reading.grade,
       significance: comparison.significance.reading,
       pValueBound: finiteOrNull(comparison.significance.pValue),

@@ -9,6 +9,7 @@ import { verdictCaution } from '../records/cautions.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import { runProvenance } from '../records/provenance.js';
+import { unfinishedRuns } from '../records/unfinishedRuns.js';
 import type { VerdictFamilyRecord, VerdictFitRecord, VerdictSummary } from '../records/verdictSummary.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { compareFamilies, type FamilyComparison, type FamilyModel, type FamilySettings } from './compareFamilies.js';
@@ -89,11 +90,12 @@ export async function runVerdictToFolder(
     thresholdLnB,
     familySuggestions(families.map((f) => familyComponents(f.config))),
   );
+  const unfinished = unfinishedRuns(records.flatMap((r) => (['smooth', 'perturbed'] as const).map((m) => ({ label: `${r.name} / ${m}`, stopReason: r[m].stopReason }))));
   const first = evidence(families[0], 'smooth');
   const { onProgress: _a, signal: _b, checkpointPath: _c, ...plain } = first;
   const summary: VerdictSummary = {
     kind: 'verdict',
-    ...runProvenance(verdictConfig.base, data, first.seed, started),
+    ...runProvenance(verdictConfig.base, data, first.seed, started, unfinished),
     settings: { ...plain, perturberCount, detectionThresholdLnB: thresholdLnB },
     families: records,
     verdict,

@@ -5,7 +5,7 @@ import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
 export const VET_CSV_COLUMNS = [
   'candidate', 'flag_x_arcsec', 'flag_y_arcsec', 'score', 'ln_bayes_factor', 'ln_bayes_factor_error', 'verdict',
   'log10_mass_median', 'log10_mass_68_lower', 'log10_mass_68_upper', 'log10_mass_upper_limit_95',
-  'x_arcsec', 'y_arcsec', 'offset_arcsec', 'flag_ra_deg', 'flag_dec_deg', 'ra_deg', 'dec_deg',
+  'x_arcsec', 'y_arcsec', 'offset_arcsec', 'flag_ra_deg', 'flag_dec_deg', 'ra_deg', 'dec_deg', 'finished',
   'chi2_per_dof', 'morans_i', 'misfit_p_value', 'misfit_alarm',
   'smooth_chi2_per_dof', 'smooth_morans_i', 'smooth_misfit_p_value', 'smooth_misfit_alarm',
 ] as const;
@@ -28,6 +28,7 @@ function row(r: VetRunRecord, smooth: MisfitRecord | undefined): string {
     confirmed ? '' : cell(r.log10MassUpperLimit95),
     cell(r.position.xArcsec.median), cell(r.position.yArcsec.median), cell(r.offsetArcsec),
     sky(r.flag?.raDeg), sky(r.flag?.decDeg), sky(r.position.sky?.raDeg.median), sky(r.position.sky?.decDeg.median),
+    r.finished === false ? 'false' : 'true',
     ...misfitCells(r.model.misfit), ...misfitCells(smooth),
   ].join(',');
 }
@@ -46,6 +47,7 @@ export function formatVetCsv(summary: VetSummary): string {
     '# misfit of each fit at its best sample: chi2_per_dof (nominal degrees of freedom: pixels - sampled parameters - linear amplitudes), Moran\'s I of the normalised residuals and its one-sided permutation p-value; alarm = yes when p <= the false-alarm rate (structure the model missed); smooth_*: the shared smooth fit',
     `# log10 mass of the ${summary.perturberKind} perturber in solar masses (M200 for NFW-type perturbers, total mass otherwise): median and 68% interval when confirmed, 95% upper limit otherwise`,
     '# positions in arcsec from the image centre (x with the column, y with the row); offset = distance of the posterior median from the flag',
+    '# finished: false when this run or the smooth one was cut short before converging (ln B and verdict not final)',
     `# ra, dec: degrees${summary.wcs === undefined ? ' (empty: the image has no celestial WCS)' : ` (${summary.wcs.frame}), posterior medians of RA and of Dec`}`,
     ...(summary.smooth === null ? ['# no candidates to vet: no fit was run (see vet.json flags.notices)'] : []),
     VET_CSV_COLUMNS.join(','),

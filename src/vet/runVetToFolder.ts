@@ -18,6 +18,7 @@ import type { VetRunRecord, VetSummary, VetThresholds, VetVerdict } from '../rec
 import { runProvenance } from '../records/provenance.js';
 import { defaultVetThresholds, vetVerdict } from './vetVerdict.js';
 import type { MisfitRecord } from '../records/misfitRecord.js';
+import { qualifiedReading, unfinishedRuns } from '../records/unfinishedRuns.js';
 
 /** Why a vetting's Bayes factors are not evidence when its shared smooth fit fails the misfit alarm. */
 function smoothMisfitNote(misfit: MisfitRecord): string {
@@ -35,16 +36,18 @@ function flagRecord(xArcsec: number, yArcsec: number, sky: ImagePlaneSky | undef
 }
 
 function runRecord(
-  run: PerturbedVetting, model: ModelRecord, id: string, origin: string, positionPrior: string,
-  flag: VetRunRecord['flag'], score: number | undefined, offsetArcsec: number | null, thresholds: VetThresholds, smoothMisfit: boolean,
+  run: PerturbedVetting, model: ModelRecord, smooth: ModelRecord, id: string, origin: string, positionPrior: string,
+  flag: VetRunRecord['flag'], score: number | undefined, offsetArcsec: number | null, thresholds: VetThresholds,
 ): VetRunRecord {
   const p = run.perturber;
+  const unfinished = unfinishedRuns([{ label: 'smooth', stopReason: smooth.stopReason }, { label: id, stopReason: model.stopReason }]);
   return {
     id, origin, flag, score: score ?? null, positionPrior,
     lnBayesFactor: run.lnBayesFactor,
     lnBayesFactorError: run.lnBayesFactorError,
-    verdict: vetVerdict(run.lnBayesFactor, thresholds, smoothMisfit),
-    reading: bayesFactorReading(run.lnBayesFactor).sentence,
+    verdict: vetVerdict(run.lnBayesFactor, thresholds, smooth.misfit.alarm),
+    reading: qualifiedReading(bayesFactorReading(run.lnBayesFactor).sentence, unfinished),
+    finished: unfinished.length === 0,
     log10Mass: p.log10Mass,
     log10MassUpperLimit95: p.log10MassUpperLimit95,
     massPriorRange: p.massPriorRange,
@@ -74,7 +77,7 @@ function writeNothingToVet(config: ArcsiftConfig, data: ObservedData, flags: Fla
   const { onProgress: _a, signal: _b, checkpointPath: _c, ...smoothSettings } = settings.evidence('smooth', 'smooth');
   const summary: VetSummary = {
     kind: 'vet',
-    ...runProvenance(config, data, smoothSettings.seed, started),
+    ...runProvenance(config, data, smoothSettings.seed, started, []),
     flags: flagsRecord(flags),
     settings: smoothSettings,
     thresholds: settings.thresholds ?? defaultVetThresholds(),
@@ -118,9 +121,9 @@ export async function runVetToFolder(
   const candidates = result.candidates.map((c) => {
     const model = writeModelOutputs(c.evidence, c.config, data, join(folder, c.folderName), seed);
     return runRecord(
-      c, model, c.candidate.id, c.candidate.origin,
+      c, model, smooth, c.candidate.id, c.candidate.origin,
       `x uniform on ${range(c.window.xArcsec)}, y uniform on ${range(c.window.yArcsec)} arcsec (a ${result.windowArcsec}" square around the flag)`,
-      flagRecord(c.candidate.xArcsec, c.candidate.yArcsec, sky), c.candidate.score, c.offsetArcsec, result.thresholds, smoothMisfit,
+      flagRecord(c.candidate.xArcsec, c.candidate.yArcsec, sky), c.candidate.score, c.offsetArcsec, result.thresholds,
     );
   });
   let mapPrior: VetRunRecord | null = null;
@@ -128,7 +131,7 @@ export async function runVetToFolder(
     const m = result.mapPrior;
     const model = writeModelOutputs(m.evidence, m.config, data, join(folder, m.folderName), seed);
     mapPrior = runRecord(
-      m, model, 'map-prior', m.mapFile, `the probability map ${m.mapFile}, normalised over the mask`, null, undefined, null, result.thresholds, smoothMisfit,
+      m, model, smooth, 'map-prior', m.mapFile, `the probability map ${m.mapFile}, normalised over the mask`, null, undefined, null, result.thresholds,
     );
   }
   const perturbedRun = result.candidates[0]?.evidence ?? result.mapPrior?.evidence;
@@ -138,9 +141,13 @@ export async function runVetToFolder(
     result.candidates.length > 0 ? `uniform on a ${result.windowArcsec}" x ${result.windowArcsec}" square centred on each flag` : undefined,
     result.mapPrior !== undefined ? `the probability map ${result.mapPrior.mapFile} (map-prior run)` : undefined,
   ].filter((s) => s !== undefined).join('; ');
+  const unfinished = unfinishedRuns([
+    { label: 'smooth', stopReason: smooth.stopReason },
+    ...[...candidates, ...(mapPrior === null ? [] : [mapPrior])].map((r) => ({ label: r.id, stopReason: r.model.stopReason })),
+  ]);
   const summary: VetSummary = {
     kind: 'vet',
-    ...runProvenance(config, data, seed, started),
+    ...runProvenance(config, data, seed, started, unfinished),
     flags: flagsRecord(flags),
     settings: smoothSettings,
     thresholds: result.thresholds,
