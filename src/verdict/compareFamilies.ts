@@ -1,3 +1,4 @@
+import { awaitAllRuns } from '../inference/awaitAllRuns.js';
 import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
 import { inFamily, type SmoothFamily } from '../config/verdictConfig.js';
@@ -73,7 +74,8 @@ export async function compareFamilies(
   if (threads >= 2) {
     const pool = await LikelihoodPool.start(runs.map((r) => ({ config: r.family.config, data, perturberCount: r.perturbers })), threads);
     try {
-      evidences = await Promise.all(runs.map((r, k) => {
+      // Every run ends (a stop request: each writes its last checkpoint) before any failure is passed on.
+      evidences = await awaitAllRuns(runs.map((r, k) => {
         settings.onRunStart?.(r.family, r.model);
         return runModelEvidence(r.family.config, data, r.perturbers, r.settings, { pool: pool.model(k) });
       }));

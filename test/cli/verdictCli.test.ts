@@ -88,4 +88,31 @@ describe('arcsift verdict', () => {
     expect(again.status).toBe(2);
     expect(again.stderr).toMatch(/holds a run a limit cut short \(verdict\.json says finished: false\); pass --resume/);
   }, 600_000);
+
+  it('stops every family\'s runs on SIGTERM, each with its last checkpoint, and continues with the printed command', async () => {
+    // Four runs side by side on two threads, no checkpoint due for an hour: every checkpoint
+    // listed is the signal's, so each run ended before the command exited (exit status 4).
+    const out = join(root, 'stopped');
+    const child = spawn(process.execPath, [cli, 'verdict', '--config', fixture, '--data', data, '--out', out, '--live-points', '20', '--seed', '9',
+      '--threads', '2', '--max-evaluations', '4000', '--checkpoint-seconds', '3600', '--quiet', '--no-report'], { stdio: ['ignore', 'ignore', 'pipe'] });
+    let stderr = '';
+    child.stderr!.on('data', (chunk) => { stderr += String(chunk); });
+    const exited = new Promise<number | null>((resolve) => { child.on('exit', (code) => resolve(code)); });
+    for (const deadline = Date.now() + 60_000; !existsSync(join(out, 'arcsift.lock'));) {
+      if (Date.now() > deadline) throw new Error('the verdict did not take its folder within 60 s');
+      await new Promise((resolve) => { setTimeout(resolve, 50); });
+    }
+    await new Promise((resolve) => { setTimeout(resolve, 2500); });
+    child.kill('SIGTERM');
+    expect(await exited).toBe(4);
+    const checkpoints = ['isothermal-ellipsoid', 'isothermal-ellipsoid-m-3-4-multipoles'].flatMap((f) => ['smooth', 'perturbed'].map((m) => join(out, 'families', f, m, 'checkpoint.json')));
+    expect(stderr).toContain(`checkpoints written: ${checkpoints.join(', ')}`);
+    expect(existsSync(join(out, 'verdict.json'))).toBe(false);
+    expect(listFiles(out).filter((f) => f.endsWith('.tmp'))).toEqual([]);
+    const hint = /arcsift: continue with: arcsift (.*)\n/.exec(stderr);
+    expect(hint).not.toBeNull();
+    const resumed = run(hint![1].split(' '), 300_000);
+    expect(resumed.status, resumed.stderr).toBe(3);
+    expect(existsSync(join(out, 'verdict.json'))).toBe(true);
+  }, 300_000);
 });

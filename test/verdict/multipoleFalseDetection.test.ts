@@ -63,7 +63,7 @@ describe('a smooth lens with 1% multipoles and no subhalo', () => {
       const compare = JSON.parse(readFileSync(join(out, f.folder, 'summary.json'), 'utf8'));
       expect(compare.bayesFactor.lnBayesFactor).toBe(f.lnBayesFactor);
       expect(compare.detection.thresholdLnB).toBe(THRESHOLD);
-      expect(existsSync(join(out, f.folder, 'smooth', 'samples.csv'))).toBe(true);
+      expect(existsSync(join(out, f.folder, 'smooth', 'posterior-weighted.csv'))).toBe(true);
     }
     expect(JSON.parse(readFileSync(join(out, 'verdict.json'), 'utf8'))).toEqual(JSON.parse(JSON.stringify(summary)));
   });
