@@ -33,7 +33,7 @@ export function formatVerdict(summary: VerdictSummary): string {
     ...table.map((line) => `  ${line.map((text, c) => text.padEnd(widths[c])).join('  ').trimEnd()}`),
     '',
     `  preferred by the data without a perturber: ${v.preferredFamily} (highest smooth ln Z)`,
-    `  least favourable ln B among the acceptable families (smooth model passes the misfit test): ` +
+    `  least favourable ln B among the acceptable families (the model the data prefer passes the misfit test): ` +
       (least === null ? 'none (no family is acceptable)' : `${fixed(least.lnBayesFactor)} +- ${fixed(least.lnBayesFactorError)} (${least.family})`),
     `  detection threshold: ${v.thresholdSource}`,
     `  misfit test: Moran's I of each best fit's normalised residuals, one-sided permutation p, alarm at p <= ${summary.families[0]?.smooth.misfit.falseAlarmRate}` +

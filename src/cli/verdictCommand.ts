@@ -29,7 +29,8 @@ export const verdictCommand: CommandModule<object, VerdictArguments> = {
       '(shear: none removes the shear, multipoles: [] the multipoles); lens light, observation and perturbers stay the base\'s. ' +
       'Each family gets a smooth and a perturbed nested fit (all side by side on the worker threads; --resume continues ' +
       'an interrupted verdict run by run), written as a compare folder under OUT/families/.\n\n' +
-      'A family is acceptable when its smooth model passes the misfit test (Moran\'s I of the normalised residuals). ' +
+      'A family is acceptable when the model its data prefer passes the misfit test (Moran\'s I of the normalised residuals): ' +
+      'its smooth model, or its perturbed model when that passes and ln B > 0. ' +
       'Confirmed: in every acceptable family ln B exceeds --detection-threshold and the perturbed model passes the misfit test. ' +
       'Not confirmed: some acceptable family does not need the perturber. Not evidence: no family is acceptable; the verdict ' +
       'says which families to add.')

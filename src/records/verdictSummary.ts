@@ -12,7 +12,7 @@ export interface RobustVerdict {
   readonly verdict: RobustVerdictKind;
   readonly thresholdLnB: number;
   readonly thresholdSource: string;
-  /** Names of the families whose smooth model passes the misfit test (the verdict rests on them). */
+  /** Names of the families whose preferred model passes the misfit test (the verdict rests on them; see VERDICT_RULE). */
   readonly acceptableFamilies: readonly string[];
   /** The family of highest smooth ln Z: the one the data prefer without a perturber. */
   readonly preferredFamily: string;
@@ -53,7 +53,7 @@ export interface VerdictFamilyRecord {
   readonly reading: string;
   /** compare's detection claim within this family alone. */
   readonly claim: DetectionClaim;
-  /** True when its smooth model passes the misfit test. */
+  /** True when the model its data prefer passes the misfit test (familyAcceptable). */
   readonly acceptable: boolean;
   readonly perturbers: readonly PerturberSummary[];
   /** The priors behind its two evidences. */

@@ -15,7 +15,7 @@ import { runDefaults } from '../settings/runDefaults.js';
 import { compareFamilies, type FamilyComparison, type FamilyModel, type FamilySettings } from './compareFamilies.js';
 import { familyComponents } from './familyComponents.js';
 import { familySuggestions } from './familySuggestions.js';
-import { VERDICT_LIMITS, VERDICT_RULE, robustVerdict } from './robustVerdict.js';
+import { VERDICT_LIMITS, VERDICT_RULE, familyAcceptable, robustVerdict } from './robustVerdict.js';
 
 /** Settings of a verdict run. */
 export interface VerdictSettings extends FamilySettings {
@@ -45,7 +45,9 @@ function familyRecord(family: SmoothFamily, summary: ComparisonSummary): Verdict
     lnBayesFactorError: summary.bayesFactor.lnBayesFactorError,
     reading: summary.bayesFactor.reading,
     claim: { claim: summary.detection.claim, thresholdLnB: summary.detection.thresholdLnB, thresholdSource: summary.detection.thresholdSource, sentence: summary.detection.sentence },
-    acceptable: !summary.models.smooth.misfit.alarm,
+    acceptable: familyAcceptable({
+      smoothMisfit: summary.models.smooth.misfit.alarm, perturbedMisfit: summary.models.perturbed.misfit.alarm, lnBayesFactor: summary.bayesFactor.lnBayesFactor,
+    }),
     perturbers: summary.perturbers,
     priors: summary.priors,
     positionPriors: summary.positionPriors,

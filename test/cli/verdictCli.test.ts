@@ -30,7 +30,7 @@ describe('arcsift verdict', () => {
     const help = run(['verdict', '--help']);
     expect(help.status).toBe(0);
     expect(help.stdout).toMatch(/smoothFamilies of families, each \{ name, lens: \{ mass, shear, multipoles \}, source: \{ light \} \}/);
-    expect(help.stdout).toMatch(/A family is acceptable when its smooth model passes the misfit test/);
+    expect(help.stdout).toMatch(/A family is acceptable when the model its data prefer passes the misfit\s+test/);
     expect(help.stdout).toMatch(/--detection-threshold[\s\S]*published robust-detection threshold[\s\S]*\[default: 50\]/);
     expect(help.stdout).toMatch(/--resume/);
     expect(run(['--help']).stdout).toMatch(/verdict +The robust verdict/);

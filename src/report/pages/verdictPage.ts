@@ -127,7 +127,7 @@ export function writeVerdictReport(
   const forest: ReportFigure = writeSvgFigure(figuresFolder, 'family-bayes-factors', 'family-bayes-factors', {
     section: 'diagnostics',
     title: 'ln B per family',
-    caption: `ln B of each family with its 1-sigma error, against the detection threshold ${formatNumber(v.thresholdLnB, 0)}: filled, the families whose smooth model passes the misfit test (the verdict rests on them); hollow grey, those set aside.`,
+    caption: `ln B of each family with its 1-sigma error, against the detection threshold ${formatNumber(v.thresholdLnB, 0)}: filled, the families whose preferred model (smooth, or perturbed when it has the higher evidence) passes the misfit test (the verdict rests on them); hollow grey, those set aside.`,
     svg: familyBayesFactorSvg(s.families.map((f) => ({ name: f.name, lnBayesFactor: f.lnBayesFactor, lnBayesFactorError: f.lnBayesFactorError, acceptable: f.acceptable })), v.thresholdLnB),
   });
   const least = v.leastFavourable;

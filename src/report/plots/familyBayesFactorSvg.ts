@@ -8,7 +8,7 @@ export interface FamilyBayesFactorRow {
   readonly name: string;
   readonly lnBayesFactor: number;
   readonly lnBayesFactorError: number;
-  /** Acceptable (smooth model passes the misfit test): a filled dot; set aside: a hollow grey one. */
+  /** Acceptable (the preferred model passes the misfit test): a filled dot; set aside: a hollow grey one. */
   readonly acceptable: boolean;
 }
 
