@@ -26,6 +26,8 @@ const settings: NestedSettings = {
   periodic: [false, true],
   boundVolumeFactorForTesting: 1,
   slicePointsPerChain: 1,
+  evidence: 'nested',
+  importance: null,
 };
 
 describe('checkpoint files', () => {
