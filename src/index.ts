@@ -37,5 +37,7 @@ export { placeTruth, type TruthPlacement } from './inference/truthComparison.js'
 export { checkOutputFolder } from './inference/checkOutputFolder.js';
 export * from './vet/index.js';
 export * from './sensitivity/index.js';
+export * from './batch/index.js';
+export * from './calibration/index.js';
 export * from './report/index.js';
 export { readNpy, decodeNpy, type NpyImage } from './io/readNpy.js';

@@ -6,6 +6,8 @@ import { fitCommand } from './fitCommand.js';
 import { vetCommand } from './vetCommand.js';
 import { sensitivityCommand } from './sensitivityCommand.js';
 import { reportCommand } from './reportCommand.js';
+import { batchCommand } from './batchCommand.js';
+import { calibrateCommand } from './calibrateCommand.js';
 
 /** Every `arcsift` command, in the order `--help` lists them. */
-export const commands: CommandModule<object, any>[] = [simulateCommand, fitCommand, compareCommand, vetCommand, sensitivityCommand, reportCommand, demoCommand];
+export const commands: CommandModule<object, any>[] = [simulateCommand, fitCommand, compareCommand, vetCommand, sensitivityCommand, batchCommand, calibrateCommand, reportCommand, demoCommand];

@@ -23,8 +23,16 @@ function describePrior(prior: PriorDescription): string {
 /** The priors as text lines, free parameters first. */
 export function formatPriors(priors: readonly PriorDescription[]): string[] {
   const free = priors.filter((p) => !p.fixed).map((p) => `    ${p.name}: ${describePrior(p)}`);
-  const held = priors.filter((p) => p.fixed).map((p) => `${p.name.split('.').pop()}=${p.value}`);
-  return [...free, `    held fixed: ${held.length === 0 ? 'none' : held.join(', ')}`];
+  const held = priors.filter((p) => p.fixed);
+  if (held.length === 0) return [...free, '    held fixed: none'];
+  // One line per component, e.g. "lens.mass[0]: einsteinRadiusArcsec=1.1, axisRatio=0.8".
+  const byComponent = new Map<string, string[]>();
+  for (const p of held) {
+    const cut = p.name.lastIndexOf('.');
+    const component = cut < 0 ? '' : p.name.slice(0, cut);
+    byComponent.set(component, [...(byComponent.get(component) ?? []), `${p.name.slice(cut + 1)}=${p.value}`]);
+  }
+  return [...free, '    held fixed:', ...[...byComponent].map(([component, values]) => `      ${component === '' ? '' : `${component}: `}${values.join(', ')}`)];
 }
 
 /** The plain-text verdict of a comparison, as printed at the end of `compare` and `demo`. */

@@ -9,9 +9,9 @@ export type SourceMeshConfig =
     readonly cellsPerSide: number;
   }
   | {
-    /** Cells whose vertices are the traced positions of a subset of image pixels (Delaunay, barycentric interpolation). */
+    /** Cells whose vertices are the traced positions of a fixed subset of image pixels (Delaunay, natural-neighbour interpolation). */
     readonly kind: 'adaptive';
-    /** About how many vertices (cells): every k-th pixel along both axes, k from this. */
+    /** How many vertices (cells): the traced pixels of a lattice chosen once to hold exactly this many. */
     readonly cells: number;
   };
 

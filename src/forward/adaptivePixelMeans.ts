@@ -6,7 +6,7 @@ import { BasisScale } from './basisScale.js';
 import { LatticeStencil } from './latticeStencil.js';
 import { PixelLattice } from './pixelLattice.js';
 import { PixelMeanState, REFINE, STRAIGHT_TO_FULL } from './pixelMeanState.js';
-import { CHUNK, RayChunk, shine, type MeanLightTerm } from './rayChunk.js';
+import { CHUNK, RayChunk, shine, shineMeans, type MeanLightTerm } from './rayChunk.js';
 import { RichardsonRefinement } from './richardsonRefinement.js';
 import { SubPixelInterpolation } from './subPixelInterpolation.js';
 
@@ -92,7 +92,7 @@ export class AdaptivePixelMeans {
     this.refinement = new RichardsonRefinement(this.state, supersampling, this.adaptive);
     this.factors = this.refinement.factors;
     this.pixelsByLevel = this.refinement.pixelsByLevel;
-    this.chunk = new RayChunk(basisCount);
+    this.chunk = new RayChunk(basisCount, supersampling);
     this.interpolation = new SubPixelInterpolation(this.lattice, this.state, grid, this.pixels, this.chunk, lightTerms, this.factors);
   }
 
@@ -182,7 +182,7 @@ export class AdaptivePixelMeans {
 
   /** One pass of subPixelMeans over pending[from..to), in chunks of rays. */
   private subPixelPass(p: Float64Array, m: number, from: number, to: number, interpolate: boolean): void {
-    const perChunk = Math.floor(CHUNK / (m * m));
+    const perChunk = Math.floor(this.chunk.size / (m * m));
     const weights = this.interpolation.lagrangeWeights(m);
     const chunk = this.chunk;
     for (let start = from; start < to; start += perChunk) {
@@ -194,8 +194,7 @@ export class AdaptivePixelMeans {
       } else {
         this.raysInterpolated += r;
       }
-      shine(this.lightTerms, p, chunk.x, chunk.y, chunk.bx, chunk.by, r, chunk.out, CHUNK);
-      for (let k = 0; k < this.basisCount; k++) chunk.storeMeans(k, m * m, end - start, this.state.current, this.pixels.length);
+      shineMeans(this.lightTerms, p, chunk, end - start, m * m, this.state.current, this.pixels.length);
     }
   }
 

@@ -90,11 +90,10 @@ export class PixelSubsetConvolver {
   /**
    * Writes the convolution of `input` at each output pixel p into output[outputOffset + p]. The
    * 1-D passes sum two points at a time (each point's sum in the same order as alone), so that
-   * their additions overlap instead of waiting on one sum: demo 152 -> 108 us per basis image on
-   * Node 20 (the loop tap by tap over all points was slower, 208 us). A factor equal to its
-   * mirror image (a centred Gaussian) adds each tap pair's inputs before multiplying (demo
-   * evaluation about 1.5-2% faster, A/B in one process). Each loop is a method of its own (see
-   * latticeLevel in adaptivePixelMeans.ts).
+   * their additions overlap instead of waiting on one sum (a loop tap by tap over all points was
+   * slower). A factor equal to its mirror image (a centred Gaussian) adds each tap pair's inputs
+   * before multiplying. DEVELOPERS.md (measured choices) has the timings. Each loop is a method
+   * of its own (see latticeLevel in adaptivePixelMeans.ts).
    */
   convolve(output: Float64Array, outputOffset: number): void {
     const alongX = this.alongX;

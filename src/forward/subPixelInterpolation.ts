@@ -1,7 +1,7 @@
 import type { PixelGrid } from '../imaging/pixelGrid.js';
 import type { PixelLattice } from './pixelLattice.js';
 import type { PixelMeanState } from './pixelMeanState.js';
-import { CHUNK, shine, type MeanLightTerm, type RayChunk } from './rayChunk.js';
+import { shine, type MeanLightTerm, type RayChunk } from './rayChunk.js';
 
 /** Largest change of the light at a predicted position, in tolerances, that lets a pixel use interpolated rays. */
 const INTERPOLATION_GUARD = 5;
@@ -48,12 +48,12 @@ export class SubPixelInterpolation {
 
   /** Marks which pixels of list[0..listCount) may use interpolated sub-pixel rays (see the class). */
   check(p: Float64Array, list: Int32Array, listCount: number): void {
-    const perChunk = CHUNK / 2;
+    const perChunk = this.chunk.size / 2;
     const chunk = this.chunk;
     for (let start = 0; start < listCount; start += perChunk) {
       const end = Math.min(listCount, start + perChunk);
       const r = this.predictCentres(list, start, end);
-      shine(this.lightTerms, p, chunk.x, chunk.y, chunk.bx, chunk.by, r, chunk.out, CHUNK);
+      shine(this.lightTerms, p, chunk.x, chunk.y, chunk.bx, chunk.by, r, chunk.out, chunk.size);
       this.markInterpolable(list, start, end);
     }
   }
@@ -91,6 +91,7 @@ export class SubPixelInterpolation {
     const planeSize = this.lattice.planeSize;
     const pixelsPadded = this.lattice.pixelsPadded;
     const out = this.chunk.out;
+    const size = this.chunk.size;
     const { basisCount, scale, relativeTolerance } = this.state;
     for (let t = start, u = 0; t < end; t++, u += 2) {
       const e = list[t];
@@ -98,7 +99,7 @@ export class SubPixelInterpolation {
       let ok = true;
       for (let k = 0; k < basisCount; k++) {
         const centre = values[k * planeSize + q];
-        const worst = Math.max(Math.abs(out[k * CHUNK + u] - centre), Math.abs(out[k * CHUNK + u + 1] - centre));
+        const worst = Math.max(Math.abs(out[k * size + u] - centre), Math.abs(out[k * size + u + 1] - centre));
         if (worst > INTERPOLATION_GUARD * scale[k] * relativeTolerance[e]) ok = false;
       }
       this.interpolable[e] = ok ? 1 : 0;

@@ -54,8 +54,8 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
     );
   }
   // One method for both runs: a Bayes factor between runs made with different constrained-draw
-  // methods carries the difference of their biases (measured: 3 nats between ellipsoids and
-  // slice sampling on the same 5-parameter smooth model with 40 live points).
+  // methods carries the difference of their biases (several nats on one model; DEVELOPERS.md,
+  // measured choices).
   const perturbedDim = modelParameterSpace(buildLensSystem(config, { perturberCount })).dim;
   const method = lensModelMethod(settings.perturbed.method, perturbedDim, perturberCount);
   // The two runs do not depend on each other: with two threads or more they go side by side,

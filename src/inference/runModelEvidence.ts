@@ -65,8 +65,8 @@ export interface ModelEvidence {
  * The constrained-draw method for a lens model. 'auto' takes multi-ellipsoid bounds only for a
  * smooth model of at most 8 free parameters: with a perturber the likelihood has a plateau (any
  * position at low mass fits as well as the smooth model) joined to a narrow peak, which the
- * bootstrap-grown ellipsoids bound poorly (measured: efficiency below 0.2% on an 8-parameter
- * perturbed model with 50 live points, against 1.7% for slice sampling).
+ * bootstrap-grown ellipsoids bound poorly (an efficiency several times below slice sampling's;
+ * DEVELOPERS.md, measured choices).
  */
 export function lensModelMethod(requested: NestedMethod, dim: number, perturberCount: number): NestedMethod {
   if (requested !== 'auto') return requested;

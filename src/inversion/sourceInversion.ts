@@ -20,6 +20,11 @@ import { SourceRays } from './sourceRays.js';
 import { SparseRows } from './sparseRows.js';
 import { VertexSelection } from './vertexSelection.js';
 
+/** The stages of one evaluation, as SourceInversion.stageMilliseconds counts them. */
+export const INVERSION_STAGES = Object.freeze([
+  'rays', 'mesh', 'mapping', 'blur', 'regularisation', 'normalMatrix', 'factorSolve',
+] as const);
+
 /** What a pixelated-source inversion needs of the observation and the forward model. */
 export interface InversionSetup {
   readonly grid: PixelGrid;
@@ -115,13 +120,31 @@ export class SourceInversion {
       this.regular = null;
       this.adaptive = new AdaptiveMesh();
       this.mesh = this.adaptive;
-      this.vertices = new VertexSelection(grid, used, settings.mesh.cells);
+      this.vertices = new VertexSelection(grid, computed, settings.mesh.cells);
     }
     const perRay = this.mesh.entriesPerRay;
     this.cells = new Int32Array(this.rays.count * perRay);
     this.weights = new Float64Array(this.rays.count * perRay);
     this.evidence = new LinearEvidence(setup.data, setup.inverseVariance);
     this.extraPrecision = 1 / (setup.amplitudePriorSigma * setup.amplitudePriorSigma);
+  }
+
+  /**
+   * Benchmarks: when set, each logEvidence adds the milliseconds of its stages here, in the order
+   * of INVERSION_STAGES.
+   */
+  stageMilliseconds: Float64Array | null = null;
+  private clock = 0;
+
+  private startLaps(): void {
+    if (this.stageMilliseconds !== null) this.clock = performance.now();
+  }
+
+  private lap(stage: number): void {
+    if (this.stageMilliseconds === null) return;
+    const now = performance.now();
+    this.stageMilliseconds[stage] += now - this.clock;
+    this.clock = now;
   }
 
   /** Source cells of the last build. */
@@ -141,7 +164,9 @@ export class SourceInversion {
    */
   logEvidence(p: Float64Array, extras: Float64Array): number {
     const { setup } = this;
+    this.startLaps();
     this.rays.trace(setup.massTerms, p);
+    this.lap(0);
     if (!this.buildMesh(p)) {
       this.rejections.mesh++;
       return Number.NEGATIVE_INFINITY;
@@ -150,19 +175,25 @@ export class SourceInversion {
     this.cellCount = cellCount;
     const rays = this.rays;
     const perRay = this.mesh.entriesPerRay;
+    this.lap(1);
     this.raysOutside = this.mesh.interpolate(rays.betaX, rays.betaY, rays.count, this.cells, this.weights);
     const area = setup.grid.pixelScaleArcsec * setup.grid.pixelScaleArcsec;
     this.mapping.build(this.cells, this.weights, setup.computed.length, rays.raysPerPixel, perRay, cellCount, area, this.m);
+    this.lap(2);
     this.blurred.build(this.m, cellCount, this.b);
     this.bt.transposeOf(this.b, cellCount);
+    this.lap(3);
     const prior = this.regularisationPrior(p, cellCount);
+    this.lap(4);
     if (prior === null) {
       this.rejections.regularisation++;
       return Number.NEGATIVE_INFINITY;
     }
     const k = setup.extraCount;
     this.normal.build(this.b, this.bt, cellCount, setup.inverseVariance, setup.data, prior.matrix, prior.scale, extras, k, this.extraPrecision);
+    this.lap(5);
     const value = this.evidence.evaluate(this.normal, k, prior.logDet + k * Math.log(this.extraPrecision));
+    this.lap(6);
     if (Number.isNaN(value)) {
       this.rejections.notPositiveDefinite++;
       return Number.NEGATIVE_INFINITY;

@@ -18,7 +18,7 @@ export interface SourceMesh {
   readonly cellCount: number;
   readonly cellX: Float64Array;
   readonly cellY: Float64Array;
-  /** Interpolation entries per ray (4 bilinear, 3 barycentric). */
+  /** Interpolation entries per ray (4 bilinear; MAX_NATURAL_NEIGHBOURS natural-neighbour, unused ones -1). */
   readonly entriesPerRay: number;
   /** True when the cells' neighbourhoods (and so H for a given form) change from call to call. */
   readonly topologyVaries: boolean;

@@ -3,7 +3,8 @@ import { ellipticalGaussian } from './ellipticalGaussian.js';
 import { referenceLightOnly, type LightProfilePair } from './lightProfile.js';
 import { fastSersic } from './sersic/fastSersic.js';
 import { sersic } from './sersic/sersic.js';
-import { shapelets } from './shapelets.js';
+import { shapelets } from './shapelets/shapelets.js';
+import { fastGaussianRow } from './shapelets/fastGaussianRow.js';
 
 export { referenceLightOnly, type LightProfile, type LightProfilePair } from './lightProfile.js';
 export { sersic } from './sersic/sersic.js';
@@ -13,8 +14,8 @@ export {
 } from './sersic/sersicCoefficient.js';
 export { ellipticalGaussian } from './ellipticalGaussian.js';
 export { ellipticalQuadraticForm } from './ellipticalQuadraticForm.js';
-export { shapelets, shapeletOrders } from './shapelets.js';
-export { hermiteFunctions } from './hermiteFunctions.js';
+export { shapelets, shapeletOrders } from './shapelets/shapelets.js';
+export { hermiteFunctions } from './shapelets/hermiteFunctions.js';
 
 /** Light profiles with a fixed number of basis functions, by config kind: reference and fast evaluation. */
 export const lightProfiles: Readonly<Record<'sersic' | 'ellipticalGaussian', LightProfilePair>> = Object.freeze({
@@ -28,7 +29,7 @@ const shapeletsByOrder = new Map<number, LightProfilePair>();
 export function shapeletsOfOrder(maxOrder: number): LightProfilePair {
   let pair = shapeletsByOrder.get(maxOrder);
   if (pair === undefined) {
-    pair = referenceLightOnly(shapelets(maxOrder));
+    pair = Object.freeze({ reference: shapelets(maxOrder), fast: shapelets(maxOrder, fastGaussianRow) });
     shapeletsByOrder.set(maxOrder, pair);
   }
   return pair;

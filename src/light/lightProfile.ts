@@ -21,6 +21,17 @@ export interface LightProfile {
     x: Float64Array, y: Float64Array, n: number,
     out: Float64Array, outOffset: number, stride: number,
   ): void;
+  /**
+   * Optional, for many-basis profiles: the mean of every basis over each of `runs` consecutive
+   * runs of `run` positions, into out[outOffset + k * stride + target[t]] for run t. It must equal
+   * writeBasis followed by summing each run in order and multiplying by 1 / run, bit for bit, but
+   * need not store every position's values.
+   */
+  writeRunMeans?(
+    p: Float64Array, offset: number,
+    x: Float64Array, y: Float64Array, runs: number, run: number, target: Int32Array,
+    out: Float64Array, outOffset: number, stride: number,
+  ): void;
 }
 
 /**

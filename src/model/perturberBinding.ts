@@ -1,7 +1,8 @@
 import { InputError } from '../errors.js';
 import type { ComponentConfig } from '../config/arcsiftConfig.js';
 import type { LensingContext } from '../cosmology/index.js';
-import type { MassProfile, MassProfilePair } from '../lens/massProfile.js';
+import type { MassProfilePair } from '../lens/massProfile.js';
+import type { PerturberBinding, PerturberDerived } from './perturberContract.js';
 import {
   duffy2008Concentration, perturberProfiles, pointMassEinsteinRadiusArcsec, pseudoJaffeStrengthArcsec,
   subhaloFromMass, nfwFromMass, writeNfwLensingParameters,
@@ -9,43 +10,7 @@ import {
 import type { ParameterCollector } from './componentBinding.js';
 import { bindTidalPerturber, type HostLens } from './tidalPerturberBinding.js';
 
-/** Masses and sizes of one perturber derived from the model vector, for reports and truth files. */
-export interface PerturberDerived {
-  readonly kind: string;
-  readonly massM200Solar?: number;
-  readonly totalMassSolar: number;
-  readonly concentration?: number;
-  readonly r200Kpc?: number;
-  readonly scaleRadiusKpc?: number;
-  readonly scaleRadiusArcsec?: number;
-  readonly truncationRadiusKpc?: number;
-  readonly truncationRadiusArcsec?: number;
-  /** r_t / r_s of a truncated NFW. */
-  readonly truncationRatio?: number;
-  readonly convergenceScale?: number;
-  /** Tidally truncated perturbers: projected distance from the host centre, and the host's mass in that sphere. */
-  readonly hostDistanceArcsec?: number;
-  readonly hostMassWithinSolar?: number;
-  readonly einsteinRadiusArcsec?: number;
-}
-
-/** A perturber of the config bound to model-vector indices. */
-export interface PerturberBinding {
-  readonly kind: string;
-  readonly key: string;
-  /** The reference formula, and the evaluation the forward model runs (see MassProfilePair). */
-  readonly profile: MassProfile;
-  readonly fast: MassProfile;
-  /** Model indices of log10 mass, centre x and centre y. */
-  readonly massIndex: number;
-  readonly centerXIndex: number;
-  readonly centerYIndex: number;
-  /** Fills this perturber's lensing parameters in the profile vector (allocates nothing). */
-  readonly write: (model: Float64Array, profile: Float64Array) => void;
-  derived(model: Float64Array): PerturberDerived;
-  /** The joint region prior on the centre, when the config gives one. */
-  readonly positionPrior?: ComponentConfig['positionPrior'];
-}
+export type { PerturberBinding, PerturberDerived } from './perturberContract.js';
 
 const massNames = ['log10MassSolar', 'centerXArcsec', 'centerYArcsec'];
 

@@ -6,7 +6,7 @@ import {
   writeNfwLensingParameters, type HostComponent,
 } from '../perturber/index.js';
 import type { ParameterCollector } from './componentBinding.js';
-import type { PerturberBinding, PerturberDerived } from './perturberBinding.js';
+import type { PerturberBinding, PerturberDerived } from './perturberContract.js';
 
 /** The main lens as a tidal perturber sees it. */
 export interface HostLens {

@@ -55,8 +55,8 @@ class ChainStopped extends Error {}
 parentPort!.on('message', (message: Message) => {
   // Answers are copied, not transferred. Transferring detaches the sender's ArrayBuffer, and the
   // first detach in a thread makes V8 check for detached buffers at every typed-array access in
-  // optimised code from then on: measured 20-30% slower likelihoods in both the worker and the
-  // main thread (1.36 -> 1.75 ms per demo likelihood in a worker), against microseconds to copy.
+  // optimised code from then on, slowing every later likelihood in both threads (DEVELOPERS.md,
+  // measured choices), against microseconds to copy.
   const model = held[message.model];
   if ('chain' in message) {
     const evaluator = model.evaluatorOfChains();

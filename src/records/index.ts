@@ -18,6 +18,9 @@ export type { VetSummary, VetRunRecord, VetThresholds, VetVerdict } from './vetS
 export type {
   SensitivitySummary, SensitivityRecord, MassDecadeFraction, DetectableMassLimit, RefitSettings,
 } from './sensitivitySummary.js';
+export type {
+  CalibrationSummary, CalibrationParameterRecord, CalibrationDetectionRecord, CalibrationDrawRecord, ProportionRecord,
+} from './calibrationSummary.js';
 export {
   EQUAL_WEIGHT_SAMPLES_TITLE, WEIGHTED_SAMPLES_TITLE, formatEqualWeightSamplesCsv, formatWeightedSamplesCsv,
   writeEqualWeightSamplesCsv, writeWeightedSamplesCsv, type EqualWeightSamplesTable, type WeightedSamplesTable,

@@ -1,4 +1,5 @@
 import { InputError, expectedFound } from '../errors.js';
+import { csvField } from '../io/csvField.js';
 import { writeFileAtomic } from '../io/writeFileAtomic.js';
 import { checkRows } from '../numeric/statistics/sampleChecks.js';
 
@@ -100,10 +101,6 @@ export function writeEqualWeightSamplesCsv(path: string, table: EqualWeightSampl
 /** `name [unit]` (or `name`), quoted when RFC 4180 requires it or when it would start with "#". */
 function columnNames(names: readonly string[], units: readonly string[]): string[] {
   return names.map((name, j) => csvField(units[j] === '' ? name : `${name} [${units[j]}]`));
-}
-
-function csvField(text: string): string {
-  return /[",\r\n]/.test(text) || text.startsWith('#') ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
 function formatNumber(value: number): string {

@@ -80,6 +80,32 @@ export interface RunSettings {
     readonly falseAlarmRate: number;
     readonly seed: number;
   };
+  /** Batch runs of many rows (locally or as a Slurm job array). */
+  readonly batch: {
+    /** Attempts of a row that fails (not one killed from outside) before it is left failed. */
+    readonly maxAttempts: number;
+    /** A running row touches its lock this often; a lock untouched for staleSeconds is taken as dead. */
+    readonly heartbeatSeconds: number;
+    readonly staleSeconds: number;
+    /** Rows run one after the other by one Slurm array task. */
+    readonly rowsPerTask: number;
+    /** Slurm --time per task: measured seconds per row times this, plus slurmMarginMinutes. */
+    readonly slurmTimeFactor: number;
+    readonly slurmMarginMinutes: number;
+    /** Slurm memory per task: measured peak resident memory of a row times this. */
+    readonly slurmMemoryFactor: number;
+    /** Seconds between progress lines when not on a terminal. */
+    readonly progressSeconds: number;
+  };
+  /** Simulation-based calibration of a config's inference. */
+  readonly calibration: {
+    /** Posterior draws L per simulation: the rank of the truth among them takes L + 1 values (Talts et al. 2018). */
+    readonly rankDraws: number;
+    /** A comparison detects the perturber when ln B exceeds this (vet's "confirmed" threshold). */
+    readonly detectAboveLnB: number;
+    /** Seed of the prior draws and of the noise of each simulation. */
+    readonly seed: number;
+  };
 }
 
 type Section = keyof RunSettings;
@@ -103,6 +129,11 @@ export const runDefaults: RunSettings = deepFreeze({
   },
   comparison: { favouredLnBayesFactor: 1 },
   misfitAlarm: { neighbours: 'rook', permutations: 999, falseAlarmRate: 0.01, seed: 1 },
+  batch: {
+    maxAttempts: 3, heartbeatSeconds: 10, staleSeconds: 90, rowsPerTask: 1,
+    slurmTimeFactor: 2, slurmMarginMinutes: 10, slurmMemoryFactor: 1.5, progressSeconds: 10,
+  },
+  calibration: { rankDraws: 99, detectAboveLnB: 3, seed: 1 },
 } satisfies RunSettings);
 
 /** What each setting may hold: a whole number of at least `min`, a number above or at least `min`, or one of `choices`. */
@@ -126,6 +157,11 @@ const rules: { readonly [S in Section]: { readonly [K in keyof RunSettings[S]]: 
   },
   comparison: { favouredLnBayesFactor: { any: true } },
   misfitAlarm: { neighbours: { choices: ['rook', 'queen'] }, permutations: { whole: 1 }, falseAlarmRate: { above: 0 }, seed: { whole: 1 } },
+  batch: {
+    maxAttempts: { whole: 1 }, heartbeatSeconds: { above: 0 }, staleSeconds: { above: 0 }, rowsPerTask: { whole: 1 },
+    slurmTimeFactor: { atLeast: 1 }, slurmMarginMinutes: { atLeast: 0 }, slurmMemoryFactor: { atLeast: 1 }, progressSeconds: { above: 0 },
+  },
+  calibration: { rankDraws: { whole: 1 }, detectAboveLnB: { any: true }, seed: { whole: 1 } },
 };
 
 /** Overrides of some settings of some sections. */

@@ -46,8 +46,8 @@ export const fastSersic: LightProfile = {
     const c = shape[6];
     const bn = shape[7];
     // Passes over the points, each a short chain of dependent operations, so that successive
-    // points overlap in the processor (measured 2.2-fold faster than one nested expression on
-    // Node 20), each a function of its own (see latticeLevel in adaptivePixelMeans.ts):
+    // points overlap in the processor (faster than one nested expression on Node 20; DEVELOPERS.md),
+    // each a function of its own (see latticeLevel in adaptivePixelMeans.ts):
     // R^2/R_e^2, its power 1/(2n) by the power table, then the exponential of b_n - b_n s.
     quadraticForm(a, b, c, p[offset + 4], p[offset + 5], x, y, n, out, outOffset);
     if (shape[8] === 1) powers.powerInPlace(out, outOffset, outOffset + n);

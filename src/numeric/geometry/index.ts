@@ -1,8 +1,10 @@
 // Planar geometry for irregular grids: Delaunay triangulation, point location, barycentric
-// interpolation weights, vertex neighbours and areas.
+// and natural-neighbour interpolation weights, vertex neighbours, areas and cotangent edge weights.
 export { barycentricWeights } from './barycentricWeights.js';
 export { DelaunayTriangulation } from './delaunayTriangulation.js';
 export { BARYCENTRIC_TOLERANCE, locateTriangle, scanTriangles } from './locateTriangle.js';
 export { TriangulationStatus, triangulationStatusNames, type TriangulationStatusCode } from './triangulationStatus.js';
 export { VertexAdjacency } from './vertexAdjacency.js';
 export { vertexAreas } from './vertexAreas.js';
+export { cotangentWeights } from './cotangentWeights.js';
+export { MAX_NATURAL_NEIGHBOURS, NaturalNeighbourWeights } from './naturalNeighbourWeights.js';

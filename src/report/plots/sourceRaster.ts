@@ -61,9 +61,9 @@ export function significantWindowOf(source: SourceFile, threshold: number): Sour
 
 /**
  * Samples a reconstruction at the centres of a cells x cells raster over `window`, interpolated
- * as the fit interpolated it: barycentric within the Delaunay triangles of an adaptive mesh
- * (rebuilt from the cell positions, which gives the same triangles), bilinear between the nodes
- * of a regular one. The standard deviations are interpolated the same way, which is a display
+ * as the fit interpolated it: natural-neighbour weights on the Delaunay triangulation of an
+ * adaptive mesh (rebuilt from the cell positions, which gives the same triangles), bilinear
+ * between the nodes of a regular one. The standard deviations are interpolated the same way, which is a display
  * device only: the error of an interpolated value also depends on the cells' covariances.
  */
 export function rasterizeSource(source: SourceFile, window: SourceWindow, cells: number): SourceRaster {

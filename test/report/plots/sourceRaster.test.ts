@@ -7,8 +7,8 @@ import { readSourceFile } from '../../../src/records/readSourceFile.js';
 import type { SourceFile } from '../../../src/records/sourceFile.js';
 import { meshEdges, rasterizeSource, significantWindowOf, sourceWindowOf } from '../../../src/report/plots/sourceRaster.js';
 
-// Linear interpolation within triangles and bilinear interpolation on a grid both reproduce an
-// affine function exactly (e.g. Press et al. 2007, Numerical Recipes sec. 3.6 and 3.7), so a
+// Natural-neighbour interpolation (Sukumar et al. 2001) and bilinear interpolation on a grid
+// (e.g. Press et al. 2007, Numerical Recipes sec. 3.6) both reproduce an affine function exactly, so a
 // source whose cells hold a plane must come back as that plane at every raster cell on the mesh.
 const plane = (x: number, y: number): number => 2 + 3 * x - 5 * y;
 
@@ -46,7 +46,7 @@ describe('rasterised source reconstructions (report)', () => {
     expect(meshEdges(source).length).toBe(4 * 18);
   });
 
-  it('gives back a plane on an adaptive mesh (barycentric in its Delaunay triangles)', () => {
+  it('gives back a plane on an adaptive mesh (natural-neighbour weights reproduce linear functions)', () => {
     const source = adaptiveSource();
     const window = sourceWindowOf(source);
     const r = rasterizeSource(source, window, 50);

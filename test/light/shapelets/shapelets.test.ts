@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { hermiteFunctions } from '../../src/light/hermiteFunctions.js';
-import { shapeletOrders, shapelets } from '../../src/light/shapelets.js';
-import { shapeletsOfOrder } from '../../src/light/index.js';
-import { InputError } from '../../src/errors.js';
+import { hermiteFunctions } from '../../../src/light/shapelets/hermiteFunctions.js';
+import { shapeletOrders, shapelets } from '../../../src/light/shapelets/shapelets.js';
+import { shapeletsOfOrder } from '../../../src/light/index.js';
+import { InputError } from '../../../src/errors.js';
 
 // Physicists' Hermite polynomials written out (Abramowitz & Stegun 1964, Table 22.12).
 const hermitePolynomials = [
@@ -112,5 +112,70 @@ describe('Cartesian shapelets', () => {
     expect(out[1]).toBeCloseTo(Math.SQRT2 * u * phi0(u) * phi0(v) / beta, 14);
     expect(out[2]).toBeCloseTo(Math.SQRT2 * v * phi0(u) * phi0(v) / beta, 14);
     expect(out[5]).toBeCloseTo(((2 * v * v - 1) / Math.SQRT2) * phi0(v) * phi0(u) / beta, 14);
+  });
+
+  it('give the same basis point by point and in blocks of many points (more than one block)', () => {
+    // The block recurrence must equal hermiteFunctions point by point (same arithmetic), across
+    // block boundaries; checked against a per-point evaluation of the written-out definition.
+    const n = 700;
+    const x = Float64Array.from({ length: n }, (_, i) => -1 + (2 * i) / n);
+    const y = Float64Array.from({ length: n }, (_, i) => 0.7 * Math.sin(i));
+    const p = Float64Array.of(0.1, -0.05, 0.3);
+    const order = 8;
+    const profile = shapelets(order);
+    const count = profile.basisCount;
+    const out = new Float64Array(count * n);
+    profile.writeBasis(p, 0, x, y, n, out, 0, n);
+    const hx = new Float64Array(order + 1), hy = new Float64Array(order + 1);
+    const orders = shapeletOrders(order);
+    let worst = 0;
+    for (let i = 0; i < n; i++) {
+      hermiteFunctions((x[i] - 0.1) / 0.3, order, hx);
+      hermiteFunctions((y[i] + 0.05) / 0.3, order, hy);
+      orders.forEach(([n1, n2], k) => { worst = Math.max(worst, Math.abs(out[k * n + i] - hx[n1] * hy[n2] / 0.3)); });
+    }
+    expect(worst).toBeLessThan(1e-15);
+  });
+
+  it('have a fast twin (table-driven exp) within 1e-10 of the reference, relative to the basis peak', () => {
+    // fastExp errs below 3.9e-11 relative (src/numeric/elementary/fastExp.ts); the recurrence
+    // carries that factor unchanged to every order.
+    const pair = shapeletsOfOrder(10);
+    const n = 300;
+    const x = Float64Array.from({ length: n }, (_, i) => -2 + (4 * i) / n);
+    const y = Float64Array.from({ length: n }, (_, i) => Math.cos(0.3 * i));
+    const p = Float64Array.of(0, 0, 0.5);
+    const a = new Float64Array(66 * n), b = new Float64Array(66 * n);
+    pair.reference.writeBasis(p, 0, x, y, n, a, 0, n);
+    pair.fast.writeBasis(p, 0, x, y, n, b, 0, n);
+    const peak = a.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
+    let worst = 0;
+    for (let k = 0; k < a.length; k++) worst = Math.max(worst, Math.abs(a[k] - b[k]));
+    expect(worst / peak).toBeLessThan(1e-10);
+    expect(worst).toBeGreaterThan(0);
+  });
+
+  it('average runs of positions exactly as writeBasis followed by in-order sums (the LightProfile contract)', () => {
+    const profile = shapelets(10);
+    const count = profile.basisCount;
+    const p = Float64Array.of(0.05, 0.02, 0.2);
+    for (const run of [1, 4, 16, 64, 1024]) {
+      const runs = 9;
+      const n = runs * run;
+      const x = Float64Array.from({ length: n }, (_, i) => 0.4 * Math.sin(0.37 * i));
+      const y = Float64Array.from({ length: n }, (_, i) => 0.3 * Math.cos(0.11 * i));
+      const all = new Float64Array(count * n);
+      profile.writeBasis(p, 0, x, y, n, all, 0, n);
+      const target = Int32Array.from({ length: runs }, (_, t) => (5 * t) % runs);
+      const means = new Float64Array(count * runs);
+      profile.writeRunMeans!(p, 0, x, y, runs, run, target, means, 0, runs);
+      for (let k = 0; k < count; k++) {
+        for (let t = 0; t < runs; t++) {
+          let sum = 0;
+          for (let i = t * run; i < (t + 1) * run; i++) sum += all[k * n + i];
+          expect(means[k * runs + target[t]]).toBe(sum * (1 / run));
+        }
+      }
+    }
   });
 });

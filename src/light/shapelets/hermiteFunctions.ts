@@ -4,6 +4,12 @@ const PI_TO_MINUS_QUARTER = Math.pow(Math.PI, -0.25);
 let raising = new Float64Array(0);
 let lowering = new Float64Array(0);
 
+/** The recurrence coefficients up to maxOrder (shared arrays, grown on demand). */
+export function hermiteRecurrence(maxOrder: number): { readonly raising: Float64Array; readonly lowering: Float64Array } {
+  ensureCoefficients(maxOrder);
+  return { raising, lowering };
+}
+
 function ensureCoefficients(maxOrder: number): void {
   if (raising.length >= maxOrder) return;
   const size = Math.max(maxOrder, 2 * raising.length, 32);

@@ -1,0 +1,97 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { parseConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
+import { readConfigFile } from '../config/readConfigFile.js';
+import { loadObservedData } from '../data/loadObservedData.js';
+import { INVERSION_STAGES } from '../inversion/sourceInversion.js';
+import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
+import { simulateToFolder } from '../simulate/simulateToFolder.js';
+import { benchOption } from './benchOptions.js';
+import { bestMillisecondsPerCall } from './forward.js';
+
+const configPath = fileURLToPath(new URL('../../configs/demo-pixelated.yaml', import.meta.url));
+
+interface EditableConfig {
+  source: { light: Record<string, unknown>[] };
+}
+
+/** The fitted source of each scenario, replacing the config's pixelated component. */
+const SCENARIOS: Readonly<Record<string, Record<string, unknown>>> = {
+  adaptive1000: {
+    kind: 'pixelated', mesh: { kind: 'adaptive', cells: 1000 }, regularisation: 'gradient',
+    log10RegularisationStrength: { value: -3, prior: { uniform: [-6, 2] } },
+  },
+  regular64: {
+    kind: 'pixelated', mesh: { kind: 'regular', cellsPerSide: 64 }, regularisation: 'gradient',
+    log10RegularisationStrength: { value: -3, prior: { uniform: [-6, 2] } },
+  },
+  shapelets10: {
+    kind: 'shapelets', order: 10,
+    centerXArcsec: { value: 0.17, prior: { uniform: [-0.4, 0.4] } },
+    centerYArcsec: { value: 0.11, prior: { uniform: [-0.4, 0.4] } },
+    scaleArcsec: { value: 0.1, prior: { logUniform: [0.03, 0.3] } },
+  },
+};
+
+function scenarioConfig(name: string): ArcsiftConfig {
+  const data = readConfigFile(configPath) as EditableConfig;
+  data.source.light = [...data.source.light.filter((c) => c.kind !== 'pixelated'), SCENARIOS[name]];
+  return parseConfig(data, configPath);
+}
+
+/**
+ * `npm run bench -- pixelSource [--only NAME]`: one thread, the whole likelihood of the smooth
+ * model at the config's values on the image of configs/demo-pixelated.yaml (100 x 100 pixels,
+ * annular mask, 21 x 21 PSF; a clumpy source simulated from its `simulateOnly` components, seed
+ * 1), fitted with an adaptive mesh of about 1,000 cells, a regular 64 x 64 grid, or shapelets of
+ * order 10. One JSON line per scenario: best wall-clock and CPU milliseconds per call (of 25
+ * repeats), the mean milliseconds of each inversion stage, the source cells, and ln L.
+ */
+export async function run(args: string[]): Promise<void> {
+  const only = benchOption(args, '--only');
+  const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-'));
+  try {
+    const truthConfig = parseConfig(readConfigFile(configPath), configPath);
+    simulateToFolder(truthConfig, folder, { seed: 1, noiseless: false });
+    for (const name of Object.keys(SCENARIOS).filter((n) => only === undefined || n === only)) {
+      const config = scenarioConfig(name);
+      const { observation } = config;
+      const data = loadObservedData({ folder }, { columns: observation.columns, rows: observation.rows, pixelScaleArcsec: observation.pixelScaleArcsec });
+      const likelihood = new PixelLikelihood(config, data, 0);
+      const model = likelihood.system.configuredValues();
+      const { ms, cpuMs, callsPerRepeat } = bestMillisecondsPerCall(() => likelihood.logLikelihood(model));
+      const inversion = likelihood.inversion;
+      let stages: Record<string, number> | undefined;
+      if (inversion !== undefined) {
+        const times = new Float64Array(INVERSION_STAGES.length);
+        inversion.stageMilliseconds = times;
+        const calls = 20;
+        const started = performance.now();
+        for (let k = 0; k < calls; k++) likelihood.logLikelihood(model);
+        const whole = (performance.now() - started) / calls;
+        inversion.stageMilliseconds = null;
+        stages = Object.fromEntries(INVERSION_STAGES.map((stage, k) => [stage, Number((times[k] / calls).toFixed(3))]));
+        const inside = Array.from(times).reduce((a, b) => a + b, 0) / calls;
+        stages.forwardAndLensLight = Number((whole - inside).toFixed(3));
+      }
+      console.log(JSON.stringify({
+        benchmark: 'pixelSource',
+        scenario: name,
+        msPerCall: Number(ms.toFixed(3)),
+        cpuMsPerCall: Number(cpuMs.toFixed(3)),
+        oneThread: true,
+        repeats: 25,
+        callsPerRepeat,
+        sourceCells: inversion?.sourceCellCount ?? null,
+        linearAmplitudes: likelihood.system.amplitudeCount + (inversion?.sourceCellCount ?? 0),
+        stagesMs: stages ?? null,
+        usedPixels: data.usedPixels.length,
+        lnL: Number(likelihood.logLikelihood(model).toFixed(4)),
+      }));
+    }
+  } finally {
+    rmSync(folder, { recursive: true, force: true });
+  }
+}

@@ -1,0 +1,135 @@
+import { InputError, expectedFound } from '../../errors.js';
+import type { LightProfile } from '../lightProfile.js';
+import { exactGaussianRow, hermiteOrders, HERMITE_BLOCK, scaledPositions, type GaussianRow } from './hermiteBlock.js';
+import { hermiteRecurrence } from './hermiteFunctions.js';
+
+/** The (n1, n2) orders of basis function k of `shapelets(maxOrder)`, in basis order. */
+export function shapeletOrders(maxOrder: number): Array<readonly [number, number]> {
+  const orders: Array<readonly [number, number]> = [];
+  for (let total = 0; total <= maxOrder; total++) {
+    for (let n1 = total; n1 >= 0; n1--) orders.push([n1, total - n1]);
+  }
+  return orders;
+}
+
+/**
+ * Cartesian shapelets (Refregier 2003, MNRAS 338, 35, eqs. 1-3):
+ * B_(n1,n2)(x, y; beta) = beta^-1 phi_n1(x / beta) phi_n2(y / beta), phi_k the Hermite functions,
+ * for all n1 + n2 <= maxOrder, ordered by n1 + n2 then by decreasing n1 (see shapeletOrders).
+ * The basis is orthonormal over the plane, so an amplitude is the flux-weighted overlap with the
+ * image. The axes are those of the sky (no rotation); `scaleArcsec` is beta. One pass over each
+ * block of points evaluates every order by recurrence (hermiteOrders), then each basis image is
+ * a product of two rows of that block. `gaussianRow` gives phi_0 with Math.exp for the reference;
+ * the fast twin passes one with a table-driven exp.
+ */
+export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaussianRow): LightProfile {
+  if (!Number.isInteger(maxOrder) || maxOrder < 0) {
+    throw new InputError(`shapelet maximum order: ${expectedFound('a whole number >= 0', maxOrder)}`);
+  }
+  const orders = shapeletOrders(maxOrder);
+  const basisCount = orders.length;
+  const firstOrders = Int32Array.from(orders, (order) => order[0]);
+  const secondOrders = Int32Array.from(orders, (order) => order[1]);
+  const orderCount = maxOrder + 1;
+  // Hermite functions of a block of points, order-major: alongX[k * HERMITE_BLOCK + i].
+  const alongX = new Float64Array(orderCount * HERMITE_BLOCK);
+  const alongY = new Float64Array(orderCount * HERMITE_BLOCK);
+  const u = new Float64Array(HERMITE_BLOCK);
+  const { raising, lowering } = hermiteRecurrence(maxOrder);
+  // basisOf[n1 * orderCount + n2]: the basis index of (n1, n2).
+  const basisOf = new Int32Array(orderCount * orderCount).fill(-1);
+  orders.forEach(([n1, n2], k) => { basisOf[n1 * orderCount + n2] = k; });
+  const hermite = (x: Float64Array, y: Float64Array, from: number, size: number, centerX: number, centerY: number, inverseScale: number): void => {
+    scaledPositions(x, from, size, centerX, inverseScale, u);
+    gaussianRow(u, size, alongX);
+    hermiteOrders(u, size, maxOrder, raising, lowering, alongX);
+    scaledPositions(y, from, size, centerY, inverseScale, u);
+    gaussianRow(u, size, alongY);
+    hermiteOrders(u, size, maxOrder, raising, lowering, alongY);
+  };
+  let runScratch = new Float64Array(0);
+  const profile: LightProfile = {
+    kind: 'shapelets',
+    parameterNames: ['centerXArcsec', 'centerYArcsec', 'scaleArcsec'],
+    basisCount,
+    writeBasis(p, offset, x, y, n, out, outOffset, stride) {
+      const inverseScale = 1 / p[offset + 2];
+      for (let from = 0; from < n; from += HERMITE_BLOCK) {
+        const size = Math.min(HERMITE_BLOCK, n - from);
+        hermite(x, y, from, size, p[offset], p[offset + 1], inverseScale);
+        for (let k = 0; k < basisCount; k++) {
+          writeProducts(alongX, firstOrders[k] * HERMITE_BLOCK, alongY, secondOrders[k] * HERMITE_BLOCK, inverseScale, size, out, outOffset + k * stride + from);
+        }
+      }
+    },
+    writeRunMeans(p, offset, x, y, runs, run, target, out, outOffset, stride) {
+      if (run > HERMITE_BLOCK) {
+        // Runs longer than a block: through writeBasis, one run at a time.
+        if (runScratch.length < basisCount * run) runScratch = new Float64Array(basisCount * run);
+        for (let t = 0; t < runs; t++) {
+          profile.writeBasis(p, offset, x.subarray(t * run), y.subarray(t * run), run, runScratch, 0, run);
+          for (let k = 0; k < basisCount; k++) {
+            let sum = 0;
+            for (let i = k * run; i < (k + 1) * run; i++) sum += runScratch[i];
+            out[outOffset + k * stride + target[t]] = sum * (1 / run);
+          }
+        }
+        return;
+      }
+      const inverseScale = 1 / p[offset + 2];
+      const inverseRun = 1 / run;
+      const perBlock = Math.floor(HERMITE_BLOCK / run);
+      for (let first = 0; first < runs; first += perBlock) {
+        const count = Math.min(perBlock, runs - first);
+        hermite(x, y, first * run, count * run, p[offset], p[offset + 1], inverseScale);
+        for (let t = 0; t < count; t++) {
+          const into = outOffset + target[first + t];
+          for (let n1 = 0; n1 <= maxOrder; n1++) {
+            runMeansAlongY(alongX, n1 * HERMITE_BLOCK + t * run, alongY, t * run, maxOrder - n1, basisOf, n1 * orderCount, inverseScale, inverseRun, run, out, into, stride);
+          }
+        }
+      }
+    },
+  };
+  return profile;
+}
+
+/**
+ * For one run and one n1, the means over the run of the bases (n1, n2), n2 = 0..lastN2: each the
+ * sum in order of scale * a[aAt + i] * b[bAt + n2 * HERMITE_BLOCK + i] (the products writeProducts
+ * stores), times inverseRun, into out[into + basis * stride]. Four n2 share each load of a.
+ */
+function runMeansAlongY(
+  a: Float64Array, aAt: number, b: Float64Array, bAt: number, lastN2: number, basisOf: Int32Array, basisRow: number,
+  scale: number, inverseRun: number, run: number, out: Float64Array, into: number, stride: number,
+): void {
+  let n2 = 0;
+  for (; n2 + 3 <= lastN2; n2 += 4) {
+    const b0 = bAt + n2 * HERMITE_BLOCK, b1 = b0 + HERMITE_BLOCK, b2 = b1 + HERMITE_BLOCK, b3 = b2 + HERMITE_BLOCK;
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+    for (let i = 0; i < run; i++) {
+      const v = scale * a[aAt + i];
+      s0 += v * b[b0 + i];
+      s1 += v * b[b1 + i];
+      s2 += v * b[b2 + i];
+      s3 += v * b[b3 + i];
+    }
+    out[into + basisOf[basisRow + n2] * stride] = s0 * inverseRun;
+    out[into + basisOf[basisRow + n2 + 1] * stride] = s1 * inverseRun;
+    out[into + basisOf[basisRow + n2 + 2] * stride] = s2 * inverseRun;
+    out[into + basisOf[basisRow + n2 + 3] * stride] = s3 * inverseRun;
+  }
+  for (; n2 <= lastN2; n2++) {
+    const b0 = bAt + n2 * HERMITE_BLOCK;
+    let sum = 0;
+    for (let i = 0; i < run; i++) sum += scale * a[aAt + i] * b[b0 + i];
+    out[into + basisOf[basisRow + n2] * stride] = sum * inverseRun;
+  }
+}
+
+/** out[at + i] = scale * a[aAt + i] * b[bAt + i] for i < size: one basis image over a block. */
+function writeProducts(
+  a: Float64Array, aAt: number, b: Float64Array, bAt: number, scale: number, size: number, out: Float64Array, at: number,
+): void {
+  for (let i = 0; i < size; i++) out[at + i] = scale * a[aAt + i] * b[bAt + i];
+}
