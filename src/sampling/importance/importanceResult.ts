@@ -1,6 +1,5 @@
 import { importanceEstimate, type ImportanceEstimate } from './importanceEstimate.js';
-import type { ImportanceStageSummary, ImportanceState } from './importanceState.js';
-import { stageLnWeights } from './runImportance.js';
+import { stageLnWeights, type ImportanceStageSummary, type ImportanceState } from './importanceState.js';
 import { recordStudentMixture, type StudentMixtureRecord } from './studentMixture.js';
 
 /** z-score beyond which two estimates of one ln Z are said to disagree. */

@@ -93,6 +93,13 @@ export function clearStageDraws(state: ImportanceState): void {
   state.drawn = 0;
 }
 
+/** ln w = ln L - ln q of the stage's draws inside the cube, then -Infinity for the draws outside it. */
+export function stageLnWeights(state: ImportanceState): Float64Array {
+  const lnW = new Float64Array(state.drawn).fill(-Infinity);
+  for (let n = 0; n < state.lnL.count; n++) lnW[n] = state.lnL.get(n) - state.lnQ.get(n);
+  return lnW;
+}
+
 /** Plain-JSON form of an ImportanceState (inside a nested-sampling checkpoint). */
 export interface ImportanceStateRecord {
   readonly dim: number;

@@ -2,7 +2,7 @@ import { derivedSeed } from '../../numeric/random/derivedSeed.js';
 import type { BatchEvaluator } from '../nested/batchEvaluator.js';
 import { importanceEstimate } from './importanceEstimate.js';
 import type { ImportanceSettings } from './importanceSettings.js';
-import { clearStageDraws, newImportanceState, type ImportanceState } from './importanceState.js';
+import { clearStageDraws, newImportanceState, stageLnWeights, type ImportanceState } from './importanceState.js';
 import { learnProposal, type ProposalShape } from './learnProposal.js';
 import { fromFrame, periodicSeams, toFrame } from './periodicSeams.js';
 import { drawFromStudentMixture, StudentMixtureDensity } from './studentMixture.js';
@@ -149,13 +149,6 @@ function pooledLnWeights(state: ImportanceState): Float64Array {
     for (let s = 0; s < densities.length; s++) terms[s] = lnShare[s] + densities[s].lnDensity(rows, n * state.dim);
     lnW[n] = state.poolLnL.get(n) - logSumExp(terms);
   }
-  return lnW;
-}
-
-/** ln w = ln L - ln q of the stage's draws inside the cube, then -Infinity for the draws outside it. */
-export function stageLnWeights(state: ImportanceState): Float64Array {
-  const lnW = new Float64Array(state.drawn).fill(-Infinity);
-  for (let n = 0; n < state.lnL.count; n++) lnW[n] = state.lnL.get(n) - state.lnQ.get(n);
   return lnW;
 }
 
