@@ -17,6 +17,8 @@ export { defaultImportanceSettings } from '../importance/importanceSettings.js';
 export type { ImportanceResult } from '../importance/importanceResult.js';
 
 export { insertionRankTest, insertionRankThreshold } from './insertionRank.js';
+export { mergeEvidenceRuns } from './mergeEvidenceRuns.js';
+export type { MergedEvidence } from './mergeEvidenceRuns.js';
 export type { InsertionRankCheck } from './insertionRank.js';
 export { simulatedLnZSpread } from './evidenceError.js';
 export type { ShrinkageRecord } from './evidenceError.js';
