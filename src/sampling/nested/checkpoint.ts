@@ -47,6 +47,7 @@ export function readCheckpoint(path: string, expected: NestedSettings): NestedSt
   // Settings added since version 1 was first written, at the values that reproduce older runs.
   if (found.slicePointsPerChain === undefined) found.slicePointsPerChain = 1;
   if (found.evidence === undefined) found.evidence = 'nested';
+  if (found.sliceClusters === undefined) found.sliceClusters = false;
   if (found.importance === undefined) found.importance = null;
   for (const [key, value] of Object.entries(expected)) {
     if (JSON.stringify(found[key]) !== JSON.stringify(value)) {

@@ -89,7 +89,10 @@ export function chooseChainStarts(
 export function rebuildClusters(state: NestedState, iterations: number): void {
   const { dim } = state.settings;
   const survivors = survivorRows(state);
-  const clusters = bisectingClusters(survivors.rows, survivors.count, dim, minimumSliceClusterSize);
+  const clustered = state.settings.sliceClusters;
+  const clusters = clustered
+    ? bisectingClusters(survivors.rows, survivors.count, dim, minimumSliceClusterSize)
+    : { labels: new Int32Array(survivors.count), count: 1 };
   state.clusterLnX = inheritedVolumes(state.clusterLnX, state.liveCluster, survivors.slots, clusters.labels, clusters.count);
   state.liveCluster.fill(-1);
   for (let n = 0; n < survivors.count; n++) state.liveCluster[survivors.slots[n]] = clusters.labels[n];
@@ -102,7 +105,7 @@ export function rebuildClusters(state: NestedState, iterations: number): void {
     for (let n = 0; n < survivors.count; n++) {
       if (clusters.labels[n] === c) rows.set(survivors.rows.subarray(n * dim, n * dim + dim), dim * m++);
     }
-    whitenings.push(liveCovarianceFactor(rows, count, dim));
+    whitenings.push(liveCovarianceFactor(rows, count, dim, clustered));
   }
   state.whitenings = whitenings;
   state.whiteningBuiltAt = iterations;
@@ -131,11 +134,14 @@ function inheritedVolumes(
   });
 }
 
-/** Lower Cholesky factor of the covariance of `count` rows (ridge-loaded if singular; see rebuildClusters). */
-function liveCovarianceFactor(rows: Float64Array, count: number, dim: number): Float64Array {
+/**
+ * Lower Cholesky factor of the covariance of `count` rows (ridge-loaded if singular; see
+ * rebuildClusters); `shrinkSmall` false keeps the sample covariance always, as before clusters.
+ */
+function liveCovarianceFactor(rows: Float64Array, count: number, dim: number, shrinkSmall: boolean): Float64Array {
   const mean = new Float64Array(dim);
   for (let n = 0; n < count; n++) for (let i = 0; i < dim; i++) mean[i] += rows[n * dim + i] / count;
-  if (count < 2 * (dim + 1)) {
+  if (shrinkSmall && count < 2 * (dim + 1)) {
     const shrunk = shrunkCovariance(rows, new Float64Array(count).fill(1), count, dim, mean, count);
     choleskyWithRidge(shrunk, dim, new Float64Array(dim * dim));
     return shrunk;

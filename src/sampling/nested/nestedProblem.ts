@@ -95,9 +95,11 @@ export interface NestedOptions {
    * slice sampling: `steps` slice moves per new point, default 5 * dim; `pointsPerChain` points
    * each chain evaluates per likelihood call (speculative stepping out and shrinkage, exact for
    * any value), default 1. Like replacementsPerStep it is part of the random sequence: set it
-   * to a fixed number, never to the thread count.
+   * to a fixed number, never to the thread count. `clusters`: chains move within clusters of the
+   * live points, each with its own volume and whitening (liveClusters.ts); default on with
+   * evidence 'importance', off with 'nested' (off, a run is bit for bit as before clusters).
    */
-  readonly slice?: { readonly steps?: number; readonly pointsPerChain?: number };
+  readonly slice?: { readonly steps?: number; readonly pointsPerChain?: number; readonly clusters?: boolean };
   /** how ln Z is estimated; default runDefaults.nested.evidence. */
   readonly evidence?: EvidenceMethod;
   /** settings of the importance-sampling stage (evidence 'importance'); defaults in importanceSettings.ts. */

@@ -78,6 +78,7 @@ export function resolveNestedSettings(problem: NestedProblem, options: NestedOpt
     boundUpdateInterval: Math.max(1, Math.round(livePoints / 10)),
     sliceSteps,
     slicePointsPerChain,
+    sliceClusters: options.slice?.clusters ?? evidence === 'importance',
     sliceWidthScale: Math.sqrt(dim + 2),
     periodic,
     boundVolumeFactorForTesting,

@@ -21,6 +21,8 @@ export interface NestedSettings {
   readonly sliceSteps: number;
   /** points each slice chain puts into one likelihood call (see SliceSettings.pointsPerChain). */
   readonly slicePointsPerChain: number;
+  /** slice chains move within clusters of the live points (see NestedOptions.slice). */
+  readonly sliceClusters: boolean;
   readonly sliceWidthScale: number;
   readonly periodic: readonly boolean[];
   readonly boundVolumeFactorForTesting: number;
