@@ -7,7 +7,7 @@
 // The 20-d Gaussian shells and the 10-d twisted Gaussian against their exact values; the demo's
 // perturbed model against the reference run in src/bench/fixtures/demoPerturbedReference.json
 // (its settings and the command that made it are in the file).
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { loadObservedData } from '../data/loadObservedData.js';
@@ -158,7 +158,10 @@ async function demo(repeats: number, threads: number, makeReference: boolean): P
       console.error(JSON.stringify({ scenario: 'demoPerturbed', seed, ...runs[runs.length - 1] }));
     }
     // Read after the runs, so that they can start while the reference is still being made.
-    const reference = JSON.parse(readFileSync(referencePath, 'utf8')) as { lnZ: number; lnZError: number; settings: EvidenceSettings };
+    // Without the reference file (not yet made: `--make-reference`) the comparisons are null.
+    const reference = existsSync(referencePath)
+      ? JSON.parse(readFileSync(referencePath, 'utf8')) as { lnZ: number; lnZError: number; settings: EvidenceSettings }
+      : { lnZ: Number.NaN, lnZError: Number.NaN };
     report('demoPerturbed', demoEvidenceSettings, runs, reference.lnZ, reference.lnZError);
   } finally {
     rmSync(folder, { recursive: true, force: true });
