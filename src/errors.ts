@@ -55,3 +55,24 @@ export function describeValue(value: unknown): string {
   if (Array.isArray(value)) return `a list of ${value.length}`;
   return 'a mapping';
 }
+
+/**
+ * A run stopped on request (SIGTERM or SIGINT) after writing its last checkpoints: not a fault.
+ * The CLI says how to resume and exits with status 4.
+ */
+export class RunInterrupted extends Error {
+  readonly checkpoints: readonly string[];
+
+  constructor(checkpoints: readonly string[]) {
+    super(`stopped on request; checkpoints: ${checkpoints.length === 0 ? 'none' : checkpoints.join(', ')}`);
+    this.name = 'RunInterrupted';
+    this.checkpoints = checkpoints;
+  }
+}
+
+/**
+ * arcsift's exit statuses: 0 a finished run; 1 an internal fault; 2 a user mistake (nothing was
+ * run, or nothing half-written is left); 3 a run a limit cut short (its summary says
+ * finished: false); 4 a run stopped by SIGTERM or SIGINT after writing its last checkpoint.
+ */
+export const EXIT_STATUS = Object.freeze({ finished: 0, internalFault: 1, userMistake: 2, unfinished: 3, interrupted: 4 });

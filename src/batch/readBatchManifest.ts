@@ -11,7 +11,7 @@ export const MANIFEST_COLUMNS = ['id', 'job', 'config', 'data', 'image', 'noise'
 type Column = (typeof MANIFEST_COLUMNS)[number];
 
 /** Options the batch sets itself for every row; a row may not give them. */
-export const BATCH_OWNED_OPTIONS = ['--out', '--resume', '--quiet', '--threads', '--report', '--no-report', '--config', '--data', '--image', '--noise', '--psf', '--mask', '--flags', '--seed', '--help'];
+export const BATCH_OWNED_OPTIONS = ['--out', '--resume', '--take-over-lock', '--quiet', '--threads', '--report', '--no-report', '--config', '--data', '--image', '--noise', '--psf', '--mask', '--flags', '--seed', '--help'];
 
 /** A row as written: text or numbers by column, and where it was written. */
 interface RawRow {

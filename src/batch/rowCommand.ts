@@ -6,7 +6,9 @@ import type { BatchRow } from './batchRow.js';
 /**
  * The arguments of `arcsift` that run one row: the job's command on the row's config and data,
  * out to the row's folder, resuming from any checkpoints there (a fresh run when there are
- * none), quiet, on `threads` threads, then the batch's run options and the row's own.
+ * none), quiet, on `threads` threads, then the batch's run options and the row's own. The
+ * runner holds the row's lock, so a run lock left in the row folder is a dead attempt's, also
+ * when it was another node's: --take-over-lock lets the command take it.
  */
 export function rowCommand(out: string, plan: BatchPlan, row: BatchRow, threads: number): string[] {
   const job = batchJobs[row.job];
@@ -18,7 +20,7 @@ export function rowCommand(out: string, plan: BatchPlan, row: BatchRow, threads:
   }
   return [
     job.command, '--config', row.config, ...data, ...job.arguments(row),
-    '--out', batchLayout.rowFolder(out, row.id), '--resume', '--quiet', '--threads', String(threads),
+    '--out', batchLayout.rowFolder(out, row.id), '--resume', '--take-over-lock', '--quiet', '--threads', String(threads),
     ...(plan.reports ? [] : ['--no-report']),
     ...(row.seed === undefined ? [] : ['--seed', String(row.seed)]),
     ...plan.runOptions, ...row.options,

@@ -16,7 +16,7 @@ export interface RowAttempt {
   readonly resumed: boolean;
   exitCode: number | null;
   signal: string | null;
-  /** The command's error message (its last `arcsift:` line), for a failure. */
+  /** The command's error message (its last `arcsift:` line) for a failure; a note for a row finished but cut short. */
   message: string | null;
   /** Wall-clock seconds of the attempt, updated at every heartbeat. */
   seconds: number;

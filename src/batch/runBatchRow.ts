@@ -2,6 +2,7 @@ import { spawn } from 'node:child_process';
 import { appendFileSync, closeSync, existsSync, mkdirSync, openSync } from 'node:fs';
 import { hostname } from 'node:os';
 import { dirname, join } from 'node:path';
+import { EXIT_STATUS } from '../errors.js';
 import { batchJobs } from './batchJobs.js';
 import { batchLayout } from './batchLayout.js';
 import { readJobResult } from './batchStatus.js';
@@ -106,10 +107,14 @@ function attemptRow(settings: RowRunSettings, row: BatchRow, touchLock: () => vo
       attempt.endedAt = new Date().toISOString();
       attempt.exitCode = code;
       attempt.signal = signal;
-      if (stopping) {
+      // A signal the command received itself (the scheduler's SIGTERM reaches the whole job) ends
+      // it with a last checkpoint and status 4: an interruption, resumed on the next turn. A run a
+      // limit of the row's options cut short (status 3) wrote its summary: the row is done.
+      if (stopping || code === EXIT_STATUS.interrupted) {
         attempt.outcome = 'interrupted';
-      } else if (code === 0 && rowFinished(out, row)) {
+      } else if ((code === EXIT_STATUS.finished || code === EXIT_STATUS.unfinished) && rowFinished(out, row)) {
         attempt.outcome = 'finished';
+        if (code === EXIT_STATUS.unfinished) attempt.message = 'cut short by a limit of its options: its summary says finished: false';
         attempt.result = readJobResult(join(batchLayout.rowFolder(out, row.id), batchJobs[row.job].summaryFile), row.job).result;
       } else {
         attempt.outcome = 'failed';

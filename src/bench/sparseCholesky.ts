@@ -2,10 +2,15 @@ import { createRequire } from 'node:module';
 import type randuType from '@stdlib/random/base/randu';
 import { EnvelopeCholesky } from '../numeric/sparse/envelopeCholesky.js';
 import { envelopeInverseDiagonal } from '../numeric/sparse/envelopeInverseDiagonal.js';
+import { MultifrontalCholesky } from '../numeric/sparse/multifrontalCholesky.js';
+import { NestedDissection } from '../numeric/sparse/nestedDissection.js';
 import { ReverseCuthillMcKee } from '../numeric/sparse/reverseCuthillMcKee.js';
+import { SupernodeChain } from '../numeric/sparse/supernodeChain.js';
+import type { SupernodeTree } from '../numeric/sparse/supernodeTree.js';
 import { SymmetricSparseAccumulator } from '../numeric/sparse/symmetricSparseAccumulator.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
-import { wholeNumberOption } from './benchOptions.js';
+import { benchOption, wholeNumberOption } from './benchOptions.js';
+import { discNormalMatrix, type DiscNormalMatrix } from './discNormalMatrix.js';
 import { bestMillisecondsPerCall } from './forward.js';
 
 // @stdlib packages are CommonJS folders without an exports map: Node's ESM loader needs require.
@@ -122,18 +127,31 @@ function rounded(ms: number): number {
 }
 
 /**
- * `npm run bench -- sparseCholesky [--repeats N]`: milliseconds (best of N, default 10, runs of
- * ~60 ms, one thread) of each step of the sparse kernel on regularised-source systems, one JSON
- * line per scenario: accumulate (reset, adds, compress), order (reverse Cuthill-McKee, extras
- * last), analyse, factor, solve, their sum without accumulate, order + analyse + factor of H
- * alone (ln det H), the envelope size, and one inverse diagonal (the report's). Regular grids
- * also give the envelope and factor time of the natural ordering (grid rows, extras last).
+ * `npm run bench -- sparseCholesky [--repeats N] [--only TEXT]`: milliseconds (best of N,
+ * default 10, runs of ~60 ms, one thread) of each step of the sparse kernel, one JSON line per
+ * scenario (those whose name holds TEXT with --only).
+ *
+ * On regularised-source systems: accumulate (reset, adds, compress), order (reverse
+ * Cuthill-McKee, extras last), analyse, factor, solve, their sum without accumulate, order +
+ * analyse + factor of H alone (ln det H), the envelope size, and one inverse diagonal (the
+ * report's). Regular grids also give the envelope and factor time of the natural ordering
+ * (grid rows, extras last).
+ *
+ * On discs (discNormalMatrix: the PSF's wide coupling, ~190 neighbours for 930 cells as an
+ * adaptive mesh, ~540 for 4100 as a regular 64 x 64 grid, one dense row): the envelope
+ * Cholesky in reverse Cuthill-McKee order against the multifrontal Cholesky over nested
+ * dissection and over a chain of blocks in the same reverse Cuthill-McKee order (compareOnDisc).
  */
 export async function run(args: string[]): Promise<void> {
   const repeats = wholeNumberOption(args, '--repeats', 10);
+  const only = benchOption(args, '--only') ?? '';
   const uniform = randu.factory({ name: 'mt19937', seed: 1 });
-  const systems = [gridSystem(32, 5, uniform), scatteredSystem(1000, 5, uniform), gridSystem(64, 5, uniform)];
+  const systems = [gridSystem(32, 5, uniform), scatteredSystem(1000, 5, uniform), gridSystem(64, 5, uniform)].filter((s) => s.name.includes(only));
   const time = (f: () => void): number => bestMillisecondsPerCall(f, repeats).ms;
+  for (const [cells, neighbours] of [[930, 190], [4100, 540]]) {
+    const name = `disc ${cells} cells, ~${neighbours} neighbours + 1 dense`;
+    if (name.includes(only)) compareOnDisc(name, discNormalMatrix(cells, neighbours, 1, uniform), repeats);
+  }
   for (const system of systems) {
     const n = system.cells + system.extras;
     const accumulator = new SymmetricSparseAccumulator();
@@ -186,4 +204,74 @@ export async function run(args: string[]): Promise<void> {
       repeats,
     }));
   }
+}
+
+/** Times of one sparse Cholesky on a disc scenario (CPU milliseconds, best of the repeats). */
+interface MethodTimes {
+  orderMs: number;
+  analyseMs: number;
+  factorMs: number;
+  solveMs: number;
+  factorEntries: number;
+  megaflops: number;
+  gigaflopsPerSecond: number;
+}
+
+/**
+ * One JSON line: the envelope Cholesky (reverse Cuthill-McKee), the multifrontal Cholesky over
+ * nested dissection (coordinates of the cells, dense rows in the root) and over a chain of blocks
+ * (reverse Cuthill-McKee), each with ordering, analysis, factor and solve times, the entries of L
+ * and the operations of a factor (sum over columns of L of their entries squared).
+ */
+function compareOnDisc(name: string, disc: DiscNormalMatrix, repeats: number): void {
+  const { matrix, cells } = disc;
+  const n = matrix.size;
+  const dense = Array.from({ length: n - cells }, (_, t) => cells + t);
+  const cpu = (f: () => void): number => bestMillisecondsPerCall(f, repeats).cpuMs;
+  const b = Float64Array.from({ length: n }, (_, i) => Math.sin(i));
+  const x = new Float64Array(n);
+  const order = new Int32Array(n);
+  const rcm = new ReverseCuthillMcKee();
+  const envelope = new EnvelopeCholesky();
+  const envelopeOrderMs = cpu(() => rcm.order(matrix, order, dense));
+  const envelopeAnalyseMs = cpu(() => envelope.analyse(matrix, order));
+  const envelopeTimes = methodTimes(envelopeOrderMs, envelopeAnalyseMs, cpu(() => envelope.factor(matrix)), cpu(() => envelope.solve(b, x)), envelope.envelopeSize, envelope.flops);
+  const dissection = new NestedDissection();
+  let tree: SupernodeTree = dissection.order(matrix, { x: disc.x, y: disc.y, count: cells }, dense, order);
+  const dissectionOrderMs = cpu(() => (tree = dissection.order(matrix, { x: disc.x, y: disc.y, count: cells }, dense, order)));
+  const multifrontal = multifrontalTimes(matrix, order, tree, dissectionOrderMs, cpu, b, x);
+  const chainOrder = rcm.order(matrix, new Int32Array(n), dense);
+  const chain = multifrontalTimes(matrix, chainOrder, new SupernodeChain().build(n), envelopeOrderMs, cpu, b, x);
+  console.log(JSON.stringify({
+    benchmark: 'sparseCholesky',
+    scenario: name,
+    size: n,
+    storedLowerPerRow: rounded(matrix.rowStart[n] / n),
+    envelope: envelopeTimes,
+    nestedDissection: multifrontal,
+    chain,
+    factorSpeedUp: rounded(envelopeTimes.factorMs / Math.min(multifrontal.factorMs, chain.factorMs)),
+    repeats,
+  }));
+}
+
+function multifrontalTimes(
+  matrix: SymmetricCsr, order: Int32Array, tree: SupernodeTree, orderMs: number, cpu: (f: () => void) => number, b: Float64Array, x: Float64Array,
+): MethodTimes {
+  const cholesky = new MultifrontalCholesky();
+  const analyseMs = cpu(() => cholesky.analyse(matrix, order, tree));
+  const factorMs = cpu(() => cholesky.factor(matrix));
+  return methodTimes(orderMs, analyseMs, factorMs, cpu(() => cholesky.solve(b, x)), cholesky.factorEntries, cholesky.flops);
+}
+
+function methodTimes(orderMs: number, analyseMs: number, factorMs: number, solveMs: number, factorEntries: number, flops: number): MethodTimes {
+  return {
+    orderMs: rounded(orderMs),
+    analyseMs: rounded(analyseMs),
+    factorMs: rounded(factorMs),
+    solveMs: rounded(solveMs),
+    factorEntries,
+    megaflops: rounded(flops / 1e6),
+    gigaflopsPerSecond: rounded(flops / factorMs / 1e6),
+  };
 }

@@ -101,7 +101,8 @@ export function simulateCalibrationDraws(config: ArcsiftConfig, record: Calibrat
     const folder = drawDataFolder(out, draw.id);
     if (existsSync(join(folder, 'truth.json'))) continue;
     const scenario = configWithValues(config, new Map(Object.entries(draw.truth)), draw.withPerturber ? config.perturbers.length : 0);
-    simulateToFolder(scenario, folder, { seed: draw.noiseSeed, noiseless: false });
+    // No truth.json: a simulation cut short (or none); its partial files are replaced.
+    simulateToFolder(scenario, folder, { seed: draw.noiseSeed, noiseless: false, overwrite: true });
     made++;
   }
   return made;

@@ -12,7 +12,9 @@ import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import { packageVersion } from '../io/packageVersion.js';
-import { readWeightedSamples } from '../records/readWeightedSamples.js';
+import { configuredCosmology } from '../cosmology/configuredCosmology.js';
+import { readWeightedPosterior } from '../records/readWeightedPosterior.js';
+import { POSTERIOR_TABLES } from '../records/posteriorTables.js';
 import type { CalibrationDraw, CalibrationDrawsRecord } from './calibrationDraws.js';
 import { detectionRates, type DrawDetection } from './detectionRates.js';
 import { coverageCurve, intervalCoverage } from './intervalCoverage.js';
@@ -82,7 +84,7 @@ export function calibrationStatistics(draws: readonly DrawPosterior[], rankDraws
 }
 
 function modelPosterior(samplesFile: string, record: ModelRecord): Pick<DrawPosterior, 'posterior' | 'intervals' | 'stopReason'> {
-  const table = readWeightedSamples(samplesFile);
+  const table = readWeightedPosterior(samplesFile);
   const posterior: WeightedPosterior = {
     names: table.names, dim: table.names.length, count: table.lnWeight.length, points: table.points, weights: weightsFromLogWeights(table.lnWeight),
   };
@@ -95,9 +97,9 @@ export function readDrawPosterior(rowFolder: string, draw: CalibrationDraw): Dra
   const summary = JSON.parse(readFileSync(join(rowFolder, 'summary.json'), 'utf8')) as ComparisonSummary | NestedFitSummary;
   if (summary.kind === 'comparison') {
     const model = draw.withPerturber ? 'perturbed' : 'smooth';
-    return { draw, ...modelPosterior(join(rowFolder, model, 'samples.csv'), summary.models[model]), lnBayesFactor: summary.bayesFactor.lnBayesFactor };
+    return { draw, ...modelPosterior(join(rowFolder, model, `${POSTERIOR_TABLES.weighted}.csv`), summary.models[model]), lnBayesFactor: summary.bayesFactor.lnBayesFactor };
   }
-  return { draw, ...modelPosterior(join(rowFolder, 'samples.csv'), summary.model), lnBayesFactor: null };
+  return { draw, ...modelPosterior(join(rowFolder, `${POSTERIOR_TABLES.weighted}.csv`), summary.model), lnBayesFactor: null };
 }
 
 /** What the calibration takes as given, stated in calibration.json and the report. */
@@ -157,6 +159,7 @@ export function collectCalibration(settings: CollectSettings): CalibrationSummar
     title: config.title,
     job: settings.job,
     seed: record.seed,
+    cosmology: configuredCosmology(config).record,
     runOptions: settings.runOptions,
     rankDraws: settings.rankDraws,
     draws: {

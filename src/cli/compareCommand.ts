@@ -1,15 +1,15 @@
 import type { CommandModule } from 'yargs';
 import { writeReport } from '../report/index.js';
 import { basename, extname, join } from 'node:path';
-import { loadConfig } from '../config/arcsiftConfig.js';
+import { loadConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison, formatCountComparison } from './formatComparison.js';
 import { comparisonSideBySide } from '../inference/compareModels.js';
 import { comparePerturberCounts } from '../inference/comparePerturberCounts.js';
 import { runDefaults } from '../settings/runDefaults.js';
-import { checkOutputFolder } from '../inference/checkOutputFolder.js';
+import { reportUnfinished } from './reportUnfinished.js';
 
 interface CompareArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -33,33 +33,41 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
     const config = loadConfig(args.config);
     const out = args.out ?? join('chains', `${basename(args.config, extname(args.config))}-compare`);
     const perturberCount = wholeNumberOption('perturbers', args.perturbers, 1);
-    if (args['max-perturbers'] !== undefined) {
-      const maxCount = wholeNumberOption('max-perturbers', args['max-perturbers'], 1);
-      const folders = Array.from({ length: maxCount + 1 }, (_, k) => `perturbers-${k}`);
-      checkOutputFolder(out, args.resume, folders);
-      const data = loadDataOf(args, config);
-      const run = evidenceSettingsOf(args, 'model');
-      const summary = await comparePerturberCounts(config, data, maxCount, out, run.settings, (k) => {
-        run.finish();
-        if (!args.quiet) process.stderr.write(`model with ${k} perturber(s)\n`);
-      });
-      run.finish();
-      process.stdout.write(`${formatCountComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and perturbers-0 ... perturbers-${maxCount} under ${out}\n`);
-      return;
-    }
-    checkOutputFolder(out, args.resume, ['smooth', 'perturbed']);
-    const data = loadDataOf(args, config);
-    const plain = { plainLines: comparisonSideBySide({ smooth: evidenceSettingsOf(args, 'smooth').settings, perturbed: evidenceSettingsOf(args, 'perturbed').settings }) };
-    const smooth = evidenceSettingsOf(args, 'smooth', plain);
-    const perturbed = evidenceSettingsOf(args, 'perturbed', plain);
-    const { summary } = await runComparisonToFolder(config, data, out, {
-      smooth: smooth.settings,
-      perturbed: perturbed.settings,
-      perturberCount,
-      onModelStart: (label) => { if (label === 'perturbed') smooth.finish(); },
-    });
-    perturbed.finish();
-    process.stdout.write(`${formatComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
-    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+    const maxCount = args['max-perturbers'] === undefined ? undefined : wholeNumberOption('max-perturbers', args['max-perturbers'], 1);
+    const folders = maxCount === undefined ? ['smooth', 'perturbed'] : Array.from({ length: maxCount + 1 }, (_, k) => `perturbers-${k}`);
+    await inOutputFolder(out, args, folders, undefined, () => (maxCount === undefined
+      ? compareIntoFolder(args, config, perturberCount, out)
+      : compareCountsIntoFolder(args, config, maxCount, out)));
   },
 };
+
+/** Smooth against perturbed, into a folder the command holds. */
+async function compareIntoFolder(args: CompareArguments, config: ArcsiftConfig, perturberCount: number, out: string): Promise<void> {
+  const data = loadDataOf(args, config);
+  const plain = { plainLines: comparisonSideBySide({ smooth: evidenceSettingsOf(args, 'smooth').settings, perturbed: evidenceSettingsOf(args, 'perturbed').settings }) };
+  const smooth = evidenceSettingsOf(args, 'smooth', plain);
+  const perturbed = evidenceSettingsOf(args, 'perturbed', plain);
+  const { summary } = await runComparisonToFolder(config, data, out, {
+    smooth: smooth.settings,
+    perturbed: perturbed.settings,
+    perturberCount,
+    onModelStart: (label) => { if (label === 'perturbed') smooth.finish(); },
+  });
+  perturbed.finish();
+  process.stdout.write(`${formatComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
+  if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+  reportUnfinished(summary, join(out, 'summary.json'));
+}
+
+/** 0, 1, ..., maxCount perturbers by evidence, into a folder the command holds. */
+async function compareCountsIntoFolder(args: CompareArguments, config: ArcsiftConfig, maxCount: number, out: string): Promise<void> {
+  const data = loadDataOf(args, config);
+  const run = evidenceSettingsOf(args, 'model');
+  const summary = await comparePerturberCounts(config, data, maxCount, out, run.settings, (k) => {
+    run.finish();
+    if (!args.quiet) process.stderr.write(`model with ${k} perturber(s)\n`);
+  });
+  run.finish();
+  process.stdout.write(`${formatCountComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and perturbers-0 ... perturbers-${maxCount} under ${out}\n`);
+  reportUnfinished(summary, join(out, 'summary.json'));
+}

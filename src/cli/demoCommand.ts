@@ -5,8 +5,10 @@ import { comparisonSideBySide } from '../inference/compareModels.js';
 import { demoConfigPath, runDemo } from '../inference/runDemo.js';
 import type { TruthPlacement } from '../inference/truthComparison.js';
 import { runDefaults } from '../settings/runDefaults.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison } from './formatComparison.js';
+import { reportUnfinished } from './reportUnfinished.js';
+import { join } from 'node:path';
 
 interface DemoArguments extends SamplerArguments {
   config?: string;
@@ -42,28 +44,35 @@ export const demoCommand: CommandModule<object, DemoArguments> = {
     .option('fresh', { type: 'boolean', default: true, describe: 'remove an earlier demo run in --out first (--no-fresh with --resume continues one)' }),
   { livePoints: runDefaults.demo.livePoints, sliceStepsPerParameter: runDefaults.demo.sliceStepsPerParameter }),
   handler: async (args) => {
-    const started = performance.now();
-    const configPath = args.config ?? demoConfigPath;
-    const plain = { plainLines: comparisonSideBySide({ smooth: evidenceSettingsOf(args, 'smooth').settings, perturbed: evidenceSettingsOf(args, 'perturbed').settings }) };
-    const smooth = evidenceSettingsOf(args, '   smooth', plain);
-    const perturbed = evidenceSettingsOf(args, '   perturbed', plain);
-    process.stdout.write(`arcsift demo: ${loadConfig(configPath).title}\n1. simulating the scenario of ${configPath}\n`);
-    const outcome = await runDemo({
-      configPath, out: args.out, noiseSeed: args['noise-seed'], fresh: args.fresh,
-      smooth: smooth.settings, perturbed: perturbed.settings,
-      onStage: (stage) => {
-        if (stage === 'simulated') {
-          process.stdout.write(`   wrote ${args.out}/data/image.fits, noise.fits, psf.fits, mask.fits, truth.json\n`);
-          process.stdout.write(`2. nested sampling of the smooth and the perturbed model (${smooth.settings.livePoints} live points, ${smooth.settings.threads} threads${plain.plainLines ? ', the two models side by side' : ''})\n`);
-        }
-        if (stage === 'perturbed') smooth.finish();
-      },
-    });
-    perturbed.finish();
-    const { comparison, summary } = outcome;
-    process.stdout.write(`\n${formatComparison(summary)}\n\n`);
-    process.stdout.write(`${formatTruthTable(outcome.truth, comparison.perturberFavoured, comparison.lnBayesFactor, comparison.lnBayesFactorError)}\n`);
-    if (args.report) process.stdout.write(`\nreport (open it in a browser): ${writeReport(outcome.compareFolder)}\n`);
-    process.stdout.write(`\ndemo finished in ${((performance.now() - started) / 1000).toFixed(0)} s; results in ${outcome.compareFolder}\n`);
+    // The demo's folder is locked whole; runDemo checks its compare/ folder (fresh, resumed).
+    await inOutputFolder(args.out, args, [], undefined, () => demoIntoFolder(args));
   },
 };
+
+/** The demo itself, into a folder the command holds. */
+async function demoIntoFolder(args: DemoArguments): Promise<void> {
+  const started = performance.now();
+  const configPath = args.config ?? demoConfigPath;
+  const plain = { plainLines: comparisonSideBySide({ smooth: evidenceSettingsOf(args, 'smooth').settings, perturbed: evidenceSettingsOf(args, 'perturbed').settings }) };
+  const smooth = evidenceSettingsOf(args, '   smooth', plain);
+  const perturbed = evidenceSettingsOf(args, '   perturbed', plain);
+  process.stdout.write(`arcsift demo: ${loadConfig(configPath).title}\n1. simulating the scenario of ${configPath}\n`);
+  const outcome = await runDemo({
+    configPath, out: args.out, noiseSeed: args['noise-seed'], fresh: args.fresh,
+    smooth: smooth.settings, perturbed: perturbed.settings,
+    onStage: (stage) => {
+      if (stage === 'simulated') {
+        process.stdout.write(`   wrote ${args.out}/data/image.fits, noise.fits, psf.fits, mask.fits, truth.json\n`);
+        process.stdout.write(`2. nested sampling of the smooth and the perturbed model (${smooth.settings.livePoints} live points, ${smooth.settings.threads} threads${plain.plainLines ? ', the two models side by side' : ''})\n`);
+      }
+      if (stage === 'perturbed') smooth.finish();
+    },
+  });
+  perturbed.finish();
+  const { comparison, summary } = outcome;
+  process.stdout.write(`\n${formatComparison(summary)}\n\n`);
+  process.stdout.write(`${formatTruthTable(outcome.truth, comparison.perturberFavoured, comparison.lnBayesFactor, comparison.lnBayesFactorError)}\n`);
+  if (args.report) process.stdout.write(`\nreport (open it in a browser): ${writeReport(outcome.compareFolder)}\n`);
+  process.stdout.write(`\ndemo finished in ${((performance.now() - started) / 1000).toFixed(0)} s; results in ${outcome.compareFolder}\n`);
+  reportUnfinished(summary, join(outcome.compareFolder, 'summary.json'));
+}

@@ -1,19 +1,21 @@
 import type { CommandModule } from 'yargs';
 import { basename, extname, join } from 'node:path';
-import { loadConfig } from '../config/arcsiftConfig.js';
+import { loadConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
-import { fitPerturberCount, runFitToFolder } from '../inference/runFitToFolder.js';
+import { FIT_CHECKPOINT_FOLDERS, fitPerturberCount, runFitToFolder, type FitEnsembleSettings, type FitWalkerStart } from '../inference/runFitToFolder.js';
 import type { EnsembleFitSettings } from '../inference/runModelEnsemble.js';
+import type { EvidenceSettings } from '../inference/runModelEvidence.js';
 import { runDefaults } from '../settings/runDefaults.js';
-import type { EnsembleMoveKind, EnsembleProgress } from '../sampling/ensemble/index.js';
+import { PROPOSAL_KINDS, type EnsembleProposalKind, type EnsembleProgress } from '../sampling/ensemble/index.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { formatSky } from './formatSky.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { cosmologyText } from '../report/text/cosmologyText.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { EnsembleFitSummary, NestedFitSummary } from '../records/fitSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
-import { checkOutputFolder } from '../inference/checkOutputFolder.js';
+import { reportUnfinished } from './reportUnfinished.js';
 
 interface FitArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -22,11 +24,17 @@ interface FitArguments extends DataArguments, SamplerArguments {
   perturbers?: number;
   sampler: 'nested' | 'ensemble';
   walkers?: number;
-  steps: number;
-  'target-autocorrelation-times': number;
-  move: EnsembleMoveKind;
-  'start-from'?: string;
+  'max-sweeps'?: number;
+  'min-ess'?: number;
+  'max-rhat'?: number;
+  proposal?: EnsembleProposalKind;
+  'posterior-from'?: string;
+  'start-at-values'?: boolean;
+  'start-live-points'?: number;
 }
+
+/** The options that apply to --sampler ensemble only (without defaults in yargs, so that a given one can be told apart). */
+const ENSEMBLE_ONLY = ['walkers', 'max-sweeps', 'min-ess', 'max-rhat', 'proposal', 'posterior-from', 'start-at-values', 'start-live-points'] as const;
 
 /** A number for a table: fixed-point where that reads well, exponential otherwise. */
 function formatValue(v: number | null): string {
@@ -46,7 +54,10 @@ function formatParameters(parameters: ModelRecord['parameters']): string[] {
 }
 
 function formatPriorBlock(summary: NestedFitSummary | EnsembleFitSummary, what: string): string[] {
-  return [`Priors behind ${what}:`, ...formatPriors(summary.priors), `    amplitudes: ${summary.amplitudePrior}`, '', `Caution: ${summary.caution}`];
+  return [
+    `Priors behind ${what}:`, ...formatPriors(summary.priors), `    amplitudes: ${summary.amplitudePrior}`,
+    `Cosmology (distances, Sigma_crit, M200): ${cosmologyText(summary.cosmology)}`, '', `Caution: ${summary.caution}`,
+  ];
 }
 
 /** The plain-text result of a nested-sampling fit: ln Z with its priors, and the parameters. */
@@ -76,12 +87,15 @@ export function formatNestedFit(summary: NestedFitSummary): string {
 /** The plain-text result of an ensemble fit: its diagnostics per parameter, the medians and any warnings. */
 export function formatEnsembleFit(summary: EnsembleFitSummary): string {
   const m = summary.model;
-  const stop = m.converged ? 'converged (autocorrelation rule)' : m.stopped ? 'stopped on request' : 'step limit reached';
+  const stop = m.converged
+    ? `mixed: R-hat <= ${m.stopRule.maxRHat} and ESS >= ${m.stopRule.minEffectiveSampleSize} for every parameter`
+    : m.stopped ? 'stopped on request' : 'sweep limit reached before the walkers mixed';
   const lines = [
-    `Fit of the ${m.label} model by ensemble MCMC (${m.walkers} walkers, ${m.iterations} iterations, ${stop})`,
-    `  ${m.evaluations} likelihood evaluations, ${m.seconds.toFixed(0)} s on ${m.threads} thread(s); burn-in ${m.burnInSteps * m.thin} iterations left out; ` +
+    `Fit of the ${m.label} model by ensemble MCMC (${m.walkers} walkers, ${m.sweeps} sweeps, ${stop})`,
+    `  walkers started: ${m.start}`,
+    `  ${m.evaluations} likelihood evaluations, ${m.seconds.toFixed(0)} s on ${m.threads} thread(s); burn-in ${m.burnInSweeps} sweeps left out; ` +
       `acceptance fraction mean ${m.acceptanceFraction.mean.toFixed(3)}, min ${m.acceptanceFraction.min.toFixed(3)}`,
-    `  chain after burn-in: ${formatValue(m.chainLengthInAutocorrelationTimes)} autocorrelation times, ${m.retainedSamples} samples`,
+    `  after burn-in: ${m.retainedSamples} samples, smallest ESS ${formatValue(m.smallestEffectiveSampleSize)}, largest R-hat ${formatValue(m.maxRHat)}`,
     '',
   ];
   const names = m.parameters.map((p) => (p.unit === '' ? p.name : `${p.name} [${p.unit}]`));
@@ -116,9 +130,10 @@ export function ensembleProgressPrinter(label: string, options: { quiet: boolean
     if (options.quiet) return;
     const elapsed = (performance.now() - started) / 1000;
     if (!terminal && elapsed - lastPrinted < (options.everySeconds ?? 10)) return;
-    const tau = Number.isFinite(p.autocorrelationTimeMax) ? p.autocorrelationTimeMax.toFixed(1) : '?';
-    const line = `${label}: iteration ${p.iteration}/${p.maxSteps}  acceptance ${(100 * p.acceptanceFraction).toFixed(1)}%  ` +
-      `largest tau ${tau}  evaluations ${p.evaluations}  elapsed ${Math.round(elapsed)} s`;
+    const ess = Number.isFinite(p.smallestEffectiveSampleSize) ? p.smallestEffectiveSampleSize.toFixed(0) : '?';
+    const rHat = Number.isFinite(p.largestRHat) ? p.largestRHat.toFixed(3) : '?';
+    const line = `${label}: sweep ${p.sweep}/${p.maxSweeps}  acceptance ${(100 * p.acceptanceFraction).toFixed(1)}%  ` +
+      `smallest ESS ${ess}  largest R-hat ${rHat}  evaluations ${p.evaluations}  elapsed ${Math.round(elapsed)} s`;
     if (terminal) {
       stream.write(`\r\x1b[2K${line}`);
       wrote = true;
@@ -133,22 +148,39 @@ export function ensembleProgressPrinter(label: string, options: { quiet: boolean
   return { onProgress, finish };
 }
 
-/** The ensemble settings from the options, checked. */
-function ensembleSettingsOf(args: FitArguments, seed: number, threads: number, onProgress: EnsembleFitSettings['onProgress']): EnsembleFitSettings {
-  const target = args['target-autocorrelation-times'];
-  if (!(target > 0) || !Number.isFinite(target)) {
-    throw new InputError(`--target-autocorrelation-times: ${expectedFound('a number > 0', target)}`);
+/** Where the walkers start: at the config's values, an earlier fit's posterior, or (default) a short nested run's. */
+function walkerStartOf(args: FitArguments, nested: EvidenceSettings): FitWalkerStart {
+  const from = args['posterior-from'];
+  const atValues = args['start-at-values'] === true;
+  if ([atValues, from !== undefined, args['start-live-points'] !== undefined].filter(Boolean).length > 1) {
+    throw new InputError('--start-at-values, --posterior-from and --start-live-points each say where the walkers start: give one of them');
   }
+  if (atValues) return 'configuredValues';
+  if (from !== undefined) return { posteriorFrom: from };
+  const livePoints = wholeNumberOption('start-live-points', args['start-live-points'] ?? runDefaults.ensemble.startLivePoints, 10);
+  return { nestedRun: { ...nested, livePoints, maxEvaluations: undefined } };
+}
+
+/** The ensemble settings from the options, checked. */
+function ensembleSettingsOf(
+  args: FitArguments, nested: EvidenceSettings, onProgress: EnsembleFitSettings['onProgress'],
+): FitEnsembleSettings {
+  const minEss = args['min-ess'] ?? runDefaults.ensemble.minEffectiveSampleSize;
+  if (!(minEss > 0) || !Number.isFinite(minEss)) throw new InputError(`--min-ess: ${expectedFound('a number > 0', minEss)}`);
+  const maxRHat = args['max-rhat'] ?? runDefaults.ensemble.maxRHat;
+  if (!(maxRHat > 1) || !Number.isFinite(maxRHat)) throw new InputError(`--max-rhat: ${expectedFound('a number > 1', maxRHat)}`);
   return {
-    seed,
-    threads,
+    seed: nested.seed,
+    threads: nested.threads,
     walkers: args.walkers === undefined ? undefined : wholeNumberOption('walkers', args.walkers, 4),
-    maxSteps: wholeNumberOption('steps', args.steps, 1),
-    targetAutocorrelationTimes: target,
-    move: args.move,
-    startFrom: args['start-from'],
+    maxSweeps: wholeNumberOption('max-sweeps', args['max-sweeps'] ?? runDefaults.ensemble.maxSweeps, 1),
+    stopRule: { minEffectiveSampleSize: minEss, maxRHat },
+    proposal: args.proposal ?? runDefaults.ensemble.proposal,
+    start: walkerStartOf(args, nested),
+    checkpointSeconds: nested.checkpointSeconds,
     resume: args.resume,
     onProgress,
+    signal: nested.signal,
   };
 }
 
@@ -162,38 +194,49 @@ export const fitCommand: CommandModule<object, FitArguments> = {
     .option('perturbers', { type: 'number', describe: 'how many of the config\'s perturbers the model holds (0 = smooth) [default: all]' })
     .option('sampler', { choices: ['nested', 'ensemble'] as const, default: 'nested' as const, describe: 'nested sampling (ln Z and posterior) or ensemble MCMC (posterior only)' })
     .option('walkers', { type: 'number', describe: 'ensemble: walkers, even and >= 2 x free parameters [default: max(4, 2 x free + 2)]' })
-    .option('steps', { type: 'number', default: runDefaults.ensemble.maxSteps, describe: 'ensemble: largest number of iterations' })
-    .option('target-autocorrelation-times', { type: 'number', default: runDefaults.ensemble.targetAutocorrelationTimes, describe: 'ensemble: stop once the chain after burn-in is this many autocorrelation times long' })
-    .option('move', { choices: ['stretch', 'differentialEvolution'] as const, default: runDefaults.ensemble.move, describe: 'ensemble: proposal move' })
-    .option('start-from', { type: 'string', describe: 'ensemble: start the walkers from the equal-weight samples of an earlier nested fit (its folder, or a samples CSV such as an ensemble fit\'s chain.csv) [default: a small ball around the config\'s values]' })), { livePoints: runDefaults.nested.livePoints })
+    .option('max-sweeps', { type: 'number', describe: `ensemble: largest number of sweeps (a sweep proposes a move to every walker once) [default: ${runDefaults.ensemble.maxSweeps}]` })
+    .option('min-ess', { type: 'number', describe: `ensemble: stop once every free parameter's bulk and tail effective sample size reach this, and R-hat is within --max-rhat [default: ${runDefaults.ensemble.minEffectiveSampleSize}]` })
+    .option('max-rhat', { type: 'number', describe: `ensemble: largest rank-normalised split R-hat (walkers as chains) of a mixed run [default: ${runDefaults.ensemble.maxRHat}]` })
+    .option('proposal', { choices: PROPOSAL_KINDS, describe: `ensemble: how walkers propose moves: stretch (Goodman & Weare 2010) or differentialEvolution (ter Braak 2006) [default: ${runDefaults.ensemble.proposal}]` })
+    .option('posterior-from', { type: 'string', describe: 'ensemble: start the walkers at posterior draws of an earlier fit of the same model (its folder, or its posterior-draws.csv or walker-paths.csv) [default: of a short nested run made first]' })
+    .option('start-live-points', { type: 'number', describe: `ensemble: live points of that short nested run, made in OUT/nested-start [default: ${runDefaults.ensemble.startLivePoints}]` })
+    .option('start-at-values', { type: 'boolean', describe: 'ensemble: start the walkers at the config\'s values instead, spread by 1e-3 of each prior\'s width' })), { livePoints: runDefaults.nested.livePoints })
     .example('$0 fit --config configs/demo.yaml --data chains/mock --perturbers 0', 'nested-sampling fit of the smooth model')
-    .example('$0 fit --config configs/demo.yaml --data chains/mock --sampler ensemble --start-from chains/demo-fit --out chains/demo-mcmc', 'ensemble MCMC started from a nested fit'),
+    .example('$0 fit --config configs/demo.yaml --data chains/mock --sampler ensemble --posterior-from chains/demo-fit --out chains/demo-mcmc', 'ensemble MCMC started at the posterior of a nested fit'),
   handler: async (args) => {
     const config = loadConfig(args.config);
     const perturberCount = fitPerturberCount(config, args.perturbers === undefined ? undefined : wholeNumberOption('perturbers', args.perturbers, 0));
     if (args.sampler === 'nested') {
-      for (const option of ['walkers', 'start-from'] as const) {
+      for (const option of ENSEMBLE_ONLY) {
         if (args[option] !== undefined) throw new InputError(`--${option} applies to --sampler ensemble, not to nested sampling`);
       }
     }
     const out = args.out ?? join('chains', `${basename(args.config, extname(args.config))}-fit`);
-    checkOutputFolder(out, args.resume, ['']);
-    const data = loadDataOf(args, config);
-    const label = perturberCount === 0 ? 'smooth' : 'perturbed';
-    const nested = evidenceSettingsOf(args, label);
-    let text: string;
-    if (args.sampler === 'nested') {
-      const { summary } = await runFitToFolder(config, data, out, { sampler: 'nested', perturberCount, nested: nested.settings });
-      nested.finish();
-      text = formatNestedFit(summary as NestedFitSummary);
-    } else {
-      const printer = ensembleProgressPrinter(label, { quiet: args.quiet });
-      const ensemble = ensembleSettingsOf(args, nested.settings.seed, nested.settings.threads, printer.onProgress);
-      const { summary } = await runFitToFolder(config, data, out, { sampler: 'ensemble', perturberCount, ensemble });
-      printer.finish();
-      text = formatEnsembleFit(summary as EnsembleFitSummary);
-    }
-    process.stdout.write(`${text}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
-    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+    await inOutputFolder(out, args, FIT_CHECKPOINT_FOLDERS, undefined, () => fitIntoFolder(args, config, perturberCount, out));
   },
 };
+
+/** The fit itself, into a folder the command holds. */
+async function fitIntoFolder(args: FitArguments, config: ArcsiftConfig, perturberCount: number, out: string): Promise<void> {
+  const data = loadDataOf(args, config);
+  const label = perturberCount === 0 ? 'smooth' : 'perturbed';
+  const nested = evidenceSettingsOf(args, label);
+  let summary: NestedFitSummary | EnsembleFitSummary;
+  let text: string;
+  if (args.sampler === 'nested') {
+    const outcome = await runFitToFolder(config, data, out, { sampler: 'nested', perturberCount, nested: nested.settings });
+    nested.finish();
+    summary = outcome.summary as NestedFitSummary;
+    text = formatNestedFit(summary);
+  } else {
+    const printer = ensembleProgressPrinter(label, { quiet: args.quiet });
+    const ensemble = ensembleSettingsOf(args, nested.settings, printer.onProgress);
+    const outcome = await runFitToFolder(config, data, out, { sampler: 'ensemble', perturberCount, ensemble });
+    printer.finish();
+    summary = outcome.summary as EnsembleFitSummary;
+    text = formatEnsembleFit(summary);
+  }
+  process.stdout.write(`${text}\n\nwrote ${join(out, 'summary.json')} and the samples, corner data and images under ${out}\n`);
+  if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+  reportUnfinished(summary, join(out, 'summary.json'));
+}

@@ -1,5 +1,6 @@
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { formatSky } from './formatSky.js';
+import { cosmologyText } from '../report/text/cosmologyText.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { CountComparisonSummary } from '../records/countComparisonSummary.js';
 
@@ -72,6 +73,7 @@ export function formatComparison(summary: ComparisonSummary): string {
   lines.push(...formatPriors(summary.priors.perturbed));
   for (const p of summary.positionPriors ?? []) lines.push(`    ${p.key} position: ${p.region} (instead of the box above)`);
   lines.push(`    amplitudes: ${summary.amplitudePrior}`);
+  lines.push(`Cosmology (distances, Sigma_crit, M200): ${cosmologyText(summary.cosmology)}`);
   lines.push('');
   lines.push(`Caution: ${summary.caution}`);
   return lines.join('\n');

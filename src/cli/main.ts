@@ -1,18 +1,27 @@
 #!/usr/bin/env node
 import yargs from 'yargs';
 import { hideBin } from 'yargs/helpers';
-import { InputError } from '../errors.js';
+import { EXIT_STATUS, InputError, RunInterrupted } from '../errors.js';
 import { commands } from './commands.js';
 import { closestOption, unknownOptionNames } from './closestOption.js';
+import { resumeCommandLine } from './resumeCommandLine.js';
 
-/** Prints a user mistake without a stack trace (exit 2); anything else is an internal fault (exit 1). */
+/**
+ * Prints a user mistake without a stack trace (exit 2), a run stopped by a signal with how to
+ * resume it (exit 4); anything else is an internal fault (exit 1).
+ */
 function reportAndExit(error: unknown): never {
   if (error instanceof InputError) {
     process.stderr.write(`arcsift: ${error.message}\n`);
-    process.exit(2);
+    process.exit(EXIT_STATUS.userMistake);
+  }
+  if (error instanceof RunInterrupted) {
+    const kept = error.checkpoints.length === 0 ? 'no checkpoint was due yet' : `checkpoints written: ${error.checkpoints.join(', ')}`;
+    process.stderr.write(`arcsift: stopped on request; ${kept}\narcsift: continue with: ${resumeCommandLine(hideBin(process.argv))}\n`);
+    process.exit(EXIT_STATUS.interrupted);
   }
   process.stderr.write(`arcsift: internal error: ${(error as Error)?.stack ?? String(error)}\n`);
-  process.exit(1);
+  process.exit(EXIT_STATUS.internalFault);
 }
 
 process.on('unhandledRejection', reportAndExit);
@@ -52,10 +61,10 @@ let cli = yargs(hideBin(process.argv))
     if (message === NO_COMMAND) {
       view.showHelp((text) => process.stderr.write(`${text}\n`));
       process.stderr.write('\narcsift: name one of the commands above\n');
-      process.exit(2);
+      process.exit(EXIT_STATUS.userMistake);
     }
     process.stderr.write(`arcsift: ${message}\n${suggestions(view)}(run \`arcsift --help\` or \`arcsift <command> --help\`)\n`);
-    process.exit(2);
+    process.exit(EXIT_STATUS.userMistake);
   });
 for (const command of commands) cli = cli.command(command);
 

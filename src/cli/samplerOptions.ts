@@ -6,6 +6,10 @@ import type { EvidenceMethod, NestedMethod } from '../sampling/nested/index.js';
 import { wholeNumberOption } from './dataOptions.js';
 import { progressPrinter } from './progressPrinter.js';
 import { runDefaults } from '../settings/runDefaults.js';
+import { stopOnSignals } from './stopOnSignals.js';
+import { hideBin } from 'yargs/helpers';
+import { openRunFolder, type RunFolderOptions } from '../inference/openRunFolder.js';
+import { commandLine } from './resumeCommandLine.js';
 
 export interface SamplerArguments {
   threads?: number;
@@ -18,6 +22,7 @@ export interface SamplerArguments {
   resume: boolean;
   'checkpoint-seconds': number;
   evidence: string;
+  'take-over-lock': boolean;
   quiet: boolean;
 }
 
@@ -32,8 +37,9 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
     .option('tolerance', { type: 'number', default: runDefaults.nested.lnZTolerance, describe: 'stop when the live points could add less than this to ln Z' })
     .option('evidence', { choices: ['nested', 'importance'], default: runDefaults.nested.evidence, describe: 'ln Z from the nested-sampling sum, or from importance sampling after the nested run (fewer evaluations for a small error: see README)' })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
-    .option('checkpoint-seconds', { type: 'number', default: runDefaults.nested.checkpointSeconds, describe: 'seconds between checkpoints of the sampler state' })
+    .option('checkpoint-seconds', { type: 'number', default: runDefaults.nested.checkpointSeconds, describe: 'seconds between checkpoints of the sampler state (every sampler; SIGTERM or SIGINT also writes one and stops)' })
     .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
+    .option('take-over-lock', { type: 'boolean', default: false, describe: 'take --out over from a run on another host whose lock is still there (only when that run no longer runs)' })
     .option('quiet', { type: 'boolean', default: false, describe: 'print no progress' }) as Argv<T & SamplerArguments>;
 }
 
@@ -42,7 +48,27 @@ function positiveOption(name: string, value: number): number {
   return value;
 }
 
-/** Evidence settings from the options, with a progress printer; checks the options first. */
+/**
+ * Runs `run` holding the command's output folder (lock, writability, what it holds:
+ * openRunFolder, with the command line and notices on standard error), released at the end
+ * whatever the outcome.
+ */
+export async function inOutputFolder(
+  out: string, args: SamplerArguments, checkpointFolders: RunFolderOptions['checkpointFolders'], summaryName: string | undefined,
+  run: () => Promise<void>,
+): Promise<void> {
+  const lock = openRunFolder(out, {
+    resume: args.resume, checkpointFolders, summaryName, command: commandLine(hideBin(process.argv)), takeOverLock: args['take-over-lock'],
+    onNotice: (text) => process.stderr.write(`arcsift: notice: ${text}\n`),
+  });
+  try {
+    await run();
+  } finally {
+    lock.release();
+  }
+}
+
+/** Evidence settings from the options, with a progress printer and the command's stop request (SIGTERM, SIGINT); checks the options first. */
 export function evidenceSettingsOf(args: SamplerArguments, label: string, options: { plainLines?: boolean } = {}): { settings: EvidenceSettings; finish: () => void } {
   const threads = args.threads === undefined ? defaultThreadCount() : wholeNumberOption('threads', args.threads, 1);
   const seed = wholeNumberOption('seed', args.seed, 1);
@@ -61,6 +87,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string, option
       resume: args.resume,
       checkpointSeconds: positiveOption('checkpoint-seconds', args['checkpoint-seconds']),
       onProgress: printer.onProgress,
+      signal: stopOnSignals(),
     },
     finish: printer.finish,
   };

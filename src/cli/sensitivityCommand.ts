@@ -1,7 +1,6 @@
 import type { CommandModule } from 'yargs';
-import { existsSync } from 'node:fs';
 import { basename, dirname, extname, join } from 'node:path';
-import { loadConfig } from '../config/arcsiftConfig.js';
+import { loadConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { runDefaults } from '../settings/runDefaults.js';
@@ -9,7 +8,8 @@ import { runSensitivityToFolder } from '../sensitivity/runSensitivityToFolder.js
 import { smoothBestFitFromFolder, smoothBestFitFromRun } from '../sensitivity/smoothBestFit.js';
 import { firstPerturber } from '../vet/perturberPositionConfig.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { reportUnfinished } from './reportUnfinished.js';
 import type { SensitivitySummary } from '../records/sensitivitySummary.js';
 
 interface SensitivityArguments extends DataArguments, SamplerArguments {
@@ -67,28 +67,34 @@ export const sensitivityCommand: CommandModule<object, SensitivityArguments> = {
     const gridSize = wholeNumberOption('grid', args.grid, 1);
     if (!(args.threshold > 0) || !Number.isFinite(args.threshold)) throw new InputError(`--threshold: ${expectedFound('a number > 0', args.threshold)}`);
     if (!(args['mass-tolerance'] > 0)) throw new InputError(`--mass-tolerance: ${expectedFound('a number > 0', args['mass-tolerance'])}`);
-    if (existsSync(join(out, 'sensitivity.json'))) throw new InputError(`${out} already holds a finished sensitivity map (sensitivity.json); choose another --out or remove it`);
-    const data = loadDataOf(args, config);
-    const run = evidenceSettingsOf(args, 'smooth best fit');
-    let bestFit;
-    if (args['best-fit'] !== undefined) {
-      bestFit = smoothBestFitFromFolder(config, data, args['best-fit']);
-    } else {
-      bestFit = await smoothBestFitFromRun(config, data, { ...run.settings, checkpointPath: join(out, 'smooth', 'checkpoint.json') });
-      run.finish();
-    }
-    const terminal = process.stderr.isTTY === true && !args.quiet;
-    const summary = await runSensitivityToFolder(config, data, out, {
-      gridSize,
-      threshold: args.threshold,
-      toleranceDex: args['mass-tolerance'],
-      threads: run.settings.threads,
-      seed: run.settings.seed,
-      bestFit,
-      onPoint: terminal ? (done, total) => process.stderr.write(`\r\x1b[2Ksensitivity: ${done} of ${total} grid points`) : undefined,
-    });
-    if (terminal) process.stderr.write('\n');
-    process.stdout.write(`${formatSensitivity(summary)}\n\nwrote ${summary.files.map}, ${summary.files.table} and ${summary.files.summary}\n`);
-    if (args.report) process.stdout.write(`report: ${writeReport(dirname(summary.files.summary))}\n`);
+    await inOutputFolder(out, args, ['smooth'], 'sensitivity.json', () => mapIntoFolder(args, config, out, gridSize));
   },
 };
+
+/** The sensitivity map itself, into a folder the command holds. */
+async function mapIntoFolder(args: SensitivityArguments, config: ArcsiftConfig, out: string, gridSize: number): Promise<void> {
+  const data = loadDataOf(args, config);
+  const run = evidenceSettingsOf(args, 'smooth best fit');
+  let bestFit;
+  if (args['best-fit'] !== undefined) {
+    bestFit = smoothBestFitFromFolder(config, data, args['best-fit']);
+  } else {
+    bestFit = await smoothBestFitFromRun(config, data, { ...run.settings, checkpointPath: join(out, 'smooth', 'checkpoint.json') });
+    run.finish();
+  }
+  const terminal = process.stderr.isTTY === true && !args.quiet;
+  const summary = await runSensitivityToFolder(config, data, out, {
+    gridSize,
+    threshold: args.threshold,
+    toleranceDex: args['mass-tolerance'],
+    threads: run.settings.threads,
+    seed: run.settings.seed,
+    bestFit,
+    signal: run.settings.signal,
+    onPoint: terminal ? (done, total) => process.stderr.write(`\r\x1b[2Ksensitivity: ${done} of ${total} grid points`) : undefined,
+  });
+  if (terminal) process.stderr.write('\n');
+  process.stdout.write(`${formatSensitivity(summary)}\n\nwrote ${summary.files.map}, ${summary.files.table} and ${summary.files.summary}\n`);
+  if (args.report) process.stdout.write(`report: ${writeReport(dirname(summary.files.summary))}\n`);
+  reportUnfinished(summary, summary.files.summary);
+}

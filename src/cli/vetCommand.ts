@@ -1,7 +1,7 @@
 import type { CommandModule } from 'yargs';
-import { existsSync, readdirSync } from 'node:fs';
+import { readdirSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
-import { loadConfig } from '../config/arcsiftConfig.js';
+import { loadConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { writeReport } from '../report/writeReport.js';
 import { InputError, expectedFound } from '../errors.js';
 import { readFlags } from '../vet/readFlags.js';
@@ -10,8 +10,10 @@ import { vetConcurrency } from '../vet/vetFlags.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
-import { evidenceSettingsOf, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
+import { cosmologyText } from '../report/text/cosmologyText.js';
+import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
+import { reportUnfinished } from './reportUnfinished.js';
 
 interface VetArguments extends DataArguments, SamplerArguments {
   config: string;
@@ -58,7 +60,7 @@ export function formatVetTable(summary: VetSummary): string {
       r.flag === null ? 'map prior' : `(${fixed(r.flag.xArcsec, 3)}, ${fixed(r.flag.yArcsec, 3)})`,
       fixed(r.score),
       `${fixed(r.lnBayesFactor)} +- ${fixed(r.lnBayesFactorError)}`,
-      r.verdict,
+      r.finished === false ? `${r.verdict} (NOT FINAL)` : r.verdict,
       massText(r),
       `(${fixed(r.position.xArcsec.median, 3)}, ${fixed(r.position.yArcsec.median, 3)})`,
       fixed(r.offsetArcsec, 3),
@@ -80,7 +82,9 @@ export function formatVetTable(summary: VetSummary): string {
       lines.push(`  warning: the insertion-rank check of run ${r.id} gives p = ${r.model.insertionRankPValue.toExponential(1)}: ` +
         'its constrained draws may be biased, so its ln Z is suspect (Fowlie, Handley & Su 2020)');
     }
-    if (r.model.stopReason !== 'converged') lines.push(`  warning: run ${r.id} stopped (${r.model.stopReason}) before converging: its ln Z is not final`);
+    if (r.model.stopReason !== 'converged') {
+      lines.push(`  warning: run ${r.id} stopped (${r.model.stopReason}) before converging: its ln Z, and every ln B and verdict that uses it, are not final`);
+    }
   }
   lines.push(
     '',
@@ -88,6 +92,7 @@ export function formatVetTable(summary: VetSummary): string {
     ...formatPriors(summary.priors.perturbed),
     `    ${summary.priors.positionPrior}`,
     `    amplitudes: ${summary.amplitudePrior}`,
+    `Cosmology (distances, Sigma_crit, M200): ${cosmologyText(summary.cosmology)}`,
     '',
   );
   if (summary.mapPriorNote !== null) lines.push(`Note: ${summary.mapPriorNote}`);
@@ -131,33 +136,39 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     const windowArcsec = finiteOption('window', args.window, true);
     const thresholds = { confirmAboveLnB: finiteOption('confirm-above', args['confirm-above'], false), disfavourBelowLnB: finiteOption('disfavour-below', args['disfavour-below'], false) };
     const mapSettings = { threshold: finiteOption('map-threshold', args['map-threshold'], false), mergeRadiusArcsec: finiteOption('merge-radius', args['merge-radius'], false) };
-    if (existsSync(join(out, 'vet.json')) && !args.resume) throw new InputError(`${out} already holds a finished vetting (vet.json); choose another --out or remove it`);
-    const interrupted = existsSync(out) && readdirSync(out).some((name) => existsSync(join(out, name, 'checkpoint.json')));
-    if (interrupted && !args.resume) throw new InputError(`${out} holds an interrupted vetting; pass --resume to continue it, or choose another --out`);
-    const data = loadDataOf(args, config);
-    const flags = readFlags(args.flags, data, mapSettings);
-    if (args['map-prior'] && flags.map === undefined) {
-      throw new InputError('--map-prior takes the probability map as the position prior: expected --flags to name a .fits or .npy map, found a list', { file: args.flags });
-    }
-    const { settings: checked } = evidenceSettingsOf(args, 'check');
-    const runs = 1 + flags.candidates.length + (args['map-prior'] ? 1 : 0);
-    const sideBySide = vetConcurrency(checked.threads, runs) > 1;
-    if (sideBySide && !args.quiet) process.stderr.write(`${runs} runs, ${vetConcurrency(checked.threads, runs)} side by side\n`);
-    let finish: (() => void) | undefined;
-    const { summary } = await runVetToFolder(config, data, flags, out, {
-      windowArcsec,
-      thresholds,
-      mapPrior: args['map-prior'] && flags.map !== undefined ? { map: flags.map } : undefined,
-      evidence: (label) => {
-        const run = evidenceSettingsOf(args, label, { plainLines: sideBySide });
-        if (!sideBySide) finish = run.finish;
-        return run.settings;
-      },
-      onRunStart: () => finish?.(),
-    });
-    finish?.();
-    const written = summary.smooth === null ? '' : " and each run's samples and images";
-    process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')}${written} under ${out}\n`);
-    if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+    await inOutputFolder(out, args, () => readdirSync(out), 'vet.json', () => vetIntoFolder(args, config, out, windowArcsec, thresholds, mapSettings));
   },
 };
+
+/** The vetting itself, into a folder the command holds. */
+async function vetIntoFolder(
+  args: VetArguments, config: ArcsiftConfig, out: string, windowArcsec: number,
+  thresholds: { confirmAboveLnB: number; disfavourBelowLnB: number }, mapSettings: { threshold: number; mergeRadiusArcsec: number },
+): Promise<void> {
+  const data = loadDataOf(args, config);
+  const flags = readFlags(args.flags, data, mapSettings);
+  if (args['map-prior'] && flags.map === undefined) {
+    throw new InputError('--map-prior takes the probability map as the position prior: expected --flags to name a .fits or .npy map, found a list', { file: args.flags });
+  }
+  const { settings: checked } = evidenceSettingsOf(args, 'check');
+  const runs = 1 + flags.candidates.length + (args['map-prior'] ? 1 : 0);
+  const sideBySide = vetConcurrency(checked.threads, runs) > 1;
+  if (sideBySide && !args.quiet) process.stderr.write(`${runs} runs, ${vetConcurrency(checked.threads, runs)} side by side\n`);
+  let finish: (() => void) | undefined;
+  const { summary } = await runVetToFolder(config, data, flags, out, {
+    windowArcsec,
+    thresholds,
+    mapPrior: args['map-prior'] && flags.map !== undefined ? { map: flags.map } : undefined,
+    evidence: (label) => {
+      const run = evidenceSettingsOf(args, label, { plainLines: sideBySide });
+      if (!sideBySide) finish = run.finish;
+      return run.settings;
+    },
+    onRunStart: () => finish?.(),
+  });
+  finish?.();
+  const written = summary.smooth === null ? '' : " and each run's samples and images";
+  process.stdout.write(`${formatVetTable(summary)}\n\nwrote ${join(out, 'vet.csv')}, ${join(out, 'vet.json')}${written} under ${out}\n`);
+  if (args.report) process.stdout.write(`report: ${writeReport(out)}\n`);
+  reportUnfinished(summary, join(out, 'vet.json'));
+}

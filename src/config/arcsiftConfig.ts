@@ -51,10 +51,34 @@ export type MaskConfig =
   | { readonly shape: 'disc'; readonly outerRadiusArcsec: number; readonly centerXArcsec: number; readonly centerYArcsec: number }
   | { readonly shape: 'annulus'; readonly innerRadiusArcsec: number; readonly outerRadiusArcsec: number; readonly centerXArcsec: number; readonly centerYArcsec: number };
 
-/** The noise model `simulate` draws from: sigma = sqrt(backgroundRms^2 + model / exposureSeconds). */
+/**
+ * The noise model `simulate` draws from: sigma = sqrt(skySigma^2 + model / integrationSeconds),
+ * all in counts per second per pixel.
+ */
 export interface NoiseConfig {
-  readonly backgroundRms: number;
-  readonly exposureSeconds: number;
+  /** The sky background's (and read noise's) 1-sigma per pixel, counts/s. */
+  readonly skySigma: number;
+  /** The integration time whose photon counts make the source's Poisson noise, seconds. */
+  readonly integrationSeconds: number;
+}
+
+/** Noise keys of earlier versions, refused with the name that replaced each. */
+const RENAMED_NOISE_KEYS: Readonly<Record<string, string>> = {
+  backgroundRms: 'skySigma (the sky background\'s 1-sigma per pixel, counts/s)',
+  exposureSeconds: 'integrationSeconds (seconds)',
+};
+
+function readNoise(node: ConfigNode): NoiseConfig | undefined {
+  if (node.value === undefined) return undefined;
+  if (node.isMapping()) {
+    for (const [old, now] of Object.entries(RENAMED_NOISE_KEYS)) {
+      if (node.has(old)) node.fail(`${old} is no longer read: the key is now ${now}`, `${node.key}.${old}`);
+    }
+  }
+  const skySigma = node.get('skySigma').number({ min: 0, exclusiveMin: true });
+  const integrationSeconds = node.get('integrationSeconds').number({ min: 0, exclusiveMin: true });
+  node.finish();
+  return { skySigma, integrationSeconds };
 }
 
 /**
@@ -75,10 +99,14 @@ export interface ObservationConfig {
   readonly mask: MaskConfig | undefined;
 }
 
-export interface CosmologyConfig {
-  readonly hubbleConstantKmPerSecPerMpc: number;
-  readonly matterDensity: number;
-}
+/**
+ * The cosmology a config asks for: a named published parameter set (`cosmology: wmap9`; the
+ * cosmology module knows the names), or explicit values (`cosmology: { hubbleConstant: 70,
+ * matterDensity: 0.3 }`).
+ */
+export type CosmologyConfig =
+  | { readonly set: string }
+  | { readonly hubbleConstantKmPerSecPerMpc: number; readonly matterDensity: number };
 
 export interface ArcsiftConfig {
   /** The file the config came from (for messages). */
@@ -186,14 +214,7 @@ function readObservation(node: ConfigNode): ObservationConfig {
   const supersampling = node.get('supersampling').optionalNumber(2, { integer: true, min: 1, max: 16 });
   const psfNode = node.get('psf');
   const psf = psfNode.value === undefined ? undefined : readPsf(psfNode);
-  const noiseNode = node.get('noise');
-  let noise: NoiseConfig | undefined;
-  if (noiseNode.value !== undefined) {
-    const backgroundRms = noiseNode.get('backgroundRms').number({ min: 0, exclusiveMin: true });
-    const exposureSeconds = noiseNode.get('exposureSeconds').number({ min: 0, exclusiveMin: true });
-    noiseNode.finish();
-    noise = { backgroundRms, exposureSeconds };
-  }
+  const noise = readNoise(node.get('noise'));
   const mask = readMask(node.get('mask'));
   node.finish();
   return { columns, rows, pixelScaleArcsec, supersampling, psf, noise, mask };
@@ -201,6 +222,8 @@ function readObservation(node: ConfigNode): ObservationConfig {
 
 function readCosmology(node: ConfigNode): CosmologyConfig | undefined {
   if (node.value === undefined) return undefined;
+  if (typeof node.value === 'string') return { set: node.string() };
+  if (!node.isMapping()) node.fail(expectedFound('the name of a parameter set (e.g. planck2018) or { hubbleConstant, matterDensity }', node.value));
   const hubbleConstantKmPerSecPerMpc = node.get('hubbleConstant').number({ min: 0, exclusiveMin: true });
   const matterDensity = node.get('matterDensity').number({ min: 0, exclusiveMin: true, max: 1 });
   node.finish();

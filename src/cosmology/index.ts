@@ -8,3 +8,5 @@ export {
 } from './criticalSurfaceDensity.js';
 export { defaultCosmology, defaultCosmologyParameters } from './defaultCosmology.js';
 export { lensingContext, type LensingContext } from './lensingContext.js';
+export { COSMOLOGY_SETS, DEFAULT_COSMOLOGY_SET, type CosmologySet, type CosmologySetKey } from './cosmologySets.js';
+export { configuredCosmology, type CosmologyRecord } from './configuredCosmology.js';

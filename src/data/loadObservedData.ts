@@ -1,6 +1,7 @@
 import type { ObservationConfig } from '../config/arcsiftConfig.js';
 import { InputError, pixelText } from '../errors.js';
-import { CelestialWcs, type CelestialWcsDescription, type FitsImage } from '../fits/index.js';
+import { CelestialWcs, parseFitsLocator, type CelestialWcsDescription, type FitsImage } from '../fits/index.js';
+import { fileSha256 as fileSha256Of } from '../io/fileSha256.js';
 import { pixelGrid } from '../imaging/pixelGrid.js';
 import type { PsfKernel } from '../imaging/psfKernel.js';
 import { cutOutValues, cutoutBox, type CutoutBox } from './cutoutBox.js';
@@ -168,10 +169,11 @@ function skyNotice(file: string, grid: SkyGrid & { wcs: CelestialWcsDescription 
  * zero weight leave the mask; image and noise finite and the noise positive inside the mask.
  * Whatever was assumed or which of config and data was used is said in `notices`; every failure
  * is an InputError naming the file (with its HDU) and, for one pixel, the pixel (column, row)
- * of that file, counted from 0.
+ * of that file, counted from 0. The sha256 of every file read is kept for the run records.
  */
 export function loadObservedData(source: ObservedDataSource, expected: ObservedDataExpectation = {}): ObservedData {
   const { files, locators } = resolveDataFiles(source);
+  const fileSha256 = Object.fromEntries(Object.entries(files).map(([role, text]) => [role, fileSha256Of(parseFitsLocator(text).path)]));
   const notices: string[] = [];
   const noiseRole = locators.noiseIsWeight ? 'weight' : 'noise';
   const image: DataImage = { role: 'image', path: files.image, image: readDataImage(locators.image, 'image') };
@@ -257,6 +259,7 @@ export function loadObservedData(source: ObservedDataSource, expected: ObservedD
   if (wcs !== undefined) notices.push(skyNotice(files.image, { columns, rows, pixelScaleArcsec, wcs }));
   return {
     files,
+    fileSha256,
     columns,
     rows,
     pixelScaleArcsec,

@@ -33,6 +33,8 @@ export interface ObservedDataFiles {
  */
 export interface ObservedData {
   readonly files: ObservedDataFiles;
+  /** sha256 of each file's bytes (the whole file, whichever HDU was read), keyed as in `files`; absent for data made in memory. */
+  readonly fileSha256?: Readonly<Partial<Record<keyof ObservedDataFiles, string>>>;
   readonly columns: number;
   readonly rows: number;
   readonly pixelScaleArcsec: number;

@@ -3,24 +3,24 @@ import { SeededStream } from '../numeric/random/seededStream.js';
 
 /**
  * Per-pixel 1-sigma noise of an image in counts (electrons) per second:
- * sigma = sqrt(backgroundRms^2 + max(model, 0) / exposureTimeSeconds).
+ * sigma = sqrt(skySigma^2 + max(model, 0) / integrationSeconds).
  * The source's Poisson variance is model * t electrons^2, i.e. model / t in (electrons / s)^2
- * (Poisson statistics of photo-electrons, common practice); backgroundRms (electrons / s)
+ * (Poisson statistics of photo-electrons, common practice); skySigma (electrons / s)
  * carries sky and read noise. Negative model values add no Poisson term.
  */
 export function noiseSigmaMap(
-  model: Float64Array, backgroundRms: number, exposureTimeSeconds: number, sigma: Float64Array,
+  model: Float64Array, skySigma: number, integrationSeconds: number, sigma: Float64Array,
 ): void {
-  if (!(backgroundRms >= 0) || !Number.isFinite(backgroundRms)) {
-    throw new InputError(expectedFound('a background rms >= 0', backgroundRms), { key: 'noise.backgroundRms' });
+  if (!(skySigma >= 0) || !Number.isFinite(skySigma)) {
+    throw new InputError(expectedFound('a sky sigma >= 0', skySigma), { key: 'observation.noise.skySigma' });
   }
-  if (!(exposureTimeSeconds > 0)) {
-    throw new InputError(expectedFound('an exposure time in seconds > 0', exposureTimeSeconds), {
-      key: 'noise.exposureTimeSeconds',
+  if (!(integrationSeconds > 0)) {
+    throw new InputError(expectedFound('an integration time in seconds > 0', integrationSeconds), {
+      key: 'observation.noise.integrationSeconds',
     });
   }
-  const background2 = backgroundRms * backgroundRms;
-  const inverseTime = 1 / exposureTimeSeconds;
+  const background2 = skySigma * skySigma;
+  const inverseTime = 1 / integrationSeconds;
   for (let k = 0; k < model.length; k++) sigma[k] = Math.sqrt(background2 + Math.max(model[k], 0) * inverseTime);
 }
 

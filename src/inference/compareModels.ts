@@ -4,6 +4,7 @@ import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError } from '../errors.js';
 import { bayesFactorReading, significanceBound, type BayesFactorReading, type SignificanceBound } from '../results/index.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
+import { awaitAllRuns } from './awaitAllRuns.js';
 import { summarisePerturbers } from './perturberSummary.js';
 import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
@@ -70,7 +71,7 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
     try {
       settings.onModelStart?.('smooth');
       settings.onModelStart?.('perturbed');
-      [smooth, perturbed] = await Promise.all([
+      [smooth, perturbed] = await awaitAllRuns([
         runModelEvidence(config, data, 0, { ...settings.smooth, method }, { pool: pool.model(0) }),
         runModelEvidence(config, data, perturberCount, { ...settings.perturbed, method }, { pool: pool.model(1) }),
       ]);

@@ -16,6 +16,7 @@ import type { CountComparisonSummary, CountRow } from '../records/countCompariso
 import type { ModelRecord } from '../records/modelRecord.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { qualifiedReading, unfinishedRuns } from '../records/unfinishedRuns.js';
 
 /** The config with exactly `count` perturbers: the listed ones, then copies of the last listed. */
 export function withPerturberCount(config: ArcsiftConfig, count: number): ArcsiftConfig {
@@ -51,6 +52,7 @@ export async function comparePerturberCounts(
     runs.push(await runModelEvidence(full, data, k, { ...settings, method, checkpointPath: join(folder, `perturbers-${k}`, 'checkpoint.json') }));
   }
   const models = runs.map((run, k) => writeModelOutputs(run, full, data, join(folder, `perturbers-${k}`), settings.seed));
+  const stops = runs.map((run, k) => ({ label: `${k} perturber(s)`, stopReason: run.result.stopReason }));
   const rows: CountRow[] = runs.map((run, k) => {
     const toPrevious = k === 0 ? null : run.result.lnZ - runs[k - 1].result.lnZ;
     return {
@@ -59,7 +61,7 @@ export async function comparePerturberCounts(
       lnEvidenceError: run.result.lnZError,
       lnBayesFactorToPrevious: toPrevious,
       lnBayesFactorToSmooth: run.result.lnZ - runs[0].result.lnZ,
-      reading: toPrevious === null ? '' : bayesFactorReading(toPrevious, `${k} perturbers`, `${k - 1}`).sentence,
+      reading: toPrevious === null ? '' : qualifiedReading(bayesFactorReading(toPrevious, `${k} perturbers`, `${k - 1}`).sentence, unfinishedRuns(stops.slice(k - 1, k + 1))),
       relabelled: run.relabelled,
     };
   });
@@ -67,7 +69,7 @@ export async function comparePerturberCounts(
   for (let k = 1; k < runs.length; k++) if (runs[k].result.lnZ > runs[preferred].result.lnZ) preferred = k;
   const summary: CountComparisonSummary = {
     kind: 'perturberCount',
-    ...runProvenance(config, data, settings.seed, started),
+    ...runProvenance(config, data, settings.seed, started, unfinishedRuns(stops)),
     rows,
     preferredCount: preferred,
     models,

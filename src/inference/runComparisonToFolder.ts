@@ -12,6 +12,7 @@ import { priorCaution } from '../records/cautions.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import { runProvenance } from '../records/provenance.js';
+import { qualifiedReading, unfinishedRuns } from '../records/unfinishedRuns.js';
 import { runDefaults } from '../settings/runDefaults.js';
 
 /** Plain words for each perturber's region prior. */
@@ -49,15 +50,16 @@ export async function runComparisonToFolder(
   const perturbed = writeModelOutputs(comparison.perturbed, config, data, join(folder, 'perturbed'), seed);
   const { onProgress: _a, signal: _b, ...smoothSettings } = settings.smooth;
   const { onProgress: _c, signal: _d, ...perturbedSettings } = settings.perturbed;
+  const unfinished = unfinishedRuns([comparison.smooth, comparison.perturbed].map((m) => ({ label: m.label, stopReason: m.result.stopReason })));
   const summary: ComparisonSummary = {
     kind: 'comparison',
-    ...runProvenance(config, data, seed, started),
+    ...runProvenance(config, data, seed, started, unfinished),
     settings: { smooth: smoothSettings, perturbed: perturbedSettings, perturberCount: settings.perturberCount ?? 1 },
     models: { smooth, perturbed },
     bayesFactor: {
       lnBayesFactor: comparison.lnBayesFactor,
       lnBayesFactorError: comparison.lnBayesFactorError,
-      reading: comparison.reading.sentence,
+      reading: qualifiedReading(comparison.reading.sentence, unfinished),
       kassRafteryGrade: comparison.reading.grade,
       significance: comparison.significance.reading,
       pValueBound: finiteOrNull(comparison.significance.pValue),

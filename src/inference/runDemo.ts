@@ -50,7 +50,8 @@ export async function runDemo(settings: DemoSettings): Promise<DemoOutcome> {
   const compareFolder = join(settings.out, 'compare');
   if (settings.fresh && settings.smooth.resume !== true) rmSync(compareFolder, { recursive: true, force: true });
   checkOutputFolder(compareFolder, settings.smooth.resume === true, ['smooth', 'perturbed']);
-  simulateToFolder(config, dataFolder, { seed: settings.noiseSeed, noiseless: false });
+  // The demo owns its data folder: simulated again each time (the same bytes for the same seed).
+  simulateToFolder(config, dataFolder, { seed: settings.noiseSeed, noiseless: false, overwrite: true });
   settings.onStage?.('simulated');
   const { columns, rows, pixelScaleArcsec } = config.observation;
   const data = loadObservedData({ folder: dataFolder }, { columns, rows, pixelScaleArcsec });

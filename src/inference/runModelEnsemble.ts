@@ -3,12 +3,17 @@ import type { ObservedData } from '../data/observedData.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 import {
-  posteriorOnSpace, runEnsemble, type EnsembleMoveOption, type EnsembleProgress, type EnsembleResult,
+  posteriorOnSpace, runEnsemble, type EnsembleProgress, type EnsembleProposalOption, type EnsembleResult, type EnsembleStopRule,
 } from '../sampling/ensemble/index.js';
 import type { ParameterSpace } from '../priors/parameterSpace.js';
-import { ballAroundConfiguredValues, startFromSamples, startSamplesFile } from './ensembleStart.js';
+import { configuredStartFraction, posteriorDrawsFile, startAtConfiguredValues, startFromPosterior } from './ensembleStart.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { runDefaults } from '../settings/runDefaults.js';
+import { RunInterrupted } from '../errors.js';
+import { refuseAnotherRun, runIdentity } from '../records/runIdentity.js';
+
+/** Where the walkers start: draws of an earlier fit's posterior (its folder or a posterior table), or at the config's values. */
+export type EnsembleWalkerStart = { readonly posteriorFrom: string } | 'configuredValues';
 
 /** Settings of one ensemble-MCMC run of a lens model. */
 export interface EnsembleFitSettings {
@@ -17,21 +22,22 @@ export interface EnsembleFitSettings {
   readonly threads: number;
   /** Even, at least max(4, 2 dim); default max(4, 2 dim + 2). */
   readonly walkers?: number;
-  /** Largest number of iterations. */
-  readonly maxSteps: number;
-  /** Stop once the chain after burn-in is longer than this many autocorrelation times (and they are stable). */
-  readonly targetAutocorrelationTimes: number;
-  readonly move: EnsembleMoveOption;
-  /** Start from the draws in this equal-weight samples file, or in a folder's equal-weight-samples.csv; default a ball around the config's values. */
-  readonly startFrom?: string;
-  /** Checkpoint file, written every `checkpointEverySteps` iterations; with `resume`, an existing one is continued. */
+  /** Largest number of sweeps (a sweep proposes a move to every walker once). */
+  readonly maxSweeps: number;
+  /** Stop once every free parameter's R-hat and effective sample sizes meet this rule. */
+  readonly stopRule: EnsembleStopRule;
+  /** Sweeps between checks of the stop rule (default in runDefaults). */
+  readonly checkEverySweeps?: number;
+  readonly proposal: EnsembleProposalOption;
+  readonly start: EnsembleWalkerStart;
+  /** Checkpoint file; with `resume`, an existing one is continued. */
   readonly checkpointPath?: string;
-  readonly checkpointEverySteps?: number;
+  /** Seconds between checkpoints (default runDefaults.nested.checkpointSeconds, shared by both samplers). */
+  readonly checkpointSeconds?: number;
   readonly resume?: boolean;
   readonly onProgress?: (progress: EnsembleProgress) => void;
   readonly signal?: { stopRequested: boolean };
 }
-
 
 /** One model's ensemble run and what is needed to read it. */
 export interface ModelEnsemble {
@@ -41,6 +47,7 @@ export interface ModelEnsemble {
   readonly system: LensSystem;
   readonly space: ParameterSpace;
   readonly result: EnsembleResult;
+  readonly stopRule: EnsembleStopRule;
   /** Where the walkers started, in words. */
   readonly start: string;
   readonly seconds: number;
@@ -55,7 +62,8 @@ export function defaultWalkerCount(dim: number): number {
 /**
  * Ensemble MCMC of one lens model (smooth when perturberCount = 0) on observed data: the
  * posterior is the log prior plus the pixel log likelihood, evaluated in batches on the worker
- * pool, so a seed fixes the chain whatever the thread count.
+ * pool, so a seed fixes the chain whatever the thread count. Checkpoints hold the run's identity
+ * (a resume refuses another); a run stopped by `settings.signal` throws RunInterrupted.
  */
 export async function runModelEnsemble(
   config: ArcsiftConfig, data: ObservedData, perturberCount: number, settings: EnsembleFitSettings,
@@ -63,9 +71,9 @@ export async function runModelEnsemble(
   const system = buildLensSystem(config, { perturberCount });
   const space = modelParameterSpace(system);
   const walkers = settings.walkers ?? defaultWalkerCount(space.dim);
-  const start = settings.startFrom === undefined
-    ? ballAroundConfiguredValues(system, space)
-    : startFromSamples(settings.startFrom, space, walkers);
+  const from = settings.start;
+  const start = from === 'configuredValues' ? startAtConfiguredValues(system, space) : startFromPosterior(from.posteriorFrom, space, walkers);
+  const identity = settings.checkpointPath === undefined ? undefined : runIdentity(config, data, settings.seed);
   const started = performance.now();
   const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads);
   try {
@@ -73,24 +81,31 @@ export async function runModelEnsemble(
       walkers,
       seed: settings.seed,
       start,
-      maxSteps: settings.maxSteps,
-      move: settings.move,
-      targetAutocorrelationTimes: settings.targetAutocorrelationTimes,
-      checkpoint: settings.checkpointPath === undefined ? undefined
-        : { path: settings.checkpointPath, everySteps: settings.checkpointEverySteps ?? runDefaults.ensemble.checkpointEverySteps },
+      maxSweeps: settings.maxSweeps,
+      proposal: settings.proposal,
+      stopRule: settings.stopRule,
+      checkEverySweeps: settings.checkEverySweeps ?? runDefaults.ensemble.checkEverySweeps,
+      checkpoint: settings.checkpointPath === undefined || identity === undefined ? undefined : {
+        path: settings.checkpointPath,
+        everySeconds: settings.checkpointSeconds ?? runDefaults.nested.checkpointSeconds,
+        identity,
+        checkIdentity: refuseAnotherRun(identity),
+      },
       resume: settings.resume,
       onProgress: settings.onProgress,
       signal: settings.signal,
     });
+    if (result.stopped) throw new RunInterrupted(settings.checkpointPath === undefined ? [] : [settings.checkpointPath]);
     return {
       label: perturberCount === 0 ? 'smooth' : 'perturbed',
       perturberCount,
       system,
       space,
       result,
-      start: settings.startFrom === undefined
-        ? 'a Gaussian ball around the config\'s values (prior median where none), 1e-3 of each prior\'s width (sigma for normal priors)'
-        : `draws of ${startSamplesFile(settings.startFrom)}`,
+      stopRule: settings.stopRule,
+      start: from === 'configuredValues'
+        ? `at the config's values (prior median where none), spread by ${configuredStartFraction} of each prior's width (sigma for normal priors)`
+        : `posterior draws of ${posteriorDrawsFile(from.posteriorFrom)}`,
       seconds: (performance.now() - started) / 1000,
       threads: pool.threads,
     };

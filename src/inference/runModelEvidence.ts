@@ -8,6 +8,8 @@ import type { ParameterSpace } from '../priors/parameterSpace.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { modelPriorTransform } from '../model/modelPriorTransform.js';
 import { runDefaults } from '../settings/runDefaults.js';
+import { RunInterrupted } from '../errors.js';
+import { refuseAnotherRun, runIdentity } from '../records/runIdentity.js';
 
 /** Settings of one nested-sampling run of a lens model. */
 export interface EvidenceSettings {
@@ -79,7 +81,10 @@ export type ExtraTransform = (system: LensSystem, space: ParameterSpace) => (uni
 /**
  * Nested sampling of one lens model (smooth when perturberCount = 0) on observed data. `extra`
  * names the run (default `smooth` or `perturbed`) and may add a prior transform that overwrites
- * parts of the physical vector (the map prior on a perturber's position does).
+ * parts of the physical vector (the map prior on a perturber's position does). With a
+ * checkpoint, the run's identity (config, data files, seed, version) goes into it and a resume
+ * refuses another; a run stopped by `settings.signal` throws RunInterrupted once its last
+ * checkpoint is written.
  */
 export async function runModelEvidence(
   config: ArcsiftConfig, data: ObservedData, perturberCount: number, settings: EvidenceSettings,
@@ -94,6 +99,7 @@ export async function runModelEvidence(
   const space = modelParameterSpace(system);
   const additional = extra.transform?.(system, space);
   const prior = modelPriorTransform(system, space, data, additional);
+  const identity = settings.checkpointPath === undefined ? undefined : runIdentity(config, data, settings.seed);
   const started = performance.now();
   const own = extra.pool === undefined
     ? await LikelihoodPool.start({ config, data, perturberCount }, settings.threads, { inWorker: settings.inWorker })
@@ -128,12 +134,18 @@ export async function runModelEvidence(
         maxEvaluations: settings.maxEvaluations,
         evidence: settings.evidence ?? runDefaults.nested.evidence,
         importance: settings.importance,
-        checkpoint: settings.checkpointPath === undefined ? undefined : { path: settings.checkpointPath, everySeconds: settings.checkpointSeconds ?? runDefaults.nested.checkpointSeconds },
+        checkpoint: settings.checkpointPath === undefined || identity === undefined ? undefined : {
+          path: settings.checkpointPath,
+          everySeconds: settings.checkpointSeconds ?? runDefaults.nested.checkpointSeconds,
+          identity,
+          checkIdentity: refuseAnotherRun(identity),
+        },
         resume: settings.resume,
         onProgress: settings.onProgress,
         signal: settings.signal,
       },
     );
+    if (result.stopReason === 'interrupted') throw new RunInterrupted(settings.checkpointPath === undefined ? [] : [settings.checkpointPath]);
     return {
       label: extra.label ?? (perturberCount === 0 ? 'smooth' : 'perturbed'),
       perturberCount,

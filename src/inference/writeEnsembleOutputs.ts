@@ -3,7 +3,7 @@ import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import type { ObservedData } from '../data/observedData.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { cornerData, parameterColumn, parameterSummary } from '../results/index.js';
-import { writeEqualWeightSamplesCsv } from '../records/samplesCsv.js';
+import { writePosteriorTables } from '../records/posteriorTables.js';
 import type { ModelEnsemble } from './runModelEnsemble.js';
 import { writeFitImages } from './writeFitImages.js';
 import { ImagePlaneSky } from '../data/imagePlaneSky.js';
@@ -11,17 +11,12 @@ import { eastOfNorthField } from './positionAngleOnSky.js';
 import type { EnsembleParameterDiagnostics, EnsembleRecord } from '../records/ensembleRecord.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 
-/** R-hat above which a parameter's chains are called unmixed (Vehtari et al. 2021, sec. 4). */
-export const rHatLimit = 1.01;
-/** Length of the chain after burn-in, in autocorrelation times, below which tau itself is unreliable (common practice for ensemble samplers). */
-export const reliableChainLengthInTau = 50;
-
 const finiteOrNull = (v: number): number | null => (Number.isFinite(v) ? v : null);
 
 /**
- * Writes one model's ensemble chain after burn-in (chain.csv: every walker's retained positions,
- * flattened, in the equal-weight samples format with ln L), its corner-plot data over the free
- * parameters, and the images of its highest-ln L retained sample into `folder`; returns its record.
+ * Writes one model's ensemble chain after burn-in (walker-paths.csv and .npy, walker by walker,
+ * with posterior.json), its corner-plot data over the free parameters, and the images of its
+ * highest-ln L retained sample into `folder`; returns its record.
  */
 export function writeEnsembleOutputs(
   ensemble: ModelEnsemble, config: ArcsiftConfig, data: ObservedData, folder: string,
@@ -42,9 +37,17 @@ export function writeEnsembleOutputs(
     lnLikelihood[r] = result.logPosterior[result.retainedFrom * walkers + r] - space.logPrior(physical, r * width);
     if (lnLikelihood[r] > lnLikelihood[best]) best = r;
   }
-  const files: Record<string, string> = {};
-  files.chain = join(folder, 'chain.csv');
-  writeEqualWeightSamplesCsv(files.chain, { names: space.names, units, points: physical, lnLikelihood });
+  const steps = result.steps - result.retainedFrom;
+  const files = writePosteriorTables(folder, {
+    sampler: 'ensemble', names: space.names, units,
+    walkerPaths: {
+      walkers,
+      sweeps: Float64Array.from({ length: steps }, (_, s) => (result.retainedFrom + s + 1) * result.thin),
+      points: physical,
+      lnPosterior: result.logPosterior.subarray(result.retainedFrom * walkers),
+      lnLikelihood,
+    },
+  });
   const weights = new Float64Array(count).fill(1);
   files.cornerData = join(folder, 'corner.json');
   writeJsonAtomic(files.cornerData, cornerData(space.freeNames, freeUnits, free, weights));
@@ -63,28 +66,28 @@ export function writeEnsembleOutputs(
     bulkEffectiveSampleSize: finiteOrNull(result.effectiveSampleSize[k]),
     tailEffectiveSampleSize: finiteOrNull(result.tailEffectiveSampleSize[k]),
   }));
-  const tauMax = Math.max(...result.autocorrelationTime);
-  const lengthInTau = finiteOrNull(((result.steps - result.retainedFrom) * result.thin) / tauMax);
+  const smallestEss = finiteOrNull(Math.min(...result.effectiveSampleSize, ...result.tailEffectiveSampleSize));
   const maxRHat = finiteOrNull(Math.max(...result.rHat));
   return {
     label: ensemble.label,
     start: ensemble.start,
     walkers,
-    iterations: result.iterations,
-    storedSteps: result.steps,
+    sweeps: result.sweeps,
+    storedSweeps: result.steps,
     thin: result.thin,
-    burnInSteps: result.retainedFrom,
+    burnInSweeps: result.retainedFrom * result.thin,
     retainedSamples: count,
     evaluations: result.evaluations,
     nonFiniteProposals: result.nonFiniteProposals,
+    stopRule: ensemble.stopRule,
     converged: result.converged,
     stopped: result.stopped,
     acceptanceFraction: { mean: mean(result.acceptanceFraction), min: Math.min(...result.acceptanceFraction) },
     autocorrelationReliable: result.autocorrelationReliable,
-    chainLengthInAutocorrelationTimes: lengthInTau,
+    smallestEffectiveSampleSize: smallestEss,
     maxRHat,
     diagnostics,
-    warnings: chainWarnings(diagnostics, lengthInTau, result.autocorrelationReliable),
+    warnings: chainWarnings(diagnostics, ensemble.stopRule, result.converged, result.sweeps, result.autocorrelationReliable),
     bestLnLikelihood: lnLikelihood[best],
     bestFit,
     bestFitAmplitudes: images.amplitudes,
@@ -105,16 +108,23 @@ export function writeEnsembleOutputs(
 
 /** The reasons, in words, not to trust a chain yet. */
 function chainWarnings(
-  diagnostics: readonly EnsembleParameterDiagnostics[], lengthInTau: number | null, reliable: boolean,
+  diagnostics: readonly EnsembleParameterDiagnostics[], rule: ModelEnsemble['stopRule'], converged: boolean, sweeps: number,
+  autocorrelationReliable: boolean,
 ): string[] {
   const warnings: string[] = [];
-  const unmixed = diagnostics.filter((d) => d.rHat === null || d.rHat > rHatLimit);
-  if (unmixed.length > 0) {
-    warnings.push(`R-hat above ${rHatLimit} (or not computable) for ${unmixed.map((d) => `${d.name} (${d.rHat === null ? 'n/a' : d.rHat.toFixed(3)})`).join(', ')}: the walkers have not mixed; run longer`);
+  if (!converged) {
+    const few = diagnostics.filter((d) => !(Math.min(d.bulkEffectiveSampleSize ?? 0, d.tailEffectiveSampleSize ?? 0) >= rule.minEffectiveSampleSize));
+    const unmixed = diagnostics.filter((d) => !((d.rHat ?? Infinity) <= rule.maxRHat));
+    const ess = (d: EnsembleParameterDiagnostics): string => (d.bulkEffectiveSampleSize === null || d.tailEffectiveSampleSize === null
+      ? 'n/a' : Math.min(d.bulkEffectiveSampleSize, d.tailEffectiveSampleSize).toFixed(0));
+    const reasons = [
+      ...(few.length > 0 ? [`bulk or tail ESS below ${rule.minEffectiveSampleSize} for ${few.map((d) => `${d.name} (${ess(d)})`).join(', ')}`] : []),
+      ...(unmixed.length > 0 ? [`R-hat above ${rule.maxRHat} for ${unmixed.map((d) => `${d.name} (${d.rHat === null ? 'n/a' : d.rHat.toFixed(3)})`).join(', ')}`] : []),
+    ];
+    warnings.push(`the walkers have not mixed after ${sweeps} sweeps (${reasons.join('; ') || 'the rule was not checked'}): the intervals are not final; resume with --resume and a larger --max-sweeps`);
   }
-  if (lengthInTau === null || lengthInTau < reliableChainLengthInTau || !reliable) {
-    const length = lengthInTau === null ? 'an unknown number of' : lengthInTau.toFixed(1);
-    warnings.push(`the chain after burn-in is ${length} autocorrelation times long, fewer than ${reliableChainLengthInTau}: tau and the intervals are not yet reliable; run longer (--steps) or resume`);
+  if (!autocorrelationReliable) {
+    warnings.push('some autocorrelation time comes from a series too short for Sokal\'s window to close: read tau as a lower bound');
   }
   return warnings;
 }

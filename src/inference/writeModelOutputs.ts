@@ -5,7 +5,7 @@ import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import { equalWeightResample } from '../numeric/resampling/equalWeightResample.js';
 import { weightsFromLogWeights } from '../numeric/statistics/weightsFromLogWeights.js';
 import { cornerData, parameterColumn, parameterSummary } from '../results/index.js';
-import { writeEqualWeightSamplesCsv, writeWeightedSamplesCsv } from '../records/samplesCsv.js';
+import { writePosteriorTables } from '../records/posteriorTables.js';
 import type { ModelEvidence } from './runModelEvidence.js';
 import { writeFitImages } from './writeFitImages.js';
 import { ImagePlaneSky } from '../data/imagePlaneSky.js';
@@ -14,8 +14,9 @@ import type { EvidenceRecord, ModelRecord } from '../records/modelRecord.js';
 import type { NestedResult } from '../sampling/nested/index.js';
 
 /**
- * Writes one model's samples (weighted and equal-weight CSV), corner-plot data, and the best-fit
- * model image, residual and normalised residual as FITS into `folder`; returns its record.
+ * Writes one model's posterior tables (weighted and equal-weight, CSV and NPY, posterior.json),
+ * corner-plot data, and the best-fit model image, residual and normalised residual as FITS into
+ * `folder`; returns its record.
  */
 export function writeModelOutputs(
   evidence: ModelEvidence, config: ArcsiftConfig, data: ObservedData, folder: string, seed: number,
@@ -25,18 +26,11 @@ export function writeModelOutputs(
   const units = system.parameters.map((p) => p.unit);
   const width = space.physicalDim;
   const weights = weightsFromLogWeights(result.lnWeight);
-  const files: Record<string, string> = {};
-
-  files.weightedSamples = join(folder, 'samples.csv');
-  writeWeightedSamplesCsv(files.weightedSamples, {
-    names, units, points: result.points, lnWeight: result.lnWeight, lnLikelihood: result.lnL,
-    lnEvidence: result.lnZ, lnEvidenceError: result.lnZError,
-  });
   const equal = equalWeightResample(result.points, width, weights, seed);
-  files.equalWeightSamples = join(folder, 'equal-weight-samples.csv');
-  writeEqualWeightSamplesCsv(files.equalWeightSamples, {
-    names, units, points: equal.points,
-    lnLikelihood: Float64Array.from(equal.sourceRows, (row) => result.lnL[row]),
+  const files = writePosteriorTables(folder, {
+    sampler: 'nested', names, units, lnEvidence: result.lnZ, lnEvidenceError: result.lnZError,
+    weighted: { points: result.points, lnWeight: result.lnWeight, lnLikelihood: result.lnL },
+    draws: { points: equal.points, lnLikelihood: Float64Array.from(equal.sourceRows, (row) => result.lnL[row]) },
   });
 
   const freeNames = space.freeNames;

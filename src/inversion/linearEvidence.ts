@@ -1,7 +1,27 @@
 import { EnvelopeCholesky } from '../numeric/sparse/envelopeCholesky.js';
+import { envelopeInverseDiagonal } from '../numeric/sparse/envelopeInverseDiagonal.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
+import { MultifrontalCholesky } from '../numeric/sparse/multifrontalCholesky.js';
+import { NestedDissection, type PlanePoints } from '../numeric/sparse/nestedDissection.js';
 import { ReverseCuthillMcKee } from '../numeric/sparse/reverseCuthillMcKee.js';
+import { SupernodeChain } from '../numeric/sparse/supernodeChain.js';
+import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
 import type { NormalMatrix } from './normalMatrix.js';
+
+/**
+ * Matrices whose stored fraction (2 nnz - n) / n^2 is at most this are ordered by nested
+ * dissection, denser ones by reverse Cuthill-McKee (the commit that set it has the
+ * measurements: the dissection saves work only where the coupling is short against the mesh).
+ */
+export const NESTED_DISSECTION_DENSITY = 0.12;
+
+/**
+ * How A is factored: `nestedDissection` (multifrontal Cholesky over the separator tree),
+ * `profileChain` (multifrontal Cholesky over blocks of a reverse Cuthill-McKee order),
+ * `envelope` (envelope Cholesky in that order, the earlier method, kept for comparison), or
+ * `automatic` (one of the first two by NESTED_DISSECTION_DENSITY, per call).
+ */
+export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'profileChain' | 'envelope';
 
 /**
  * The evidence of a linear Gaussian model with its unknowns integrated out: data d with inverse
@@ -9,42 +29,130 @@ import type { NormalMatrix } from './normalMatrix.js';
  * and b = R^T W d (NormalMatrix),
  *   ln Z = -1/2 sum_i ln(2 pi / w_i) - 1/2 d^T W d + 1/2 b^T A^-1 b - 1/2 ln det A + 1/2 ln det P
  * (the Gaussian integral over x; e.g. MacKay 2003, ch. 28; Suyu et al. 2006 give it for a
- * regularised source). A is factored by the sparse envelope Cholesky in reverse Cuthill-McKee
- * order with the dense amplitude rows last; the caller passes ln det P. Buffers are reused.
+ * regularised source). A is factored with the dense amplitude rows last, by default with the
+ * multifrontal Cholesky in nested-dissection order (the unknowns' plane coordinates guide it)
+ * or in reverse Cuthill-McKee order, whichever suits A's density; every choice gives ln Z to
+ * rounding. An ordering and its analysis are kept while A's pattern (and the coordinates, for
+ * the dissection) stay the same, so the ordering is a function of those alone: results do not
+ * depend on which calls came before (threads, resumed runs). The caller passes ln det P.
+ * Buffers are reused.
  */
 export class LinearEvidence {
   private readonly ordering = new ReverseCuthillMcKee();
-  readonly cholesky = new EnvelopeCholesky();
+  private readonly envelope = new EnvelopeCholesky();
+  private readonly dissection = new NestedDissection();
+  private readonly chain = new SupernodeChain();
+  private readonly multifrontal = new MultifrontalCholesky();
   private order = new Int32Array(0);
   private last = new Int32Array(0);
+  private used: Exclude<LinearEvidenceFactorisation, 'automatic'> = 'envelope';
+  /** What the multifrontal factor was last analysed for: the ordering, coordinates (pointCount -1: none) and dense count. */
+  private analysedFor: 'nestedDissection' | 'profileChain' | null = null;
+  private pointX = new Float64Array(0);
+  private pointY = new Float64Array(0);
+  private pointCount = -1;
+  private analysedLast = -1;
   /** A^-1 b of the last successful evaluation (the posterior mean of the unknowns). */
   solution = new Float64Array(0);
   private readonly constantTerm: number;
 
   /** `data` and `inverseVariance` at the N pixels fix the first two terms. */
-  constructor(data: Float64Array, inverseVariance: Float64Array) {
+  constructor(data: Float64Array, inverseVariance: Float64Array, readonly factorisation: LinearEvidenceFactorisation = 'automatic') {
     let constant = 0;
     for (let e = 0; e < data.length; e++) constant += Math.log((2 * Math.PI) / inverseVariance[e]) + data[e] * data[e] * inverseVariance[e];
     this.constantTerm = -0.5 * constant;
   }
 
+  /** Order of A in the last evaluation. */
+  get size(): number {
+    return this.used === 'envelope' ? this.envelope.size : this.multifrontal.size;
+  }
+
+  /** The factorisation the last evaluation used. */
+  get lastFactorisation(): Exclude<LinearEvidenceFactorisation, 'automatic'> {
+    return this.used;
+  }
+
   /**
    * ln Z for the normal matrix (its last `lastCount` rows ordered last), or NaN when A is not
-   * positive definite.
+   * positive definite. `points`: plane coordinates of the first unknowns (source cells), or null.
    */
-  evaluate(normal: NormalMatrix, lastCount: number, logDetPrior: number): number {
+  evaluate(normal: NormalMatrix, lastCount: number, logDetPrior: number, points: PlanePoints | null = null): number {
     const size = normal.size;
-    this.order = ensureInt32Capacity(this.order, size);
     this.last = ensureInt32Capacity(this.last, Math.max(1, lastCount));
     for (let a = 0; a < lastCount; a++) this.last[a] = size - lastCount + a;
-    const order = this.ordering.order(normal, this.order, this.last.subarray(0, lastCount));
-    this.cholesky.analyse(normal, order);
-    const logDetA = this.cholesky.factor(normal);
+    this.used = this.choose(normal);
+    const logDetA = this.used === 'envelope' ? this.factorEnvelope(normal, lastCount) : this.factorMultifrontal(normal, lastCount, points);
     if (Number.isNaN(logDetA)) return Number.NaN;
     this.solution = ensureFloat64Capacity(this.solution, size);
-    this.cholesky.solve(normal.rhs, this.solution);
+    if (this.used === 'envelope') this.envelope.solve(normal.rhs, this.solution);
+    else this.multifrontal.solve(normal.rhs, this.solution);
     let quadratic = 0;
     for (let i = 0; i < size; i++) quadratic += normal.rhs[i] * this.solution[i];
     return this.constantTerm + 0.5 * quadratic - 0.5 * logDetA + 0.5 * logDetPrior;
   }
+
+  /**
+   * The diagonal of A^-1 of the last successful evaluation into out[0 .. size - 1] (posterior
+   * variances; Takahashi recurrences on the factor used). It allocates: once per run, for reports.
+   */
+  inverseDiagonal(out: Float64Array): void {
+    if (this.used === 'envelope') envelopeInverseDiagonal(this.envelope, out);
+    else this.multifrontal.inverseDiagonal(out);
+  }
+
+  private choose(normal: SymmetricCsr): Exclude<LinearEvidenceFactorisation, 'automatic'> {
+    if (this.factorisation !== 'automatic') return this.factorisation;
+    const n = normal.size;
+    return 2 * normal.rowStart[n] - n <= NESTED_DISSECTION_DENSITY * n * n ? 'nestedDissection' : 'profileChain';
+  }
+
+  private factorEnvelope(normal: NormalMatrix, lastCount: number): number {
+    this.order = ensureInt32Capacity(this.order, normal.size);
+    const order = this.ordering.order(normal, this.order, this.last.subarray(0, lastCount));
+    this.envelope.analyse(normal, order);
+    return this.envelope.factor(normal);
+  }
+
+  /** Orders and analyses unless the kept analysis was for this ordering, pattern, dense count and coordinates. */
+  private factorMultifrontal(normal: NormalMatrix, lastCount: number, points: PlanePoints | null): number {
+    const dissect = this.used === 'nestedDissection';
+    const kept = this.analysedFor === this.used && lastCount === this.analysedLast
+      && (!dissect || this.samePoints(points)) && this.multifrontal.isAnalysedFor(normal);
+    if (!kept) {
+      this.analysedFor = null;
+      this.order = ensureInt32Capacity(this.order, normal.size);
+      const last = this.last.subarray(0, lastCount);
+      if (dissect) {
+        this.multifrontal.analyse(normal, this.order, this.dissection.order(normal, points, last, this.order));
+        this.keepPoints(points);
+      } else {
+        this.multifrontal.analyse(normal, this.ordering.order(normal, this.order, last), this.chain.build(normal.size));
+      }
+      this.analysedFor = this.used === 'nestedDissection' ? 'nestedDissection' : 'profileChain';
+      this.analysedLast = lastCount;
+    }
+    return this.multifrontal.factor(normal);
+  }
+
+  private samePoints(points: PlanePoints | null): boolean {
+    const count = points === null ? -1 : points.count;
+    if (count !== this.pointCount) return false;
+    if (points === null) return true;
+    return sameCoordinates(points.x, this.pointX, count) && sameCoordinates(points.y, this.pointY, count);
+  }
+
+  private keepPoints(points: PlanePoints | null): void {
+    this.pointCount = points === null ? -1 : points.count;
+    if (points === null) return;
+    this.pointX = ensureFloat64Capacity(this.pointX, points.count);
+    this.pointY = ensureFloat64Capacity(this.pointY, points.count);
+    for (let v = 0; v < points.count; v++) this.pointX[v] = points.x[v];
+    for (let v = 0; v < points.count; v++) this.pointY[v] = points.y[v];
+  }
+}
+
+function sameCoordinates(a: ArrayLike<number>, b: Float64Array, count: number): boolean {
+  for (let v = 0; v < count; v++) if (a[v] !== b[v]) return false;
+  return true;
 }

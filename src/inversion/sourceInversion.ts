@@ -3,7 +3,6 @@ import type { PsfKernel } from '../imaging/psfKernel.js';
 import type { MassTerm } from '../lensing/massTerm.js';
 import type { PixelatedSourceTerm } from '../model/pixelatedSourceTerm.js';
 import { TriangulationStatus } from '../numeric/geometry/triangulationStatus.js';
-import { envelopeInverseDiagonal } from '../numeric/sparse/envelopeInverseDiagonal.js';
 import { ensureFloat64Capacity } from '../numeric/sparse/ensureCapacity.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
 import { AdaptiveMesh } from './adaptiveMesh.js';
@@ -101,6 +100,8 @@ export class SourceInversion {
   private fixedH: { matrix: SymmetricCsr; logDet: number } | null = null;
   private readonly extraPrecision: number;
   private cellCount = 0;
+  /** The cells' coordinates for the nested-dissection ordering, updated in place each call. */
+  private readonly cellPoints: { x: Float64Array; y: Float64Array; count: number } = { x: new Float64Array(0), y: new Float64Array(0), count: 0 };
 
   constructor(setup: InversionSetup) {
     this.setup = setup;
@@ -192,7 +193,10 @@ export class SourceInversion {
     const k = setup.extraCount;
     this.normal.build(this.b, this.bt, cellCount, setup.inverseVariance, setup.data, prior.matrix, prior.scale, extras, k, this.extraPrecision);
     this.lap(5);
-    const value = this.evidence.evaluate(this.normal, k, prior.logDet + k * Math.log(this.extraPrecision));
+    this.cellPoints.x = this.mesh.cellX;
+    this.cellPoints.y = this.mesh.cellY;
+    this.cellPoints.count = cellCount;
+    const value = this.evidence.evaluate(this.normal, k, prior.logDet + k * Math.log(this.extraPrecision), this.cellPoints);
     this.lap(6);
     if (Number.isNaN(value)) {
       this.rejections.notPositiveDefinite++;
@@ -259,8 +263,8 @@ export class SourceInversion {
    */
   reconstruction(): SourceReconstruction {
     const n = this.cellCount;
-    const variance = new Float64Array(this.evidence.cholesky.size);
-    envelopeInverseDiagonal(this.evidence.cholesky, variance);
+    const variance = new Float64Array(this.evidence.size);
+    this.evidence.inverseDiagonal(variance);
     return {
       mesh: this.regular !== null ? 'regular' : 'adaptive',
       cellX: Float64Array.from(this.mesh.cellX.subarray(0, n)),

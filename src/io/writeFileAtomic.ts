@@ -1,19 +1,23 @@
-import { mkdirSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { renameSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname } from 'node:path';
+import { fileSystemFault } from './fileSystemFault.js';
+import { makeFolder } from './makeFolder.js';
 
 /**
  * Writes a file so that a reader (or a killed run) never sees it half-written: the bytes go to
- * a temporary name in the same folder, then one rename puts them in place.
+ * a temporary name in the same folder, then one rename puts them in place. A fault of the place
+ * (permission, read-only, full disk, a file where a folder should be) is an InputError naming
+ * the path, and the temporary file is removed.
  */
 export function writeFileAtomic(path: string, data: string | Uint8Array): void {
-  mkdirSync(dirname(path), { recursive: true });
+  makeFolder(dirname(path));
   const temporary = `${path}.${process.pid}.${Math.random().toString(36).slice(2)}.tmp`;
   try {
     writeFileSync(temporary, data);
     renameSync(temporary, path);
   } catch (error) {
     rmSync(temporary, { force: true });
-    throw error;
+    throw fileSystemFault(error, path);
   }
 }
 

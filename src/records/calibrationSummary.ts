@@ -1,3 +1,5 @@
+import type { CosmologyRecord } from '../cosmology/configuredCosmology.js';
+
 /** A fraction of trials with its binomial uncertainty (Wilson 1927 interval at 68.27%). */
 export interface ProportionRecord {
   readonly successes: number;
@@ -68,6 +70,8 @@ export interface CalibrationSummary {
   readonly title: string;
   readonly job: 'fit' | 'compare';
   readonly seed: number;
+  /** The cosmology of every draw's simulation and fit (the config's). */
+  readonly cosmology?: CosmologyRecord;
   readonly runOptions: readonly string[];
   readonly rankDraws: number;
   readonly draws: {

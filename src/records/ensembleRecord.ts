@@ -4,7 +4,7 @@ import type { ModelRecord } from './modelRecord.js';
 export interface EnsembleParameterDiagnostics {
   readonly name: string;
   readonly unit: string;
-  /** Integrated autocorrelation time, in iterations. */
+  /** Integrated autocorrelation time (Sokal's window), in sweeps. */
   readonly autocorrelationTime: number | null;
   /** Rank-normalised split R-hat, walkers as chains. */
   readonly rHat: number | null;
@@ -17,27 +17,30 @@ export interface EnsembleRecord {
   readonly label: string;
   readonly start: string;
   readonly walkers: number;
-  /** Iterations run (each moves every walker once). */
-  readonly iterations: number;
-  readonly storedSteps: number;
+  /** Sweeps run (each proposes a move to every walker once). */
+  readonly sweeps: number;
+  /** Sweeps stored (every thin-th). */
+  readonly storedSweeps: number;
   readonly thin: number;
-  /** Stored steps left out as burn-in, before chain.csv and every diagnostic. */
-  readonly burnInSteps: number;
-  /** Rows of chain.csv: retained steps times walkers. */
+  /** Sweeps left out as burn-in, before walker-paths.csv and every diagnostic. */
+  readonly burnInSweeps: number;
+  /** Rows of walker-paths.csv: retained stored sweeps times walkers. */
   readonly retainedSamples: number;
   readonly evaluations: number;
   readonly nonFiniteProposals: number;
-  /** True when the autocorrelation stopping rule was met before the step limit. */
+  /** When the run counts as mixed: every free parameter's R-hat at most maxRHat, bulk and tail ESS at least minEffectiveSampleSize. */
+  readonly stopRule: { readonly minEffectiveSampleSize: number; readonly maxRHat: number };
+  /** True when the stop rule was met before the sweep limit. */
   readonly converged: boolean;
   readonly stopped: boolean;
   readonly acceptanceFraction: { readonly mean: number; readonly min: number };
   /** False when some autocorrelation time came from a series too short for Sokal's window rule. */
   readonly autocorrelationReliable: boolean;
-  /** Retained iterations over the largest autocorrelation time. */
-  readonly chainLengthInAutocorrelationTimes: number | null;
+  /** The smallest bulk or tail ESS and the largest R-hat over the free parameters. */
+  readonly smallestEffectiveSampleSize: number | null;
   readonly maxRHat: number | null;
   readonly diagnostics: readonly EnsembleParameterDiagnostics[];
-  /** Reasons not to trust the chain yet (R-hat, chain length); empty when none. */
+  /** Reasons not to trust the chain yet (stop rule not met, R-hat, autocorrelation times); empty when none. */
   readonly warnings: readonly string[];
   readonly bestLnLikelihood: number;
   readonly bestFit: Record<string, number>;

@@ -3,6 +3,8 @@
 export type { RunProvenance } from './provenance.js';
 export { runProvenance } from './provenance.js';
 export { configHash } from './configHash.js';
+export { identityChanges, refuseAnotherRun, runIdentity, type DataFileIdentity, type RunIdentity } from './runIdentity.js';
+export { qualifiedReading, unfinishedRuns, type RunStop } from './unfinishedRuns.js';
 export { packageVersion } from '../io/packageVersion.js';
 export type { TruthFile, TruthParameter, TruthPerturber } from './truthFile.js';
 export type { SourceFile } from './sourceFile.js';
@@ -22,8 +24,10 @@ export type {
   CalibrationSummary, CalibrationParameterRecord, CalibrationDetectionRecord, CalibrationDrawRecord, ProportionRecord,
 } from './calibrationSummary.js';
 export {
-  EQUAL_WEIGHT_SAMPLES_TITLE, WEIGHTED_SAMPLES_TITLE, formatEqualWeightSamplesCsv, formatWeightedSamplesCsv,
-  writeEqualWeightSamplesCsv, writeWeightedSamplesCsv, type EqualWeightSamplesTable, type WeightedSamplesTable,
-} from './samplesCsv.js';
-export { readSamplesTable, type SamplesTable } from './readSamplesTable.js';
-export { readWeightedSamples, type WeightedSamplesColumns } from './readWeightedSamples.js';
+  LEADING_COLUMNS, POSTERIOR_FILE_NAMES, POSTERIOR_FORMAT, POSTERIOR_FORMAT_VERSION, POSTERIOR_SIDECAR, POSTERIOR_TABLES, SAMPLER_COLUMNS,
+  writePosteriorTables, type PosteriorDraws, type PosteriorSidecar, type PosteriorTableEntry, type PosteriorTableName,
+  type PosteriorTablesContent, type WalkerPaths, type WeightedPosteriorRows,
+} from './posteriorTables.js';
+export { readPosteriorSidecar } from './readPosteriorSidecar.js';
+export { readPosteriorTable, type PosteriorTable } from './readPosteriorTable.js';
+export { readWeightedPosterior, type WeightedPosteriorColumns } from './readWeightedPosterior.js';

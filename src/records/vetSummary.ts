@@ -29,7 +29,10 @@ export interface VetRunRecord {
   readonly lnBayesFactorError: number;
   readonly verdict: VetVerdict;
   /** Kass & Raftery 1995 reading of ln B. */
+  /** The Kass & Raftery reading of ln B, saying first when its runs were cut short. */
   readonly reading: string;
+  /** False when this run or the smooth one was cut short: ln B and the verdict are not final. */
+  readonly finished: boolean;
   /** log10 of the sampled mass (M200 for NFW-type perturbers, total mass otherwise), median and intervals. */
   readonly log10Mass: ParameterSummary;
   readonly log10MassUpperLimit95: number;

@@ -1,3 +1,4 @@
+import { RunInterrupted } from '../errors.js';
 import { WorkerPool } from '../parallel/workerPool.js';
 import { workerScriptUrl } from '../parallel/workerScriptUrl.js';
 import { minimumDetectableMass, type MinimumDetectableMass } from './minimumDetectableMass.js';
@@ -8,21 +9,26 @@ import { searchOf, type SensitivityAnswer, type SensitivityQuestion, type Sensit
 /**
  * The minimum detectable mass at every grid point. With one thread everything runs here; with
  * more, the points are shared among worker threads (a WorkerPool; results do not depend on which
- * thread answers, each point being computed alone and deterministically).
+ * thread answers, each point being computed alone and deterministically). A stop request ends
+ * it between points with RunInterrupted (the map has no checkpoint: a resume computes it again).
  */
 export async function computeSensitivity(
   task: SensitivityTask, points: readonly SensitivityPoint[], threads: number,
-  onPoint?: (done: number, total: number) => void,
+  onPoint?: (done: number, total: number) => void, signal?: { stopRequested: boolean },
 ): Promise<MinimumDetectableMass[]> {
   const results = new Array<MinimumDetectableMass>(points.length);
   const count = Math.max(1, Math.min(Math.floor(threads), points.length));
   if (count === 1) {
     const statistic = new PlantedPerturberStatistic(task.config, task.data, task.bestFit, task.refit);
     const search = searchOf(task, statistic);
-    points.forEach((point, k) => {
+    for (let k = 0; k < points.length; k++) {
+      // Yield to the event loop between points, so that a signal's handler can run.
+      await new Promise((resolve) => { setImmediate(resolve); });
+      if (signal?.stopRequested === true) throw new RunInterrupted([]);
+      const point = points[k];
       results[k] = minimumDetectableMass((m) => statistic.deltaChiSquare(point.xArcsec, point.yArcsec, m), search);
       onPoint?.(k + 1, points.length);
-    });
+    }
     return results;
   }
   const pool = await WorkerPool.start<SensitivityQuestion, SensitivityAnswer>(
@@ -36,7 +42,8 @@ export async function computeSensitivity(
         done: (answer) => {
           results[answer.id] = answer.result;
           onPoint?.(++done, points.length);
-          resolve();
+          if (signal?.stopRequested === true) reject(new RunInterrupted([]));
+          else resolve();
         },
         reject,
       });

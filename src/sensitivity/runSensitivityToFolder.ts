@@ -13,6 +13,7 @@ import type { SmoothBestFitSource } from './smoothBestFit.js';
 import { sensitivityApproximation } from '../records/cautions.js';
 import type { DetectableMassLimit, MassDecadeFraction, RefitSettings, SensitivityRecord, SensitivitySummary } from '../records/sensitivitySummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { unfinishedRuns } from '../records/unfinishedRuns.js';
 import { runDefaults } from '../settings/runDefaults.js';
 
 export interface SensitivitySettings {
@@ -28,6 +29,8 @@ export interface SensitivitySettings {
   readonly seed: number;
   readonly bestFit: SmoothBestFitSource;
   readonly onPoint?: (done: number, total: number) => void;
+  /** A stop request: the map is abandoned between grid points (it has no checkpoint) with RunInterrupted. */
+  readonly signal?: { stopRequested: boolean };
 }
 
 const cell = (v: number): string => (Number.isFinite(v) ? String(+v.toPrecision(8)) : v > 0 ? 'inf' : '');
@@ -53,7 +56,7 @@ export async function runSensitivityToFolder(
   const task = { config, data, bestFit: settings.bestFit, refit, threshold, toleranceDex };
   // Built here once to check the config (mass prior) before any thread starts, and for the names.
   const probe = new PlantedPerturberStatistic(config, data, settings.bestFit, refit);
-  const results = await computeSensitivity(task, grid.points, settings.threads, settings.onPoint);
+  const results = await computeSensitivity(task, grid.points, settings.threads, settings.onPoint, settings.signal);
   const records: SensitivityRecord[] = grid.points.map((p, k) => ({
     xArcsec: p.xArcsec, yArcsec: p.yArcsec, column: p.column, row: p.row,
     log10MinimumMass: results[k].log10Mass, limit: results[k].limit, refitEvaluations: results[k].evaluations,
@@ -92,7 +95,7 @@ export async function runSensitivityToFolder(
   probe.smoothSpace.names.forEach((name, k) => { parameters[name] = settings.bestFit.parameters[k]; });
   const summary: SensitivitySummary = {
     kind: 'sensitivity',
-    ...runProvenance(config, data, settings.seed, started),
+    ...runProvenance(config, data, settings.seed, started, unfinishedRuns([{ label: 'smooth best fit', stopReason: settings.bestFit.stopReason }])),
     perturber: { key: perturber.key, kind: perturber.kind, log10MassPriorRange: [lower, upper] },
     bestFit: { from: settings.bestFit.from, parameters, lnLikelihood: settings.bestFit.bestLnLikelihood },
     settings: { gridSize: grid.n, threshold, deltaChiSquareThreshold: 2 * threshold, toleranceDex, refit, threads: settings.threads },

@@ -14,11 +14,15 @@ export interface SmoothBestFitSource extends SmoothBestFit {
   /** `run folder DIR` or `nested run (N live points)`. */
   readonly from: string;
   readonly bestLnLikelihood: number;
+  /** Why the run that found it stopped: 'converged', or the limit that cut it short. */
+  readonly stopReason: string;
 }
 
-function withAmplitudes(config: ArcsiftConfig, data: ObservedData, parameters: Float64Array, from: string): SmoothBestFitSource {
+function withAmplitudes(
+  config: ArcsiftConfig, data: ObservedData, parameters: Float64Array, from: string, stopReason: string,
+): SmoothBestFitSource {
   const fit = new PixelLikelihood(config, data, 0).modelImage(parameters);
-  return { parameters, amplitudes: fit.amplitudes, from, bestLnLikelihood: fit.logLikelihood };
+  return { parameters, amplitudes: fit.amplitudes, from, bestLnLikelihood: fit.logLikelihood, stopReason };
 }
 
 /**
@@ -41,14 +45,15 @@ export function smoothBestFitFromFolder(config: ArcsiftConfig, data: ObservedDat
   const records = [
     Array.isArray(models) ? undefined : models?.smooth, summary.model, summary.smooth, ...(Array.isArray(models) ? models : []),
   ] as ({ label?: unknown; bestFit?: unknown } | undefined)[];
-  const record = records.find((r) => r !== undefined && r !== null && r.label === 'smooth' && typeof r.bestFit === 'object' && r.bestFit !== null);
+  const record = records.find((r) => r !== undefined && r !== null && r.label === 'smooth' && typeof r.bestFit === 'object' && r.bestFit !== null) as
+    ({ bestFit: unknown; stopReason?: unknown } | undefined);
   if (record === undefined) {
     throw new InputError('best-fit run folder: expected a smooth model record with bestFit (from compare, a smooth fit, or vet), found none', { file: path });
   }
   const bestFit = record.bestFit as Record<string, unknown>;
   const system = buildLensSystem(config, { perturberCount: 0 });
   const parameters = modelVectorFromRecord(system, bestFit, path, 'bestFit');
-  return withAmplitudes(config, data, parameters, `run folder ${folder}`);
+  return withAmplitudes(config, data, parameters, `run folder ${folder}`, typeof record.stopReason === 'string' ? record.stopReason : 'converged');
 }
 
 /** The smooth model's highest-likelihood point of a (short) nested-sampling run. */
@@ -58,5 +63,5 @@ export async function smoothBestFitFromRun(config: ArcsiftConfig, data: Observed
   let best = 0;
   for (let r = 1; r < result.count; r++) if (result.lnL[r] > result.lnL[best]) best = r;
   const parameters = result.points.slice(best * space.physicalDim, (best + 1) * space.physicalDim);
-  return withAmplitudes(config, data, parameters, `nested run of the smooth model (${settings.livePoints} live points, seed ${settings.seed})`);
+  return withAmplitudes(config, data, parameters, `nested run of the smooth model (${settings.livePoints} live points, seed ${settings.seed})`, result.stopReason);
 }

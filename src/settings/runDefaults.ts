@@ -21,6 +21,7 @@ export interface RunSettings {
     readonly sliceStepsPerParameter: number;
     /** Stop when the live points could add less than this to ln Z. */
     readonly lnZTolerance: number;
+    /** Seconds between checkpoints of a run's state (the ensemble sampler's too). */
     readonly checkpointSeconds: number;
     /**
      * Where ln Z comes from: 'nested' (the nested-sampling sum) or 'importance' (importance
@@ -37,11 +38,19 @@ export interface RunSettings {
   };
   /** Ensemble MCMC of `fit --sampler ensemble`. */
   readonly ensemble: {
-    readonly maxSteps: number;
-    /** Stop once the chain after burn-in is this many autocorrelation times long. */
-    readonly targetAutocorrelationTimes: number;
-    readonly move: 'stretch' | 'differentialEvolution';
-    readonly checkpointEverySteps: number;
+    /** Largest number of sweeps (a sweep proposes a move to every walker once). */
+    readonly maxSweeps: number;
+    /**
+     * Stop once every free parameter's bulk and tail effective sample size reach this and its
+     * R-hat is at most maxRHat (Vehtari et al. 2021 recommend 400 and 1.01).
+     */
+    readonly minEffectiveSampleSize: number;
+    readonly maxRHat: number;
+    /** Sweeps between checks of that rule. */
+    readonly checkEverySweeps: number;
+    readonly proposal: 'stretch' | 'differentialEvolution';
+    /** Live points of the short nested run whose posterior draws the walkers start from. */
+    readonly startLivePoints: number;
   };
   /** Vetting of network flags. */
   readonly vet: {
@@ -121,7 +130,7 @@ export const runDefaults: RunSettings = deepFreeze({
     checkpointSeconds: 30, evidence: 'nested',
   },
   demo: { livePoints: 50, sliceStepsPerParameter: 1, noiseSeed: 1 },
-  ensemble: { maxSteps: 5000, targetAutocorrelationTimes: 50, move: 'stretch', checkpointEverySteps: 100 },
+  ensemble: { maxSweeps: 5000, minEffectiveSampleSize: 400, maxRHat: 1.01, checkEverySweeps: 100, proposal: 'stretch', startLivePoints: 50 },
   vet: { windowArcsec: 0.4, confirmAboveLnB: 3, disfavourBelowLnB: -1, mapThreshold: 0.5, mergeRadiusArcsec: 0.15 },
   sensitivity: {
     livePoints: 50, gridSize: 10, threshold: 5, toleranceDex: 0.05,
@@ -147,8 +156,8 @@ const rules: { readonly [S in Section]: { readonly [K in keyof RunSettings[S]]: 
   },
   demo: { livePoints: { whole: 2 }, sliceStepsPerParameter: { above: 0 }, noiseSeed: { whole: 1 } },
   ensemble: {
-    maxSteps: { whole: 1 }, targetAutocorrelationTimes: { above: 0 }, move: { choices: ['stretch', 'differentialEvolution'] },
-    checkpointEverySteps: { whole: 1 },
+    maxSweeps: { whole: 1 }, minEffectiveSampleSize: { above: 0 }, maxRHat: { above: 1 }, checkEverySweeps: { whole: 1 },
+    proposal: { choices: ['stretch', 'differentialEvolution'] }, startLivePoints: { whole: 2 },
   },
   vet: { windowArcsec: { above: 0 }, confirmAboveLnB: { any: true }, disfavourBelowLnB: { any: true }, mapThreshold: { above: 0 }, mergeRadiusArcsec: { atLeast: 0 } },
   sensitivity: {

@@ -45,7 +45,7 @@ export function simulateObservation(config: ArcsiftConfig, options: SimulationOp
   }
   const noiseModel = config.observation.noise;
   if (noiseModel === undefined) {
-    throw new InputError('simulate needs a noise model: expected observation.noise { backgroundRms, exposureSeconds }, found none', { file: config.file, key: 'observation.noise' });
+    throw new InputError('simulate needs a noise model: expected observation.noise { skySigma, integrationSeconds }, found none', { file: config.file, key: 'observation.noise' });
   }
   const grid = gridOfObservation(config.observation);
   const psf = psfOfObservation(config.observation, config.file);
@@ -53,7 +53,7 @@ export function simulateObservation(config: ArcsiftConfig, options: SimulationOp
   const forward = new ForwardModel(system, grid, config.observation.supersampling, psf);
   const model = forward.image(truthVector, amplitudes, new Float64Array(forward.pixelCount));
   const noise = new Float64Array(model.length);
-  noiseSigmaMap(model, noiseModel.backgroundRms, noiseModel.exposureSeconds, noise);
+  noiseSigmaMap(model, noiseModel.skySigma, noiseModel.integrationSeconds, noise);
   const image = Float64Array.from(model);
   if (!options.noiseless) addGaussianNoise(model, noise, options.seed, image);
   const perturbers = system.perturbers.map((binding) => ({ key: binding.key, ...binding.derived(truthVector) }));

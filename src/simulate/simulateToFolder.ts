@@ -1,5 +1,7 @@
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
+import { InputError } from '../errors.js';
 import { writeFits } from '../fits/index.js';
 import type { HeaderCard } from '../fits/headerCard.js';
 import type { PixelGrid } from '../imaging/pixelGrid.js';
@@ -60,19 +62,28 @@ export function truthRecord(config: ArcsiftConfig, simulation: Simulation, optio
     imageUnit: 'counts/s per pixel',
     files: {
       'image.fits': 'observed image (model plus noise, or the model with --noiseless)',
-      'noise.fits': 'per-pixel 1-sigma noise: sqrt(backgroundRms^2 + model / exposureSeconds)',
+      'noise.fits': 'per-pixel 1-sigma noise: sqrt(skySigma^2 + model / integrationSeconds)',
       'psf.fits': 'PSF kernel, summing to 1',
       'mask.fits': '1 where a pixel is used in a fit, 0 elsewhere',
     },
   };
 }
 
+/** The files `simulateToFolder` writes, in order. */
+export const SIMULATED_FILES: readonly string[] = ['image.fits', 'noise.fits', 'psf.fits', 'mask.fits', 'truth.json'];
+
 /**
  * Simulates the config and writes image.fits, noise.fits, psf.fits, mask.fits and truth.json
- * into `folder`. Everything is computed before anything is written, and each file is written
- * atomically. Returns the paths written.
+ * into `folder`. A folder that already holds any of them is refused (an InputError naming them)
+ * unless `overwrite`: a finished run's record names its data files, and silently replacing them
+ * would make its report show data it was not fitted to. Everything is computed before anything
+ * is written, and each file is written atomically. Returns the paths written.
  */
-export function simulateToFolder(config: ArcsiftConfig, folder: string, options: SimulationOptions): string[] {
+export function simulateToFolder(config: ArcsiftConfig, folder: string, options: SimulationOptions & { readonly overwrite?: boolean }): string[] {
+  const present = SIMULATED_FILES.filter((name) => existsSync(join(folder, name)));
+  if (present.length > 0 && options.overwrite !== true) {
+    throw new InputError(`already holds a data set (${present.join(', ')}): choose another --out, or pass --force to replace it`, { file: folder });
+  }
   const simulation = simulateObservation(config, options);
   const { grid, psf } = simulation;
   const psfGrid = { columns: psf.columns, rows: psf.rows, pixelScaleArcsec: grid.pixelScaleArcsec };

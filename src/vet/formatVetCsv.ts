@@ -4,7 +4,7 @@ import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
 export const VET_CSV_COLUMNS = [
   'candidate', 'flag_x_arcsec', 'flag_y_arcsec', 'score', 'ln_bayes_factor', 'ln_bayes_factor_error', 'verdict',
   'log10_mass_median', 'log10_mass_68_lower', 'log10_mass_68_upper', 'log10_mass_upper_limit_95',
-  'x_arcsec', 'y_arcsec', 'offset_arcsec', 'flag_ra_deg', 'flag_dec_deg', 'ra_deg', 'dec_deg',
+  'x_arcsec', 'y_arcsec', 'offset_arcsec', 'flag_ra_deg', 'flag_dec_deg', 'ra_deg', 'dec_deg', 'finished',
 ] as const;
 
 const cell = (v: number | null | undefined): string => (v === null || v === undefined || !Number.isFinite(v) ? '' : String(+v.toPrecision(8)));
@@ -20,6 +20,7 @@ function row(r: VetRunRecord): string {
     confirmed ? '' : cell(r.log10MassUpperLimit95),
     cell(r.position.xArcsec.median), cell(r.position.yArcsec.median), cell(r.offsetArcsec),
     sky(r.flag?.raDeg), sky(r.flag?.decDeg), sky(r.position.sky?.raDeg.median), sky(r.position.sky?.decDeg.median),
+    r.finished === false ? 'false' : 'true',
   ].join(',');
 }
 
@@ -35,6 +36,7 @@ export function formatVetCsv(summary: VetSummary): string {
     `# arcsift vet: ln B = ln Z(perturbed) - ln Z(smooth); confirmed when ln B > ${t.confirmAboveLnB}, disfavoured when ln B < ${t.disfavourBelowLnB}, inconclusive between`,
     `# log10 mass of the ${summary.perturberKind} perturber in solar masses (M200 for NFW-type perturbers, total mass otherwise): median and 68% interval when confirmed, 95% upper limit otherwise`,
     '# positions in arcsec from the image centre (x with the column, y with the row); offset = distance of the posterior median from the flag',
+    '# finished: false when this run or the smooth one was cut short before converging (ln B and verdict not final)',
     `# ra, dec: degrees${summary.wcs === undefined ? ' (empty: the image has no celestial WCS)' : ` (${summary.wcs.frame}), posterior medians of RA and of Dec`}`,
     ...(summary.smooth === null ? ['# no candidates to vet: no fit was run (see vet.json flags.notices)'] : []),
     VET_CSV_COLUMNS.join(','),

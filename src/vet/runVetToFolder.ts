@@ -16,6 +16,7 @@ import { mapPriorNote, priorCaution } from '../records/cautions.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import type { VetRunRecord, VetSummary, VetThresholds, VetVerdict } from '../records/vetSummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { qualifiedReading, unfinishedRuns } from '../records/unfinishedRuns.js';
 
 /** A flag's position for vet.json: x, y, and RA, Dec when the image has a celestial WCS. */
 function flagRecord(xArcsec: number, yArcsec: number, sky: ImagePlaneSky | undefined): NonNullable<VetRunRecord['flag']> {
@@ -25,16 +26,18 @@ function flagRecord(xArcsec: number, yArcsec: number, sky: ImagePlaneSky | undef
 }
 
 function runRecord(
-  run: PerturbedVetting, model: ModelRecord, id: string, origin: string, positionPrior: string,
+  run: PerturbedVetting, model: ModelRecord, smooth: ModelRecord, id: string, origin: string, positionPrior: string,
   flag: VetRunRecord['flag'], score: number | undefined, offsetArcsec: number | null,
 ): VetRunRecord {
   const p = run.perturber;
+  const unfinished = unfinishedRuns([{ label: 'smooth', stopReason: smooth.stopReason }, { label: id, stopReason: model.stopReason }]);
   return {
     id, origin, flag, score: score ?? null, positionPrior,
     lnBayesFactor: run.lnBayesFactor,
     lnBayesFactorError: run.lnBayesFactorError,
     verdict: run.verdict,
-    reading: bayesFactorReading(run.lnBayesFactor).sentence,
+    reading: qualifiedReading(bayesFactorReading(run.lnBayesFactor).sentence, unfinished),
+    finished: unfinished.length === 0,
     log10Mass: p.log10Mass,
     log10MassUpperLimit95: p.log10MassUpperLimit95,
     massPriorRange: p.massPriorRange,
@@ -64,7 +67,7 @@ function writeNothingToVet(config: ArcsiftConfig, data: ObservedData, flags: Fla
   const { onProgress: _a, signal: _b, checkpointPath: _c, ...smoothSettings } = settings.evidence('smooth', 'smooth');
   const summary: VetSummary = {
     kind: 'vet',
-    ...runProvenance(config, data, smoothSettings.seed, started),
+    ...runProvenance(config, data, smoothSettings.seed, started, []),
     flags: flagsRecord(flags),
     settings: smoothSettings,
     thresholds: settings.thresholds ?? { confirmAboveLnB: runDefaults.vet.confirmAboveLnB, disfavourBelowLnB: runDefaults.vet.disfavourBelowLnB },
@@ -105,7 +108,7 @@ export async function runVetToFolder(
   const candidates = result.candidates.map((c) => {
     const model = writeModelOutputs(c.evidence, c.config, data, join(folder, c.folderName), seed);
     return runRecord(
-      c, model, c.candidate.id, c.candidate.origin,
+      c, model, smooth, c.candidate.id, c.candidate.origin,
       `x uniform on ${range(c.window.xArcsec)}, y uniform on ${range(c.window.yArcsec)} arcsec (a ${result.windowArcsec}" square around the flag)`,
       flagRecord(c.candidate.xArcsec, c.candidate.yArcsec, sky), c.candidate.score, c.offsetArcsec,
     );
@@ -114,7 +117,7 @@ export async function runVetToFolder(
   if (result.mapPrior !== undefined) {
     const m = result.mapPrior;
     const model = writeModelOutputs(m.evidence, m.config, data, join(folder, m.folderName), seed);
-    mapPrior = runRecord(m, model, 'map-prior', m.mapFile, `the probability map ${m.mapFile}, normalised over the mask`, null, undefined, null);
+    mapPrior = runRecord(m, model, smooth, 'map-prior', m.mapFile, `the probability map ${m.mapFile}, normalised over the mask`, null, undefined, null);
   }
   const perturbedRun = result.candidates[0]?.evidence ?? result.mapPrior?.evidence;
   const binding = perturbedRun?.system.perturbers[0];
@@ -123,9 +126,13 @@ export async function runVetToFolder(
     result.candidates.length > 0 ? `uniform on a ${result.windowArcsec}" x ${result.windowArcsec}" square centred on each flag` : undefined,
     result.mapPrior !== undefined ? `the probability map ${result.mapPrior.mapFile} (map-prior run)` : undefined,
   ].filter((s) => s !== undefined).join('; ');
+  const unfinished = unfinishedRuns([
+    { label: 'smooth', stopReason: smooth.stopReason },
+    ...[...candidates, ...(mapPrior === null ? [] : [mapPrior])].map((r) => ({ label: r.id, stopReason: r.model.stopReason })),
+  ]);
   const summary: VetSummary = {
     kind: 'vet',
-    ...runProvenance(config, data, seed, started),
+    ...runProvenance(config, data, seed, started, unfinished),
     flags: flagsRecord(flags),
     settings: smoothSettings,
     thresholds: result.thresholds,

@@ -3,6 +3,7 @@ import type { ObservedData } from '../data/observedData.js';
 import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError, expectedFound } from '../errors.js';
 import { summarisePerturbers } from '../inference/perturberSummary.js';
+import { awaitAllRuns } from '../inference/awaitAllRuns.js';
 import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
 import type { FlagCandidate } from './flagCandidate.js';
 import { MapPositionPrior } from './mapPositionPrior.js';
@@ -87,17 +88,27 @@ export function vetConcurrency(threads: number, runs: number): number {
   return Math.max(1, Math.min(Math.floor(threads), runs));
 }
 
-/** Runs `jobs` with at most `concurrency` at once, in list order; results in list order. */
+/**
+ * Runs `jobs` with at most `concurrency` at once, in list order; results in list order. After a
+ * failure no job starts, and the running ones end (each writes its checkpoint) before the first
+ * failure is thrown (awaitAllRuns).
+ */
 async function runSideBySide<T>(jobs: readonly (() => Promise<T>)[], concurrency: number): Promise<T[]> {
   const results = new Array<T>(jobs.length);
   let next = 0;
+  let failed = false;
   const lane = async (): Promise<void> => {
-    while (next < jobs.length) {
+    while (next < jobs.length && !failed) {
       const k = next++;
-      results[k] = await jobs[k]();
+      try {
+        results[k] = await jobs[k]();
+      } catch (error) {
+        failed = true;
+        throw error;
+      }
     }
   };
-  await Promise.all(Array.from({ length: concurrency }, lane));
+  await awaitAllRuns(Array.from({ length: concurrency }, lane));
   return results;
 }
 

@@ -69,10 +69,10 @@ export function rowResults(out: string, id: string): { evidences: number[]; samp
   if (summary.kind === 'comparison') {
     return {
       evidences: [summary.models.smooth.lnEvidence, summary.models.perturbed.lnEvidence, summary.bayesFactor.lnBayesFactor],
-      samples: ['smooth', 'perturbed'].map((m) => readFileSync(join(folder, m, 'samples.csv'), 'utf8')),
+      samples: ['smooth', 'perturbed'].map((m) => readFileSync(join(folder, m, 'posterior-weighted.csv'), 'utf8')),
     };
   }
-  return { evidences: [summary.evidence.lnEvidence], samples: [readFileSync(join(folder, 'samples.csv'), 'utf8')] };
+  return { evidences: [summary.evidence.lnEvidence], samples: [readFileSync(join(folder, 'posterior-weighted.csv'), 'utf8')] };
 }
 
 /** Starts `arcsift ARGS` in a process group of its own, so that the whole group can be killed like a node going down. */

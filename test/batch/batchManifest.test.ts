@@ -61,7 +61,7 @@ describe('readBatchManifest', () => {
     expect(rows.map((r) => [r.id, r.job, r.options])).toEqual([['north', 'fit', ['--perturbers', '0']], ['south', 'sensitivity', ['--grid', '4']]]);
     const plan: BatchPlan = { format: 'arcsift batch plan', version: 1, manifest: file, rows, runOptions: ['--live-points', '30'], reports: false };
     expect(rowCommand('/b', plan, rows[0], 2)).toEqual([
-      'fit', '--config', join(root, 'lens.yaml'), '--data', join(root, 'data-1'), '--out', '/b/rows/north', '--resume', '--quiet', '--threads', '2',
+      'fit', '--config', join(root, 'lens.yaml'), '--data', join(root, 'data-1'), '--out', '/b/rows/north', '--resume', '--take-over-lock', '--quiet', '--threads', '2',
       '--no-report', '--live-points', '30', '--perturbers', '0',
     ]);
   });

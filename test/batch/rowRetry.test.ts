@@ -25,9 +25,10 @@ fs.writeFileSync(countFile, String(count));
 if (count <= plan.failures) { process.stderr.write('arcsift: internal error: failure ' + count + '\\n'); process.exit(plan.status); }
 fs.mkdirSync(out, { recursive: true });
 fs.writeFileSync(path.join(out, 'summary.json'), JSON.stringify({ kind: 'fit', sampler: 'nested', perturberCount: 0, evidence: { lnEvidence: -count, lnEvidenceError: 0.1 }, model: { stopReason: 'converged', parameters: [] } }));
+process.exit(plan.finalStatus ?? 0);
 `;
 
-function scratch(rows: { id: string; failures: number; status: number }[]): { root: string; manifest: string; cli: string } {
+function scratch(rows: { id: string; failures: number; status: number; finalStatus?: number }[]): { root: string; manifest: string; cli: string } {
   const root = mkdtempSync(join(tmpdir(), 'arcsift-retry-'));
   const cli = join(root, 'stand-in.cjs');
   writeFileSync(cli, standIn);
@@ -67,6 +68,25 @@ describe('batch rows that fail', () => {
     expect(more.mode === 'local' && Object.fromEntries(more.outcomes)).toEqual({ flaky: 'already-finished', broken: 'failed', mistake: 'failed' });
     expect(readRowState(out, 'broken').attempts).toHaveLength(4);
     expect(readRowState(out, 'mistake').attempts).toHaveLength(1);
+  });
+
+  it('counts a command stopped by its own signal (status 4) as interrupted, and one a limit cut short (status 3) as finished', async () => {
+    // arcsift's exit statuses (src/errors.ts EXIT_STATUS): 4 after SIGTERM with a last
+    // checkpoint written, 3 when a limit cut the run short and its summary says finished: false.
+    const s = scratch([
+      { id: 'signalled', failures: 1, status: 4 },
+      { id: 'limited', failures: 0, status: 0, finalStatus: 3 },
+    ]);
+    const out = join(s.root, 'batch');
+    const first = await runBatch({ manifest: s.manifest, out, cliPath: s.cli, maxAttempts: 1, parallel: 1 });
+    expect(first.mode === 'local' && Object.fromEntries(first.outcomes)).toEqual({ signalled: 'interrupted', limited: 'finished' });
+    expect(readRowState(out, 'signalled').attempts.map((a) => [a.outcome, a.exitCode])).toEqual([['interrupted', 4]]);
+    expect(readRowState(out, 'limited').attempts.map((a) => [a.outcome, a.exitCode, a.message])).toEqual([
+      ['finished', 3, 'cut short by a limit of its options: its summary says finished: false'],
+    ]);
+    // An interruption is no failure: with one attempt allowed, the next run still resumes the row.
+    const second = await runBatch({ manifest: s.manifest, out, cliPath: s.cli, maxAttempts: 1, parallel: 1 });
+    expect(second.mode === 'local' && Object.fromEntries(second.outcomes)).toEqual({ signalled: 'finished', limited: 'already-finished' });
   });
 
   it('takes a row\'s lock only when free or stale', () => {

@@ -56,7 +56,10 @@ describe('arcsift calibrate on the small test lens', () => {
     for (const d of s.perDraw) {
       const summary = JSON.parse(readFileSync(join(out, 'batch', 'rows', d.id, 'summary.json'), 'utf8'));
       expect(d.lnBayesFactor).toBe(summary.bayesFactor.lnBayesFactor);
+      // Each draw's fit records the cosmology the calibration records (the config's).
+      expect(summary.cosmology).toEqual(s.cosmology);
     }
+    expect(s.cosmology?.set).toBe('planck2018');
     expect(first.stdout).toMatch(/false detections on draws without a perturber: \d of 3/);
   });
 
@@ -93,6 +96,7 @@ describe('arcsift calibrate on the small test lens', () => {
         expect(rows[k]).toContain(`${(100 * p.coverage68.fraction!).toFixed(0)}%`);
       });
       expect(await tab.innerText('#false-detection-table')).toContain(String(s.detection!.falseDetection.successes));
+      expect(await tab.innerText('body')).toContain('cosmology Planck 2018 TT,TE,EE+lowE+lensing+BAO: H0 = 67.66 km/s/Mpc, Omega_m = 0.3111, flat');
       await tab.screenshot({ path: join(root, 'calibration-report.png'), fullPage: true });
     } finally {
       await browser.close();

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { SeededStream } from '../../src/numeric/random/seededStream.js';
 import { weightsFromLogWeights } from '../../src/numeric/statistics/weightsFromLogWeights.js';
 import { parameterSummary } from '../../src/results/parameterSummary.js';
-import { writeWeightedSamplesCsv } from '../../src/records/samplesCsv.js';
+import { writePosteriorTables } from '../../src/records/posteriorTables.js';
 import { calibrationStatistics, readDrawPosterior, type DrawPosterior } from '../../src/calibration/collectCalibration.js';
 import type { CalibrationDraw } from '../../src/calibration/calibrationDraws.js';
 
@@ -115,7 +115,10 @@ describe('simulation-based calibration of a conjugate normal model', () => {
       const folder = join(root, d.draw.id);
       mkdirSync(folder);
       const lnWeight = Float64Array.from(d.posterior.weights, Math.log);
-      writeWeightedSamplesCsv(join(folder, 'samples.csv'), { names: ['a', 'b'], units: ['', ''], points: d.posterior.points, lnWeight, lnLikelihood: new Float64Array(SAMPLES), lnEvidence: 0 });
+      writePosteriorTables(folder, {
+        sampler: 'nested', names: ['a', 'b'], units: ['', ''], lnEvidence: 0, lnEvidenceError: 0,
+        weighted: { points: d.posterior.points, lnWeight, lnLikelihood: new Float64Array(SAMPLES) },
+      });
       const parameters = ['a', 'b'].map((name) => ({ name, unit: '', median: 0, interval68: d.intervals.get(name)!.interval68, interval95: d.intervals.get(name)!.interval95 }));
       writeFileSync(join(folder, 'summary.json'), JSON.stringify({ kind: 'fit', sampler: 'nested', model: { stopReason: 'converged', parameters } }));
       return readDrawPosterior(folder, d.draw);

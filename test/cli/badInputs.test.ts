@@ -87,13 +87,24 @@ describe('bad inputs through the CLI', () => {
     expect(existsSync(out)).toBe(false);
   });
 
+  it('refuses a noise key of an earlier version with the key that replaced it, and writes nothing', () => {
+    const old = join(scratch, 'old-noise.yaml');
+    writeFileSync(old, readFileSync(config, 'utf8').replace(/skySigma/, 'backgroundRms'));
+    const out = join(scratch, 'never-simulated-old');
+    const r = run(['simulate', '--config', old, '--out', out]);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/old-noise\.yaml, key observation\.noise\.backgroundRms: backgroundRms is no longer read: the key is now skySigma/);
+    expect(r.stderr).not.toMatch(/\n\s+at /);
+    expect(existsSync(out)).toBe(false);
+  });
+
   it('asks simulate for the noise model a config for fitting may leave out, and writes nothing', () => {
     const bad = join(scratch, 'no-noise.yaml');
     writeFileSync(bad, readFileSync(config, 'utf8').replace(/^  noise: .*\n/m, ''));
     const out = join(scratch, 'never-simulated');
     const r = run(['simulate', '--config', bad, '--out', out]);
     expect(r.status).toBe(2);
-    expect(r.stderr).toMatch(/no-noise\.yaml, key observation\.noise: simulate needs a noise model: expected observation\.noise \{ backgroundRms, exposureSeconds \}, found none/);
+    expect(r.stderr).toMatch(/no-noise\.yaml, key observation\.noise: simulate needs a noise model: expected observation\.noise \{ skySigma, integrationSeconds \}, found none/);
     expect(existsSync(out)).toBe(false);
   });
 

@@ -29,7 +29,7 @@ describe('the demo, reduced', () => {
     const summary = JSON.parse(readFileSync(join(out, 'compare', 'summary.json'), 'utf8'));
     expect(summary.kind).toBe('comparison');
     expect(summary.priors.perturbed.length).toBeGreaterThan(summary.priors.smooth.length);
-    for (const file of ['samples.csv', 'equal-weight-samples.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
+    for (const file of ['posterior-weighted.csv', 'posterior-weighted.npy', 'posterior-draws.csv', 'posterior-draws.npy', 'posterior.json', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
       expect(existsSync(join(out, 'compare', 'perturbed', file)), file).toBe(true);
     }
   }, 420_000);

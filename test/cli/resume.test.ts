@@ -51,6 +51,6 @@ describe('interrupted compare', () => {
     expect(b.models.smooth.lnEvidence).toBe(a.models.smooth.lnEvidence);
     expect(b.models.perturbed.lnEvidence).toBe(a.models.perturbed.lnEvidence);
     expect(b.bayesFactor.lnBayesFactor).toBe(a.bayesFactor.lnBayesFactor);
-    expect(readFileSync(join(out, 'perturbed', 'samples.csv'), 'utf8')).toBe(readFileSync(join(root, 'whole', 'perturbed', 'samples.csv'), 'utf8'));
+    expect(readFileSync(join(out, 'perturbed', 'posterior-weighted.csv'), 'utf8')).toBe(readFileSync(join(root, 'whole', 'perturbed', 'posterior-weighted.csv'), 'utf8'));
   }, 400_000);
 });

@@ -37,6 +37,17 @@ describe('config loading', () => {
     expect(messageOf(data)).toMatch(/^broken\.yaml, key observation\.pixelScale: unknown key/);
   });
 
+  it('refuses the noise keys of earlier versions, naming the key that replaced each', () => {
+    const old = demo();
+    old.observation.noise = { backgroundRms: 0.003, exposureSeconds: 10000 };
+    expect(messageOf(old)).toBe('broken.yaml, key observation.noise.backgroundRms: backgroundRms is no longer read: ' +
+      "the key is now skySigma (the sky background's 1-sigma per pixel, counts/s)");
+    old.observation.noise = { skySigma: 0.003, exposureSeconds: 10000 };
+    expect(messageOf(old)).toBe('broken.yaml, key observation.noise.exposureSeconds: exposureSeconds is no longer read: the key is now integrationSeconds (seconds)');
+    const now = demo();
+    expect(parseConfig(now, 'demo.yaml').observation.noise).toEqual({ skySigma: 0.003, integrationSeconds: 10000 });
+  });
+
   it('names the key, the expectation and the finding for a wrong type', () => {
     const data = demo();
     data.observation.columns = 'one hundred';

@@ -149,7 +149,7 @@ describe('notices, not errors (own validation contract, common practice)', () =>
 describe('config against data: a notice only where they differ (own contract)', () => {
   it('says nothing of a PSF and mask the data share with the config, and names the one used where they differ', () => {
     const yaml = (fwhm: number, outer: number): string => `observation: { columns: 40, rows: 40, pixelScaleArcsec: 0.09, supersampling: 1,
-  psf: { shape: gaussian, fwhmArcsec: ${fwhm}, sizePixels: 7 }, noise: { backgroundRms: 0.012, exposureSeconds: 3000 },
+  psf: { shape: gaussian, fwhmArcsec: ${fwhm}, sizePixels: 7 }, noise: { skySigma: 0.012, integrationSeconds: 3000 },
   mask: { shape: annulus, innerRadiusArcsec: 0.5, outerRadiusArcsec: ${outer} } }
 redshifts: { lens: 0.5, source: 2 }
 lens: { mass: [{ kind: isothermalEllipsoid, einsteinRadiusArcsec: 1.1, axisRatio: 0.8, positionAngleDeg: 40, centerXArcsec: 0, centerYArcsec: 0 }] }

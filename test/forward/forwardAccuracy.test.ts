@@ -20,7 +20,7 @@ function unlensedGaussianScene(supersampling: number): unknown {
     observation: {
       columns: 40, rows: 36, pixelScaleArcsec: 0.05, supersampling,
       psf: { shape: 'gaussian', fwhmArcsec: 0.12, sizePixels: 21 },
-      noise: { backgroundRms: 0.01, exposureSeconds: 1000 },
+      noise: { skySigma: 0.01, integrationSeconds: 1000 },
     },
     redshifts: { lens: 0.5, source: 2 },
     lens: { mass: [{ kind: 'isothermalEllipsoid', einsteinRadiusArcsec: 0, axisRatio: 0.8,

@@ -13,7 +13,7 @@ function smallScenario(overrides: { einsteinRadius: number; sourceSigma: number;
     observation: {
       columns: 40, rows: 36, pixelScaleArcsec: 0.05, supersampling: overrides.supersampling,
       psf: { shape: 'gaussian', fwhmArcsec: 0.12, sizePixels: 21 },
-      noise: { backgroundRms: 0.01, exposureSeconds: 1000 },
+      noise: { skySigma: 0.01, integrationSeconds: 1000 },
     },
     redshifts: { lens: 0.5, source: 2 },
     lens: { mass: [{ kind: 'isothermalEllipsoid', einsteinRadiusArcsec: overrides.einsteinRadius, axisRatio: 0.8,

@@ -9,9 +9,9 @@ import { loadConfig } from '../../src/config/arcsiftConfig.js';
 import { loadObservedData, type ObservedData } from '../../src/data/index.js';
 import { InputError } from '../../src/errors.js';
 import { readFitsImage } from '../../src/fits/index.js';
-import { ballAroundConfiguredValues } from '../../src/inference/ensembleStart.js';
+import { startAtConfiguredValues } from '../../src/inference/ensembleStart.js';
 import { modelParameterSpace } from '../../src/model/modelParameterSpace.js';
-import { readSamplesTable } from '../../src/records/readSamplesTable.js';
+import { readPosteriorTable } from '../../src/records/readPosteriorTable.js';
 import { runFitToFolder } from '../../src/inference/runFitToFolder.js';
 import { PixelLikelihood } from '../../src/likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../../src/model/lensSystem.js';
@@ -29,12 +29,14 @@ const mainScript = fileURLToPath(new URL('../../dist/cli/main.js', import.meta.u
 const config = loadConfig(configPath);
 const smoothTruth = { ...config, perturbers: [] };
 
+const summaryOf = (folder: string): { finished: boolean } => JSON.parse(readFileSync(join(folder, 'summary.json'), 'utf8'));
+
 function arcsift(args: string[]): { status: number | null; stdout: string; stderr: string } {
   const run = spawnSync(process.execPath, [mainScript, ...args], { encoding: 'utf8', timeout: 120_000 });
   return { status: run.status, stdout: run.stdout, stderr: run.stderr };
 }
 
-describe('ballAroundConfiguredValues', () => {
+describe('startAtConfiguredValues', () => {
   const system = buildLensSystem(config, { perturberCount: 0 });
   const space = modelParameterSpace(system);
   const without = (name: string, value: number | undefined) => ({
@@ -43,21 +45,21 @@ describe('ballAroundConfiguredValues', () => {
 
   it('centres on the config values, or on the prior median where none is given, with 1e-3 of the prior width', () => {
     const radius = 'source.light[0].effectiveRadiusArcsec';
-    const start = ballAroundConfiguredValues(without(radius, undefined), space);
-    if (!('ball' in start)) throw new Error('expected a ball');
+    const start = startAtConfiguredValues(without(radius, undefined), space);
+    if (!('around' in start)) throw new Error('expected a Gaussian start');
     const k = space.freeNames.indexOf(radius);
     // Median of log-uniform [0.05, 0.8] is the geometric mean sqrt(0.05 * 0.8) = 0.2 (elementary).
-    expect(start.ball.center[k]).toBeCloseTo(0.2, 12);
-    expect(start.ball.scale[k]).toBeCloseTo(1e-3 * (0.8 - 0.05), 15);
+    expect(start.around.center[k]).toBeCloseTo(0.2, 12);
+    expect(start.around.spread[k]).toBeCloseTo(1e-3 * (0.8 - 0.05), 15);
     const einstein = space.freeNames.indexOf('lens.mass[0].einsteinRadiusArcsec');
-    expect(start.ball.center[einstein]).toBe(1.1);
-    expect(start.ball.scale[einstein]).toBeCloseTo(1e-3 * (1.3 - 0.9), 15);
+    expect(start.around.center[einstein]).toBe(1.1);
+    expect(start.around.spread[einstein]).toBeCloseTo(1e-3 * (1.3 - 0.9), 15);
   });
 
   it('names the key of a value outside its prior', () => {
     const key = 'lens.mass[0].axisRatio';
-    expect(() => ballAroundConfiguredValues(without(key, 1.2), space)).toThrow(InputError);
-    expect(() => ballAroundConfiguredValues(without(key, 1.2), space)).toThrow(`key ${key}`);
+    expect(() => startAtConfiguredValues(without(key, 1.2), space)).toThrow(InputError);
+    expect(() => startAtConfiguredValues(without(key, 1.2), space)).toThrow(`key ${key}`);
   });
 });
 
@@ -74,7 +76,11 @@ describe('runFitToFolder with the ensemble sampler', () => {
     const outcome = await runFitToFolder(config, data, fitDir, {
       sampler: 'ensemble',
       perturberCount: 0,
-      ensemble: { seed: 3, threads: 2, maxSteps: 400, targetAutocorrelationTimes: 50, move: 'differentialEvolution' },
+      ensemble: {
+        seed: 3, threads: 2, maxSweeps: 400, stopRule: { minEffectiveSampleSize: 400, maxRHat: 1.01 }, proposal: 'differentialEvolution',
+        // The default start: the posterior of a short nested run of the same model, made first.
+        start: { nestedRun: { livePoints: 20, seed: 3, threads: 2, method: 'auto', replacementsPerStep: 1, lnZTolerance: 0.5 } },
+      },
     });
     summary = outcome.summary as EnsembleFitSummary;
   }, 120_000);
@@ -102,8 +108,11 @@ describe('runFitToFolder with the ensemble sampler', () => {
     expect(written.configSha256).toMatch(/^[0-9a-f]{64}$/);
     const m = written.model;
     expect(m.walkers).toBe(12); // max(4, 2 x 5 free + 2)
-    expect(m.iterations).toBe(400);
-    expect(m.evaluations).toBeGreaterThanOrEqual(12 * 401); // the start plus one proposal per walker per iteration
+    expect(m.sweeps).toBe(m.converged ? m.sweeps : 400);
+    expect(m.evaluations).toBeGreaterThanOrEqual(12 * (m.sweeps + 1)); // the start plus one proposal per walker per sweep
+    expect(m.start).toContain('nested run of the same model made first (20 live points)');
+    expect(existsSync(join(fitDir, 'nested-start', 'posterior-draws.csv'))).toBe(true);
+    expect(m.stopRule).toEqual({ minEffectiveSampleSize: 400, maxRHat: 1.01 });
     expect(typeof m.converged).toBe('boolean');
     expect(m.acceptanceFraction.mean).toBeGreaterThan(0);
     expect(m.acceptanceFraction.mean).toBeLessThanOrEqual(1);
@@ -116,16 +125,17 @@ describe('runFitToFolder with the ensemble sampler', () => {
       expect(d.tailEffectiveSampleSize, d.name).toBeGreaterThan(0);
     }
     // The warnings must agree with the numbers they are about.
-    const short = (m.chainLengthInAutocorrelationTimes ?? 0) < 50;
-    expect(m.warnings.some((w) => w.includes('autocorrelation times long'))).toBe(short);
-    expect(m.warnings.some((w) => w.includes('R-hat'))).toBe((m.maxRHat ?? Infinity) > 1.01);
+    const mixed = (m.smallestEffectiveSampleSize ?? 0) >= 400 && (m.maxRHat ?? Infinity) <= 1.01;
+    expect(m.converged).toBe(mixed);
+    expect(m.warnings.some((w) => w.includes('have not mixed after 400 sweeps'))).toBe(!mixed);
+    expect(m.warnings.some((w) => w.includes('R-hat above 1.01'))).toBe(!mixed && (m.maxRHat ?? Infinity) > 1.01);
     expect(written.priors.filter((p) => !p.fixed)).toHaveLength(5);
     expect(written.caution.length).toBeGreaterThan(0);
   });
 
   it('brackets the truth of every free smooth parameter within the central 99.7% of its posterior', () => {
     const truth = buildLensSystem(smoothTruth).configuredValues();
-    const table = readSamplesTable(join(fitDir, 'chain.csv'));
+    const table = readPosteriorTable(join(fitDir, 'walker-paths.csv'));
     const weights = new Float64Array(table.count).fill(1);
     for (const p of summary.model.parameters) {
       const index = table.names.indexOf(p.name);
@@ -137,12 +147,12 @@ describe('runFitToFolder with the ensemble sampler', () => {
   });
 
   it('writes the chain after burn-in with ln L matching the pixel likelihood', () => {
-    const table = readSamplesTable(join(fitDir, 'chain.csv'));
+    const table = readPosteriorTable(join(fitDir, 'walker-paths.csv'));
     const m = summary.model;
     expect(table.count).toBe(m.retainedSamples);
-    expect(table.count).toBe((m.storedSteps - m.burnInSteps) * m.walkers);
+    expect(table.count).toBe((m.storedSweeps - m.burnInSweeps / m.thin) * m.walkers);
     expect(table.names).toEqual(buildLensSystem(config, { perturberCount: 0 }).parameters.map((p) => p.name));
-    const lnL = table.lnLikelihood!;
+    const lnL = table.samplerColumns.get('lnLikelihood')!;
     expect(Math.max(...lnL)).toBe(m.bestLnLikelihood);
     // ln L = ln posterior - ln prior from the sampler must equal a direct evaluation up to the
     // rounding of that subtraction (a few ulps of |ln L| ~ 3.6e3, so 1e-9 absolute is generous).
@@ -173,14 +183,15 @@ describe('runFitToFolder with the ensemble sampler', () => {
     }
   });
 
-  it('starts a CLI ensemble run from the chain, and refuses a chain of another model', () => {
-    const chain = join(fitDir, 'chain.csv');
+  it('starts a CLI ensemble run at the walker paths of a fit, and refuses those of another model', () => {
+    const chain = join(fitDir, 'walker-paths.csv');
     const common = ['fit', '--config', configPath, '--data', dataDir, '--sampler', 'ensemble', '--threads', '2', '--quiet'];
-    const ok = arcsift([...common, '--perturbers', '0', '--steps', '20', '--start-from', chain, '--out', join(out, 'restart')]);
-    expect(ok.status, ok.stderr).toBe(0);
+    const ok = arcsift([...common, '--perturbers', '0', '--max-sweeps', '20', '--posterior-from', chain, '--out', join(out, 'restart')]);
+    // 20 sweeps cannot meet the stop rule: the run is recorded as cut short (status 3).
+    expect(ok.status, ok.stderr).toBe(3);
     const restarted = JSON.parse(readFileSync(join(out, 'restart', 'summary.json'), 'utf8')) as EnsembleFitSummary;
-    expect(restarted.model.start).toContain('chain.csv');
-    const wrong = arcsift([...common, '--perturbers', '1', '--steps', '20', '--start-from', chain, '--out', join(out, 'wrong')]);
+    expect(restarted.model.start).toContain('walker-paths.csv');
+    const wrong = arcsift([...common, '--perturbers', '1', '--max-sweeps', '20', '--posterior-from', chain, '--out', join(out, 'wrong')]);
     expect(wrong.status).toBe(2);
     expect(wrong.stderr).toContain('another model');
     expect(existsSync(join(out, 'wrong', 'summary.json'))).toBe(false);
@@ -206,7 +217,7 @@ describe('arcsift fit on the command line', () => {
     const folder = join(out, 'nested');
     const run = arcsift(['fit', '--config', configPath, '--data', dataDir, '--perturbers', '0', '--live-points', '20',
       '--max-evaluations', '3000', '--threads', '2', '--quiet', '--out', folder]);
-    expect(run.status, run.stderr).toBe(0);
+    expect(run.status, run.stderr).toBe(summaryOf(folder).finished ? 0 : 3);
     const summary = JSON.parse(readFileSync(join(folder, 'summary.json'), 'utf8')) as NestedFitSummary;
     expect(summary.kind).toBe('fit');
     expect(summary.sampler).toBe('nested');
@@ -215,7 +226,7 @@ describe('arcsift fit on the command line', () => {
     expect(summary.priors).toHaveLength(12);
     expect(summary.priors.filter((p) => !p.fixed).map((p) => p.kind)).toEqual(['uniform', 'uniform', 'logUniform', 'uniform', 'uniform']);
     expect(summary.perturbers).toEqual([]);
-    for (const file of ['samples.csv', 'equal-weight-samples.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
+    for (const file of ['posterior-weighted.csv', 'posterior-weighted.npy', 'posterior-draws.csv', 'posterior-draws.npy', 'posterior.json', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
       expect(existsSync(join(folder, file)), file).toBe(true);
     }
     expect(run.stdout).toContain('ln Z = ');

@@ -4,7 +4,7 @@
 // N(d; 0, C + R P^-1 R^T), and brute-force numerical integration over the unknowns.
 import { CholeskyDecomposition, Matrix, inverse } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { LinearEvidence } from '../../src/inversion/linearEvidence.js';
+import { LinearEvidence, type LinearEvidenceFactorisation } from '../../src/inversion/linearEvidence.js';
 import { NormalMatrix } from '../../src/inversion/normalMatrix.js';
 import { RegularisationMatrix } from '../../src/inversion/regularisationMatrix.js';
 import { addDifferenceRow, emptyDifferenceRows } from '../../src/inversion/sourceMesh.js';
@@ -72,15 +72,25 @@ function logDet(m: Matrix): number {
   return sum;
 }
 
-/** ln Z by the code under test. */
-function evidenceOf(p: Problem): number {
+/** The normal matrix of a problem and ln det P. */
+function normalOf(p: Problem): { normal: NormalMatrix; logDetPrior: number } {
   const regularisation = new RegularisationMatrix();
   const h = regularisation.build(lineGradient(p.cells), p.cells);
   const logDetH = regularisation.logDeterminant();
   const normal = new NormalMatrix();
   normal.build(p.b, p.bt, p.cells, p.w, p.d, h, p.lambda, p.extrasPacked, p.extras, 1 / (p.s * p.s));
-  const logDetPrior = p.cells * Math.log(p.lambda) + logDetH - p.extras * Math.log(p.s * p.s);
-  return new LinearEvidence(p.d, p.w).evaluate(normal, p.extras, logDetPrior);
+  return { normal, logDetPrior: p.cells * Math.log(p.lambda) + logDetH - p.extras * Math.log(p.s * p.s) };
+}
+
+/** The cells' coordinates on their line. */
+function linePoints(cells: number): { x: Float64Array; y: Float64Array; count: number } {
+  return { x: Float64Array.from({ length: cells }, (_, c) => c), y: new Float64Array(cells), count: cells };
+}
+
+/** ln Z by the code under test. */
+function evidenceOf(p: Problem, factorisation: LinearEvidenceFactorisation = 'automatic'): number {
+  const { normal, logDetPrior } = normalOf(p);
+  return new LinearEvidence(p.d, p.w, factorisation).evaluate(normal, p.extras, logDetPrior, linePoints(p.cells));
 }
 
 /** ln N(d; 0, C + R P^-1 R^T): the same evidence computed in data space. */
@@ -104,10 +114,73 @@ describe('the evidence of a regularised linear inversion', () => {
     // Two routes to one Gaussian integral: A = P + R^T W R in the unknowns' space (the code) and
     // the N x N covariance C + R P^-1 R^T in data space (Woodbury's identity makes them equal).
     // Both round at ~1e-13 relative here; 1e-9 leaves room for the conditioning of A.
-    for (const [n, cells, extras, seed] of [[40, 6, 2, 3], [60, 12, 0, 5], [30, 3, 1, 8]] as const) {
+    // Each factorisation, and the automatic choice, on each problem; the 150-cell problem is
+    // sparse enough for the automatic choice to take the nested dissection.
+    const factorisations: LinearEvidenceFactorisation[] = ['automatic', 'nestedDissection', 'profileChain', 'envelope'];
+    for (const [n, cells, extras, seed] of [[40, 6, 2, 3], [60, 12, 0, 5], [30, 3, 1, 8], [400, 150, 2, 21]] as const) {
       const p = problem(n, cells, extras, seed);
       const expected = dataSpaceEvidence(p);
-      expect(Math.abs(evidenceOf(p) - expected)).toBeLessThan(1e-9 * Math.abs(expected));
+      for (const factorisation of factorisations) {
+        expect(Math.abs(evidenceOf(p, factorisation) - expected)).toBeLessThan(1e-9 * Math.abs(expected));
+      }
+    }
+  });
+
+  it('takes the nested dissection for a sparse A only', () => {
+    const sparse = problem(400, 150, 2, 21);
+    const { normal, logDetPrior } = normalOf(sparse);
+    const evidence = new LinearEvidence(sparse.d, sparse.w);
+    evidence.evaluate(normal, sparse.extras, logDetPrior, linePoints(sparse.cells));
+    expect(evidence.lastFactorisation).toBe('nestedDissection');
+    const dense = problem(40, 6, 2, 3);
+    const small = normalOf(dense);
+    const denseEvidence = new LinearEvidence(dense.d, dense.w);
+    denseEvidence.evaluate(small.normal, dense.extras, small.logDetPrior, linePoints(dense.cells));
+    expect(denseEvidence.lastFactorisation).toBe('profileChain');
+  });
+
+  it('keeps an analysis for the same pattern and points only, with the result of a fresh one', () => {
+    // New values on the same pattern (inverse variances scaled): a kept analysis must give what a
+    // fresh instance gives, bit for bit (same ordering, same operations). Then the same pattern
+    // with moved points must be ordered afresh: again equal to a fresh instance.
+    const sparse = problem(400, 150, 2, 21);
+    const first = normalOf(sparse);
+    const scaled = { ...sparse, w: sparse.w.map((v) => 1.7 * v) };
+    const again = normalOf(scaled);
+    const moved = linePoints(scaled.cells);
+    for (let c = 0; c < scaled.cells; c++) moved.x[c] = c < 75 ? 149 - c : c - 75;
+    for (const factorisation of ['nestedDissection', 'profileChain'] as const) {
+      const kept = new LinearEvidence(scaled.d, scaled.w, factorisation);
+      kept.evaluate(first.normal, sparse.extras, first.logDetPrior, linePoints(sparse.cells));
+      const reused = kept.evaluate(again.normal, scaled.extras, again.logDetPrior, linePoints(scaled.cells));
+      const fresh = new LinearEvidence(scaled.d, scaled.w, factorisation).evaluate(again.normal, scaled.extras, again.logDetPrior, linePoints(scaled.cells));
+      expect(reused).toBe(fresh);
+      expect(Math.abs(reused - dataSpaceEvidence(scaled))).toBeLessThan(1e-9 * Math.abs(reused));
+      const reordered = kept.evaluate(again.normal, scaled.extras, again.logDetPrior, moved);
+      expect(reordered).toBe(new LinearEvidence(scaled.d, scaled.w, factorisation).evaluate(again.normal, scaled.extras, again.logDetPrior, moved));
+    }
+  });
+
+  it('gives the diagonal of A^-1 of ml-matrix with either factorisation', () => {
+    // Posterior variances of the 150-cell problem against ml-matrix's inverse of the dense A
+    // (built from the stored lower triangle). A's condition number is 2.5e3 (ml-matrix's SVD),
+    // so either route rounds at ~1e-12 relative; 1e-10 leaves a margin and no more.
+    const p = problem(400, 150, 2, 21);
+    const { normal, logDetPrior } = normalOf(p);
+    const size = normal.size;
+    const a = new Matrix(size, size);
+    for (let i = 0; i < size; i++) for (let k = normal.rowStart[i]; k < normal.rowStart[i + 1]; k++) {
+      a.set(i, normal.column[k], normal.value[k]);
+      a.set(normal.column[k], i, normal.value[k]);
+    }
+    const expected = inverse(a);
+    for (const factorisation of ['nestedDissection', 'profileChain', 'envelope'] as const) {
+      const evidence = new LinearEvidence(p.d, p.w, factorisation);
+      evidence.evaluate(normal, p.extras, logDetPrior, linePoints(p.cells));
+      expect(evidence.lastFactorisation).toBe(factorisation);
+      const variance = new Float64Array(size);
+      evidence.inverseDiagonal(variance);
+      for (let i = 0; i < size; i++) expect(Math.abs(variance[i] - expected.get(i, i))).toBeLessThan(1e-10 * expected.get(i, i));
     }
   });
 

@@ -9,7 +9,7 @@ function tidalConfig(mass: unknown[], x: number, y: number, extra: Record<string
   return {
     observation: {
       columns: 20, rows: 20, pixelScaleArcsec: 0.1, psf: { shape: 'gaussian', fwhmArcsec: 0.1, sizePixels: 5 },
-      noise: { backgroundRms: 0.01, exposureSeconds: 1000 }, mask: { shape: 'all' },
+      noise: { skySigma: 0.01, integrationSeconds: 1000 }, mask: { shape: 'all' },
     },
     redshifts: { lens: 0.5, source: 2 },
     lens: { mass },

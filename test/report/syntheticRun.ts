@@ -52,7 +52,7 @@ observation:
   pixelScaleArcsec: ${SCALE_ARCSEC}
   supersampling: 2
   psf: { shape: gaussian, fwhmArcsec: 0.1, sizePixels: 5 }
-  noise: { backgroundRms: 0.05, exposureSeconds: 1000 }
+  noise: { skySigma: 0.05, integrationSeconds: 1000 }
   mask: { shape: disc, outerRadiusArcsec: 0.5 }
 redshifts: { lens: 0.5, source: 2.0 }
 lens:

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { runEnsemble, type EnsembleMoveOption, type EnsembleResult } from '../../src/sampling/ensemble/index.js';
+import { runEnsemble, type EnsembleProposalOption, type EnsembleResult } from '../../src/sampling/ensemble/index.js';
 import { retainedMeanWithError } from './chainMeanError.js';
 
 // Target: 10-D Gaussian with mean mu_i = i - 4.5 and covariance Sigma_ij = s_i s_j r^|i-j|, r = 0.8,
@@ -53,13 +53,13 @@ function checkGaussianMoments(result: EnsembleResult): void {
   }
 }
 
-async function sample(move: EnsembleMoveOption, seed: number): Promise<EnsembleResult> {
+async function sample(proposal: EnsembleProposalOption, seed: number): Promise<EnsembleResult> {
   return runEnsemble({ dim: D, logPosterior: logGaussian }, {
     walkers: 32,
     seed,
-    move,
-    start: { ball: { center: new Float64Array(D), scale: new Float64Array(D).fill(1) } },
-    maxSteps: 14000,
+    proposal,
+    start: { around: { center: new Float64Array(D), spread: new Float64Array(D).fill(1) } },
+    maxSweeps: 14000,
   });
 }
 

@@ -28,8 +28,8 @@ describe('ensemble MCMC on the Rosenbrock density', () => {
     const result = await runEnsemble({ dim: 2, logPosterior: logRosenbrock }, {
       walkers: 8,
       seed: 31,
-      start: { ball: { center: Float64Array.of(1, 1), scale: Float64Array.of(0.1, 0.1) } },
-      maxSteps: 2_000_000,
+      start: { around: { center: Float64Array.of(1, 1), spread: Float64Array.of(0.1, 0.1) } },
+      maxSweeps: 2_000_000,
       thin: 100,
     });
     // Each check: the function, its exact mean, and the largest Monte-Carlo error at which the

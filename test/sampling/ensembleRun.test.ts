@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
 import {
-  decodeFloat64, encodeFloat64, posteriorOnSpace, runEnsemble, type EnsembleOptions, type EnsembleResult,
+  decodeFloat64, encodeFloat64, isCheckSweep, mixingCheck, mixingDiagnostics, posteriorOnSpace, runEnsemble, type EnsembleOptions, type EnsembleResult,
 } from '../../src/sampling/ensemble/index.js';
 import { ParameterSpace } from '../../src/priors/parameterSpace.js';
 
@@ -44,12 +44,12 @@ async function logStandardNormalScattered(points: Float64Array, count: number): 
 const baseOptions = (extra: Partial<EnsembleOptions> = {}): EnsembleOptions => ({
   walkers: 12,
   seed: 4242,
-  start: { ball: { center: new Float64Array(DIM), scale: new Float64Array(DIM).fill(0.5) } },
-  maxSteps: 600,
+  start: { around: { center: new Float64Array(DIM), spread: new Float64Array(DIM).fill(0.5) } },
+  maxSweeps: 600,
   thin: 2,
-  move: [{ move: 'stretch', weight: 2 }, { move: 'differentialEvolution', weight: 1 }],
-  targetAutocorrelationTimes: 1e6, // never met: the checks still run and their state must persist
-  checkEvery: 40,
+  proposal: [{ proposal: 'stretch', weight: 2 }, { proposal: 'differentialEvolution', weight: 1 }],
+  stopRule: { minEffectiveSampleSize: 1e9, maxRHat: 1.01 }, // never met: the checks still run
+  checkEverySweeps: 40,
   ...extra,
 });
 
@@ -59,8 +59,8 @@ function expectIdentical(a: EnsembleResult, b: EnsembleResult): void {
   expect(Array.from(a.acceptanceFraction)).toEqual(Array.from(b.acceptanceFraction));
   expect(Array.from(a.autocorrelationTime)).toEqual(Array.from(b.autocorrelationTime));
   expect(Array.from(a.rHat)).toEqual(Array.from(b.rHat));
-  expect([a.steps, a.iterations, a.evaluations, a.nonFiniteProposals, a.converged])
-    .toEqual([b.steps, b.iterations, b.evaluations, b.nonFiniteProposals, b.converged]);
+  expect([a.steps, a.sweeps, a.evaluations, a.nonFiniteProposals, a.converged])
+    .toEqual([b.steps, b.sweeps, b.evaluations, b.nonFiniteProposals, b.converged]);
 }
 
 describe('runEnsemble', () => {
@@ -87,20 +87,22 @@ describe('runEnsemble', () => {
     const whole = await runEnsemble(problem, baseOptions());
     evaluated = 0;
     const path = join(folder, 'resume.json');
-    const checkpoint = { path, everySteps: 50 };
-    // Two interruptions, at iterations 230 and 417 (neither a multiple of everySteps).
+    const checkpoint = { path, everySeconds: 3600 };
+    // Two interruptions, at sweeps 230 and 417 (neither a multiple of checkEverySweeps); the
+    // checkpoints are then written only when the run stops.
     let resumed: EnsembleResult | null = null;
     for (const stopAt of [230, 417, Infinity]) {
       const signal = { stopRequested: false };
       resumed = await runEnsemble(problem, baseOptions({
         checkpoint, resume: true, signal,
         onProgress: (progress) => {
-          if (progress.iteration >= stopAt) signal.stopRequested = true;
+          if (progress.sweep >= stopAt) signal.stopRequested = true;
         },
       }));
       if (stopAt !== Infinity) {
         expect(resumed.stopped).toBe(true);
-        expect(resumed.iterations).toBe(stopAt);
+        expect(resumed.sweeps).toBe(stopAt);
+        expect(JSON.parse(readFileSync(path, 'utf8')).sweep).toBe(stopAt);
       }
     }
     expect(resumed!.stopped).toBe(false);
@@ -108,33 +110,79 @@ describe('runEnsemble', () => {
     // The segments continued each other: together they evaluated exactly what one run did.
     expect(evaluated).toBe(whole.evaluations);
     const saved = JSON.parse(readFileSync(path, 'utf8'));
-    expect(saved.iteration).toBe(600);
+    expect(saved.sweep).toBe(600);
     expect(saved.random.generator).toBe('mt19937');
     expect(saved.chain.encoding).toBe('float64-le-base64');
   });
 
-  it('stops when the retained chain is longer than N autocorrelation times and tau is stable', async () => {
-    const result = await runEnsemble({ dim: DIM, logPosterior: logStandardNormal }, {
-      walkers: 12, seed: 21, maxSteps: 50000, targetAutocorrelationTimes: 50, checkEvery: 100,
-      start: { ball: { center: new Float64Array(DIM), scale: new Float64Array(DIM).fill(1) } },
-    });
+  it('stops at the first check where every R-hat and ESS meet the stop rule (Vehtari et al. 2021 numbers)', async () => {
+    const rule = { minEffectiveSampleSize: 400, maxRHat: 1.01 };
+    const options: EnsembleOptions = {
+      walkers: 12, seed: 21, maxSweeps: 50000, stopRule: rule, checkEverySweeps: 100,
+      start: { around: { center: new Float64Array(DIM), spread: new Float64Array(DIM).fill(1) } },
+    };
+    const result = await runEnsemble({ dim: DIM, logPosterior: logStandardNormal }, options);
     expect(result.converged).toBe(true);
-    expect(result.iterations).toBeLessThan(50000);
-    expect(result.iterations % 100).toBe(0);
+    expect(result.sweeps).toBeLessThan(50000);
+    expect(isCheckSweep(result.sweeps, 100)).toBe(true);
     // The rule as stated, re-checked on the returned diagnostics (the final check's chain).
-    const tauMax = Math.max(...result.autocorrelationTime);
-    expect(result.autocorrelationReliable).toBe(true);
-    expect((result.steps - result.retainedFrom) * result.thin).toBeGreaterThan(50 * tauMax);
+    for (let k = 0; k < DIM; k++) {
+      expect(result.rHat[k]).toBeLessThanOrEqual(1.01);
+      expect(result.effectiveSampleSize[k]).toBeGreaterThanOrEqual(400);
+      expect(result.tailEffectiveSampleSize[k]).toBeGreaterThanOrEqual(400);
+    }
+    // The check before (at the last check sweep below, thin 1 so the chain's first rows) did not meet it.
+    let steps = result.steps - 100;
+    while (!isCheckSweep(steps, 100)) steps -= 100;
+    const check = mixingCheck(mixingDiagnostics(result.chain.subarray(0, steps * 12 * DIM), { steps, walkers: 12, dim: DIM }, Math.floor(steps / 2)), rule);
+    expect(check.met).toBe(false);
+  });
+
+  it('checks every 100 sweeps up to 1000, then at multiples of 100 about 10% apart', () => {
+    const checks = Array.from({ length: 3000 }, (_, i) => i + 1).filter((sweep) => isCheckSweep(sweep, 100));
+    expect(checks).toEqual([100, 200, 300, 400, 500, 600, 700, 800, 900, 1000, 1100, 1300, 1500, 1700, 1900, 2100, 2400, 2700, 3000]);
+  });
+
+  it('writes a checkpoint at the end of the first sweep that ends the given seconds after the last', async () => {
+    const path = join(folder, 'seconds.json');
+    const written: number[] = [];
+    await runEnsemble({ dim: DIM, logPosterior: logStandardNormal }, baseOptions({
+      maxSweeps: 30,
+      checkpoint: { path, everySeconds: 1e-9 },
+      onProgress: (progress) => { written.push(JSON.parse(readFileSync(path, 'utf8')).sweep - progress.sweep); },
+    }));
+    // A vanishing interval writes after every sweep: the file always holds the sweep just ended.
+    expect(written).toEqual(new Array(30).fill(0));
+  });
+
+  it('stores the caller\'s run identity and hands it back on resume before reading the state', async () => {
+    const path = join(folder, 'identity.json');
+    const problem = { dim: DIM, logPosterior: logStandardNormal };
+    await runEnsemble(problem, baseOptions({ maxSweeps: 20, checkpoint: { path, everySeconds: 60, identity: { config: 'abc' } } }));
+    expect(JSON.parse(readFileSync(path, 'utf8')).runIdentity).toEqual({ config: 'abc' });
+    const seen: unknown[] = [];
+    const refused = runEnsemble(problem, baseOptions({
+      maxSweeps: 40, resume: true,
+      checkpoint: {
+        path, everySeconds: 60, identity: { config: 'def' },
+        checkIdentity: (stored) => {
+          seen.push(stored);
+          throw new InputError('another config');
+        },
+      },
+    }));
+    await expect(refused).rejects.toThrow(/another config/);
+    expect(seen).toEqual([{ config: 'abc' }]);
   });
 
   it('refuses a checkpoint written by a run with other settings', async () => {
     const path = join(folder, 'other.json');
     const problem = { dim: DIM, logPosterior: logStandardNormal };
-    await runEnsemble(problem, baseOptions({ maxSteps: 20, checkpoint: { path, everySteps: 10 } }));
-    await expect(runEnsemble(problem, baseOptions({ walkers: 14, checkpoint: { path, everySteps: 10 }, resume: true })))
+    await runEnsemble(problem, baseOptions({ maxSweeps: 20, checkpoint: { path, everySeconds: 10 } }));
+    await expect(runEnsemble(problem, baseOptions({ walkers: 14, checkpoint: { path, everySeconds: 10 }, resume: true })))
       .rejects.toThrow(/other\.json, key run\.walkers: the checkpoint belongs to another run: expected walkers = 14, found 12/);
     writeFileSync(path, '{ not json');
-    await expect(runEnsemble(problem, baseOptions({ checkpoint: { path, everySteps: 10 }, resume: true })))
+    await expect(runEnsemble(problem, baseOptions({ checkpoint: { path, everySeconds: 10 }, resume: true })))
       .rejects.toBeInstanceOf(InputError);
   });
 
@@ -157,7 +205,7 @@ describe('runEnsemble', () => {
     const start = new Float64Array(40 * DIM);
     for (let i = 0; i < start.length; i++) start[i] = ((i * 0.618034) % 1) * 0.85;
     const result = await runEnsemble({ dim: DIM, logPosterior }, {
-      walkers: 12, seed: 5, start: { points: start }, maxSteps: 200,
+      walkers: 12, seed: 5, start: { draws: start }, maxSweeps: 200,
     });
     expect(nonFinite).toBeGreaterThan(100);
     expect(result.nonFiniteProposals).toBe(nonFinite);
@@ -167,7 +215,7 @@ describe('runEnsemble', () => {
     }
   });
 
-  it('starts from distinct given points, and redraws ball walkers whose density is not finite', async () => {
+  it('starts from distinct given draws, and redraws Gaussian walkers whose density is not finite', async () => {
     const points = Float64Array.from({ length: 20 * DIM }, (_, i) => i);
     let first: Float64Array | null = null;
     await runEnsemble({
@@ -176,7 +224,7 @@ describe('runEnsemble', () => {
         first ??= p.slice(0, count * DIM);
         return logStandardNormal(p, count);
       },
-    }, { walkers: 12, seed: 9, start: { points }, maxSteps: 1 });
+    }, { walkers: 12, seed: 9, start: { draws: points }, maxSweeps: 1 });
     const rows = new Set<number>();
     for (let w = 0; w < 12; w++) {
       const row = first![w * DIM] / DIM;
@@ -186,19 +234,19 @@ describe('runEnsemble', () => {
     }
     expect(rows.size).toBe(12);
 
-    // Half-space x0 >= 0: a ball at the origin puts about half the walkers outside at first.
+    // Half-space x0 >= 0: a Gaussian at the origin puts about half the walkers outside at first.
     const half = await runEnsemble({
       dim: DIM,
       logPosterior: (p, count) => logStandardNormal(p, count).map((v, i) => (p[i * DIM] >= 0 ? v : -Infinity)),
-    }, { walkers: 12, seed: 10, start: { ball: { center: new Float64Array(DIM), scale: new Float64Array(DIM).fill(1) } }, maxSteps: 5 });
+    }, { walkers: 12, seed: 10, start: { around: { center: new Float64Array(DIM), spread: new Float64Array(DIM).fill(1) } }, maxSweeps: 5 });
     for (let w = 0; w < 12; w++) expect(half.chain[w * DIM]).toBeGreaterThanOrEqual(0);
     expect(half.evaluations).toBeGreaterThan(12 + 5 * 12);
 
     await expect(runEnsemble({ dim: DIM, logPosterior: logStandardNormal },
-      { walkers: 12, seed: 9, start: { points: points.subarray(0, 11 * DIM) }, maxSteps: 1 }))
-      .rejects.toThrow(/start\.points: expected at least 12 points of 3 values/);
+      { walkers: 12, seed: 9, start: { draws: points.subarray(0, 11 * DIM) }, maxSweeps: 1 }))
+      .rejects.toThrow(/start\.draws: expected at least 12 draws of 3 values/);
     await expect(runEnsemble({ dim: DIM, logPosterior: (_p, count) => new Float64Array(count).fill(-Infinity) },
-      { walkers: 12, seed: 9, start: { ball: { center: new Float64Array(DIM), scale: new Float64Array(DIM).fill(1) } }, maxSteps: 1 }))
+      { walkers: 12, seed: 9, start: { around: { center: new Float64Array(DIM), spread: new Float64Array(DIM).fill(1) } }, maxSweeps: 1 }))
       .rejects.toThrow(/12 of 12 walkers without one after 100 rounds/);
   });
 
@@ -206,11 +254,12 @@ describe('runEnsemble', () => {
     const problem = { dim: DIM, logPosterior: logStandardNormal };
     await expect(runEnsemble(problem, baseOptions({ walkers: 13 }))).rejects.toThrow(/walkers: expected an even number, found 13/);
     await expect(runEnsemble(problem, baseOptions({ walkers: 4 }))).rejects.toThrow(/walkers: expected an integer >= 6, found 4/);
-    await expect(runEnsemble(problem, baseOptions({ move: 'walk' as never }))).rejects.toThrow(/one of stretch, differentialEvolution/);
+    await expect(runEnsemble(problem, baseOptions({ proposal: 'walk' as never }))).rejects.toThrow(/one of stretch, differentialEvolution/);
     await expect(runEnsemble(problem, baseOptions({ seed: 0 }))).rejects.toBeInstanceOf(InputError);
     await expect(runEnsemble(problem, baseOptions({
-      start: { ball: { center: new Float64Array(DIM), scale: new Float64Array(DIM) } },
-    }))).rejects.toThrow(/start\.ball\.scale/);
+      start: { around: { center: new Float64Array(DIM), spread: new Float64Array(DIM) } },
+    }))).rejects.toThrow(/start\.around\.spread/);
+    await expect(runEnsemble(problem, baseOptions({ stopRule: { minEffectiveSampleSize: 400, maxRHat: 1 } }))).rejects.toThrow(/stopRule\.maxRHat: expected a number > 1, found 1/);
   });
 
   it('keeps periodic parameters inside their period', async () => {
@@ -224,8 +273,8 @@ describe('runEnsemble', () => {
       return out;
     };
     const result = await runEnsemble({ dim: DIM, logPosterior, periodic: [{ lower: 0, upper: 2 }, null, null] }, {
-      walkers: 12, seed: 12, move: 'differentialEvolution', maxSteps: 300,
-      start: { ball: { center: Float64Array.of(1.999, 0, 0), scale: Float64Array.of(0.01, 1, 1) } },
+      walkers: 12, seed: 12, proposal: 'differentialEvolution', maxSweeps: 300,
+      start: { around: { center: Float64Array.of(1.999, 0, 0), spread: Float64Array.of(0.01, 1, 1) } },
     });
     let wrapped = 0;
     for (let i = 0; i < result.chain.length; i += DIM) {

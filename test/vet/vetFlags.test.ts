@@ -113,7 +113,7 @@ describe('vetting flags on a mock with a planted perturber', () => {
     expect(json.priors.positionPrior).toMatch(/perturbers\[0\]\.centerXArcsec, perturbers\[0\]\.centerYArcsec: uniform on a 0.4" x 0.4" square/);
     expect(json.priors.perturbed.some((p) => p.name === 'perturbers[0].log10MassSolar' && p.kind === 'uniform')).toBe(true);
     expect(json.caution).toMatch(/depend on the priors/);
-    expect(readFileSync(join(out, 'candidate-1', 'samples.csv'), 'utf8')).toMatch(/perturbers\[0\]\.log10MassSolar/);
+    expect(readFileSync(join(out, 'candidate-1', 'posterior-weighted.csv'), 'utf8')).toMatch(/perturbers\[0\]\.log10MassSolar/);
   });
 
   it('reports the vetting: verdict table, flags drawn over the image by verdict, priors and caution (own report contract)', () => {

@@ -1,4 +1,6 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js';
+import { dot } from './dot.js';
+import { invertPermutation } from './invertPermutation.js';
 import type { SymmetricCsr } from './symmetricCsr.js';
 
 /**
@@ -35,6 +37,14 @@ export class EnvelopeCholesky {
   /** Stored entries of L (the envelope and the diagonal). */
   get envelopeSize(): number {
     return this.rowStartBuffer[this.n];
+  }
+
+  /**
+   * Floating-point operations of one factor: sum over the columns of the envelope of (their
+   * entries, diagonal included)^2, the count MultifrontalCholesky.flops gives for its structure.
+   */
+  get flops(): number {
+    return envelopeOperations(this.firstBuffer, this.n, this.work);
   }
 
   /** order[k]: original index of row k of the permuted matrix (read only). */
@@ -166,17 +176,6 @@ export class EnvelopeCholesky {
   }
 }
 
-/** position[order[k]] = k; returns the first k where order is not a permutation, or -1. */
-function invertPermutation(order: Int32Array, n: number, ownOrder: Int32Array, position: Int32Array): number {
-  for (let k = 0; k < n; k++) {
-    const v = order[k];
-    if (!(v >= 0 && v < n) || position[v] >= 0) return k;
-    position[v] = k;
-    ownOrder[k] = v;
-  }
-  return -1;
-}
-
 /** first[i] = least permuted column of a nonzero in permuted row i (i itself when none is left of it). */
 function leftmostColumns(matrix: SymmetricCsr, position: Int32Array, first: Int32Array): void {
   const { rowStart, column } = matrix;
@@ -190,6 +189,22 @@ function leftmostColumns(matrix: SymmetricCsr, position: Int32Array, first: Int3
       } else if (pr < first[pc]) first[pc] = pr;
     }
   }
+}
+
+/** sum_j c_j^2, c_j = 1 + number of rows i > j with first[i] <= j (a difference array in `work`). */
+function envelopeOperations(first: Int32Array, n: number, work: Float64Array): number {
+  work.fill(0, 0, n);
+  for (let i = 0; i < n; i++) {
+    work[first[i]]++;
+    work[i]--;
+  }
+  let count = 1;
+  let sum = 0;
+  for (let j = 0; j < n; j++) {
+    count += work[j];
+    sum += count * count;
+  }
+  return sum;
 }
 
 function rowStarts(first: Int32Array, n: number, rowStart: Int32Array): void {
@@ -213,31 +228,6 @@ function scatterPermuted(
     }
   }
   return -1;
-}
-
-/**
- * sum_t a[p + t] b[q + t]: four partial sums, so that consecutive additions do not wait for one
- * another (the loop is bound by add latency otherwise); the last length mod 4 terms first.
- */
-function dot(a: Float64Array, p: number, b: Float64Array, q: number, length: number): number {
-  const end = length - (length & 3);
-  let s0 = dotRemainder(a, p, b, q, end, length);
-  let s1 = 0;
-  let s2 = 0;
-  let s3 = 0;
-  for (let i = p, j = q, stop = p + end; i < stop; i += 4, j += 4) {
-    s0 += a[i] * b[j];
-    s1 += a[i + 1] * b[j + 1];
-    s2 += a[i + 2] * b[j + 2];
-    s3 += a[i + 3] * b[j + 3];
-  }
-  return s0 + s1 + s2 + s3;
-}
-
-function dotRemainder(a: Float64Array, p: number, b: Float64Array, q: number, from: number, length: number): number {
-  let s = 0;
-  for (let t = from; t < length; t++) s += a[p + t] * b[q + t];
-  return s;
 }
 
 /** y[q ..] -= factor * a[p ..], `length` entries. */

@@ -11,6 +11,7 @@ import { writeSvgFigure, type ReportFigure } from '../plots/reportFigure.js';
 import { isList, isMapping, isNumber, isString, readJson, requireShape } from '../runFolder/readRunFolder.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
 
@@ -169,7 +170,7 @@ ${detectionHtml}
 ${pageSection('assumptions', 'Assumptions', `<ul>${s.assumptions.map((a) => `<li>${escapeMarkup(a)}</li>`).join('')}</ul>`)}
 ${pageSection('draws', 'Draws', drawsTable)}
 ${pageSection('files', 'Files', `<ul class="files">${[summaryFile, join(folder, 'calibration-ranks.csv'), join(folder, 'draws.json'), ...figures.flatMap((f) => f.files)].filter((f) => existsSync(f)).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}`;
-  const meta = [`config <code>${escapeMarkup(s.config)}</code>`, `seed ${s.seed}`, `run time ${formatNumber(s.rowSeconds / 3600, 2)} h over all rows`, `arcsift ${escapeMarkup(s.arcsiftVersion)}`].join(' &middot; ');
+  const meta = [`config <code>${escapeMarkup(s.config)}</code>`, `seed ${s.seed}`, ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]), `run time ${formatNumber(s.rowSeconds / 3600, 2)} h over all rows`, `arcsift ${escapeMarkup(s.arcsiftVersion)}`].join(' &middot; ');
   writeFileAtomic(pageFile, pageFrame({
     name: relative(resolve(folder, '..'), resolve(folder)), brand: 'arcsift &middot; calibration on simulated draws', subtitle: s.title === '' ? undefined : s.title, meta, body, arcsiftVersion: packageVersion(), folder,
   }));

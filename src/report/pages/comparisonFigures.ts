@@ -7,7 +7,8 @@ import { MODEL_NAMES, type RunFolder } from '../runFolder/readRunFolder.js';
 import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
 import { pixelatedSourceFigures, readModelSource } from '../plots/pixelatedSourceFigures.js';
 import { modelColours } from '../colour/reportPalette.js';
-import { readWeightedSamples } from '../../records/readWeightedSamples.js';
+import { POSTERIOR_TABLES } from '../../records/posteriorTables.js';
+import { readWeightedPosterior } from '../../records/readWeightedPosterior.js';
 import { imageFigures, imageSetOf, readModelImages, readObservedImages } from '../plots/imageFigures.js';
 import { nestedTraceFigure } from '../plots/nestedTraceFigure.js';
 import { writeSvgFigure, type ReportFigure } from '../plots/reportFigure.js';
@@ -83,9 +84,9 @@ export function writeReportFigures(run: RunFolder, figuresFolder: string): { fig
     }));
   }
   const traced = MODEL_NAMES.flatMap((m) => {
-    const file = join(run.folder, m, 'samples.csv');
+    const file = join(run.folder, m, `${POSTERIOR_TABLES.weighted}.csv`);
     if (!existsSync(file)) return [];
-    return [{ label: `${m} model`, colour: modelColours(m).line, samples: readWeightedSamples(file) }];
+    return [{ label: `${m} model`, colour: modelColours(m).line, samples: readWeightedPosterior(file) }];
   });
   if (traced.length > 0) figures.push(nestedTraceFigure(traced, figuresFolder));
   return { figures, notices };

@@ -2,9 +2,10 @@ import { existsSync } from 'node:fs';
 import { parseFitsLocator } from '../../fits/index.js';
 import { basename, dirname, join, relative, resolve } from 'node:path';
 import { bayesFactorTable } from '../tables/bayesFactorTable.js';
-import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
+import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLink } from './pageFrame.js';
 import { diagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { LN_EVIDENCE_DIGITS, evidenceTable } from '../tables/evidenceTable.js';
 import { formatNumber } from '../text/formatNumber.js';
 import { parameterTable } from '../tables/parameterTable.js';
@@ -13,6 +14,7 @@ import { priorTable } from '../tables/priorTable.js';
 import { reportStyle } from './reportStyle.js';
 import { MODEL_NAMES, type RunFolder } from '../runFolder/readRunFolder.js';
 import type { ReportFigure } from '../plots/reportFigure.js';
+import { POSTERIOR_FILE_NAMES } from '../../records/posteriorTables.js';
 
 function verdict(run: RunFolder): string {
   const b = run.summary.bayesFactor;
@@ -42,7 +44,7 @@ ${lines.join('\n')}
 function runFiles(run: RunFolder): string[] {
   const files = [run.summaryFile];
   for (const m of MODEL_NAMES) {
-    for (const name of ['samples.csv', 'equal-weight-samples.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
+    for (const name of [...POSTERIOR_FILE_NAMES, 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits']) {
       files.push(join(run.folder, m, name));
     }
   }
@@ -86,11 +88,13 @@ ${imageRow('Lens and source planes', ['perturbed-convergence', 'perturbed-source
     `config <code>${escapeMarkup(s.config)}</code> (sha256 ${escapeMarkup(s.configSha256.slice(0, 12))}&hellip;)`,
     `data <code>${escapeMarkup(dirname(s.data.image))}</code>`,
     `seed ${s.seed}`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
     `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
     `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
   ].join(' &middot; ');
 
   const body = `${verdict(run)}
+${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 <nav class="contents"><a href="#evidence">Evidence</a><a href="#priors">Priors</a><a href="#perturber">Perturber</a><a href="#images">Images</a><a href="#posterior">Posteriors</a><a href="#diagnostics">Sampler diagnostics</a><a href="#files">Files</a><a href="#about">About the figures</a></nav>
 ${section('evidence', 'Evidence and Bayes factor', `<div><h3>Evidence of each model</h3>${evidenceTable(s)}<p class="note">ln Z is the natural log of the evidence (marginal likelihood). The first error follows from the information H (Skilling 2006); the second from simulated prior-volume shrinkage. Settings: ${MODEL_NAMES.map((m) => `${m} ${s.models[m].livePoints} live points`).join(', ')}${settings?.lnZTolerance === undefined ? '' : `, stop when the remaining evidence is below ${settings.lnZTolerance} in ln Z`}.</p></div>

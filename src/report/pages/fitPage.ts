@@ -5,17 +5,19 @@ import { packageVersion } from '../../io/packageVersion.js';
 import { cornerPlotSvg } from '../plots/cornerPlotSvg.js';
 import { nestedDiagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
 import type { ImageMarker } from '../plots/imagePanelSvg.js';
-import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
+import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
 import { parameterColumnsTable } from '../tables/parameterTable.js';
 import { parameterLabel } from '../text/parameterLabel.js';
 import { perturberTable } from '../tables/perturberTable.js';
 import { priorColumnsTable } from '../tables/priorTable.js';
 import { readFitFolder, type FitFolder } from '../runFolder/readFitFolder.js';
-import { readWeightedSamples } from '../../records/readWeightedSamples.js';
+import { POSTERIOR_FILE_NAMES, POSTERIOR_TABLES } from '../../records/posteriorTables.js';
+import { readWeightedPosterior } from '../../records/readWeightedPosterior.js';
 import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
 import { pixelatedSourceFigures, readModelSource } from '../plots/pixelatedSourceFigures.js';
 import { modelColours, type ModelTone } from '../colour/reportPalette.js';
@@ -62,17 +64,17 @@ function fitFigures(run: FitFolder, tone: ModelTone, figuresFolder: string, noti
     }));
   }
   if (s.sampler === 'nested') {
-    const file = join(run.folder, 'samples.csv');
-    if (existsSync(file)) figures.push(nestedTraceFigure([{ label: `${tone} model`, colour: modelColours(tone).line, samples: readWeightedSamples(file) }], figuresFolder));
+    const file = join(run.folder, `${POSTERIOR_TABLES.weighted}.csv`);
+    if (existsSync(file)) figures.push(nestedTraceFigure([{ label: `${tone} model`, colour: modelColours(tone).line, samples: readWeightedPosterior(file) }], figuresFolder));
   } else {
-    const file = join(run.folder, 'chain.csv');
+    const file = join(run.folder, `${POSTERIOR_TABLES.walkerPaths}.csv`);
     if (existsSync(file)) {
       const m = s.model;
       figures.push(writeSvgFigure(figuresFolder, 'trace', 'trace', {
         section: 'diagnostics',
         title: 'Trace plots',
-        caption: `Each free parameter over the iterations after burn-in (${formatCount(m.burnInSteps * m.thin)} iterations left out): the median of the ${m.walkers} walkers with the band holding the central 68% of them, and three single walkers. A mixed chain shows flat, overlapping traces with no drift.`,
-        svg: ensembleTraceSvg(file, m.walkers, m.thin, m.burnInSteps, m.diagnostics.map((d) => d.name), m.diagnostics.map((d) => d.unit)),
+        caption: `Each free parameter over the sweeps after burn-in (${formatCount(m.burnInSweeps)} sweeps left out): the median of the ${m.walkers} walkers with the band holding the central 68% of them, and three single walkers. A mixed chain shows flat, overlapping traces with no drift.`,
+        svg: ensembleTraceSvg(file, m.walkers, m.diagnostics.map((d) => d.name), m.diagnostics.map((d) => d.unit)),
       }));
     } else notices.push(`${file} not found: the trace plots are left out`);
   }
@@ -97,8 +99,8 @@ function ensembleHeadline(s: EnsembleFitSummary): string {
 <div><span class="label">ensemble MCMC</span>
 <span class="big">${trusted ? 'mixed' : 'not yet mixed'}</span>
 <span class="badge ${trusted ? 'not-favoured' : 'favoured'}">max R-hat ${m.maxRHat === null ? 'n/a' : formatNumber(m.maxRHat, 3)}</span></div>
-<div><p class="reading">${trusted ? 'Every convergence check passed: the chain after burn-in can be read as the posterior.' : escapeMarkup(m.warnings.join(' '))}</p>
-<p>${m.walkers} walkers &middot; ${formatCount(m.iterations)} iterations &middot; chain ${m.chainLengthInAutocorrelationTimes === null ? 'n/a' : formatNumber(m.chainLengthInAutocorrelationTimes, 1)} autocorrelation times long &middot; acceptance ${formatNumber(100 * m.acceptanceFraction.mean, 1)}% (lowest walker ${formatNumber(100 * m.acceptanceFraction.min, 1)}%)</p>
+<div><p class="reading">${trusted ? `The walkers have mixed (R-hat at most ${m.stopRule.maxRHat}, bulk and tail ESS at least ${m.stopRule.minEffectiveSampleSize} for every parameter): the chain after burn-in can be read as the posterior.` : escapeMarkup(m.warnings.join(' '))}</p>
+<p>${m.walkers} walkers &middot; ${formatCount(m.sweeps)} sweeps &middot; smallest ESS ${m.smallestEffectiveSampleSize === null ? 'n/a' : formatNumber(m.smallestEffectiveSampleSize, 0)} &middot; acceptance ${formatNumber(100 * m.acceptanceFraction.mean, 1)}% (lowest walker ${formatNumber(100 * m.acceptanceFraction.min, 1)}%)</p>
 <p class="muted">An ensemble fit gives the posterior only, no evidence.</p></div>
 </section>`;
 }
@@ -112,14 +114,14 @@ function ensembleDiagnosticsTable(s: EnsembleFitSummary): string {
     return [
       `<span class="component">${escapeMarkup(label.component)}</span> ${escapeMarkup(label.quantity)}`,
       numberCell(value(d.autocorrelationTime, 1)),
-      { html: value(d.rHat, 3), className: d.rHat !== null && d.rHat > 1.01 ? 'num warn' : 'num' },
-      numberCell(value(d.bulkEffectiveSampleSize, 0)),
-      numberCell(value(d.tailEffectiveSampleSize, 0)),
+      { html: value(d.rHat, 3), className: d.rHat !== null && d.rHat > m.stopRule.maxRHat ? 'num warn' : 'num' },
+      { html: value(d.bulkEffectiveSampleSize, 0), className: (d.bulkEffectiveSampleSize ?? 0) < m.stopRule.minEffectiveSampleSize ? 'num warn' : 'num' },
+      { html: value(d.tailEffectiveSampleSize, 0), className: (d.tailEffectiveSampleSize ?? 0) < m.stopRule.minEffectiveSampleSize ? 'num warn' : 'num' },
     ];
   });
   return htmlTable({
     id: 'ensemble-diagnostics',
-    head: [['parameter', numberCell('autocorrelation time [iterations]'), numberCell('R-hat'), numberCell('bulk ESS'), numberCell('tail ESS')]],
+    head: [['parameter', numberCell('autocorrelation time [sweeps]'), numberCell('R-hat'), numberCell('bulk ESS'), numberCell('tail ESS')]],
     rows,
   });
 }
@@ -144,11 +146,12 @@ export function writeFitReport(folder: string, pageFile: string, figuresFolder: 
     : '';
   const diagnostics = s.sampler === 'nested'
     ? `${nestedDiagnosticsTable([{ tone, label, record: s.model }])}\n${inSection('diagnostics')}`
-    : `${ensembleDiagnosticsTable(s)}<p class="note">R-hat is the rank-normalised split R-hat with walkers as chains (Vehtari et al. 2021); values above 1.01 are flagged. Autocorrelation times by Sokal's windowed estimate; the chain should be at least 50 of them long.</p>\n${inSection('diagnostics')}`;
-  const files = [run.summaryFile, ...['samples.csv', 'equal-weight-samples.csv', 'chain.csv', 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits', 'source.json'].map((f) => join(folder, f))]
+    : `${ensembleDiagnosticsTable(s)}<p class="note">R-hat is the rank-normalised split R-hat and ESS the bulk and tail effective sample sizes, walkers taken as chains (Vehtari et al. 2021); values outside the stop rule (R-hat at most ${s.model.stopRule.maxRHat}, ESS at least ${s.model.stopRule.minEffectiveSampleSize}) are flagged. Autocorrelation times by Sokal's windowed estimate.</p>\n${inSection('diagnostics')}`;
+  const files = [run.summaryFile, ...[...POSTERIOR_FILE_NAMES, 'corner.json', 'best-fit-model.fits', 'residual.fits', 'normalised-residual.fits', 'source.json'].map((f) => join(folder, f))]
     .filter((f) => existsSync(f))
     .concat(figures.flatMap((f) => f.files));
   const body = `${headline}
+${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 ${pageSection('priors', 'Priors', `<p class="note">Every posterior${s.sampler === 'nested' ? ' and the evidence' : ''} below holds for these priors only.</p>${priorColumnsTable([{ label, priors: s.priors }], s.amplitudePrior)}`)}
 ${perturbers}
@@ -161,6 +164,7 @@ ${pageSection('about', 'About the figures', colourMapRows())}`;
     `config <code>${escapeMarkup(s.config)}</code> (sha256 ${escapeMarkup(s.configSha256.slice(0, 12))}&hellip;)`,
     `${s.sampler === 'nested' ? 'nested sampling' : 'ensemble MCMC'}`,
     `seed ${s.seed}`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
     `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
     `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
   ].join(' &middot; ');

@@ -29,6 +29,18 @@ export function cautionBox(caution: string): string {
   return `<aside class="caution" id="caution" role="note"><div class="mark">!</div><div><p><strong>CAUTION</strong></p><p>${escapeMarkup(caution)}</p></div></aside>`;
 }
 
+/**
+ * A warning that the run was cut short (summary.finished false): its ln Z, Bayes factors and
+ * intervals are not final. Empty for a finished run, and for summaries older than the field.
+ */
+export function unfinishedBox(summary: { readonly finished?: boolean; readonly unfinishedRuns?: readonly string[] }): string {
+  if (summary.finished !== false) return '';
+  const runs = (summary.unfinishedRuns ?? []).join(', ');
+  return `<aside class="caution" id="unfinished" role="alert"><div class="mark">!</div><div><p><strong>UNFINISHED RUN</strong></p><p>${escapeMarkup(
+    `A limit cut ${runs === '' ? 'a sampler run' : runs} short before it converged: every ln Z, Bayes factor, verdict and interval below is not final. Continue the run with --resume and a larger limit.`,
+  )}</p></div></aside>`;
+}
+
 function colourMapRow(map: ColourMap, use: string): string {
   const values = Float64Array.from({ length: map.size }, (_, k) => k / (map.size - 1));
   const png = imagePng({ values, columns: map.size, rows: 1, map, low: 0, high: 1 });

@@ -4,11 +4,12 @@ import { readFitsImage } from '../../fits/index.js';
 import { writeFileAtomic } from '../../io/writeFileAtomic.js';
 import { packageVersion } from '../../io/packageVersion.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
 import { imagePanelSvg, type ImageMarker } from '../plots/imagePanelSvg.js';
 import { imagePng } from '../plots/imagePng.js';
-import { colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
+import { colourMapRows, figureHtml, pageFrame, pageLink, pageSection, unfinishedBox } from './pageFrame.js';
 import { isList, isNumber, isString, locateRunData, readKindOfSummary } from '../runFolder/readRunFolder.js';
 import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
 import { sequentialColourMap } from '../colour/sequentialColourMap.js';
@@ -71,11 +72,17 @@ export function writeSensitivityReport(folder: string, pageFile: string, figures
 <div><p class="reading">${formatCount(detectable.length)} of ${formatCount(s.gridPoints)} grid points can detect a ${escapeMarkup(s.perturber.kind)} perturber within the mass prior [${lower}, ${upper}] (log<sub>10</sub> M/M<sub>&#9737;</sub>).</p>
 <p class="muted">${escapeMarkup(s.approximation)}</p></div>
 </section>
+${unfinishedBox(s)}
 ${pageSection('map', 'Sensitivity map', `${figures.map((f) => figureHtml(f, pageFile)).join('\n')}<h3>Fraction of the mask sensitive to each mass</h3>${decades}`)}
 ${pageSection('settings', 'Settings', `<p class="note">Grid ${s.settings.gridSize} &times; ${s.settings.gridSize} over the mask; detection threshold ${formatNumber(s.settings.threshold, 2)} in &Delta;&chi;<sup>2</sup>/2 (&Delta;&chi;<sup>2</sup> &ge; ${formatNumber(s.settings.deltaChiSquareThreshold, 1)}); bisection to ${s.settings.toleranceDex} dex; smooth best fit from ${escapeMarkup(s.bestFit.from)} (ln L ${formatNumber(s.bestFit.lnLikelihood, 2)}).</p>${notices.length === 0 ? '' : `<ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}
 ${pageSection('files', 'Files', `<ul class="files">${[summaryFile, join(folder, 'sensitivity.csv'), mapFile, ...figures.flatMap((f) => f.files)].filter((f) => existsSync(f)).map((f) => `<li><a href="${pageLink(pageFile, f)}">${escapeMarkup(relative(resolve(folder), resolve(f)))}</a></li>`).join('\n')}</ul>`)}
 ${pageSection('about', 'About the figures', colourMapRows())}`;
-  const meta = [`config <code>${escapeMarkup(s.config)}</code>`, `run time ${formatNumber(s.runSeconds / 60, 1)} min`, `arcsift ${escapeMarkup(s.arcsiftVersion)}`].join(' &middot; ');
+  const meta = [
+    `config <code>${escapeMarkup(s.config)}</code>`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
+    `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
+    `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
+  ].join(' &middot; ');
   writeFileAtomic(pageFile, pageFrame({
     name: relative(resolve(folder, '..'), resolve(folder)), brand: 'arcsift &middot; detection sensitivity', subtitle: truth?.title, meta, body, arcsiftVersion: packageVersion(), folder,
   }));

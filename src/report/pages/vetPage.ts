@@ -4,13 +4,14 @@ import { writeFileAtomic } from '../../io/writeFileAtomic.js';
 import { packageVersion } from '../../io/packageVersion.js';
 import { nestedDiagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
+import { cosmologyText } from '../text/cosmologyText.js';
 import { LN_EVIDENCE_DIGITS } from '../tables/evidenceTable.js';
 import { formatNumber } from '../text/formatNumber.js';
 import { htmlTable, numberCell } from '../tables/htmlTable.js';
 import { imagePanelSvg, type ImageMarker } from '../plots/imagePanelSvg.js';
 import { imagePng } from '../plots/imagePng.js';
 import { sequentialRange } from '../colour/displayRange.js';
-import { cautionBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
+import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
 import { perturberMassName } from '../tables/perturberTable.js';
 import { priorColumnsTable } from '../tables/priorTable.js';
 import { isList, isMapping, isString, locateRunData, readKindOfSummary } from '../runFolder/readRunFolder.js';
@@ -122,6 +123,7 @@ export function writeVetReport(folder: string, pageFile: string, figuresFolder: 
 <div><p class="reading">Confirmed when ln B &gt; ${t.confirmAboveLnB}, disfavoured when ln B &lt; ${t.disfavourBelowLnB}, inconclusive between (ln B = ln Z with a perturber in the flag's window minus ln Z of the one shared smooth fit${s.smooth === null ? '; no candidate reached the map threshold, so no fit was run' : `, ${fixed(s.smooth.lnEvidence, LN_EVIDENCE_DIGITS)} &plusmn; ${fixed(s.smooth.lnEvidenceError, LN_EVIDENCE_DIGITS)}`}).</p>
 <p class="muted">Under the priors listed in <a href="#priors">the prior table</a>; a verdict is only as good as them.</p></div>
 </section>
+${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 ${s.mapPriorNote === null ? '' : `<aside class="caution" role="note"><div class="mark">!</div><div><p>${escapeMarkup(s.mapPriorNote)}</p></div></aside>`}
 ${pageSection('verdicts', 'Verdicts', `${vetTable(s, pageFile)}${flagFigure === undefined || flagFigure.key !== 'flags' ? '' : figureHtml(flagFigure, pageFile)}`)}
@@ -135,6 +137,7 @@ ${pageSection('about', 'About the figures', colourMapRows())}`;
     `flags <code>${escapeMarkup(s.flags.file)}</code> (${s.flags.kind})`,
     `window ${s.windowArcsec}&Prime;`,
     `seed ${s.seed}`,
+    ...(s.cosmology === undefined ? [] : [`cosmology ${escapeMarkup(cosmologyText(s.cosmology))}`]),
     `run time ${formatNumber(s.runSeconds / 60, 1)} min`,
     `arcsift ${escapeMarkup(s.arcsiftVersion)}`,
   ].join(' &middot; ');

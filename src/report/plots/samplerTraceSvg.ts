@@ -1,9 +1,9 @@
-import { readSamplesTable } from '../../records/readSamplesTable.js';
+import { readPosteriorTable } from '../../records/readPosteriorTable.js';
 import { evidenceTrace } from '../../results/evidenceTrace.js';
 import { linePlotSvg, type LinePanel, type LineSeries } from './linePlotSvg.js';
 import { parameterLabel } from '../text/parameterLabel.js';
 import { reportPalette } from '../colour/reportPalette.js';
-import type { WeightedSamplesColumns } from '../../records/readWeightedSamples.js';
+import type { WeightedPosteriorColumns } from '../../records/readWeightedPosterior.js';
 
 /** ln Z shown below the final value in the accumulation panel, nats. */
 const LN_Z_WINDOW = 25;
@@ -14,7 +14,7 @@ const LN_Z_WINDOW = 25;
  * ln L against the ln of the enclosed prior volume X (Skilling 2006), where the posterior mass
  * sits at the bend.
  */
-export function nestedTraceSvg(runs: readonly { readonly label: string; readonly colour: string; readonly samples: WeightedSamplesColumns }[]): string {
+export function nestedTraceSvg(runs: readonly { readonly label: string; readonly colour: string; readonly samples: WeightedPosteriorColumns }[]): string {
   const accumulation: LineSeries[] = [];
   const likelihood: LineSeries[] = [];
   let zHigh = -Infinity;
@@ -60,16 +60,17 @@ export function nestedTraceSvg(runs: readonly { readonly label: string; readonly
 const SINGLE_WALKERS = 3;
 
 /**
- * Trace plots of an ensemble chain (chain.csv: retained steps times walkers, walker index
- * fastest): per free parameter, the median across walkers at each step with the band holding the
+ * Trace plots of an ensemble chain (walker-paths.csv: each walker's retained sweeps in turn):
+ * per free parameter, the median across walkers at each sweep with the band holding the
  * central 68% of walkers, and a few single walkers. Flat, overlapping traces are what a mixed
  * chain looks like (common practice).
  */
-export function ensembleTraceSvg(chainFile: string, walkers: number, thin: number, burnInSteps: number, freeNames: readonly string[], units: readonly string[]): string {
-  const table = readSamplesTable(chainFile);
+export function ensembleTraceSvg(pathsFile: string, walkers: number, freeNames: readonly string[], units: readonly string[]): string {
+  const table = readPosteriorTable(pathsFile);
   const steps = Math.floor(table.count / walkers);
   const width = table.names.length;
-  const x = Float64Array.from({ length: steps }, (_, s) => (burnInSteps + s) * thin);
+  const sweep = table.samplerColumns.get('sweep');
+  const x = Float64Array.from({ length: steps }, (_, s) => sweep?.[s] ?? s);
   const column = new Float64Array(walkers);
   const panels: LinePanel[] = freeNames.map((name, k) => {
     const c = table.names.indexOf(name);
@@ -78,7 +79,7 @@ export function ensembleTraceSvg(chainFile: string, walkers: number, thin: numbe
     const upper = new Float64Array(steps);
     const single = Array.from({ length: Math.min(SINGLE_WALKERS, walkers) }, () => new Float64Array(steps));
     for (let s = 0; s < steps; s++) {
-      for (let w = 0; w < walkers; w++) column[w] = table.points[(s * walkers + w) * width + c];
+      for (let w = 0; w < walkers; w++) column[w] = table.points[(w * steps + s) * width + c];
       single.forEach((line, w) => { line[s] = column[w]; });
       column.sort();
       median[s] = quantileOfSorted(column, 0.5);
@@ -88,7 +89,7 @@ export function ensembleTraceSvg(chainFile: string, walkers: number, thin: numbe
     const label = parameterLabel(name, units[k]);
     return {
       title: `${label.component === '' ? '' : `${label.component}: `}${label.quantity}`,
-      xLabel: 'iteration',
+      xLabel: 'sweep',
       yLabel: label.unit === '' ? 'value' : label.unit,
       series: [
         ...single.map((y) => ({ x, y, colour: reportPalette.muted, widthPx: 0.6, opacity: 0.7 })),

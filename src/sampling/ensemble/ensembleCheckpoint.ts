@@ -8,41 +8,42 @@ import { decodeFloat64, encodeFloat64 } from './float64Encoding.js';
 import { GrowableChain } from './growableChain.js';
 
 const FORMAT = 'arcsift ensemble checkpoint';
-const VERSION = 1;
+const VERSION = 2;
 
-/** The settings a resumed run must share with the run that wrote the checkpoint. */
+/**
+ * The settings that fix the chain, which a resumed run must share with the run that wrote the
+ * checkpoint. The stop rule, its checks and maxSweeps may change: they only say where to stop.
+ */
 function identity(dim: number, settled: SettledEnsembleOptions): Record<string, unknown> {
   return {
     dim,
     walkers: settled.walkers,
     seed: settled.seed,
     thin: settled.thin,
-    moves: settled.moves.kinds.join(','),
-    moveCumulativeWeights: Array.from(settled.moves.cumulative).join(','),
+    proposals: settled.proposals.kinds.join(','),
+    proposalCumulativeWeights: Array.from(settled.proposals.cumulative).join(','),
     stretchScale: settled.stretchScale,
     gamma: settled.gamma,
     jitter: settled.jitter,
-    targetAutocorrelationTimes: settled.targetAutocorrelationTimes,
-    autocorrelationTolerance: settled.autocorrelationTolerance,
-    checkEvery: settled.checkEvery,
     burnInFraction: settled.burnInFraction,
   };
 }
 
-/** Writes the whole run state atomically as JSON; float arrays are stored bit-exact. */
+/**
+ * Writes the whole run state atomically as JSON; float arrays are stored bit-exact. `runIdentity`
+ * (the caller's record of what the run was made from) is stored beside the sampler's settings.
+ */
 export function saveEnsembleCheckpoint(
-  path: string, dim: number, settled: SettledEnsembleOptions, state: EnsembleState,
+  path: string, dim: number, settled: SettledEnsembleOptions, state: EnsembleState, runIdentity?: unknown,
 ): void {
   writeJsonAtomic(path, {
     format: FORMAT,
     version: VERSION,
+    ...(runIdentity === undefined ? {} : { runIdentity }),
     run: identity(dim, settled),
-    iteration: state.iteration,
+    sweep: state.sweep,
     evaluations: state.evaluations,
     nonFiniteProposals: state.nonFiniteProposals,
-    converged: state.converged,
-    autocorrelationTimeMax: encodeFloat64(Float64Array.of(state.autocorrelationTimeMax)),
-    previousTau: state.previousTau === null ? null : encodeFloat64(state.previousTau),
     random: state.random.savedState(),
     positions: encodeFloat64(state.positions),
     logDensities: encodeFloat64(state.logDensities),
@@ -52,9 +53,12 @@ export function saveEnsembleCheckpoint(
   });
 }
 
-/** Reads a checkpoint written for the same run settings; null when the file does not exist. */
+/**
+ * Reads a checkpoint written for the same run settings; null when the file does not exist.
+ * `checkIdentity`, when given, is called first with the stored run identity (undefined when none).
+ */
 export function loadEnsembleCheckpoint(
-  path: string, dim: number, settled: SettledEnsembleOptions,
+  path: string, dim: number, settled: SettledEnsembleOptions, checkIdentity?: (stored: unknown, file: string) => void,
 ): EnsembleState | null {
   if (!existsSync(path)) return null;
   let saved: Record<string, unknown>;
@@ -64,8 +68,9 @@ export function loadEnsembleCheckpoint(
     throw new InputError(`cannot read the checkpoint: ${(error as Error).message}`, { file: path });
   }
   if (saved?.format !== FORMAT || saved.version !== VERSION) {
-    throw new InputError(expectedFound(`an ${FORMAT}, version ${VERSION}`, saved?.format), { file: path });
+    throw new InputError(expectedFound(`an ${FORMAT}, version ${VERSION}`, `${String(saved?.format)} version ${String(saved?.version)}`), { file: path });
   }
+  checkIdentity?.(saved.runIdentity, path);
   const expected = identity(dim, settled);
   const found = (saved.run ?? {}) as Record<string, unknown>;
   for (const key of Object.keys(expected)) {
@@ -101,15 +106,13 @@ export function loadEnsembleCheckpoint(
   }
   chain.restore(sized('chain', rows * settled.walkers * dim), chainLogDensities);
   return {
-    iteration: count('iteration'),
+    sweep: count('sweep'),
     positions,
     logDensities: sized('logDensities', settled.walkers),
     accepted: sized('accepted', settled.walkers),
     evaluations: count('evaluations'),
     nonFiniteProposals: count('nonFiniteProposals'),
-    previousTau: saved.previousTau === null ? null : sized('previousTau', dim),
-    autocorrelationTimeMax: decodeFloat64(saved.autocorrelationTimeMax, 'autocorrelationTimeMax', path)[0],
-    converged: saved.converged === true,
+    lastCheck: null,
     chain,
     random,
   };

@@ -1,24 +1,24 @@
-import { parameterDraws, type ChainLayout } from '../diagnostics/chainLayout.js';
-import { convergenceSummary } from '../diagnostics/convergenceSummary.js';
+import type { ChainLayout } from '../diagnostics/chainLayout.js';
 import { ensembleAutocorrelationTimes } from '../diagnostics/integratedAutocorrelationTime.js';
+import { mixingDiagnostics } from './mixingCheck.js';
 
 export interface EnsembleResult {
   /** Stored positions, steps x walkers x dim (row-major). */
   readonly chain: Float64Array;
   /** Stored log posterior values, steps x walkers. */
   readonly logPosterior: Float64Array;
-  /** Stored steps (iterations / thin). */
+  /** Stored steps (sweeps / thin). */
   readonly steps: number;
   readonly walkers: number;
   readonly dim: number;
   readonly thin: number;
-  /** Iterations run. */
-  readonly iterations: number;
+  /** Sweeps run (each proposes a move to every walker once). */
+  readonly sweeps: number;
   /** First stored step used by the diagnostics (the burn-in before it is left out). */
   readonly retainedFrom: number;
   /** Accepted fraction of proposals per walker. */
   readonly acceptanceFraction: Float64Array;
-  /** Integrated autocorrelation time per parameter, in iterations (stored steps x thin). */
+  /** Integrated autocorrelation time per parameter (Sokal's window), in sweeps (stored steps x thin). */
   readonly autocorrelationTime: Float64Array;
   /** False when some tau came from a series too short for Sokal's window rule. */
   readonly autocorrelationReliable: boolean;
@@ -32,9 +32,9 @@ export interface EnsembleResult {
   readonly evaluations: number;
   /** Proposals whose log density was not finite (each counted as a rejection). */
   readonly nonFiniteProposals: number;
-  /** True when the autocorrelation stopping rule was met. */
+  /** True when the stop rule (R-hat and effective sample sizes) was met before maxSweeps. */
   readonly converged: boolean;
-  /** True when the run ended on a stop request before maxSteps or convergence. */
+  /** True when the run ended on a stop request before maxSweeps or convergence. */
   readonly stopped: boolean;
 }
 
@@ -42,25 +42,11 @@ export interface EnsembleResult {
 export function chainDiagnostics(
   chain: Float64Array, layout: ChainLayout, retainedFrom: number, thin: number,
 ): Pick<EnsembleResult, 'autocorrelationTime' | 'autocorrelationReliable' | 'rHat' | 'effectiveSampleSize' | 'tailEffectiveSampleSize'> {
-  const { dim, walkers, steps } = layout;
-  const n = steps - retainedFrom;
-  const rHat = new Float64Array(dim).fill(Number.NaN);
-  const bulk = new Float64Array(dim).fill(Number.NaN);
-  const tail = new Float64Array(dim).fill(Number.NaN);
   const { tau, reliable } = ensembleAutocorrelationTimes(chain, layout, retainedFrom);
-  for (let k = 0; k < dim; k++) tau[k] *= thin;
-  if (n >= 4) {
-    const values = new Float64Array(walkers * n);
-    for (let k = 0; k < dim; k++) {
-      parameterDraws(chain, layout, k, retainedFrom, values);
-      const summary = convergenceSummary({ values, chains: walkers, drawsPerChain: n });
-      rHat[k] = summary.rHat;
-      bulk[k] = summary.bulkEffectiveSampleSize;
-      tail[k] = summary.tailEffectiveSampleSize;
-    }
-  }
+  for (let k = 0; k < layout.dim; k++) tau[k] *= thin;
+  const mixing = mixingDiagnostics(chain, layout, retainedFrom);
   return {
-    autocorrelationTime: tau, autocorrelationReliable: reliable, rHat, effectiveSampleSize: bulk,
-    tailEffectiveSampleSize: tail,
+    autocorrelationTime: tau, autocorrelationReliable: reliable, rHat: mixing.rHat,
+    effectiveSampleSize: mixing.bulkEffectiveSampleSize, tailEffectiveSampleSize: mixing.tailEffectiveSampleSize,
   };
 }

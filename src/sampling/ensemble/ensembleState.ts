@@ -1,9 +1,10 @@
 import type { SeededStream } from '../../numeric/random/seededStream.js';
 import type { GrowableChain } from './growableChain.js';
+import type { MixingCheck } from './mixingCheck.js';
 
-/** Everything a run carries from one iteration to the next (and so everything a checkpoint holds). */
+/** Everything a run carries from one sweep to the next (and so everything a checkpoint holds). */
 export interface EnsembleState {
-  iteration: number;
+  sweep: number;
   /** Current walker positions, walkers x dim. */
   readonly positions: Float64Array;
   /** Current log density of each walker. */
@@ -12,10 +13,8 @@ export interface EnsembleState {
   readonly accepted: Float64Array;
   evaluations: number;
   nonFiniteProposals: number;
-  /** Autocorrelation times of the last convergence check (stored-step units), or null. */
-  previousTau: Float64Array | null;
-  autocorrelationTimeMax: number;
-  converged: boolean;
+  /** The last check of the stop rule (a pure function of the chain, so recomputed on resume), or null. */
+  lastCheck: MixingCheck | null;
   readonly chain: GrowableChain;
   readonly random: SeededStream;
 }

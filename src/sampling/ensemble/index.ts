@@ -1,9 +1,11 @@
 export { runEnsemble } from './runEnsemble.js';
 export type { BatchLogDensity, EnsembleProblem, PeriodicRange } from './ensembleProblem.js';
-export type { EnsembleOptions, EnsembleProgress, EnsembleStart } from './ensembleOptions.js';
+export type { EnsembleOptions, EnsembleProgress, EnsembleStart, EnsembleStopRule } from './ensembleOptions.js';
 export type { EnsembleResult } from './ensembleResult.js';
 export { chainDiagnostics } from './ensembleResult.js';
-export type { EnsembleMoveKind, EnsembleMoveOption, WeightedMove } from './ensembleMoves.js';
+export type { EnsembleProposalKind, EnsembleProposalOption, WeightedProposal } from './ensembleProposals.js';
+export { PROPOSAL_KINDS } from './ensembleProposals.js';
+export { isCheckSweep, mixingCheck, mixingDiagnostics, type MixingCheck, type MixingDiagnostics } from './mixingCheck.js';
 export { proposeStretch, stretchFactor } from './stretchMove.js';
 export { proposeDifferentialEvolution, defaultDifferentialEvolutionGamma } from './differentialEvolutionMove.js';
 export { posteriorOnSpace } from './posteriorOnSpace.js';

@@ -1,4 +1,3 @@
-import { ensembleAutocorrelationTimes } from '../diagnostics/integratedAutocorrelationTime.js';
 import { SeededStream } from '../../numeric/random/seededStream.js';
 import { proposeDifferentialEvolution } from './differentialEvolutionMove.js';
 import { loadEnsembleCheckpoint, saveEnsembleCheckpoint } from './ensembleCheckpoint.js';
@@ -6,19 +5,22 @@ import { settleEnsembleOptions, type EnsembleOptions, type SettledEnsembleOption
 import type { EnsembleProblem } from './ensembleProblem.js';
 import { chainDiagnostics, type EnsembleResult } from './ensembleResult.js';
 import type { EnsembleState } from './ensembleState.js';
+import { isCheckSweep, mixingCheck, mixingDiagnostics } from './mixingCheck.js';
 import { evaluateBatch } from './evaluateBatch.js';
 import { GrowableChain } from './growableChain.js';
 import { periodicTable, wrapRows } from './periodicWrap.js';
 import { startingEnsemble } from './startingEnsemble.js';
+import { eventLoopTurn } from '../eventLoopTurn.js';
 import { proposeStretch } from './stretchMove.js';
 
 /**
- * Ensemble MCMC over `problem.dim` free parameters. Each iteration moves the two halves of the
+ * Ensemble MCMC over `problem.dim` free parameters. Each sweep moves the two halves of the
  * walkers in turn, each half against the other, which keeps the moves valid (Goodman & Weare
  * 2010, sec. 3: a walker moves against the complementary ensemble) while a half's proposals are
  * independent, so each half goes to `logPosterior` in one batch. Every random draw is
  * made outside the batch call, so a seed fixes the result however the batch is evaluated.
- * With a checkpoint, an interrupted run resumes bit-identically.
+ * The run stops at maxSweeps, on a stop request, or when the stop rule (mixingCheck) is met at
+ * one of its checks (isCheckSweep). With a checkpoint, an interrupted run resumes bit-identically.
  */
 export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOptions): Promise<EnsembleResult> {
   const dim = problem.dim;
@@ -27,8 +29,9 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
   const checkpoint = options.checkpoint;
   const periodic = periodicTable(problem);
 
-  let state = options.resume && checkpoint ? loadEnsembleCheckpoint(checkpoint.path, dim, settled) : null;
+  let state = options.resume && checkpoint ? loadEnsembleCheckpoint(checkpoint.path, dim, settled, checkpoint.checkIdentity) : null;
   if (state === null) state = await freshState(problem, options, settled);
+  else if (state.sweep > 0 && isCheckSweep(state.sweep, settled.checkEverySweeps)) checkStopRule(state, settled, dim);
 
   const half = walkers / 2;
   const proposals = new Float64Array(half * dim);
@@ -36,17 +39,25 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
   const jitterScale = new Float64Array(dim);
   let stopped = false;
   let savedAt = -1;
+  let savedTime = performance.now();
+  const save = (): void => {
+    if (checkpoint === undefined) return;
+    saveEnsembleCheckpoint(checkpoint.path, dim, settled, state, checkpoint.identity);
+    savedAt = state.sweep;
+    savedTime = performance.now();
+  };
 
-  while (state.iteration < settled.maxSteps && !state.converged) {
+  while (state.sweep < settled.maxSweeps && state.lastCheck?.met !== true) {
+    await eventLoopTurn();
     if (options.signal?.stopRequested) {
       stopped = true;
       break;
     }
-    const move = pickMove(settled, state.random);
+    const proposal = pickProposal(settled, state.random);
     for (let part = 0; part < 2; part++) {
       const first = part * half;
       const other = (1 - part) * half;
-      if (move === 'stretch') {
+      if (proposal === 'stretch') {
         proposeStretch(state.positions, dim, first, half, other, half, state.random, settled.stretchScale,
           proposals, logCorrection);
       } else {
@@ -58,26 +69,20 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
       state.evaluations += half;
       acceptOrReject(state, first, half, dim, proposals, values, logCorrection);
     }
-    state.iteration++;
-    if (state.iteration % thin === 0) state.chain.append(state.positions, state.logDensities);
-    if (settled.targetAutocorrelationTimes !== null && state.iteration % settled.checkEvery === 0) {
-      checkConvergence(state, settled, dim);
-    }
-    if (checkpoint && state.iteration % checkpoint.everySteps === 0) {
-      saveEnsembleCheckpoint(checkpoint.path, dim, settled, state);
-      savedAt = state.iteration;
-    }
+    state.sweep++;
+    if (state.sweep % thin === 0) state.chain.append(state.positions, state.logDensities);
+    if (isCheckSweep(state.sweep, settled.checkEverySweeps)) checkStopRule(state, settled, dim);
+    if (checkpoint !== undefined && performance.now() - savedTime >= checkpoint.everySeconds * 1000) save();
     options.onProgress?.({
-      iteration: state.iteration,
-      maxSteps: settled.maxSteps,
+      sweep: state.sweep,
+      maxSweeps: settled.maxSweeps,
       evaluations: state.evaluations,
-      acceptanceFraction: meanOf(state.accepted) / state.iteration,
-      autocorrelationTimeMax: state.autocorrelationTimeMax,
+      acceptanceFraction: meanOf(state.accepted) / state.sweep,
+      smallestEffectiveSampleSize: state.lastCheck?.smallestEffectiveSampleSize ?? Number.NaN,
+      largestRHat: state.lastCheck?.largestRHat ?? Number.NaN,
     });
   }
-  if (checkpoint && savedAt !== state.iteration) {
-    saveEnsembleCheckpoint(checkpoint.path, dim, settled, state);
-  }
+  if (savedAt !== state.sweep) save();
   return summarise(state, settled, dim, stopped);
 }
 
@@ -87,22 +92,20 @@ async function freshState(
   const random = SeededStream.fromSeed(settled.seed);
   const start = await startingEnsemble(problem, settled.walkers, options.start, random, periodicTable(problem));
   return {
-    iteration: 0,
+    sweep: 0,
     positions: start.positions,
     logDensities: start.logDensities,
     accepted: new Float64Array(settled.walkers),
     evaluations: start.evaluations,
     nonFiniteProposals: 0,
-    previousTau: null,
-    autocorrelationTimeMax: Number.NaN,
-    converged: false,
+    lastCheck: null,
     chain: new GrowableChain(settled.walkers, problem.dim),
     random,
   };
 }
 
-function pickMove(settled: SettledEnsembleOptions, random: SeededStream): string {
-  const { kinds, cumulative } = settled.moves;
+function pickProposal(settled: SettledEnsembleOptions, random: SeededStream): string {
+  const { kinds, cumulative } = settled.proposals;
   if (kinds.length === 1) return kinds[0];
   const u = random.uniform();
   let k = 0;
@@ -133,28 +136,12 @@ function acceptOrReject(
   }
 }
 
-// Stopping rule (common practice for ensemble samplers): the retained chain is longer than N tau_max
-// and every tau moved by less than the tolerance since the last check; tau as in Sokal 1997.
-function checkConvergence(state: EnsembleState, settled: SettledEnsembleOptions, dim: number): void {
+// The stop rule over the retained part of the stored chain (mixingCheck.ts); without a rule, none.
+function checkStopRule(state: EnsembleState, settled: SettledEnsembleOptions, dim: number): void {
+  if (settled.stopRule === null) return;
   const rows = state.chain.rows;
-  const from = Math.floor(rows * settled.burnInFraction);
-  if (rows - from < 2) return;
-  const { tau, reliable } = ensembleAutocorrelationTimes(
-    state.chain.positionRows(), { steps: rows, walkers: settled.walkers, dim }, from,
-  );
-  let tauMax = 0;
-  let stable = state.previousTau !== null;
-  for (let k = 0; k < dim; k++) {
-    tauMax = Math.max(tauMax, tau[k]);
-    if (state.previousTau !== null
-      && !(Math.abs(state.previousTau[k] - tau[k]) < settled.autocorrelationTolerance * tau[k])) {
-      stable = false;
-    }
-  }
-  state.autocorrelationTimeMax = tauMax * settled.thin;
-  state.previousTau = tau;
-  state.converged = reliable && stable
-    && (rows - from) * settled.thin > (settled.targetAutocorrelationTimes as number) * state.autocorrelationTimeMax;
+  const layout = { steps: rows, walkers: settled.walkers, dim };
+  state.lastCheck = mixingCheck(mixingDiagnostics(state.chain.positionRows(), layout, Math.floor(rows * settled.burnInFraction)), settled.stopRule);
 }
 
 function summarise(state: EnsembleState, settled: SettledEnsembleOptions, dim: number, stopped: boolean): EnsembleResult {
@@ -163,7 +150,7 @@ function summarise(state: EnsembleState, settled: SettledEnsembleOptions, dim: n
   const chain = state.chain.positionRows().slice();
   const retainedFrom = Math.floor(steps * settled.burnInFraction);
   const acceptanceFraction = new Float64Array(walkers);
-  for (let w = 0; w < walkers; w++) acceptanceFraction[w] = state.iteration > 0 ? state.accepted[w] / state.iteration : Number.NaN;
+  for (let w = 0; w < walkers; w++) acceptanceFraction[w] = state.sweep > 0 ? state.accepted[w] / state.sweep : Number.NaN;
   return {
     chain,
     logPosterior: state.chain.logDensityRows().slice(),
@@ -171,13 +158,13 @@ function summarise(state: EnsembleState, settled: SettledEnsembleOptions, dim: n
     walkers,
     dim,
     thin: settled.thin,
-    iterations: state.iteration,
+    sweeps: state.sweep,
     retainedFrom,
     acceptanceFraction,
     ...chainDiagnostics(chain, { steps, walkers, dim }, retainedFrom, settled.thin),
     evaluations: state.evaluations,
     nonFiniteProposals: state.nonFiniteProposals,
-    converged: state.converged,
+    converged: state.lastCheck?.met === true,
     stopped,
   };
 }

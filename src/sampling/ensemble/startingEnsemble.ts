@@ -5,7 +5,7 @@ import type { EnsembleStart } from './ensembleOptions.js';
 import { evaluateBatch } from './evaluateBatch.js';
 import { wrapRows, type PeriodicTable } from './periodicWrap.js';
 
-const BALL_ROUNDS = 100;
+const GAUSSIAN_ROUNDS = 100;
 
 export interface StartingEnsemble {
   readonly positions: Float64Array;
@@ -14,10 +14,10 @@ export interface StartingEnsemble {
 }
 
 /**
- * Places the walkers: a Gaussian ball center + scale * N(0, 1) per coordinate (walkers with a
- * non-finite log density are redrawn, up to 100 rounds), or a random pick without replacement of
- * the given points (a non-finite one is replaced by another unused point). Periodic coordinates
- * are wrapped into their periods.
+ * Places the walkers: a random pick without replacement of the given draws (a non-finite one is
+ * replaced by another unused draw), or center + spread * N(0, 1) per coordinate (walkers with a
+ * non-finite log density are redrawn, up to 100 rounds). Periodic coordinates are wrapped into
+ * their periods.
  */
 export async function startingEnsemble(
   problem: EnsembleProblem, walkers: number, start: EnsembleStart, random: SeededStream,
@@ -31,22 +31,22 @@ export async function startingEnsemble(
   let pending = Array.from({ length: walkers }, (_, w) => w);
 
   let fill: (slot: number) => boolean;
-  if ('ball' in start) {
-    const { center, scale } = start.ball;
-    checkVector('start.ball.center', center, dim, (x) => Number.isFinite(x), 'finite numbers');
-    checkVector('start.ball.scale', scale, dim, (x) => x > 0 && Number.isFinite(x), 'finite numbers > 0');
+  if ('around' in start) {
+    const { center, spread } = start.around;
+    checkVector('start.around.center', center, dim, (x) => Number.isFinite(x), 'finite numbers');
+    checkVector('start.around.spread', spread, dim, (x) => x > 0 && Number.isFinite(x), 'finite numbers > 0');
     let rounds = 0;
     fill = (slot) => {
-      if (slot === 0 && ++rounds > BALL_ROUNDS) return false;
-      for (let d = 0; d < dim; d++) candidates[slot * dim + d] = center[d] + scale[d] * random.normal();
+      if (slot === 0 && ++rounds > GAUSSIAN_ROUNDS) return false;
+      for (let d = 0; d < dim; d++) candidates[slot * dim + d] = center[d] + spread[d] * random.normal();
       return true;
     };
-  } else if ('points' in start) {
-    const points = start.points;
+  } else if ('draws' in start) {
+    const points = start.draws;
     const count = points instanceof Float64Array ? points.length / dim : Number.NaN;
     if (!Number.isInteger(count) || count < walkers) {
       throw new InputError(
-        `ensemble start.points: ${expectedFound(`at least ${walkers} points of ${dim} values (a Float64Array)`,
+        `ensemble start.draws: ${expectedFound(`at least ${walkers} draws of ${dim} values (a Float64Array)`,
           points instanceof Float64Array ? `${points.length} values` : points)}`,
       );
     }
@@ -64,7 +64,7 @@ export async function startingEnsemble(
       return true;
     };
   } else {
-    throw new InputError(`ensemble start: ${expectedFound('{ ball: { center, scale } } or { points }', start)}`);
+    throw new InputError(`ensemble start: ${expectedFound('{ draws } or { around: { center, spread } }', start)}`);
   }
 
   while (pending.length > 0) {
@@ -72,7 +72,7 @@ export async function startingEnsemble(
       if (!fill(slot)) {
         throw new InputError(
           `ensemble start: expected a finite log posterior for every walker, found ${pending.length} of ${walkers} ` +
-            `walkers without one after ${'ball' in start ? `${BALL_ROUNDS} rounds of redrawing` : 'using every point'}`,
+            `walkers without one after ${'around' in start ? `${GAUSSIAN_ROUNDS} rounds of redrawing` : 'using every draw'}`,
         );
       }
     }

@@ -8,6 +8,7 @@ import { fromFrame, periodicSeams, toFrame } from './periodicSeams.js';
 import { drawFromStudentMixture, StudentMixtureDensity } from './studentMixture.js';
 import { temperedWeights } from './temperedWeights.js';
 import { logSumExp } from '../../numeric/statistics/logSumExp.js';
+import { eventLoopTurn } from '../eventLoopTurn.js';
 
 /** Draws per likelihood call (and between checkpoints); results do not depend on it. */
 export const importanceBatch = 250;
@@ -69,6 +70,8 @@ export async function runImportance(
       if (finishStage(state, run)) return { state, stopReason: 'converged' };
       continue;
     }
+    // A turn of the event loop lets a signal handler set stopRequested (as runNested's loop does).
+    await eventLoopTurn();
     if (run.stopRequested()) return { state, stopReason: 'interrupted' };
     if (run.evaluationsLeft() <= 0) return { state, stopReason: 'maxEvaluations' };
     await drawBatch(state, run, Math.min(importanceBatch, target - state.drawn));

@@ -26,15 +26,22 @@ function decodeNonFinite(_key: string, value: unknown): unknown {
 /**
  * Writes a state record atomically (temporary file, then rename). Doubles round-trip exactly
  * through JSON's shortest decimal form (ECMAScript Number::toString), non-finite values by name.
+ * `runIdentity` (the caller's record of the run's config, data and seed) is stored beside it.
  */
-export function writeCheckpoint(path: string, record: NestedStateRecord): void {
-  writeFileAtomic(path, JSON.stringify({ format: checkpointFormat, version: checkpointVersion, state: record }, encodeNonFinite));
+export function writeCheckpoint(path: string, record: NestedStateRecord, runIdentity?: unknown): void {
+  const identity = runIdentity === undefined ? {} : { runIdentity };
+  writeFileAtomic(path, JSON.stringify({ format: checkpointFormat, version: checkpointVersion, ...identity, state: record }, encodeNonFinite));
 }
 
-/** Reads a checkpoint if the file exists (null otherwise), checking it belongs to the same run. */
-export function readCheckpoint(path: string, expected: NestedSettings): NestedStateRecord | null {
+/**
+ * Reads a checkpoint if the file exists (null otherwise), checking it belongs to the same run:
+ * `checkIdentity` first, with the stored run identity, then the sampler's settings.
+ */
+export function readCheckpoint(
+  path: string, expected: NestedSettings, checkIdentity?: (stored: unknown, file: string) => void,
+): NestedStateRecord | null {
   if (!existsSync(path)) return null;
-  let parsed: { format?: unknown; version?: unknown; state?: NestedStateRecord };
+  let parsed: { format?: unknown; version?: unknown; runIdentity?: unknown; state?: NestedStateRecord };
   try {
     parsed = JSON.parse(readFileSync(path, 'utf8'), decodeNonFinite) as typeof parsed;
   } catch (error) {
@@ -43,6 +50,7 @@ export function readCheckpoint(path: string, expected: NestedSettings): NestedSt
   if (parsed.format !== checkpointFormat || (parsed.version !== 1 && parsed.version !== checkpointVersion) || parsed.state === undefined) {
     throw new InputError(`expected a "${checkpointFormat}" version ${checkpointVersion} file`, { file: path });
   }
+  checkIdentity?.(parsed.runIdentity, path);
   const found = parsed.state.settings as unknown as Record<string, unknown>;
   // Settings added since version 1 was first written, at the values that reproduce older runs.
   if (found.slicePointsPerChain === undefined) found.slicePointsPerChain = 1;

@@ -70,6 +70,10 @@ export interface NestedCheckpointOptions {
   readonly path: string;
   readonly everySeconds?: number;
   readonly everyIterations?: number;
+  /** The caller's record of what the run was made from (plain JSON), stored in every checkpoint. */
+  readonly identity?: unknown;
+  /** Called on resume with the stored identity (undefined when none) before the state is read; throws to refuse. */
+  readonly checkIdentity?: (stored: unknown, file: string) => void;
 }
 
 export interface NestedOptions {

@@ -11,6 +11,7 @@ import { runImportance } from '../importance/runImportance.js';
 import { ellipsoidStep } from './ellipsoidStep.js';
 import { sliceStep } from './sliceStep.js';
 import { nestedResultOf } from './nestedResult.js';
+import { eventLoopTurn } from '../eventLoopTurn.js';
 
 /**
  * Nested sampling (Skilling 2004, 2006) of a problem on the unit hypercube. Each step removes the k
@@ -34,7 +35,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   if (options.resume === true && checkpointPath === undefined) {
     throw new InputError(`nested sampling resume: ${expectedFound('a checkpoint.path to resume from', undefined)}`);
   }
-  const record = options.resume === true && checkpointPath !== undefined ? readCheckpoint(checkpointPath, settings) : null;
+  const record = options.resume === true && checkpointPath !== undefined ? readCheckpoint(checkpointPath, settings, options.checkpoint?.checkIdentity) : null;
   const evaluator = new BatchEvaluator(problem);
   const early = problem.runSliceChain !== undefined && problem.idleThreads !== undefined
     ? new EarlyChains((request, stop) => problem.runSliceChain!(request, stop), () => problem.idleThreads!())
@@ -55,7 +56,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   const saveCheckpoint = () => {
     if (checkpointPath === undefined) return;
     state.elapsedSeconds = elapsed();
-    writeCheckpoint(checkpointPath, recordState(state));
+    writeCheckpoint(checkpointPath, recordState(state), options.checkpoint?.identity);
     lastCheckpointTime = Date.now();
     lastCheckpointIteration = iterationsOf(state);
   };
@@ -63,6 +64,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
 
   let stopReason: NestedStopReason;
   for (;;) {
+    await eventLoopTurn();
     const reason = stopReasonOf(state, options, tolerance);
     if (reason !== null) {
       stopReason = reason;

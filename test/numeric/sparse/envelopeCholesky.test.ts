@@ -1,9 +1,9 @@
-import { CholeskyDecomposition, Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import { EnvelopeCholesky } from '../../../src/numeric/sparse/envelopeCholesky.js';
+import { MultifrontalCholesky } from '../../../src/numeric/sparse/multifrontalCholesky.js';
+import { SupernodeChain } from '../../../src/numeric/sparse/supernodeChain.js';
 import { SymmetricSparseAccumulator } from '../../../src/numeric/sparse/symmetricSparseAccumulator.js';
-import type { SymmetricCsr } from '../../../src/numeric/sparse/symmetricCsr.js';
-import { denseLogDet, factorCase, newKernel, relativeDifference } from './factorCase.js';
+import { denseLogDet, denseSolve, emptyMatrix, expectSameSolutions, expectSpoiledMatricesFail, factorCase, gershgorinConditionBound, newKernel, randomVector, relativeDifference } from './factorCase.js';
 import { patternOf, scipyCases } from './rcmTestTools.js';
 import { accumulate, denseOf, dominantCase, gridEdges, laplacianCase, localEdges, shuffled, spdCases, uniformStream, type SparseCase } from './sparseTestMatrices.js';
 
@@ -16,37 +16,6 @@ import { accumulate, denseOf, dominantCase, gridEdges, laplacianCase, localEdges
 // sum ln(pivot) is compared relative to max(1, |ln det|) at the same 1e-10 (measured
 // differences are below 2e-13 absolute).
 const TOLERANCE = 1e-10;
-
-/**
- * An upper bound on the condition number of a symmetric matrix whose Gershgorin discs all lie
- * right of 0 (Gershgorin 1931): max(a_ii + r_i) / min(a_ii - r_i), r_i = sum_j!=i |a_ij|.
- */
-function gershgorinConditionBound(a: Matrix): number {
-  let low = Number.POSITIVE_INFINITY;
-  let high = 0;
-  for (let i = 0; i < a.rows; i++) {
-    let r = 0;
-    for (let j = 0; j < a.columns; j++) if (j !== i) r += Math.abs(a.get(i, j));
-    low = Math.min(low, a.get(i, i) - r);
-    high = Math.max(high, a.get(i, i) + r);
-  }
-  return low > 0 ? high / low : Number.POSITIVE_INFINITY;
-}
-
-function randomVector(n: number, uniform: () => number): Float64Array {
-  return Float64Array.from({ length: n }, () => 2 * uniform() - 1);
-}
-
-function denseSolve(a: Matrix, b: Float64Array): number[] {
-  return new CholeskyDecomposition(a).solve(Matrix.columnVector(Array.from(b))).getColumn(0);
-}
-
-/** Sets the stored diagonal entry of original row i to `value`. */
-function setDiagonal(m: SymmetricCsr, i: number, value: number): void {
-  const p = m.rowStart[i + 1] - 1;
-  if (m.column[p] !== i) throw new Error(`row ${i} stores no diagonal`);
-  m.value[p] = value;
-}
 
 describe('EnvelopeCholesky', () => {
   it('the test matrices are well conditioned (cond < 1e3), as the tolerance assumes', () => {
@@ -104,37 +73,30 @@ describe('EnvelopeCholesky', () => {
     for (const c of scipyCases) expect(cholesky.analyse(patternOf(c), Int32Array.from(c.scipyOrder)), c.name).toBe(c.scipyProfile + c.n);
   });
 
+  it('counts sum over columns of (envelope entries)^2 operations: n(n + 1)(2n + 1) / 6 dense (common practice), as a chain of single columns', () => {
+    const u = uniformStream(27);
+    const n = 23;
+    const full = dominantCase('dense 23', n, Array.from({ length: n }, (_, i) => Array.from({ length: i }, (_, j) => [i, j] as [number, number])).flat(), u);
+    const dense = new EnvelopeCholesky();
+    dense.analyse(accumulate(new SymmetricSparseAccumulator(), full, u), Int32Array.from({ length: n }, (_, i) => i));
+    expect(dense.flops).toBe((n * (n + 1) * (2 * n + 1)) / 6);
+    // A chain of single-column supernodes keeps the envelope (multifrontalCholesky.test.ts checks it against scipy's profile).
+    for (const c of scipyCases) {
+      const order = Int32Array.from(c.scipyOrder);
+      const envelope = new EnvelopeCholesky();
+      envelope.analyse(patternOf(c), order);
+      const chain = new MultifrontalCholesky();
+      chain.analyse(patternOf(c), order, new SupernodeChain().build(c.n, 1));
+      expect(envelope.flops, c.name).toBe(chain.flops);
+    }
+  });
+
   it('returns NaN without throwing for a negative pivot early or late, a zero matrix and a NaN entry', () => {
     const u = uniformStream(23);
     const c = spdCases()[3];
     const kernel = newKernel();
     factorCase(kernel, c, u);
-    const order = kernel.cholesky.order;
-    const earlyRow = order[0];
-    const lateRow = order[c.n - 1];
-    const cases: [string, (m: SymmetricCsr) => void][] = [
-      ['negative first pivot', (m) => setDiagonal(m, earlyRow, -1)],
-      ['negative last pivot', (m) => setDiagonal(m, lateRow, 0)],
-      ['zero matrix', (m) => m.value.fill(0, 0, m.rowStart[m.size])],
-      ['NaN entry', (m) => setDiagonal(m, order[c.n >> 1], Number.NaN)],
-    ];
-    for (const [name, spoil] of cases) {
-      const m = accumulate(kernel.accumulator, c, u);
-      spoil(m);
-      const dense = Matrix.zeros(c.n, c.n);
-      for (let i = 0; i < c.n; i++) {
-        for (let p = m.rowStart[i]; p < m.rowStart[i + 1]; p++) {
-          dense.set(i, m.column[p], m.value[p]);
-          dense.set(m.column[p], i, m.value[p]);
-        }
-      }
-      if (name !== 'NaN entry') expect(new CholeskyDecomposition(dense).isPositiveDefinite(), name).toBe(false);
-      let logDet = 0;
-      expect(() => (logDet = kernel.cholesky.factor(m)), name).not.toThrow();
-      expect(logDet, name).toBeNaN();
-      expect(kernel.cholesky.isFactored).toBe(false);
-      expect(() => kernel.cholesky.solve(new Float64Array(c.n), new Float64Array(c.n))).toThrow();
-    }
+    expectSpoiledMatricesFail(kernel.cholesky, () => accumulate(kernel.accumulator, c, u), kernel.cholesky.order.slice(0, c.n));
   });
 
   it('refactors new values on the same pattern without a new analysis', () => {
@@ -178,12 +140,7 @@ describe('EnvelopeCholesky', () => {
       const fresh = newKernel();
       const b = factorCase(fresh, c, uniformStream(c.n));
       expect(a.logDet, c.name).toBe(b.logDet);
-      const rhs = randomVector(c.n, uniformStream(2 * c.n));
-      const xa = new Float64Array(c.n);
-      const xb = new Float64Array(c.n);
-      reused.cholesky.solve(rhs, xa);
-      fresh.cholesky.solve(rhs, xb);
-      expect(Array.from(xa), c.name).toEqual(Array.from(xb));
+      expectSameSolutions(reused.cholesky, fresh.cholesky, c.n, c.name);
     }
   });
 
@@ -203,9 +160,7 @@ describe('EnvelopeCholesky', () => {
   });
 
   it('handles an empty matrix: ln det 0', () => {
-    const accumulator = new SymmetricSparseAccumulator();
-    accumulator.reset(0);
-    const m = accumulator.compress();
+    const m = emptyMatrix();
     const cholesky = new EnvelopeCholesky();
     expect(cholesky.analyse(m, new Int32Array(0))).toBe(0);
     expect(cholesky.factor(m)).toBe(0);

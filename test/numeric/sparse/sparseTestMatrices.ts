@@ -3,6 +3,7 @@
 import { createRequire } from 'node:module';
 import type randuType from '@stdlib/random/base/randu';
 import { Matrix } from 'ml-matrix';
+import type { PlanePoints } from '../../../src/numeric/sparse/nestedDissection.js';
 import { SymmetricSparseAccumulator } from '../../../src/numeric/sparse/symmetricSparseAccumulator.js';
 import type { SymmetricCsr } from '../../../src/numeric/sparse/symmetricCsr.js';
 
@@ -109,6 +110,12 @@ export function denseTailEdges(n: number, dense: number): [number, number][] {
   return edges;
 }
 
+/** The last `count` unknowns of a case whose name ends in "<count> dense" (none otherwise): its dense rows. */
+export function denseTail(c: SparseCase): number[] {
+  const dense = /(\d+) dense$/.exec(c.name);
+  return dense ? Array.from({ length: Number(dense[1]) }, (_, t) => c.n - Number(dense[1]) + t) : [];
+}
+
 /** The named fixtures of the factorisation tests (sizes 1 .. 300). */
 export function spdCases(seed = 1): SparseCase[] {
   const u = uniformStream(seed);
@@ -152,4 +159,70 @@ export function accumulate(accumulator: SymmetricSparseAccumulator, c: SparseCas
     else accumulator.add(c.columns[t], c.rows[t], half);
   }
   return accumulator.compress();
+}
+
+/** Plane points: x[v], y[v]. */
+export interface Points {
+  readonly x: number[];
+  readonly y: number[];
+}
+
+/** n points uniform in the disc of `radius` about (cx, cy), by rejection from the square. */
+export function discPoints(n: number, uniform: () => number, radius = 1, cx = 0, cy = 0): Points {
+  const x: number[] = [];
+  const y: number[] = [];
+  while (x.length < n) {
+    const u = 2 * uniform() - 1;
+    const v = 2 * uniform() - 1;
+    if (u * u + v * v >= 1) continue;
+    x.push(cx + radius * u);
+    y.push(cy + radius * v);
+  }
+  return { x, y };
+}
+
+/**
+ * Edges (i > j) between the points closer than `reach`: the pattern of a wide coupling, as the
+ * PSF gives a pixelated source's normal matrix.
+ */
+export function withinReachEdges(points: Points, reach: number): [number, number][] {
+  const edges: [number, number][] = [];
+  const { x, y } = points;
+  for (let i = 0; i < x.length; i++) {
+    for (let j = 0; j < i; j++) if ((x[i] - x[j]) ** 2 + (y[i] - y[j]) ** 2 < reach * reach) edges.push([i, j]);
+  }
+  return edges;
+}
+
+/** Coordinates of the first points.x.length unknowns, for NestedDissection. */
+export function planePoints(points: Points | null): PlanePoints | null {
+  return points === null ? null : { x: points.x, y: points.y, count: points.x.length };
+}
+
+/** Both point sets, the second's indices after the first's. */
+export function joinedPoints(a: Points, b: Points): Points {
+  return { x: [...a.x, ...b.x], y: [...a.y, ...b.y] };
+}
+
+/** A test case with coordinates for its first points.x.length unknowns (the rest are dense rows). */
+export interface GeometricCase {
+  readonly matrix: SparseCase;
+  readonly points: Points;
+}
+
+/**
+ * The geometric fixtures: points in a disc coupled to all within a reach (about 48 and 19
+ * neighbours), with and without dense last rows, and two discs of 100 points far apart
+ * (disconnected; the first cut falls between them).
+ */
+export function geometricCases(seed = 2): GeometricCase[] {
+  const u = uniformStream(seed);
+  const wide = discPoints(300, u);
+  const narrow = discPoints(250, u);
+  const pair = joinedPoints(discPoints(100, u, 1, -3, 0), discPoints(100, u, 1, 3, 1));
+  return [
+    { matrix: dominantCase('disc 300, reach 0.4 + 2 dense', 302, [...withinReachEdges(wide, 0.4), ...denseTailEdges(302, 2)], u), points: wide },
+    { matrix: dominantCase('disc 250, reach 0.28', 250, withinReachEdges(narrow, 0.28), u), points: narrow },
+    { matrix: dominantCase('two discs apart, reach 0.35', 200, withinReachEdges(pair, 0.35), u), points: pair },
+  ];
 }
