@@ -36,6 +36,9 @@ export { runDemo, demoConfigPath, type DemoSettings, type DemoOutcome } from './
 export { placeTruth, type TruthPlacement } from './inference/truthComparison.js';
 export { checkOutputFolder } from './inference/checkOutputFolder.js';
 export * from './vet/index.js';
+export * from './verdict/index.js';
+export { loadVerdictConfig, parseVerdictConfig, loadSimulationConfig, type VerdictConfig, type SmoothFamily } from './config/verdictConfig.js';
+export { writeComparisonFolder } from './inference/writeComparisonFolder.js';
 export * from './sensitivity/index.js';
 export * from './batch/index.js';
 export * from './calibration/index.js';

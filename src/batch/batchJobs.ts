@@ -1,6 +1,7 @@
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { FitSummary } from '../records/fitSummary.js';
 import type { SensitivitySummary } from '../records/sensitivitySummary.js';
+import type { VerdictSummary } from '../records/verdictSummary.js';
 import type { VetSummary } from '../records/vetSummary.js';
 import type { BatchJob, BatchJobResult } from './batchJob.js';
 
@@ -41,7 +42,7 @@ function vetResult(summary: unknown): BatchJobResult {
   const s = summary as VetSummary;
   const runs = [...s.candidates, ...(s.mapPrior === null ? [] : [s.mapPrior])];
   const best = runs.reduce<(typeof runs)[number] | null>((top, r) => (top === null || r.lnBayesFactor > top.lnBayesFactor ? r : top), null);
-  const counts = (['confirmed', 'inconclusive', 'disfavoured'] as const).map((v) => `${runs.filter((r) => r.verdict === v).length} ${v}`);
+  const counts = (['confirmed', 'inconclusive', 'disfavoured', 'not-evidence'] as const).map((v) => `${runs.filter((r) => r.verdict === v).length} ${v}`);
   return {
     lnEvidence: s.smooth?.lnEvidence ?? null,
     lnBayesFactor: best?.lnBayesFactor ?? null,
@@ -63,6 +64,29 @@ function sensitivityResult(summary: unknown): BatchJobResult {
   };
 }
 
+// The robust verdict's row: ln Z of the family the smooth data prefer, the least favourable ln B
+// among the acceptable families (null when none is acceptable: then no Bayes factor is evidence).
+function verdictResult(summary: unknown): BatchJobResult {
+  const s = summary as VerdictSummary;
+  const v = s.verdict;
+  const preferred = s.families.find((f) => f.name === v.preferredFamily);
+  return {
+    lnEvidence: preferred?.smooth.lnEvidence ?? null,
+    lnBayesFactor: v.leastFavourable?.lnBayesFactor ?? null,
+    lnBayesFactorError: v.leastFavourable?.lnBayesFactorError ?? null,
+    verdict: `${v.verdict} (ln B > ${v.thresholdLnB}; ${v.acceptableFamilies.length} of ${s.families.length} families acceptable)`,
+    details: {
+      thresholdLnB: v.thresholdLnB,
+      preferredFamily: v.preferredFamily,
+      leastFavourableFamily: v.leastFavourable?.family ?? null,
+      families: s.families.map((f) => ({
+        name: f.name, lnEvidenceSmooth: f.smooth.lnEvidence, lnEvidencePerturbed: f.perturbed.lnEvidence,
+        lnBayesFactor: f.lnBayesFactor, lnBayesFactorError: f.lnBayesFactorError, acceptable: f.acceptable,
+      })),
+    },
+  };
+}
+
 /**
  * Every job a batch row can name, keyed by its manifest name. Adding a kind of job is one entry:
  * its command, the file it writes last, the columns it needs and how to read its result.
@@ -72,4 +96,5 @@ export const batchJobs: Readonly<Record<string, BatchJob>> = Object.freeze({
   compare: { command: 'compare', describe: 'smooth against perturbed model by evidence', summaryFile: 'summary.json', requires: [], arguments: noFlags, result: compareResult },
   vet: { command: 'vet', describe: 'network flags vetted one by one', summaryFile: 'vet.json', requires: ['flags'], arguments: (row) => ['--flags', row.flags as string], result: vetResult },
   sensitivity: { command: 'sensitivity', describe: 'smallest detectable perturber mass over the mask', summaryFile: 'sensitivity.json', requires: [], arguments: noFlags, result: sensitivityResult },
+  verdict: { command: 'verdict', describe: 'smooth against perturbed under every smooth-model family', summaryFile: 'verdict.json', requires: [], arguments: noFlags, result: verdictResult },
 });

@@ -133,7 +133,7 @@ function yamlRows(file: string, content: string): RawRow[] {
 /**
  * Reads a batch manifest: a CSV file (a header of MANIFEST_COLUMNS, one row per line, `#` lines
  * skipped) or a YAML file (`rows:` a list of mappings, optional `defaults:` shared by every row,
- * or just the list). Each row names its job (fit, compare, vet, sensitivity), config and data
+ * or just the list). Each row names its job (fit, compare, vet, sensitivity, verdict), config and data
  * (a folder, or image/noise/psf/mask files), optionally flags, seed and extra options of the
  * job's command. Relative paths are relative to the manifest's folder. Every mistake is an
  * InputError naming the file, the line or row and the column.

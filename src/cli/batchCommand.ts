@@ -121,7 +121,7 @@ const runCommand: CommandModule<object, RunArguments> = {
   builder: (y) => withBatchRunOptions(y
     .usage('$0 batch run MANIFEST --out DIR [options] [-- OPTIONS OF EVERY ROW\'S COMMAND]\n\n' +
       'MANIFEST is CSV (header id,job,config,data,image,noise,psf,mask,flags,seed,options) or YAML (rows: [...], defaults: {...}); ' +
-      'job is fit, compare, vet or sensitivity. Each row runs `arcsift JOB` into DIR/rows/ID. Running the same command again skips ' +
+      'job is fit, compare, vet, sensitivity or verdict. Each row runs `arcsift JOB` into DIR/rows/ID. Running the same command again skips ' +
       'finished rows, resumes interrupted ones from their checkpoints and retries failed ones.')
     .positional('manifest', { type: 'string', demandOption: true, describe: 'the manifest (.csv, .yaml or .json)' })
     .option('out', { type: 'string', demandOption: true, describe: 'batch folder' })

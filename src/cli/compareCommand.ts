@@ -3,7 +3,7 @@ import { writeReport } from '../report/index.js';
 import { basename, extname, join } from 'node:path';
 import { loadConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { runComparisonToFolder } from '../inference/runComparisonToFolder.js';
-import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
+import { finiteNumberOption, loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison, formatCountComparison } from './formatComparison.js';
 import { comparisonSideBySide } from '../inference/compareModels.js';
@@ -16,6 +16,7 @@ interface CompareArguments extends DataArguments, SamplerArguments {
   out?: string;
   perturbers: number;
   'max-perturbers'?: number;
+  'detection-threshold': number;
   report: boolean;
 }
 
@@ -27,6 +28,7 @@ export const compareCommand: CommandModule<object, CompareArguments> = {
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-compare]' })
     .option('perturbers', { type: 'number', default: 1, describe: 'how many of the config\'s perturbers the perturbed model holds' })
     .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
+    .option('detection-threshold', { type: 'number', default: runDefaults.detection.lnBayesFactorThreshold, describe: 'claim a detection when ln B exceeds this and the smooth model passes the misfit test (default: the published robust-detection threshold, about 10 sigma)' })
     .option('max-perturbers', { type: 'number', describe: 'instead: compare 0, 1, ..., K perturbers by evidence (extra ones copy the last listed perturber)' })), { livePoints: runDefaults.nested.livePoints })
     .example('$0 compare --config configs/demo.yaml --data chains/mock --out chains/mock-compare', 'smooth versus one subhalo'),
   handler: async (args) => {
@@ -51,6 +53,7 @@ async function compareIntoFolder(args: CompareArguments, config: ArcsiftConfig, 
     smooth: smooth.settings,
     perturbed: perturbed.settings,
     perturberCount,
+    detectionThresholdLnB: finiteNumberOption('detection-threshold', args['detection-threshold']),
     onModelStart: (label) => { if (label === 'perturbed') smooth.finish(); },
   });
   perturbed.finish();
@@ -66,7 +69,7 @@ async function compareCountsIntoFolder(args: CompareArguments, config: ArcsiftCo
   const summary = await comparePerturberCounts(config, data, maxCount, out, run.settings, (k) => {
     run.finish();
     if (!args.quiet) process.stderr.write(`model with ${k} perturber(s)\n`);
-  });
+  }, finiteNumberOption('detection-threshold', args['detection-threshold']));
   run.finish();
   process.stdout.write(`${formatCountComparison(summary)}\n\nwrote ${join(out, 'summary.json')} and perturbers-0 ... perturbers-${maxCount} under ${out}\n`);
   reportUnfinished(summary, join(out, 'summary.json'));

@@ -85,3 +85,9 @@ export function wholeNumberOption(name: string, value: number, min: number): num
   if (!Number.isInteger(value) || value < min) throw new InputError(`--${name}: ${expectedFound(`a whole number >= ${min}`, value)}`);
   return value;
 }
+
+/** Checks an option that takes any finite number (a threshold). */
+export function finiteNumberOption(name: string, value: number): number {
+  if (!Number.isFinite(value)) throw new InputError(`--${name}: ${expectedFound('a number', value)}`);
+  return value;
+}

@@ -7,6 +7,7 @@ import type { TruthPlacement } from '../inference/truthComparison.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import { formatComparison } from './formatComparison.js';
+import type { ComparisonDetection } from '../records/comparisonSummary.js';
 import { reportUnfinished } from './reportUnfinished.js';
 import { join } from 'node:path';
 
@@ -18,8 +19,8 @@ interface DemoArguments extends SamplerArguments {
   report: boolean;
 }
 
-/** The table of where the planted subhalo's true values fall in the posterior, and the verdict. */
-export function formatTruthTable(placements: readonly TruthPlacement[], found: boolean, lnB: number, lnBError: number): string {
+/** The table of where the planted subhalo's true values fall in the posterior, and the verdict (the comparison's detection claim). */
+export function formatTruthTable(placements: readonly TruthPlacement[], detection: ComparisonDetection, lnB: number, lnBError: number): string {
   const lines = [
     'The planted subhalo against the posterior',
     '  parameter                     truth    median   95% interval          truth at posterior quantile',
@@ -29,7 +30,12 @@ export function formatTruthTable(placements: readonly TruthPlacement[], found: b
     lines.push(`  ${short.padEnd(28)} ${p.truth.toFixed(3).padStart(7)}  ${p.median.toFixed(3).padStart(7)}   [${p.lower95.toFixed(3)}, ${p.upper95.toFixed(3)}]`.padEnd(80) +
       `  ${(100 * p.quantileOfTruth).toFixed(0)}%${p.inside95 ? '' : '  (outside the 95% interval)'}`);
   }
-  lines.push(`  verdict: the planted subhalo was ${found ? 'FOUND' : 'NOT found'} (ln B = ${lnB.toFixed(1)} +- ${lnBError.toFixed(1)})`);
+  const lnBText = `ln B = ${lnB.toFixed(1)} +- ${lnBError.toFixed(1)}`;
+  lines.push(detection.claim === 'detected'
+    ? `  verdict: the planted subhalo was DETECTED (${lnBText}, above the detection threshold ${detection.thresholdLnB})`
+    : detection.claim === 'not-detected'
+    ? `  verdict: the planted subhalo was NOT detected (${lnBText}, not above the detection threshold ${detection.thresholdLnB})`
+    : `  verdict: NOT evidence of the planted subhalo: the smooth model fails the misfit test (${lnBText})`);
   return lines.join('\n');
 }
 
@@ -71,7 +77,7 @@ async function demoIntoFolder(args: DemoArguments): Promise<void> {
   perturbed.finish();
   const { comparison, summary } = outcome;
   process.stdout.write(`\n${formatComparison(summary)}\n\n`);
-  process.stdout.write(`${formatTruthTable(outcome.truth, comparison.perturberFavoured, comparison.lnBayesFactor, comparison.lnBayesFactorError)}\n`);
+  process.stdout.write(`${formatTruthTable(outcome.truth, summary.detection, comparison.lnBayesFactor, comparison.lnBayesFactorError)}\n`);
   if (args.report) process.stdout.write(`\nreport (open it in a browser): ${writeReport(outcome.compareFolder)}\n`);
   process.stdout.write(`\ndemo finished in ${((performance.now() - started) / 1000).toFixed(0)} s; results in ${outcome.compareFolder}\n`);
   reportUnfinished(summary, join(outcome.compareFolder, 'summary.json'));

@@ -10,6 +10,7 @@ import { runDefaults } from '../settings/runDefaults.js';
 import { PROPOSAL_KINDS, type EnsembleProposalKind, type EnsembleProgress } from '../sampling/ensemble/index.js';
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
+import { formatMisfit, misfitNote } from './formatMisfit.js';
 import { formatSky } from './formatSky.js';
 import { cosmologyText } from '../report/text/cosmologyText.js';
 import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
@@ -73,6 +74,8 @@ export function formatNestedFit(summary: NestedFitSummary): string {
   if (m.insertionRankWarning) {
     lines.push(`  warning: the insertion-rank check gives p = ${m.insertionRankPValue.toExponential(1)}: the constrained draws may be biased, so ln Z is suspect (Fowlie, Handley & Su 2020)`);
   }
+  lines.push(`  ${formatMisfit('best fit', m.misfit)}`);
+  if (m.misfit !== undefined) lines.push(`  (${misfitNote(m.misfit)})`);
   lines.push('', 'Parameters (posterior median, central 68% interval)', ...formatParameters(m.parameters));
   for (const p of summary.perturbers) {
     if (p.log10M200 !== null && p.kind !== 'pointMass') {
@@ -93,6 +96,8 @@ export function formatEnsembleFit(summary: EnsembleFitSummary): string {
   const lines = [
     `Fit of the ${m.label} model by ensemble MCMC (${m.walkers} walkers, ${m.sweeps} sweeps, ${stop})`,
     `  walkers started: ${m.start}`,
+    `  ${formatMisfit('best sample', m.misfit)}`,
+    ...(m.misfit === undefined ? [] : [`  (${misfitNote(m.misfit)})`]),
     `  ${m.evaluations} likelihood evaluations, ${m.seconds.toFixed(0)} s on ${m.threads} thread(s); burn-in ${m.burnInSweeps} sweeps left out; ` +
       `acceptance fraction mean ${m.acceptanceFraction.mean.toFixed(3)}, min ${m.acceptanceFraction.min.toFixed(3)}`,
     `  after burn-in: ${m.retainedSamples} samples, smallest ESS ${formatValue(m.smallestEffectiveSampleSize)}, largest R-hat ${formatValue(m.maxRHat)}`,

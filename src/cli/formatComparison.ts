@@ -1,5 +1,6 @@
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { formatSky } from './formatSky.js';
+import { formatMisfit, misfitNote } from './formatMisfit.js';
 import { cosmologyText } from '../report/text/cosmologyText.js';
 import type { ComparisonSummary } from '../records/comparisonSummary.js';
 import type { CountComparisonSummary } from '../records/countComparisonSummary.js';
@@ -47,6 +48,14 @@ export function formatComparison(summary: ComparisonSummary): string {
   lines.push(`  ln Bayes factor (perturbed / smooth) = ${fixed(b.lnBayesFactor)} +- ${fixed(b.lnBayesFactorError)}`);
   lines.push(`  reading (Kass & Raftery 1995): ${b.reading}`);
   lines.push(`  frequentist bound (Sellke, Bayarri & Berger 2001): ${b.significance}`);
+  lines.push('', 'Misfit of each best fit');
+  lines.push(`  ${formatMisfit('smooth model   ', smooth.misfit)}`);
+  lines.push(`  ${formatMisfit('perturbed model', perturbed.misfit)}`);
+  if (smooth.misfit !== undefined) lines.push(`  (${misfitNote(smooth.misfit)})`);
+  if (summary.detection !== undefined) {
+    lines.push('', `Detection: ${summary.detection.sentence}`);
+    lines.push(`  threshold: ${summary.detection.thresholdSource}`);
+  }
   for (const [label, record] of [['smooth', smooth], ['perturbed', perturbed]] as const) {
     if (record.insertionRankWarning) {
       lines.push(`  warning: the insertion-rank check of the ${label} run gives p = ${record.insertionRankPValue.toExponential(1)}: its constrained draws may be biased, so its ln Z is suspect (Fowlie, Handley & Su 2020)`);
@@ -87,6 +96,11 @@ export function formatCountComparison(summary: CountComparisonSummary): string {
     lines.push(`  ${String(row.perturbers).padStart(5)}   ${`${fixed(row.lnEvidence)} +- ${fixed(row.lnEvidenceError)}`.padEnd(16)}  ${lnB.padStart(17)}   ${row.reading}`);
   }
   lines.push(`  preferred: ${summary.preferredCount} perturber(s), the count of highest evidence`);
+  if (summary.detection !== undefined) {
+    lines.push(`  detection: ${summary.detection.sentence}`);
+    lines.push(`  threshold: ${summary.detection.thresholdSource}`);
+  }
+  lines.push(`  ${formatMisfit('no perturber ', summary.models[0]?.misfit)}`);
   lines.push(`  label switching: ${summary.labelSwitching}`);
   for (const p of summary.perturbers) {
     const m = p.log10Mass;

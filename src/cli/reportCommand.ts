@@ -9,9 +9,9 @@ interface ReportArguments {
 
 export const reportCommand: CommandModule<object, ReportArguments> = {
   command: 'report <run>',
-  describe: 'Write a self-contained HTML report (with SVG and PNG figures) of a run folder of compare, fit, vet or sensitivity',
+  describe: 'Write a self-contained HTML report (with SVG and PNG figures) of a run folder of compare, fit, vet, verdict or sensitivity',
   builder: (y) => y
-    .positional('run', { type: 'string', demandOption: true, describe: 'folder written by `arcsift compare` or `fit` (summary.json), `vet` (vet.json) or `sensitivity` (sensitivity.json)' })
+    .positional('run', { type: 'string', demandOption: true, describe: 'folder written by `arcsift compare` or `fit` (summary.json), `vet` (vet.json), `verdict` (verdict.json) or `sensitivity` (sensitivity.json)' })
     .option('out', { type: 'string', describe: 'HTML file to write [default: <run>/report.html]' })
     .example('$0 report chains/mock-compare', 'write chains/mock-compare/report.html and chains/mock-compare/figures/'),
   handler: (args) => {

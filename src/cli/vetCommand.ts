@@ -10,6 +10,7 @@ import { vetConcurrency } from '../vet/vetFlags.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { loadDataOf, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
+import { formatMisfit, misfitNote } from './formatMisfit.js';
 import { cosmologyText } from '../report/text/cosmologyText.js';
 import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
 import type { VetRunRecord, VetSummary } from '../records/vetSummary.js';
@@ -21,7 +22,7 @@ interface VetArguments extends DataArguments, SamplerArguments {
   flags: string;
   out?: string;
   window: number;
-  'confirm-above': number;
+  'detection-threshold': number;
   'disfavour-below': number;
   'map-threshold': number;
   'merge-radius': number;
@@ -54,7 +55,7 @@ export function formatVetTable(summary: VetSummary): string {
   const massName = summary.perturberKind === 'nfw' || summary.perturberKind === 'truncatedNfw' ? 'log10 M200/Msun' : 'log10 M/Msun';
   const onSky = summary.wcs !== undefined;
   const table = [
-    ['candidate', 'flag (x, y) "', 'score', 'ln B', 'verdict', massName, 'posterior (x, y) "', 'offset "', ...(onSky ? [`posterior RA, Dec (deg, ${summary.wcs?.frame})`] : [])],
+    ['candidate', 'flag (x, y) "', 'score', 'ln B', 'verdict', massName, 'posterior (x, y) "', 'offset "', 'chi2/dof', 'misfit p', ...(onSky ? [`posterior RA, Dec (deg, ${summary.wcs?.frame})`] : [])],
     ...rows.map((r) => [
       r.id,
       r.flag === null ? 'map prior' : `(${fixed(r.flag.xArcsec, 3)}, ${fixed(r.flag.yArcsec, 3)})`,
@@ -64,6 +65,8 @@ export function formatVetTable(summary: VetSummary): string {
       massText(r),
       `(${fixed(r.position.xArcsec.median, 3)}, ${fixed(r.position.yArcsec.median, 3)})`,
       fixed(r.offsetArcsec, 3),
+      fixed(r.model.misfit?.chiSquarePerDegreeOfFreedom ?? null, 3),
+      r.model.misfit === undefined ? '-' : `${r.model.misfit.pValue.toFixed(3)}${r.model.misfit.alarm ? ' MISFIT' : ''}`,
       ...(onSky ? [`${degrees(r.position.sky?.raDeg.median)}, ${degrees(r.position.sky?.decDeg.median)}`] : []),
     ]),
   ];
@@ -72,7 +75,11 @@ export function formatVetTable(summary: VetSummary): string {
     `Vetting ${summary.candidates.length} flag(s) from ${summary.flags.file} against one smooth fit ` +
       `(ln Z = ${fixed(smooth.lnEvidence)} +- ${fixed(smooth.lnEvidenceError)})`,
     `Verdicts: confirmed when ln B > ${t.confirmAboveLnB}, disfavoured when ln B < ${t.disfavourBelowLnB}, inconclusive between ` +
-      '(ln B = ln Z perturbed - ln Z smooth)',
+      '(ln B = ln Z perturbed - ln Z smooth); not-evidence for every flag when the smooth fit fails the misfit test',
+    `  detection threshold: ${summary.thresholdSource ?? `ln B > ${t.confirmAboveLnB}`}`,
+    `  ${formatMisfit('shared smooth fit', smooth.misfit)}`,
+    ...(smooth.misfit === undefined ? [] : [`  (${misfitNote(smooth.misfit)})`]),
+    ...(summary.smoothMisfitNote ? [`  ${summary.smoothMisfitNote}`] : []),
     '',
     ...table.map((line) => `  ${line.map((text, c) => text.padEnd(widths[c])).join('  ').trimEnd()}`),
   ];
@@ -124,7 +131,7 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     .option('out', { type: 'string', describe: 'output folder [default: chains/<config name>-vet]' })
     .option('report', { type: 'boolean', default: true, describe: 'write report.html and figures at the end (--no-report to skip)' })
     .option('window', { type: 'number', default: runDefaults.vet.windowArcsec, describe: 'side of the square position prior around each flag, arcsec' })
-    .option('confirm-above', { type: 'number', default: runDefaults.vet.confirmAboveLnB, describe: 'confirmed when ln B exceeds this' })
+    .option('detection-threshold', { alias: 'confirm-above', type: 'number', default: runDefaults.detection.lnBayesFactorThreshold, describe: 'confirmed when ln B exceeds this (the default 50 is the published robust-detection threshold, about 10 sigma) and the smooth fit passes the misfit test' })
     .option('disfavour-below', { type: 'number', default: runDefaults.vet.disfavourBelowLnB, describe: 'disfavoured when ln B is below this' })
     .option('map-threshold', { type: 'number', default: runDefaults.vet.mapThreshold, describe: 'map: smallest peak value that makes a candidate' })
     .option('merge-radius', { type: 'number', default: runDefaults.vet.mergeRadiusArcsec, describe: 'map: peaks closer than this (arcsec) to a higher one are merged into it' })
@@ -134,7 +141,7 @@ export const vetCommand: CommandModule<object, VetArguments> = {
     const config = loadConfig(args.config);
     const out = args.out ?? join('chains', `${basename(args.config, extname(args.config))}-vet`);
     const windowArcsec = finiteOption('window', args.window, true);
-    const thresholds = { confirmAboveLnB: finiteOption('confirm-above', args['confirm-above'], false), disfavourBelowLnB: finiteOption('disfavour-below', args['disfavour-below'], false) };
+    const thresholds = { confirmAboveLnB: finiteOption('detection-threshold', args['detection-threshold'], false), disfavourBelowLnB: finiteOption('disfavour-below', args['disfavour-below'], false) };
     const mapSettings = { threshold: finiteOption('map-threshold', args['map-threshold'], false), mergeRadiusArcsec: finiteOption('merge-radius', args['merge-radius'], false) };
     await inOutputFolder(out, args, () => readdirSync(out), 'vet.json', () => vetIntoFolder(args, config, out, windowArcsec, thresholds, mapSettings));
   },

@@ -36,6 +36,8 @@ export interface ComparisonSettings {
   readonly perturbed: EvidenceSettings;
   /** How many of the config's perturbers the perturbed model holds (default 1). */
   readonly perturberCount?: number;
+  /** The detection claim's threshold in ln B (default runDefaults.detection.lnBayesFactorThreshold). */
+  readonly detectionThresholdLnB?: number;
   /** Called as each run starts (both at once when they run side by side, see comparisonSideBySide). */
   readonly onModelStart?: (label: string) => void;
 }
@@ -84,6 +86,11 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
     settings.onModelStart?.('perturbed');
     perturbed = await runModelEvidence(config, data, perturberCount, { ...settings.perturbed, method });
   }
+  return readComparison(smooth, perturbed, config, data);
+}
+
+/** The Bayes factor of two finished runs of one config (smooth and perturbed) and its reading. */
+export function readComparison(smooth: ModelEvidence, perturbed: ModelEvidence, config: ArcsiftConfig, data: ObservedData): Comparison {
   const lnBayesFactor = perturbed.result.lnZ - smooth.result.lnZ;
   const lnBayesFactorError = Math.hypot(perturbed.result.lnZError, smooth.result.lnZError);
   return {

@@ -4,7 +4,8 @@ import type { ObservedData } from '../data/observedData.js';
 import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError } from '../errors.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
-import { bayesFactorReading } from '../results/index.js';
+import { bayesFactorReading, thresholdSource } from '../results/index.js';
+import { runDefaults } from '../settings/runDefaults.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { summarisePerturbers } from './perturberSummary.js';
 import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
@@ -41,6 +42,7 @@ export function withPerturberCount(config: ArcsiftConfig, count: number): Arcsif
 export async function comparePerturberCounts(
   config: ArcsiftConfig, data: ObservedData, maxCount: number, folder: string,
   settings: EvidenceSettings, onModelStart?: (count: number) => void,
+  detectionThresholdLnB: number = runDefaults.detection.lnBayesFactorThreshold,
 ): Promise<CountComparisonSummary> {
   const started = performance.now();
   const full = withPerturberCount(config, maxCount);
@@ -67,11 +69,19 @@ export async function comparePerturberCounts(
   });
   let preferred = 0;
   for (let k = 1; k < runs.length; k++) if (runs[k].result.lnZ > runs[preferred].result.lnZ) preferred = k;
+  let detectedCount = 0;
+  while (detectedCount < maxCount && rows[detectedCount + 1].lnBayesFactorToPrevious! > detectionThresholdLnB) detectedCount++;
+  const smoothMisfit = models[0].misfit.alarm;
+  const sentence = smoothMisfit
+    ? 'not evidence of any perturber: the model without perturbers fails the misfit test, so each ln B only says which of two models is less wrong (results/detectionClaim.ts)'
+    : `${detectedCount} perturber(s) detected: each count up to ${detectedCount} beats the one below by ln B > ${detectionThresholdLnB}` +
+      (detectedCount < maxCount ? `, count ${detectedCount + 1} does not` : '');
   const summary: CountComparisonSummary = {
     kind: 'perturberCount',
     ...runProvenance(config, data, settings.seed, started, unfinishedRuns(stops)),
     rows,
     preferredCount: preferred,
+    detection: { thresholdLnB: detectionThresholdLnB, thresholdSource: thresholdSource(detectionThresholdLnB), detectedCount: smoothMisfit ? 0 : detectedCount, smoothMisfit, sentence },
     models,
     perturbers: preferred === 0 ? [] : summarisePerturbers(runs[preferred], ImagePlaneSky.of(data)),
     priors: runs[maxCount].space.describe(),

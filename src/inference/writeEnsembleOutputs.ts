@@ -91,6 +91,7 @@ export function writeEnsembleOutputs(
     bestLnLikelihood: lnLikelihood[best],
     bestFit,
     bestFitAmplitudes: images.amplitudes,
+    misfit: images.misfit,
     seconds: ensemble.seconds,
     threads: ensemble.threads,
     parameters: space.freeNames.map((name, k) => {

@@ -7,6 +7,9 @@ import { gridCards } from '../simulate/simulateToFolder.js';
 import { writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { SourceInversion } from '../inversion/sourceInversion.js';
 import type { SourceFile } from '../records/sourceFile.js';
+import type { MisfitRecord } from '../records/misfitRecord.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
+import { fitMisfit } from './fitMisfit.js';
 
 /** The images of one model vector and the amplitudes they were made with. */
 export interface FitImages {
@@ -14,6 +17,8 @@ export interface FitImages {
   /** Posterior-mean linear amplitudes at the model vector, by amplitude name. */
   readonly amplitudes: Record<string, number>;
   readonly logLikelihood: number;
+  /** The misfit alarm of this model vector (chi-square and spatial structure of the normalised residuals). */
+  readonly misfit: MisfitRecord;
 }
 
 /**
@@ -54,7 +59,11 @@ export function writeFitImages(
   }
   const amplitudes: Record<string, number> = {};
   likelihood.system.amplitudeNames.forEach((name, i) => { amplitudes[name] = fit.amplitudes[i]; });
-  return { files, amplitudes, logLikelihood: fit.logLikelihood };
+  const misfit = fitMisfit(data, normalised, {
+    freeParameters: modelParameterSpace(likelihood.system).dim,
+    linearAmplitudes: likelihood.system.amplitudeCount + (source?.values.length ?? 0),
+  });
+  return { files, amplitudes, logLikelihood: fit.logLikelihood, misfit };
 }
 
 /** The reconstruction of the inversion's last evaluation as source.json holds it. */

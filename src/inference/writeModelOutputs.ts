@@ -70,6 +70,7 @@ export function writeModelOutputs(
     bestLnLikelihood: result.lnL[best],
     bestFit,
     bestFitAmplitudes,
+    misfit: images.misfit,
     seconds: evidence.seconds,
     threads: evidence.threads,
     parameters: freeIndices.map((index) => {

@@ -4,6 +4,12 @@ export const priorCaution =
   'source model, PSF and noise model) listed here; a detection deserves a check with a more flexible source ' +
   'model (e.g. shapelets) and other reasonable priors before it is published.';
 
+/** The caution of the robust verdict: it already tries several families, so it points at what is left. */
+export const verdictCaution =
+  'Every ln B here holds for its family\'s mass profiles, source model, PSF and noise model and for the priors ' +
+  'listed below; the verdict covers the families tried and no others. Before a confirmed perturber is published, ' +
+  'add the families listed as not tried (a pixelated source above all) and weigh other reasonable priors.';
+
 /** Said beside every evidence that took the network's map as its position prior. */
 export const mapPriorNote =
   "The map-prior run takes the network's probability map (normalised over the mask) as the prior on the " +

@@ -20,6 +20,17 @@ export interface CountComparisonSummary extends RunProvenance {
   readonly kind: 'perturberCount';
   readonly rows: readonly CountRow[];
   readonly preferredCount: number;
+  /**
+   * The count the data claim: the largest k whose every step 1..k has ln B (k against k - 1)
+   * above the detection threshold, and 0 (not evidence) when the smooth model fails the misfit test.
+   */
+  readonly detection: {
+    readonly thresholdLnB: number;
+    readonly thresholdSource: string;
+    readonly detectedCount: number;
+    readonly smoothMisfit: boolean;
+    readonly sentence: string;
+  };
   readonly models: readonly ModelRecord[];
   readonly perturbers: readonly PerturberSummary[];
   readonly priors: readonly PriorDescription[];

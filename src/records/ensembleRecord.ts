@@ -1,3 +1,4 @@
+import type { MisfitRecord } from './misfitRecord.js';
 import type { ModelRecord } from './modelRecord.js';
 
 /** Convergence diagnostics of one free parameter; null where the chain was too short to compute one. */
@@ -45,6 +46,8 @@ export interface EnsembleRecord {
   readonly bestLnLikelihood: number;
   readonly bestFit: Record<string, number>;
   readonly bestFitAmplitudes: Record<string, number>;
+  /** The misfit alarm at the best sample after burn-in. */
+  readonly misfit: MisfitRecord;
   readonly seconds: number;
   readonly threads: number;
   readonly parameters: ModelRecord['parameters'];

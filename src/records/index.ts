@@ -9,14 +9,16 @@ export { packageVersion } from '../io/packageVersion.js';
 export type { TruthFile, TruthParameter, TruthPerturber } from './truthFile.js';
 export type { SourceFile } from './sourceFile.js';
 export { readSourceFile } from './readSourceFile.js';
-export { priorCaution, mapPriorNote, sensitivityApproximation } from './cautions.js';
+export { priorCaution, verdictCaution, mapPriorNote, sensitivityApproximation } from './cautions.js';
 export type { ModelRecord } from './modelRecord.js';
+export type { MisfitRecord } from './misfitRecord.js';
 export type { EnsembleRecord, EnsembleParameterDiagnostics } from './ensembleRecord.js';
 export type { PerturberSummary } from './perturberSummary.js';
-export type { ComparisonSummary } from './comparisonSummary.js';
+export type { ComparisonSummary, ComparisonDetection } from './comparisonSummary.js';
 export type { FitSummary, NestedFitSummary, EnsembleFitSummary } from './fitSummary.js';
 export type { CountComparisonSummary, CountRow } from './countComparisonSummary.js';
 export type { VetSummary, VetRunRecord, VetThresholds, VetVerdict } from './vetSummary.js';
+export type { RobustVerdict, RobustVerdictKind, VerdictFamilyRecord, VerdictFitRecord, VerdictSummary } from './verdictSummary.js';
 export type {
   SensitivitySummary, SensitivityRecord, MassDecadeFraction, DetectableMassLimit, RefitSettings,
 } from './sensitivitySummary.js';

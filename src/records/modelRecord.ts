@@ -1,3 +1,5 @@
+import type { MisfitRecord } from './misfitRecord.js';
+
 /** What a summary says of one model's run. */
 export interface ModelRecord {
   readonly label: string;
@@ -22,6 +24,8 @@ export interface ModelRecord {
   readonly bestLnLikelihood: number;
   readonly bestFit: Record<string, number>;
   readonly bestFitAmplitudes: Record<string, number>;
+  /** The misfit alarm at the best fit (chi-square per degree of freedom, Moran's I of the normalised residuals). */
+  readonly misfit: MisfitRecord;
   readonly seconds: number;
   readonly threads: number;
   readonly parameters: readonly {

@@ -4,12 +4,15 @@ import type { ModelRecord } from './modelRecord.js';
 import type { PerturberSky } from './perturberSummary.js';
 import type { RunProvenance } from './provenance.js';
 
-/** What a vetted flag's Bayes factor says. */
-export type VetVerdict = 'confirmed' | 'inconclusive' | 'disfavoured';
+/**
+ * What a vetted flag's Bayes factor says; `not-evidence` when the shared smooth fit fails the
+ * misfit alarm, so that no ln B of the vetting is evidence of a subhalo.
+ */
+export type VetVerdict = 'confirmed' | 'inconclusive' | 'disfavoured' | 'not-evidence';
 
 /** The ln B thresholds of the verdicts. */
 export interface VetThresholds {
-  /** Confirmed when ln B > this (default 3, "strong" on the Kass & Raftery 1995 scale: 2 ln B > 6). */
+  /** Confirmed when ln B > this: the detection threshold (default runDefaults.detection, ln B = 50). */
   readonly confirmAboveLnB: number;
   /** Disfavoured when ln B < this (default -1, "positive" evidence for the smooth model: 2 ln B < -2). */
   readonly disfavourBelowLnB: number;
@@ -55,6 +58,10 @@ export interface VetSummary extends RunProvenance {
   };
   readonly settings: Record<string, unknown>;
   readonly thresholds: VetThresholds;
+  /** Where the confirmation threshold comes from (results/detectionClaim.ts). */
+  readonly thresholdSource: string;
+  /** Why no ln B is evidence when the shared smooth fit fails the misfit alarm; null when it passes (or no fit was run). */
+  readonly smoothMisfitNote: string | null;
   readonly windowArcsec: number;
   readonly perturberKind: string;
   /** Null when there was no candidate to vet (a map with no value at the threshold): no fit was run. */

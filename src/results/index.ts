@@ -26,3 +26,5 @@ export { moransIPermutationTest } from './moransIPermutationTest.js';
 export type { MoransIPermutation } from './moransIPermutationTest.js';
 export { residualAutocorrelation } from './residualAutocorrelation.js';
 export type { ResidualAutocorrelation, ResidualAutocorrelationOptions } from './residualAutocorrelation.js';
+export { DETECTION_THRESHOLD_SOURCE, PUBLISHED_DETECTION_THRESHOLD, detectionClaim, thresholdSource } from './detectionClaim.js';
+export type { DetectionClaim, DetectionClaimKind, DetectionInput } from './detectionClaim.js';

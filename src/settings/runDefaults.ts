@@ -52,11 +52,10 @@ export interface RunSettings {
     /** Live points of the short nested run whose posterior draws the walkers start from. */
     readonly startLivePoints: number;
   };
-  /** Vetting of network flags. */
+  /** Vetting of network flags (a flag is confirmed above detection.lnBayesFactorThreshold). */
   readonly vet: {
     /** Side of the square position prior around each flag, arcsec. */
     readonly windowArcsec: number;
-    readonly confirmAboveLnB: number;
     readonly disfavourBelowLnB: number;
     /** Smallest map value that makes a candidate. */
     readonly mapThreshold: number;
@@ -89,6 +88,15 @@ export interface RunSettings {
     readonly falseAlarmRate: number;
     readonly seed: number;
   };
+  /** The detection claim of compare, vet and verdict (results/detectionClaim.ts). */
+  readonly detection: {
+    /**
+     * A perturber is detected when ln B exceeds this (and the smooth model passes the misfit
+     * alarm): 50, the robust-detection threshold of Vegetti et al. 2014 and Ritondale et al. 2019
+     * (10 sigma; see DETECTION_THRESHOLD_SOURCE).
+     */
+    readonly lnBayesFactorThreshold: number;
+  };
   /** Batch runs of many rows (locally or as a Slurm job array). */
   readonly batch: {
     /** Attempts of a row that fails (not one killed from outside) before it is left failed. */
@@ -110,7 +118,7 @@ export interface RunSettings {
   readonly calibration: {
     /** Posterior draws L per simulation: the rank of the truth among them takes L + 1 values (Talts et al. 2018). */
     readonly rankDraws: number;
-    /** A comparison detects the perturber when ln B exceeds this (vet's "confirmed" threshold). */
+    /** A comparison counts as a detection here when ln B exceeds this (not the detection claim's threshold, see detection). */
     readonly detectAboveLnB: number;
     /** Seed of the prior draws and of the noise of each simulation. */
     readonly seed: number;
@@ -131,13 +139,14 @@ export const runDefaults: RunSettings = deepFreeze({
   },
   demo: { livePoints: 50, sliceStepsPerParameter: 1, noiseSeed: 1 },
   ensemble: { maxSweeps: 5000, minEffectiveSampleSize: 400, maxRHat: 1.01, checkEverySweeps: 100, proposal: 'stretch', startLivePoints: 50 },
-  vet: { windowArcsec: 0.4, confirmAboveLnB: 3, disfavourBelowLnB: -1, mapThreshold: 0.5, mergeRadiusArcsec: 0.15 },
+  vet: { windowArcsec: 0.4, disfavourBelowLnB: -1, mapThreshold: 0.5, mergeRadiusArcsec: 0.15 },
   sensitivity: {
     livePoints: 50, gridSize: 10, threshold: 5, toleranceDex: 0.05,
     refitStepFraction: 0.01, refitMaxEvaluations: 400, refitChiSquareTolerance: 1e-3,
   },
   comparison: { favouredLnBayesFactor: 1 },
   misfitAlarm: { neighbours: 'rook', permutations: 999, falseAlarmRate: 0.01, seed: 1 },
+  detection: { lnBayesFactorThreshold: 50 },
   batch: {
     maxAttempts: 3, heartbeatSeconds: 10, staleSeconds: 90, rowsPerTask: 1,
     slurmTimeFactor: 2, slurmMarginMinutes: 10, slurmMemoryFactor: 1.5, progressSeconds: 10,
@@ -159,13 +168,14 @@ const rules: { readonly [S in Section]: { readonly [K in keyof RunSettings[S]]: 
     maxSweeps: { whole: 1 }, minEffectiveSampleSize: { above: 0 }, maxRHat: { above: 1 }, checkEverySweeps: { whole: 1 },
     proposal: { choices: ['stretch', 'differentialEvolution'] }, startLivePoints: { whole: 2 },
   },
-  vet: { windowArcsec: { above: 0 }, confirmAboveLnB: { any: true }, disfavourBelowLnB: { any: true }, mapThreshold: { above: 0 }, mergeRadiusArcsec: { atLeast: 0 } },
+  vet: { windowArcsec: { above: 0 }, disfavourBelowLnB: { any: true }, mapThreshold: { above: 0 }, mergeRadiusArcsec: { atLeast: 0 } },
   sensitivity: {
     livePoints: { whole: 2 }, gridSize: { whole: 1 }, threshold: { above: 0 }, toleranceDex: { above: 0 },
     refitStepFraction: { above: 0 }, refitMaxEvaluations: { whole: 1 }, refitChiSquareTolerance: { above: 0 },
   },
   comparison: { favouredLnBayesFactor: { any: true } },
   misfitAlarm: { neighbours: { choices: ['rook', 'queen'] }, permutations: { whole: 1 }, falseAlarmRate: { above: 0 }, seed: { whole: 1 } },
+  detection: { lnBayesFactorThreshold: { any: true } },
   batch: {
     maxAttempts: { whole: 1 }, heartbeatSeconds: { above: 0 }, staleSeconds: { above: 0 }, rowsPerTask: { whole: 1 },
     slurmTimeFactor: { atLeast: 1 }, slurmMarginMinutes: { atLeast: 0 }, slurmMemoryFactor: { atLeast: 1 }, progressSeconds: { above: 0 },

@@ -5,7 +5,7 @@ import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { writeFileAtomic, writeJsonAtomic } from '../io/writeFileAtomic.js';
 import type { ParameterSummary } from '../results/index.js';
-import { bayesFactorReading } from '../results/index.js';
+import { bayesFactorReading, thresholdSource } from '../results/index.js';
 import { amplitudePriorText } from '../inference/amplitudePriorText.js';
 import { writeModelOutputs } from '../inference/writeModelOutputs.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
@@ -16,7 +16,17 @@ import { mapPriorNote, priorCaution } from '../records/cautions.js';
 import type { ModelRecord } from '../records/modelRecord.js';
 import type { VetRunRecord, VetSummary, VetThresholds, VetVerdict } from '../records/vetSummary.js';
 import { runProvenance } from '../records/provenance.js';
+import { defaultVetThresholds, vetVerdict } from './vetVerdict.js';
+import type { MisfitRecord } from '../records/misfitRecord.js';
 import { qualifiedReading, unfinishedRuns } from '../records/unfinishedRuns.js';
+
+/** Why a vetting's Bayes factors are not evidence when its shared smooth fit fails the misfit alarm. */
+function smoothMisfitNote(misfit: MisfitRecord): string {
+  return `The shared smooth fit fails the misfit alarm (Moran's I of its normalised residuals ${misfit.moransI.toFixed(4)}, ` +
+    `permutation p = ${misfit.pValue.toPrecision(2)} <= ${misfit.falseAlarmRate}): its residuals hold structure the smooth model missed, ` +
+    'so no ln B here is evidence of a subhalo (a perturber at a flag may stand in for what the smooth model lacks); every ' +
+    'candidate is "not-evidence". Compare smooth families with more freedom with `arcsift verdict`.';
+}
 
 /** A flag's position for vet.json: x, y, and RA, Dec when the image has a celestial WCS. */
 function flagRecord(xArcsec: number, yArcsec: number, sky: ImagePlaneSky | undefined): NonNullable<VetRunRecord['flag']> {
@@ -27,7 +37,7 @@ function flagRecord(xArcsec: number, yArcsec: number, sky: ImagePlaneSky | undef
 
 function runRecord(
   run: PerturbedVetting, model: ModelRecord, smooth: ModelRecord, id: string, origin: string, positionPrior: string,
-  flag: VetRunRecord['flag'], score: number | undefined, offsetArcsec: number | null,
+  flag: VetRunRecord['flag'], score: number | undefined, offsetArcsec: number | null, thresholds: VetThresholds,
 ): VetRunRecord {
   const p = run.perturber;
   const unfinished = unfinishedRuns([{ label: 'smooth', stopReason: smooth.stopReason }, { label: id, stopReason: model.stopReason }]);
@@ -35,7 +45,7 @@ function runRecord(
     id, origin, flag, score: score ?? null, positionPrior,
     lnBayesFactor: run.lnBayesFactor,
     lnBayesFactorError: run.lnBayesFactorError,
-    verdict: run.verdict,
+    verdict: vetVerdict(run.lnBayesFactor, thresholds, smooth.misfit.alarm),
     reading: qualifiedReading(bayesFactorReading(run.lnBayesFactor).sentence, unfinished),
     finished: unfinished.length === 0,
     log10Mass: p.log10Mass,
@@ -70,7 +80,9 @@ function writeNothingToVet(config: ArcsiftConfig, data: ObservedData, flags: Fla
     ...runProvenance(config, data, smoothSettings.seed, started, []),
     flags: flagsRecord(flags),
     settings: smoothSettings,
-    thresholds: settings.thresholds ?? { confirmAboveLnB: runDefaults.vet.confirmAboveLnB, disfavourBelowLnB: runDefaults.vet.disfavourBelowLnB },
+    thresholds: settings.thresholds ?? defaultVetThresholds(),
+    thresholdSource: thresholdSource((settings.thresholds ?? defaultVetThresholds()).confirmAboveLnB),
+    smoothMisfitNote: null,
     windowArcsec: settings.windowArcsec ?? runDefaults.vet.windowArcsec,
     perturberKind: config.perturbers[0]?.kind ?? '',
     smooth: null,
@@ -105,19 +117,22 @@ export async function runVetToFolder(
   const { onProgress: _a, signal: _b, checkpointPath: _c, ...smoothSettings } = result.smoothSettings;
   const seed = smoothSettings.seed;
   const smooth = writeModelOutputs(result.smooth, config, data, join(folder, 'smooth'), seed);
+  const smoothMisfit = smooth.misfit.alarm;
   const candidates = result.candidates.map((c) => {
     const model = writeModelOutputs(c.evidence, c.config, data, join(folder, c.folderName), seed);
     return runRecord(
       c, model, smooth, c.candidate.id, c.candidate.origin,
       `x uniform on ${range(c.window.xArcsec)}, y uniform on ${range(c.window.yArcsec)} arcsec (a ${result.windowArcsec}" square around the flag)`,
-      flagRecord(c.candidate.xArcsec, c.candidate.yArcsec, sky), c.candidate.score, c.offsetArcsec,
+      flagRecord(c.candidate.xArcsec, c.candidate.yArcsec, sky), c.candidate.score, c.offsetArcsec, result.thresholds,
     );
   });
   let mapPrior: VetRunRecord | null = null;
   if (result.mapPrior !== undefined) {
     const m = result.mapPrior;
     const model = writeModelOutputs(m.evidence, m.config, data, join(folder, m.folderName), seed);
-    mapPrior = runRecord(m, model, smooth, 'map-prior', m.mapFile, `the probability map ${m.mapFile}, normalised over the mask`, null, undefined, null);
+    mapPrior = runRecord(
+      m, model, smooth, 'map-prior', m.mapFile, `the probability map ${m.mapFile}, normalised over the mask`, null, undefined, null, result.thresholds,
+    );
   }
   const perturbedRun = result.candidates[0]?.evidence ?? result.mapPrior?.evidence;
   const binding = perturbedRun?.system.perturbers[0];
@@ -136,6 +151,8 @@ export async function runVetToFolder(
     flags: flagsRecord(flags),
     settings: smoothSettings,
     thresholds: result.thresholds,
+    thresholdSource: thresholdSource(result.thresholds.confirmAboveLnB),
+    smoothMisfitNote: smoothMisfit ? smoothMisfitNote(smooth.misfit) : null,
     windowArcsec: result.windowArcsec,
     perturberKind: binding?.kind ?? config.perturbers[0].kind,
     smooth,

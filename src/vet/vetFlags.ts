@@ -10,7 +10,7 @@ import { MapPositionPrior } from './mapPositionPrior.js';
 import { firstPerturber, perturberPositionConfig, windowAround } from './perturberPositionConfig.js';
 import type { ProbabilityMap } from './readProbabilityMap.js';
 import { runMapPriorEvidence } from './runMapPriorEvidence.js';
-import { vetVerdict } from './vetVerdict.js';
+import { defaultVetThresholds, vetVerdict } from './vetVerdict.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
 import type { VetThresholds, VetVerdict } from '../records/vetSummary.js';
 import { runDefaults } from '../settings/runDefaults.js';
@@ -39,6 +39,7 @@ export interface PerturbedVetting {
   readonly lnBayesFactor: number;
   /** The two ln Z errors (Skilling's estimate) added in quadrature. */
   readonly lnBayesFactorError: number;
+  /** The verdict of ln B alone; runVetToFolder turns it into `not-evidence` when the smooth fit fails the misfit alarm. */
   readonly verdict: VetVerdict;
   readonly perturber: PerturberSummary;
   /** Folder name of this run under the output folder (e.g. `candidate-1`). */
@@ -128,10 +129,10 @@ export async function vetFlags(
   firstPerturber(config);
   const windowArcsec = settings.windowArcsec ?? runDefaults.vet.windowArcsec;
   if (!(windowArcsec > 0) || !Number.isFinite(windowArcsec)) throw new InputError(`--window: ${expectedFound('a positive size in arcsec', windowArcsec)}`);
-  const thresholds = settings.thresholds ?? { confirmAboveLnB: runDefaults.vet.confirmAboveLnB, disfavourBelowLnB: runDefaults.vet.disfavourBelowLnB };
+  const thresholds = settings.thresholds ?? defaultVetThresholds();
   if (!(thresholds.disfavourBelowLnB <= thresholds.confirmAboveLnB)) {
     throw new InputError(
-      `verdict thresholds: expected --disfavour-below (${thresholds.disfavourBelowLnB}) <= --confirm-above (${thresholds.confirmAboveLnB})`,
+      `verdict thresholds: expected --disfavour-below (${thresholds.disfavourBelowLnB}) <= --detection-threshold (${thresholds.confirmAboveLnB})`,
     );
   }
   if (candidates.length === 0 && settings.mapPrior === undefined) throw new InputError('vetting: expected at least one candidate, found none');

@@ -13,7 +13,7 @@ export const LAYERS = [
   'errors.ts', 'settings', 'numeric', 'io', 'fits', 'config', 'priors', 'results',
   'cosmology', 'lens', 'perturber', 'light', 'lensing', 'imaging', 'data', 'records',
   'model', 'forward', 'inversion', 'simulate', 'likelihood', 'sampling', 'parallel',
-  'inference', 'vet', 'sensitivity', 'batch', 'calibration', 'report', 'cli', 'bench', 'index.ts',
+  'inference', 'vet', 'verdict', 'sensitivity', 'batch', 'calibration', 'report', 'cli', 'bench', 'index.ts',
 ];
 
 /** Modules that serve any problem, not only lenses: they import nothing that knows about lensing. */

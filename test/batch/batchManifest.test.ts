@@ -81,9 +81,9 @@ describe('readBatchManifest', () => {
   });
 
   it('has one job-table entry per manifest job, each naming an arcsift command and the file it writes last', () => {
-    expect(Object.keys(batchJobs)).toEqual(['fit', 'compare', 'vet', 'sensitivity']);
+    expect(Object.keys(batchJobs)).toEqual(['fit', 'compare', 'vet', 'sensitivity', 'verdict']);
     expect(Object.values(batchJobs).map((j) => [j.command, j.summaryFile])).toEqual([
-      ['fit', 'summary.json'], ['compare', 'summary.json'], ['vet', 'vet.json'], ['sensitivity', 'sensitivity.json'],
+      ['fit', 'summary.json'], ['compare', 'summary.json'], ['vet', 'vet.json'], ['sensitivity', 'sensitivity.json'], ['verdict', 'verdict.json'],
     ]);
   });
 });

@@ -23,7 +23,8 @@ describe('the demo, reduced', () => {
     expect(result.stdout).toMatch(/Priors behind this Bayes factor/);
     expect(result.stdout).toMatch(/The planted subhalo against the posterior/);
     expect(result.stdout).toMatch(/log10MassSolar\s+10\.300/);
-    expect(result.stdout).toMatch(/verdict: the planted subhalo was (FOUND|NOT found)/);
+    expect(result.stdout).toMatch(/verdict: (the planted subhalo was (DETECTED|NOT detected) \(ln B = -?\d+\.\d \+- \d+\.\d, (not )?above the detection threshold 50\)|NOT evidence of the planted subhalo: the smooth model fails the misfit test)/);
+    expect(result.stdout).toMatch(/Detection: .*\n  threshold: ln B > 50 \(about 10 sigma\)/);
     expect(result.stdout).toMatch(/report \(open it in a browser\): .*report\.html/);
     expect(existsSync(join(out, 'compare', 'report.html'))).toBe(true);
     const summary = JSON.parse(readFileSync(join(out, 'compare', 'summary.json'), 'utf8'));

@@ -4,6 +4,7 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { killAfterFile } from '../support/killAfterFile.js';
 
 // A killed comparison resumes from its checkpoints and, with the same seed, ends with the same
 // evidences as an uninterrupted run; the killed run leaves no summary and no half-written file
@@ -28,15 +29,7 @@ describe('interrupted compare', () => {
 
     const out = join(root, 'killed');
     const child = spawn(process.execPath, [cli, ...common, '--out', out], { stdio: 'ignore' });
-    await new Promise<void>((resolve) => {
-      const timer = setInterval(() => {
-        if (existsSync(join(out, 'smooth', 'checkpoint.json'))) {
-          clearInterval(timer);
-          setTimeout(() => { child.kill('SIGKILL'); resolve(); }, 700);
-        }
-      }, 50);
-    });
-    await new Promise((resolve) => child.on('exit', resolve));
+    await killAfterFile(child, join(out, 'smooth', 'checkpoint.json'), 700);
     expect(existsSync(join(out, 'summary.json'))).toBe(false);
     expect(listFiles(out).filter((f) => f.endsWith('.tmp'))).toEqual([]);
 

@@ -79,8 +79,10 @@ describe('example configs', () => {
     const folder = fileURLToPath(new URL('../../configs/', import.meta.url));
     const files = readdirSync(folder).filter((f) => f.endsWith('.yaml'));
     expect(files.length).toBeGreaterThanOrEqual(2);
+    const { loadSimulationConfig } = await import('../../src/config/verdictConfig.js');
     for (const file of files) {
-      const config = loadConfig(`${folder}${file}`);
+      // A verdict config's base (its families are checked in test/verdict/exampleConfig.test.ts).
+      const config = loadSimulationConfig(`${folder}${file}`);
       const space = modelParameterSpace(buildLensSystem(config));
       expect(space.dim, file).toBeGreaterThan(0);
     }

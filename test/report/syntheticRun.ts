@@ -15,7 +15,21 @@ export const SYNTHETIC = {
   lnB: 5.4444,
   lnBError: 0.6912,
   caution: 'Synthetic caution: these numbers were typed by hand for a test.',
+  smoothMoransI: 0.1234,
+  smoothPValue: 0.004,
+  perturbedMoransI: -0.0111,
+  perturbedPValue: 0.567,
+  claimSentence: 'synthetic claim: not evidence of a subhalo, typed by hand',
 } as const;
+
+/** A hand-made misfit record: alarm at p <= 0.01. */
+function misfitRecord(moransI: number, pValue: number) {
+  return {
+    pixels: 80, chiSquare: 81.5, freeParameters: 4, linearAmplitudes: 1, degreesOfFreedom: 75, degreesOfFreedomCounting: 'nominal (synthetic)',
+    chiSquarePerDegreeOfFreedom: 81.5 / 75, chiSquareExcessSigma: (81.5 - 75) / Math.sqrt(150), moransI, moransIExpectation: -1 / 79,
+    moransIZScore: 2.9, pValue, permutations: 999, neighbours: 'rook', falseAlarmRate: 0.01, alarm: pValue <= 0.01,
+  };
+}
 
 const SIDE = 12;
 const SCALE_ARCSEC = 0.1;
@@ -108,6 +122,7 @@ function modelRecord(label: string, lnZ: number, lnZError: number, names: string
     } : {}),
     bestFit: { ...FIXED_BEST_FIT, ...Object.fromEntries(names.map((name, k) => [name, [0.35, 9.5, 0.2, -0.1][k]])), ...(label === 'perturbed' ? { 'perturbers[0].truncationRatio': 3 } : {}) },
     bestFitAmplitudes: { 'source.light[0].amplitude': 40 }, seconds: 12.3, threads: 1,
+    misfit: label === 'smooth' ? misfitRecord(SYNTHETIC.smoothMoransI, SYNTHETIC.smoothPValue) : misfitRecord(SYNTHETIC.perturbedMoransI, SYNTHETIC.perturbedPValue),
     parameters: names.map((name, k) => ({ name, unit: units[k], median: k, interval68: [k - 0.1, k + 0.1], interval95: [k - 0.2, k + 0.2] })),
     files: { cornerData: join(folder, 'corner.json') },
   };
@@ -173,6 +188,10 @@ export function writeSyntheticRun(root: string): string {
       reading: 'strong evidence for the perturbed model over the smooth model', kassRafteryGrade: 'strong',
       significance: 'at most as significant as a p-value of 0.00123 (3.2 sigma, two-sided)',
       pValueBound: 0.00123, sigmaBound: 3.23, perturberFavoured: true, favouredAbove: 1,
+    },
+    detection: {
+      claim: 'not-evidence', thresholdLnB: 50, thresholdSource: 'synthetic threshold source', sentence: SYNTHETIC.claimSentence,
+      smoothMisfit: true, perturbedMisfit: false,
     },
     perturbers: [{
       key: 'perturbers[0]', kind: 'truncatedNfw', log10Mass: summaryOf(9.52, 0.3), log10MassUpperLimit95: 10.1,

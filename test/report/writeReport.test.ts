@@ -125,6 +125,23 @@ describe('writeReport on a synthetic run folder', () => {
     expect(bayes).toContain('0.00123');
   });
 
+  it('states the detection claim with its threshold and the misfit test of each model (own report contract)', () => {
+    const verdict = /<section class="verdict[^"]*" id="verdict">[\s\S]*?<\/section>/.exec(html)?.[0] ?? '';
+    expect(verdict).toContain('class="verdict not-evidence"');
+    expect(verdict).toContain('not evidence: smooth model misfits');
+    expect(verdict).toContain(SYNTHETIC.claimSentence);
+    expect(verdict).toContain('synthetic threshold source');
+    const bayes = /<table id="bayes-factor-table"[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
+    expect(bayes).toContain('ln B &gt; 50');
+    expect(bayes).toContain('<span class="tag claim-not-evidence">not-evidence</span>');
+    const misfit = /<table id="misfit-table">[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
+    expect(misfit).toContain('<span class="tag misfit">misfit</span>');
+    expect(misfit).toContain('<span class="tag fits">passes</span>');
+    for (const value of [SYNTHETIC.smoothMoransI.toFixed(4), SYNTHETIC.perturbedMoransI.toFixed(4), SYNTHETIC.smoothPValue.toFixed(3), SYNTHETIC.perturbedPValue.toFixed(3), '1.087']) {
+      expect(misfit).toContain(value);
+    }
+  });
+
   it('shows the caution, the priors behind the Bayes factor, the truth and the sampler diagnostics', () => {
     expect(html).toContain(SYNTHETIC.caution);
     const priors = /<table id="prior-table">[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';

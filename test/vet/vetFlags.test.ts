@@ -55,7 +55,9 @@ describe('vetting flags on a mock with a planted perturber', () => {
     // At the planted perturber; on the arc on the far side of the lens; in the middle of the
     // ring, where there is no lensed light (inside the mask's hole).
     writeFileSync(list, `id,x,y,score\nplanted,${trueX},${trueY},0.95\nfar-arc,-0.9,-0.62,0.7\nno-light,0,0,0.6\n`);
-    const run = await runVetToFolder(config, data, readFlags(list, data), out, { evidence: () => settings });
+    // The mechanics are checked at ln B = 3 ("strong" on the Kass & Raftery 1995 scale); the default
+    // is the published robust-detection threshold of 50 (test/results/detectionClaim.test.ts).
+    const run = await runVetToFolder(config, data, readFlags(list, data), out, { evidence: () => settings, thresholds: { confirmAboveLnB: 3, disfavourBelowLnB: -1 } });
     ({ summary } = run);
     result = run.result!;
   }, 300_000);
@@ -110,6 +112,18 @@ describe('vetting flags on a mock with a planted perturber', () => {
     }
     const json = JSON.parse(readFileSync(join(out, 'vet.json'), 'utf8')) as VetSummary;
     expect(json.thresholds).toEqual({ confirmAboveLnB: 3, disfavourBelowLnB: -1 });
+    expect(json.thresholdSource).toMatch(/^ln B > 3, set for this run \(the published robust-detection threshold is ln B > 50\)/);
+    // The misfit columns: each row's own fit, then the shared smooth fit's (the same on every row).
+    expect(json.smooth!.misfit.alarm).toBe(false);
+    expect(json.smoothMisfitNote).toBeNull();
+    for (const r of rows) {
+      const model = record(r.candidate).model.misfit;
+      expect(Number(r.chi2_per_dof)).toBeCloseTo(model.chiSquarePerDegreeOfFreedom!, 6);
+      expect(Number(r.misfit_p_value)).toBe(model.pValue);
+      expect(r.misfit_alarm).toBe(model.alarm ? 'yes' : 'no');
+      expect(Number(r.smooth_morans_i)).toBeCloseTo(json.smooth!.misfit.moransI, 6);
+      expect(r.smooth_misfit_alarm).toBe('no');
+    }
     expect(json.priors.positionPrior).toMatch(/perturbers\[0\]\.centerXArcsec, perturbers\[0\]\.centerYArcsec: uniform on a 0.4" x 0.4" square/);
     expect(json.priors.perturbed.some((p) => p.name === 'perturbers[0].log10MassSolar' && p.kind === 'uniform')).toBe(true);
     expect(json.caution).toMatch(/depend on the priors/);

@@ -11,14 +11,26 @@ import { formatNumber } from '../text/formatNumber.js';
 import { parameterTable } from '../tables/parameterTable.js';
 import { perturberMassName, perturberTable } from '../tables/perturberTable.js';
 import { priorTable } from '../tables/priorTable.js';
+import { misfitTable, misfitTableNote } from '../tables/misfitTable.js';
 import { reportStyle } from './reportStyle.js';
 import { MODEL_NAMES, type RunFolder } from '../runFolder/readRunFolder.js';
 import type { ReportFigure } from '../plots/reportFigure.js';
 import { POSTERIOR_FILE_NAMES } from '../../records/posteriorTables.js';
 
+/** The badge of a detection claim (results/detectionClaim.ts); summaries written before it fall back to ln B > 1. */
+function claimBadge(run: RunFolder): { className: string; text: string } {
+  const d = run.summary.detection;
+  if (d === undefined) return run.summary.bayesFactor.perturberFavoured ? { className: 'favoured', text: 'perturber favoured' } : { className: 'not-favoured', text: 'perturber not favoured' };
+  if (d.claim === 'detected') return { className: 'favoured', text: 'perturber detected' };
+  if (d.claim === 'not-evidence') return { className: 'not-evidence', text: 'not evidence: smooth model misfits' };
+  return { className: 'not-favoured', text: 'no detection' };
+}
+
 function verdict(run: RunFolder): string {
   const b = run.summary.bayesFactor;
   const favoured = b.perturberFavoured;
+  const badge = claimBadge(run);
+  const d = run.summary.detection;
   const lines = run.summary.perturbers.map((p) => {
     const m = p.log10Mass;
     const digits = 2;
@@ -29,11 +41,13 @@ function verdict(run: RunFolder): string {
     const at = `at x = ${formatNumber(p.centerXArcsec.median, 2)}&Prime;, y = ${formatNumber(p.centerYArcsec.median, 2)}&Prime;`;
     return `<p>${escapeMarkup(p.key)} (${escapeMarkup(p.kind)}): ${mass} ${favoured ? at : ''}</p>`;
   });
-  return `<section class="verdict ${favoured ? 'favoured' : 'not-favoured'}" id="verdict">
+  return `<section class="verdict ${badge.className}" id="verdict">
 <div><span class="label">ln Bayes factor, perturbed / smooth</span>
 <span class="big">${formatNumber(b.lnBayesFactor, LN_EVIDENCE_DIGITS)} <small>&plusmn; ${formatNumber(b.lnBayesFactorError, LN_EVIDENCE_DIGITS)}</small></span>
-<span class="badge ${favoured ? 'favoured' : 'not-favoured'}">${favoured ? 'perturber favoured' : 'perturber not favoured'}</span></div>
-<div><p class="reading">${escapeMarkup(b.reading)}</p>
+<span class="badge ${badge.className}">${badge.text}</span></div>
+<div>${d === undefined ? '' : `<p class="reading">${escapeMarkup(d.sentence)}.</p>
+<p class="muted">Detection threshold: ${escapeMarkup(d.thresholdSource)}; misfit test of each best fit in <a href="#misfit">the misfit table</a>.</p>`}
+<p${d === undefined ? ' class="reading"' : ''}>Evidence grade: ${escapeMarkup(b.reading)} <span class="muted">(Kass &amp; Raftery 1995)</span></p>
 <p>${escapeMarkup(b.significance)} <span class="muted">(Sellke, Bayarri &amp; Berger 2001 bound)</span></p>
 ${lines.join('\n')}
 <p class="muted">Under the priors listed in <a href="#priors">the prior table</a>; see the caution below.</p></div>
@@ -99,6 +113,9 @@ ${cautionBox(s.caution)}
 <nav class="contents"><a href="#evidence">Evidence</a><a href="#priors">Priors</a><a href="#perturber">Perturber</a><a href="#images">Images</a><a href="#posterior">Posteriors</a><a href="#diagnostics">Sampler diagnostics</a><a href="#files">Files</a><a href="#about">About the figures</a></nav>
 ${section('evidence', 'Evidence and Bayes factor', `<div><h3>Evidence of each model</h3>${evidenceTable(s)}<p class="note">ln Z is the natural log of the evidence (marginal likelihood). The first error follows from the information H (Skilling 2006); the second from simulated prior-volume shrinkage. Settings: ${MODEL_NAMES.map((m) => `${m} ${s.models[m].livePoints} live points`).join(', ')}${settings?.lnZTolerance === undefined ? '' : `, stop when the remaining evidence is below ${settings.lnZTolerance} in ln Z`}.</p></div>
 <div class="narrow"><h3>Bayes factor</h3>${bayesFactorTable(s)}</div>
+<h3 id="misfit">Misfit of each best fit</h3>
+${misfitTable(MODEL_NAMES.map((m) => ({ tone: m, label: `${m} model`, misfit: s.models[m].misfit })))}
+${misfitTableNote(MODEL_NAMES.map((m) => ({ tone: m, label: m, misfit: s.models[m].misfit })))}
 <h3 id="priors">Priors behind this Bayes factor</h3>
 <p class="note">The Bayes factor above holds for these priors only: widening the perturber's prior over masses or positions the data disfavour lowers it.</p>
 ${priorTable(s)}`)}

@@ -15,6 +15,7 @@ import { parameterColumnsTable } from '../tables/parameterTable.js';
 import { parameterLabel } from '../text/parameterLabel.js';
 import { perturberTable } from '../tables/perturberTable.js';
 import { priorColumnsTable } from '../tables/priorTable.js';
+import { misfitTable, misfitTableNote } from '../tables/misfitTable.js';
 import { readFitFolder, type FitFolder } from '../runFolder/readFitFolder.js';
 import { POSTERIOR_FILE_NAMES, POSTERIOR_TABLES } from '../../records/posteriorTables.js';
 import { readWeightedPosterior } from '../../records/readWeightedPosterior.js';
@@ -155,6 +156,7 @@ ${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 ${pageSection('priors', 'Priors', `<p class="note">Every posterior${s.sampler === 'nested' ? ' and the evidence' : ''} below holds for these priors only.</p>${priorColumnsTable([{ label, priors: s.priors }], s.amplitudePrior)}`)}
 ${perturbers}
+${pageSection('misfit', 'Misfit of the best fit', `${misfitTable([{ tone, label, misfit: s.model.misfit }])}${misfitTableNote([{ tone, label, misfit: s.model.misfit }])}`)}
 ${pageSection('images', 'Images and residuals', figures.some((f) => f.section === 'images') ? `<div class="image-grid">${inSection('images')}</div><p class="note">Row 0 at the bottom: x grows to the right and y upwards, in arcsec from the image centre.${run.truth === null ? '' : ' Open circles: simulated perturber positions.'}</p>` : '<p class="note">No image could be read; see the notices.</p>')}
 ${pageSection('posterior', 'Posterior', `${inSection('posterior')}<h3>Parameter intervals</h3>${parameterColumnsTable([{ tone, label, parameters: s.model.parameters }], run.truth)}`)}
 ${pageSection('diagnostics', 'Sampler diagnostics', `${diagnostics}${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}

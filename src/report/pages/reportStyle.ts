@@ -41,6 +41,7 @@ h3 .muted, .muted { color: var(--muted); font-weight: 400; }
 .badge { display: inline-block; padding: 1px 9px; border-radius: 20px; font-size: 12px; font-weight: 600; color: #fff; vertical-align: 2px; }
 .badge.favoured { background: var(--perturbed); }
 .badge.not-favoured { background: var(--smooth); }
+.badge.not-evidence { background: var(--muted); }
 .caution { display: grid; grid-template-columns: 34px 1fr; gap: 12px; background: var(--caution-tint); border-color: var(--caution); border-left: 6px solid var(--caution); }
 .caution .mark { width: 30px; height: 30px; border-radius: 50%; background: var(--caution); color: var(--ink); font-weight: 800; display: grid; place-items: center; font-size: 18px; }
 .caution p { margin: 2px 0; }
@@ -72,6 +73,12 @@ td.quoted { font-weight: 700; color: var(--ink); background: rgba(60, 100, 170, 
 .tag.verdict-confirmed { background: var(--perturbed); color: #ffffff; }
 .tag.verdict-disfavoured { background: var(--smooth); color: #ffffff; }
 .tag.verdict-inconclusive { background: var(--caution-tint); border: 1px solid var(--caution); color: var(--ink); }
+.tag.verdict-not-evidence, .tag.verdict-not-confirmed, .tag.claim-not-evidence { background: #eeeeee; border: 1px solid var(--muted); color: var(--ink); }
+.tag.claim-detected { background: var(--perturbed); color: #ffffff; }
+.tag.claim-not-detected { background: var(--smooth); color: #ffffff; }
+.tag.misfit { background: var(--caution-tint); border: 1px solid var(--caution); color: #8a3b00; }
+.tag.fits { background: #e6f1e8; color: #2f6b3a; }
+.verdict.not-evidence { border-top-color: var(--muted); }
 .place { font-size: 12px; text-align: center; }
 .place.in68 { color: #2f6b3a; }
 .place.in95 { color: #7a6200; }

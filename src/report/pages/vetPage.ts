@@ -14,6 +14,7 @@ import { sequentialRange } from '../colour/displayRange.js';
 import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLink, pageSection } from './pageFrame.js';
 import { perturberMassName } from '../tables/perturberTable.js';
 import { priorColumnsTable } from '../tables/priorTable.js';
+import { misfitBadge, misfitTable, misfitTableNote, pValueText } from '../tables/misfitTable.js';
 import { isList, isMapping, isString, locateRunData, readKindOfSummary } from '../runFolder/readRunFolder.js';
 import { perturberTruthMarkers } from '../plots/perturberTruthMarkers.js';
 import { sequentialColourMap } from '../colour/sequentialColourMap.js';
@@ -56,12 +57,13 @@ function vetTable(summary: VetSummary, pageFile: string): string {
       numberCell(mass),
       numberCell(`(${fixed(r.position.xArcsec.median, 3)}, ${fixed(r.position.yArcsec.median, 3)})`),
       numberCell(fixed(r.offsetArcsec, 3)),
+      numberCell(r.model.misfit === undefined ? '&ndash;' : `${fixed(r.model.misfit.chiSquarePerDegreeOfFreedom, 3)} / ${pValueText(r.model.misfit.pValue)} ${misfitBadge(r.model.misfit)}`),
       r.model.files.cornerData === undefined ? '' : `<a href="${pageLink(pageFile, r.model.files.cornerData)}">corner.json</a>`,
     ];
   });
   return htmlTable({
     id: 'vet-table',
-    head: [['candidate', numberCell('flag (x, y) ["]'), numberCell('score'), numberCell('ln B'), 'verdict', numberCell(perturberMassName(summary.perturberKind)), numberCell('posterior (x, y) ["]'), numberCell('offset ["]'), 'posterior']],
+    head: [['candidate', numberCell('flag (x, y) ["]'), numberCell('score'), numberCell('ln B'), 'verdict', numberCell(perturberMassName(summary.perturberKind)), numberCell('posterior (x, y) ["]'), numberCell('offset ["]'), numberCell('&chi;<sup>2</sup>/dof / misfit p'), 'posterior']],
     rows,
   });
 }
@@ -107,7 +109,7 @@ export function writeVetReport(folder: string, pageFile: string, figuresFolder: 
     figures.push(writeSvgFigure(figuresFolder, 'flags', 'flags', {
       section: 'images',
       title: 'Flags and verdicts',
-      caption: `The network's flags over the observed image, each labelled with its candidate id: vermilion confirmed (ln B &gt; ${s.thresholds.confirmAboveLnB}), blue disfavoured (ln B &lt; ${s.thresholds.disfavourBelowLnB}), yellow inconclusive.${truth === null ? '' : ' Open circles: simulated perturbers.'}`,
+      caption: `The network's flags over the observed image, each labelled with its candidate id: vermilion confirmed (ln B &gt; ${s.thresholds.confirmAboveLnB}), blue disfavoured (ln B &lt; ${s.thresholds.disfavourBelowLnB}), yellow inconclusive, grey not evidence (the smooth fit misfits).${truth === null ? '' : ' Open circles: simulated perturbers.'}`,
       svg: imagePanelSvg({
         title: 'Flags and verdicts', subtitle: 'diamonds: flags; dashed: fitted pixels', colouring, pixelScaleArcsec: set.pixelScaleArcsec,
         colourBarLabel: observed.data.header.getString('BUNIT')?.trim() || 'counts/s', mask: set.mask, markers: [...truthMarkers, ...flags], imagePx: 320,
@@ -119,14 +121,15 @@ export function writeVetReport(folder: string, pageFile: string, figuresFolder: 
   const t = s.thresholds;
   const body = `<section class="verdict not-favoured" id="verdict">
 <div><span class="label">flags vetted</span><span class="big">${s.candidates.length}</span>
-<span class="badge favoured">${s.candidates.filter((c) => c.verdict === 'confirmed').length} confirmed</span></div>
-<div><p class="reading">Confirmed when ln B &gt; ${t.confirmAboveLnB}, disfavoured when ln B &lt; ${t.disfavourBelowLnB}, inconclusive between (ln B = ln Z with a perturber in the flag's window minus ln Z of the one shared smooth fit${s.smooth === null ? '; no candidate reached the map threshold, so no fit was run' : `, ${fixed(s.smooth.lnEvidence, LN_EVIDENCE_DIGITS)} &plusmn; ${fixed(s.smooth.lnEvidenceError, LN_EVIDENCE_DIGITS)}`}).</p>
-<p class="muted">Under the priors listed in <a href="#priors">the prior table</a>; a verdict is only as good as them.</p></div>
+<span class="badge ${s.smoothMisfitNote ? 'not-evidence' : 'favoured'}">${s.smoothMisfitNote ? 'smooth fit misfits' : `${s.candidates.filter((c) => c.verdict === 'confirmed').length} confirmed`}</span></div>
+<div>${s.smoothMisfitNote ? `<p class="reading">${escapeMarkup(s.smoothMisfitNote)}</p>` : ''}<p class="reading">Confirmed when ln B &gt; ${t.confirmAboveLnB}, disfavoured when ln B &lt; ${t.disfavourBelowLnB}, inconclusive between (ln B = ln Z with a perturber in the flag's window minus ln Z of the one shared smooth fit${s.smooth === null ? '; no candidate reached the map threshold, so no fit was run' : `, ${fixed(s.smooth.lnEvidence, LN_EVIDENCE_DIGITS)} &plusmn; ${fixed(s.smooth.lnEvidenceError, LN_EVIDENCE_DIGITS)}`}).</p>
+<p class="muted">Detection threshold: ${escapeMarkup(s.thresholdSource ?? `ln B > ${t.confirmAboveLnB}`)}. A flag is confirmed only when the shared smooth fit passes the misfit test (<a href="#misfit">misfit table</a>). Under the priors listed in <a href="#priors">the prior table</a>; a verdict is only as good as them.</p></div>
 </section>
 ${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 ${s.mapPriorNote === null ? '' : `<aside class="caution" role="note"><div class="mark">!</div><div><p>${escapeMarkup(s.mapPriorNote)}</p></div></aside>`}
 ${pageSection('verdicts', 'Verdicts', `${vetTable(s, pageFile)}${flagFigure === undefined || flagFigure.key !== 'flags' ? '' : figureHtml(flagFigure, pageFile)}`)}
+${s.smooth === null ? '' : pageSection('misfit', 'Misfit of each best fit', `${misfitTable([{ tone: 'smooth', label: 'smooth', misfit: s.smooth.misfit }, ...runs.map((r) => ({ tone: 'perturbed', label: r.id, misfit: r.model.misfit }))])}${misfitTableNote([{ tone: 'smooth', label: 'smooth', misfit: s.smooth.misfit }])}`)}
 ${pageSection('priors', 'Priors behind these Bayes factors', `${priorColumnsTable([{ label: 'smooth model', priors: s.priors.smooth }, { label: 'perturbed models', priors: s.priors.perturbed }], s.amplitudePrior)}<p class="note">Perturber position: ${escapeMarkup(s.priors.positionPrior)}.</p>`)}
 ${pageSection('images', 'Images and residuals', `<div class="image-grid">${(flagFigure?.key === 'flags' ? imageFiguresShown : figures).map((f) => figureHtml(f, pageFile)).join('\n')}</div><p class="note">The shared smooth fit${confirmed.length === 0 ? '' : ' and the confirmed candidates\' perturbed fits'}; row 0 at the bottom, x right and y up in arcsec from the image centre.</p>`)}
 ${pageSection('diagnostics', 'Sampler diagnostics', `${nestedDiagnosticsTable([...(s.smooth === null ? [] : [{ tone: 'smooth' as const, label: 'smooth', record: s.smooth }]), ...runs.map((r) => ({ tone: 'perturbed', label: r.id, record: r.model }))])}${notices.length === 0 ? '' : `<h3>Notices</h3><ul class="notices">${notices.map((n) => `<li>${escapeMarkup(n)}</li>`).join('')}</ul>`}`)}

@@ -14,7 +14,7 @@ export interface ImageMarker {
   /** flag: its id, written beside it. */
   readonly label?: string;
   /** flag: its verdict. */
-  readonly verdict?: 'confirmed' | 'inconclusive' | 'disfavoured';
+  readonly verdict?: 'confirmed' | 'inconclusive' | 'disfavoured' | 'not-evidence';
   readonly xArcsec: number;
   readonly yArcsec: number;
   readonly xInterval?: readonly [number, number];
@@ -152,7 +152,7 @@ function marker(m: ImageMarker, toX: (x: number) => number, toY: (y: number) => 
     return `<circle cx="${px(x)}" cy="${px(y)}" r="6" fill="none" stroke="#ffffff" stroke-width="3"/><circle cx="${px(x)}" cy="${px(y)}" r="6" fill="none" stroke="${reportPalette.truth}" stroke-width="1.4"/>`;
   }
   if (m.kind === 'flag') {
-    const colour = m.verdict === 'confirmed' ? reportPalette.perturbed : m.verdict === 'disfavoured' ? reportPalette.smooth : reportPalette.caution;
+    const colour = m.verdict === 'confirmed' ? reportPalette.perturbed : m.verdict === 'disfavoured' ? reportPalette.smooth : m.verdict === 'not-evidence' ? reportPalette.muted : reportPalette.caution;
     const d = `M${px(x)},${px(y - 6)}L${px(x + 6)},${px(y)}L${px(x)},${px(y + 6)}L${px(x - 6)},${px(y)}Z`;
     const text = m.label === undefined ? '' : `<text x="${px(x + 8)}" y="${px(y - 5)}" font-size="10" font-weight="600" fill="${colour}" stroke="#ffffff" stroke-width="2.5" paint-order="stroke">${escapeMarkup(m.label)}</text>`;
     return `<path d="${d}" fill="none" stroke="#ffffff" stroke-width="3.4"/><path d="${d}" fill="none" stroke="${colour}" stroke-width="1.8"/>${text}`;

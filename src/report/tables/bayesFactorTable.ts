@@ -14,6 +14,10 @@ export function bayesFactorTable(summary: ComparisonSummary): string {
     ['reading (Kass &amp; Raftery 1995)', escapeMarkup(b.reading)],
     ['grade', escapeMarkup(b.kassRafteryGrade)],
     [`perturber favoured (ln B &gt; ${formatNumber(b.favouredAbove, 0)})`, b.perturberFavoured ? 'yes' : 'no'],
+    ...(summary.detection === undefined ? [] : [
+      ['detection threshold', `ln B &gt; ${formatNumber(summary.detection.thresholdLnB, 0)}`] as [string, string],
+      ['detection claim', `<span class="tag claim-${summary.detection.claim}">${summary.detection.claim}</span>`] as [string, string],
+    ]),
     ['significance bound (Sellke, Bayarri &amp; Berger 2001)', escapeMarkup(b.significance)],
     ['p-value bound', p],
     ['sigma bound (two-sided)', b.sigmaBound === null ? 'n/a' : formatNumber(b.sigmaBound, 2)],

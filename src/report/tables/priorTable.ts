@@ -24,6 +24,8 @@ export function priorText(p: PriorDescription): string {
 export interface PriorColumn {
   readonly label: string;
   readonly priors: readonly PriorDescription[];
+  /** Region priors on perturber positions (perturber key -> region), shown in place of the boxes they replace. */
+  readonly regions?: ReadonlyMap<string, string>;
 }
 
 /**
@@ -32,35 +34,39 @@ export interface PriorColumn {
  */
 export function priorTable(summary: ComparisonSummary): string {
   return priorColumnsTable(
-    [{ label: 'smooth model', priors: summary.priors.smooth }, { label: 'perturbed model', priors: summary.priors.perturbed }],
+    [
+      { label: 'smooth model', priors: summary.priors.smooth },
+      { label: 'perturbed model', priors: summary.priors.perturbed, regions: new Map((summary.positionPriors ?? []).map((r) => [r.key, r.region])) },
+    ],
     summary.amplitudePrior,
-    new Map((summary.positionPriors ?? []).map((r) => [r.key, r.region])),
   );
 }
 
 /**
- * The priors of one or more models, one column each (the last model's region priors on perturber
+ * The priors of one or more models, one column each (each column's region priors on perturber
  * positions shown in place of the boxes they replace); free parameters first, then the held
  * ones, the amplitude prior last.
  */
-export function priorColumnsTable(models: readonly PriorColumn[], amplitudePrior: string, regions: ReadonlyMap<string, string> = new Map()): string {
+export function priorColumnsTable(models: readonly PriorColumn[], amplitudePrior: string): string {
   const maps = models.map((m) => new Map(m.priors.map((p) => [p.name, p])));
   const names = [...new Set([...maps].reverse().flatMap((m) => [...m.keys()]))];
   const find = (name: string): PriorDescription => [...maps].reverse().map((m) => m.get(name)).find((p) => p !== undefined)!;
   const isFree = (name: string): boolean => !find(name).fixed;
   const ordered = [...names.filter(isFree), ...names.filter((n) => !isFree(n))];
   const cell = (p: PriorDescription | undefined): string => (p === undefined ? '<span class="absent">not in this model</span>' : escapeMarkup(priorText(p)));
-  const replaced = (name: string): string | undefined => {
+  const replaced = (name: string, column: PriorColumn): string | undefined => {
     const match = /^(.*)\.center[XY]Arcsec$/.exec(name);
-    return match === null ? undefined : regions.get(match[1]);
+    return match === null ? undefined : column.regions?.get(match[1]);
   };
   const rows: (string | TableCell)[][] = ordered.map((name) => {
     const label = parameterLabel(name, '');
     const p = find(name);
-    const region = replaced(name);
-    const cells = maps.map((m, k) => (k === maps.length - 1 && region !== undefined && m.get(name) !== undefined
-      ? `position ${escapeMarkup(region)} <span class="muted">(replaces the box ${escapeMarkup(priorText(m.get(name)!))})</span>`
-      : cell(m.get(name))));
+    const cells = maps.map((m, k) => {
+      const region = replaced(name, models[k]);
+      return region !== undefined && m.get(name) !== undefined
+        ? `position ${escapeMarkup(region)} <span class="muted">(replaces the box ${escapeMarkup(priorText(m.get(name)!))})</span>`
+        : cell(m.get(name));
+    });
     return [
       `<span class="component">${escapeMarkup(label.component)}</span> ${escapeMarkup(label.quantity)}`,
       p.fixed ? '<span class="tag held">held</span>' : '<span class="tag free">free</span>',
