@@ -2,7 +2,7 @@ import type { Argv } from 'yargs';
 import { InputError } from '../errors.js';
 import { defaultThreadCount } from '../parallel/workerPool.js';
 import type { EvidenceSettings } from '../inference/runModelEvidence.js';
-import type { NestedMethod } from '../sampling/nested/index.js';
+import type { EvidenceMethod, NestedMethod } from '../sampling/nested/index.js';
 import { wholeNumberOption } from './dataOptions.js';
 import { progressPrinter } from './progressPrinter.js';
 import { runDefaults } from '../settings/runDefaults.js';
@@ -21,6 +21,7 @@ export interface SamplerArguments {
   'max-evaluations'?: number;
   resume: boolean;
   'checkpoint-seconds': number;
+  evidence: string;
   'take-over-lock': boolean;
   quiet: boolean;
 }
@@ -34,6 +35,7 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
     .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: runDefaults.nested.method, describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters, slice otherwise)' })
     .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? runDefaults.nested.sliceStepsPerParameter, describe: 'slice moves per new live point, per free parameter' })
     .option('tolerance', { type: 'number', default: runDefaults.nested.lnZTolerance, describe: 'stop when the live points could add less than this to ln Z' })
+    .option('evidence', { choices: ['nested', 'importance'], default: runDefaults.nested.evidence, describe: 'ln Z from the nested-sampling sum, or from importance sampling after the nested run (fewer evaluations for a small error: see README)' })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
     .option('checkpoint-seconds', { type: 'number', default: runDefaults.nested.checkpointSeconds, describe: 'seconds between checkpoints of the sampler state (every sampler; SIGTERM or SIGINT also writes one and stops)' })
     .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
@@ -81,6 +83,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string, option
       sliceStepsPerParameter: positiveOption('slice-steps', args['slice-steps']),
       replacementsPerStep: runDefaults.nested.replacementsPerStep,
       lnZTolerance: args.tolerance,
+      evidence: args.evidence as EvidenceMethod,
       resume: args.resume,
       checkpointSeconds: positiveOption('checkpoint-seconds', args['checkpoint-seconds']),
       onProgress: printer.onProgress,

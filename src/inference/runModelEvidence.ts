@@ -3,7 +3,7 @@ import type { ObservedData } from '../data/observedData.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
 import type { BatchOccupancy } from '../parallel/batchOccupancy.js';
 import { LikelihoodPool, type ModelPool } from '../parallel/likelihoodPool.js';
-import { runNested, type NestedMethod, type NestedProgress, type NestedResult } from '../sampling/nested/index.js';
+import { runNested, type EvidenceMethod, type ImportanceOptions, type NestedMethod, type NestedProgress, type NestedResult } from '../sampling/nested/index.js';
 import type { ParameterSpace } from '../priors/parameterSpace.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { modelPriorTransform } from '../model/modelPriorTransform.js';
@@ -29,6 +29,10 @@ export interface EvidenceSettings {
    */
   readonly slicePointsPerChain?: number;
   readonly maxEvaluations?: number;
+  /** Where ln Z comes from (default runDefaults.nested.evidence). */
+  readonly evidence?: EvidenceMethod;
+  /** Settings of the importance-sampling stage (defaults in sampling/importance/importanceSettings.ts). */
+  readonly importance?: ImportanceOptions;
   readonly threads: number;
   /** Evaluate in worker threads even with one thread, so that several runs can go side by side. */
   readonly inWorker?: boolean;
@@ -128,6 +132,8 @@ export async function runModelEvidence(
         replacementsPerStep: settings.replacementsPerStep,
         lnZTolerance: settings.lnZTolerance,
         maxEvaluations: settings.maxEvaluations,
+        evidence: settings.evidence ?? runDefaults.nested.evidence,
+        importance: settings.importance,
         checkpoint: settings.checkpointPath === undefined || identity === undefined ? undefined : {
           path: settings.checkpointPath,
           everySeconds: settings.checkpointSeconds ?? runDefaults.nested.checkpointSeconds,

@@ -10,7 +10,8 @@ import type { ModelEvidence } from './runModelEvidence.js';
 import { writeFitImages } from './writeFitImages.js';
 import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { eastOfNorthField } from './positionAngleOnSky.js';
-import type { ModelRecord } from '../records/modelRecord.js';
+import type { EvidenceRecord, ModelRecord } from '../records/modelRecord.js';
+import type { NestedResult } from '../sampling/nested/index.js';
 
 /**
  * Writes one model's posterior tables (weighted and equal-weight, CSV and NPY, posterior.json),
@@ -64,6 +65,7 @@ export function writeModelOutputs(
     nonFiniteLikelihoods: result.nonFiniteCount,
     insertionRankPValue: result.insertionRank.pValue,
     insertionRankWarning: result.insertionRank.biased,
+    evidence: evidenceRecordOf(result),
     stopReason: result.stopReason,
     bestLnLikelihood: result.lnL[best],
     bestFit,
@@ -81,5 +83,29 @@ export function writeModelOutputs(
       return { ...entry, ...eastOfNorthField(entry.name, entry, ImagePlaneSky.of(data)) };
     }),
     files,
+  };
+}
+
+/** The record of how ln Z was estimated (see EvidenceRecord). */
+function evidenceRecordOf(result: NestedResult): EvidenceRecord {
+  const importance = result.importance;
+  return {
+    method: result.evidenceMethod,
+    nestedLnEvidence: result.nestedLnZ,
+    nestedLnEvidenceError: result.nestedLnZError,
+    importance: importance === null ? null : {
+      evaluations: importance.evaluations,
+      finalDraws: importance.final.draws,
+      effectiveSampleSize: importance.final.effectiveSampleSize,
+      largestWeightShare: importance.final.largestWeightShare,
+      paretoShape: importance.final.paretoShape,
+      paretoShapeLimit: importance.final.paretoShapeLimit,
+      proposalComponents: importance.proposal.components.length,
+      stages: importance.stages.length,
+      repeatZ: importance.repeatZ,
+      nestedZ: importance.nestedZ,
+      suspect: importance.suspect,
+      nestedDisagrees: importance.nestedDisagrees,
+    },
   };
 }

@@ -15,6 +15,11 @@ export interface ModelRecord {
   readonly nonFiniteLikelihoods: number;
   readonly insertionRankPValue: number;
   readonly insertionRankWarning: boolean;
+  /**
+   * Where lnEvidence came from and how far to trust it (absent in records written before the
+   * importance stage existed: those are 'nested').
+   */
+  readonly evidence?: EvidenceRecord;
   readonly stopReason: string;
   readonly bestLnLikelihood: number;
   readonly bestFit: Record<string, number>;
@@ -30,4 +35,28 @@ export interface ModelRecord {
     eastOfNorthDeg?: { median: number; interval68: readonly [number, number]; interval95: readonly [number, number] };
   }[];
   readonly files: Record<string, string>;
+}
+
+/** How a run's ln Z was estimated (sampling/importance/importanceResult.ts for the fields' meaning). */
+export interface EvidenceRecord {
+  /** 'nested' (the nested-sampling sum) or 'importance' (importance sampling after the nested run). */
+  readonly method: 'nested' | 'importance';
+  /** the nested-sampling sum and its error, whichever method gave lnEvidence. */
+  readonly nestedLnEvidence: number;
+  readonly nestedLnEvidenceError: number;
+  /** the importance stage's diagnostics (null with method 'nested'). */
+  readonly importance: {
+    readonly evaluations: number;
+    readonly finalDraws: number;
+    readonly effectiveSampleSize: number;
+    readonly largestWeightShare: number;
+    readonly paretoShape: number;
+    readonly paretoShapeLimit: number;
+    readonly proposalComponents: number;
+    readonly stages: number;
+    readonly repeatZ: number;
+    readonly nestedZ: number;
+    readonly suspect: boolean;
+    readonly nestedDisagrees: boolean;
+  } | null;
 }

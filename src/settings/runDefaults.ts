@@ -23,6 +23,12 @@ export interface RunSettings {
     readonly lnZTolerance: number;
     /** Seconds between checkpoints of a run's state (the ensemble sampler's too). */
     readonly checkpointSeconds: number;
+    /**
+     * Where ln Z comes from: 'nested' (the nested-sampling sum) or 'importance' (importance
+     * sampling from a proposal learned from the nested run, sampling/importance/; off by default
+     * until measured on the lens models, see README).
+     */
+    readonly evidence: 'nested' | 'importance';
   };
   /** The demo's quick settings (its ln Z errors are about 1; see README). */
   readonly demo: {
@@ -129,7 +135,7 @@ function deepFreeze<T extends object>(value: T): T {
 export const runDefaults: RunSettings = deepFreeze({
   nested: {
     livePoints: 200, seed: 1, method: 'auto', replacementsPerStep: 2, sliceStepsPerParameter: 2, lnZTolerance: 0.1,
-    checkpointSeconds: 30,
+    checkpointSeconds: 30, evidence: 'nested',
   },
   demo: { livePoints: 50, sliceStepsPerParameter: 1, noiseSeed: 1 },
   ensemble: { maxSweeps: 5000, minEffectiveSampleSize: 400, maxRHat: 1.01, checkEverySweeps: 100, proposal: 'stretch', startLivePoints: 50 },
@@ -155,6 +161,7 @@ const rules: { readonly [S in Section]: { readonly [K in keyof RunSettings[S]]: 
   nested: {
     livePoints: { whole: 2 }, seed: { whole: 1 }, method: { choices: ['auto', 'ellipsoids', 'slice'] },
     replacementsPerStep: { whole: 1 }, sliceStepsPerParameter: { above: 0 }, lnZTolerance: { above: 0 }, checkpointSeconds: { above: 0 },
+    evidence: { choices: ['nested', 'importance'] },
   },
   demo: { livePoints: { whole: 2 }, sliceStepsPerParameter: { above: 0 }, noiseSeed: { whole: 1 } },
   ensemble: {

@@ -238,5 +238,24 @@ describe('arcsift fit on the command line', () => {
     expect(html).toContain('id="figure-nested-history"');
     expect(html).toContain(summary.evidence.lnEvidence.toFixed(2));
     expect(existsSync(join(folder, 'figures', 'nested-history.svg'))).toBe(true);
+    // Without --evidence the record says the nested sum gave ln Z.
+    expect(summary.model.evidence?.method).toBe('nested');
+  });
+
+  it('with --evidence importance records where ln Z came from and the draws behind it', () => {
+    const folder = join(out, 'importance');
+    const run = arcsift(['fit', '--config', configPath, '--data', dataDir, '--perturbers', '0', '--live-points', '20',
+      '--slice-steps', '1', '--evidence', 'importance', '--threads', '1', '--quiet', '--no-report', '--out', folder]);
+    expect(run.status, run.stderr).toBe(0);
+    const summary = JSON.parse(readFileSync(join(folder, 'summary.json'), 'utf8')) as NestedFitSummary;
+    const evidence = summary.model.evidence!;
+    expect(evidence.method).toBe('importance');
+    expect(summary.evidence.lnEvidence).toBe(summary.model.lnEvidence);
+    expect(Number.isFinite(evidence.nestedLnEvidence)).toBe(true);
+    const importance = evidence.importance!;
+    expect(importance.effectiveSampleSize).toBeGreaterThan(0);
+    expect(importance.effectiveSampleSize).toBeLessThanOrEqual(importance.finalDraws);
+    expect(importance.evaluations).toBeLessThan(summary.model.evaluations);
+    expect(typeof importance.suspect).toBe('boolean');
   });
 });

@@ -87,6 +87,21 @@ describe('the likelihood worker pool', () => {
     expect(single.messages).toBe(0);
   }, 180_000);
 
+  it('gives the importance stage bit-identical on 1 and 2 threads', async () => {
+    // Its draws go to the pool in batches; each value comes back at its index (test above).
+    const settings = {
+      livePoints: 15, seed: 5, method: 'slice' as const, replacementsPerStep: 2, lnZTolerance: 0.5, sliceStepsPerParameter: 1,
+      evidence: 'importance' as const, importance: { drawsPerStage: 100, maxStages: 2, maxFinalDraws: 200 },
+    };
+    const single = await runModelEvidence(config, data, 0, { ...settings, threads: 1 });
+    const double = await runModelEvidence(config, data, 0, { ...settings, threads: 2 });
+    expect(single.result.evidenceMethod).toBe('importance');
+    expect(double.result.lnZ).toBe(single.result.lnZ);
+    expect(double.result.lnZError).toBe(single.result.lnZError);
+    expect(double.result.evaluations).toBe(single.result.evaluations);
+    expect(Array.from(double.result.importance!.samples.points)).toEqual(Array.from(single.result.importance!.samples.points));
+  }, 300_000);
+
   it('gives the same nested run when the next step\'s chains start early on an idle thread', async () => {
     // A thread freed by one of a step's two chains starts the next step's chains early
     // (earlyChains.ts); an early chain is used only if its request is exactly the step's own.

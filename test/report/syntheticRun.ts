@@ -110,6 +110,16 @@ function modelRecord(label: string, lnZ: number, lnZError: number, names: string
     label, lnEvidence: lnZ, lnEvidenceError: lnZError, lnEvidenceErrorSimulated: lnZError * 1.1, informationNats: 12.5,
     livePoints: 50, method: 'slice', iterations: 700, evaluations: 43210, efficiency: 0.0123, nonFiniteLikelihoods: 0,
     insertionRankPValue: 0.42, insertionRankWarning: false, stopReason: 'converged', bestLnLikelihood: lnZ + 20,
+    // The perturbed run's ln Z came from the importance stage; the smooth one's record predates it.
+    ...(label === 'perturbed' ? {
+      evidence: {
+        method: 'importance', nestedLnEvidence: lnZ + 0.8, nestedLnEvidenceError: 0.9,
+        importance: {
+          evaluations: 9000, finalDraws: 4000, effectiveSampleSize: 1234.4, largestWeightShare: 0.004, paretoShape: 0.31,
+          paretoShapeLimit: 0.7, proposalComponents: 4, stages: 4, repeatZ: 0.5, nestedZ: -0.9, suspect: false, nestedDisagrees: false,
+        },
+      },
+    } : {}),
     bestFit: { ...FIXED_BEST_FIT, ...Object.fromEntries(names.map((name, k) => [name, [0.35, 9.5, 0.2, -0.1][k]])), ...(label === 'perturbed' ? { 'perturbers[0].truncationRatio': 3 } : {}) },
     bestFitAmplitudes: { 'source.light[0].amplitude': 40 }, seconds: 12.3, threads: 1,
     misfit: label === 'smooth' ? misfitRecord(SYNTHETIC.smoothMoransI, SYNTHETIC.smoothPValue) : misfitRecord(SYNTHETIC.perturbedMoransI, SYNTHETIC.perturbedPValue),

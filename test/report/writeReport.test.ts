@@ -152,6 +152,9 @@ describe('writeReport on a synthetic run folder', () => {
     expect(html).toContain('simulated truth');
     const diagnostics = /<table id="diagnostics-table">[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
     for (const text of ['slice', '43\u2009210', '1.23%', '0.420']) expect(diagnostics).toContain(text);
+    // Where each ln Z came from: the importance stage with its effective sample size and k-hat, or
+    // the nested sum for a record without an evidence block.
+    for (const text of ['nested-sampling sum', 'importance sampling', '1\u2009234 of 4\u2009000 draws', '0.31 (limit 0.70)']) expect(diagnostics).toContain(text);
   });
 
   it('writes elsewhere with --out, its links still resolving from there', () => {

@@ -19,6 +19,20 @@ export function nestedDiagnosticsTable(runs: readonly { readonly tone: string; r
     html: `${m.insertionRankPValue === null ? 'n/a' : formatNumber(m.insertionRankPValue, 3)}${m.insertionRankWarning ? ' <span class="tag warn">biased draws?</span>' : ''}`,
     className: m.insertionRankWarning ? 'num warn' : 'num',
   });
+  const evidence = (m: ModelRecord): string => {
+    const e = m.evidence;
+    if (e === undefined || e.method === 'nested') return 'nested-sampling sum';
+    return `importance sampling (nested sum ${formatNumber(e.nestedLnEvidence, 2)} &plusmn; ${formatNumber(e.nestedLnEvidenceError, 2)})`;
+  };
+  const importance = (m: ModelRecord): string | TableCell => {
+    const i = m.evidence?.importance;
+    if (i === undefined || i === null) return 'n/a';
+    const warn = i.suspect ? ' <span class="tag warn">weights too uneven?</span>' : '';
+    return {
+      html: `${formatCount(Math.round(i.effectiveSampleSize))} of ${formatCount(i.finalDraws)} draws; k&#770; ${formatNumber(i.paretoShape, 2)} (limit ${formatNumber(i.paretoShapeLimit, 2)})${warn}`,
+      className: i.suspect ? 'num warn' : 'num',
+    };
+  };
   return htmlTable({
     id: 'diagnostics-table',
     head: [['', ...runs.map((r) => `<span class="swatch ${r.tone}"></span>${escapeMarkup(r.label)}`)]],
@@ -29,6 +43,8 @@ export function nestedDiagnosticsTable(runs: readonly { readonly tone: string; r
       row('likelihood evaluations', (m) => numberCell(formatCount(m.evaluations))),
       row('efficiency (accepted / evaluated)', (m) => numberCell(`${formatNumber(100 * m.efficiency, 2)}%`)),
       row('insertion-rank p-value (Fowlie, Handley &amp; Su 2020)', rank),
+      row('ln Z from', (m) => evidence(m)),
+      row('importance draws: effective size; Pareto k&#770; (Vehtari et al. 2024)', importance),
       row('non-finite likelihoods', (m) => numberCell(formatCount(m.nonFiniteLikelihoods))),
       row('stopped because', (m) => escapeMarkup(m.stopReason)),
       row('wall time [s]', (m) => numberCell(formatNumber(m.seconds, 1))),

@@ -5,7 +5,8 @@ import type { NestedSettings, NestedStateRecord } from './nestedState.js';
 
 /** Format tag written at the top of every nested-sampling checkpoint file. */
 export const checkpointFormat = 'arcsift nested-sampling checkpoint';
-export const checkpointVersion = 1;
+/** Version 2 adds clusters and the importance stage; version 1 files are read as one cluster, nested evidence. */
+export const checkpointVersion = 2;
 
 // JSON has no -Infinity, Infinity or NaN: they are written as these strings and read back.
 const nonFiniteNames = new Map<string, number>([
@@ -46,13 +47,16 @@ export function readCheckpoint(
   } catch (error) {
     throw new InputError(`expected a nested-sampling checkpoint in JSON, could not read it (${(error as Error).message})`, { file: path });
   }
-  if (parsed.format !== checkpointFormat || parsed.version !== checkpointVersion || parsed.state === undefined) {
+  if (parsed.format !== checkpointFormat || (parsed.version !== 1 && parsed.version !== checkpointVersion) || parsed.state === undefined) {
     throw new InputError(`expected a "${checkpointFormat}" version ${checkpointVersion} file`, { file: path });
   }
   checkIdentity?.(parsed.runIdentity, path);
   const found = parsed.state.settings as unknown as Record<string, unknown>;
   // Settings added since version 1 was first written, at the values that reproduce older runs.
   if (found.slicePointsPerChain === undefined) found.slicePointsPerChain = 1;
+  if (found.evidence === undefined) found.evidence = 'nested';
+  if (found.sliceClusters === undefined) found.sliceClusters = false;
+  if (found.importance === undefined) found.importance = null;
   for (const [key, value] of Object.entries(expected)) {
     if (JSON.stringify(found[key]) !== JSON.stringify(value)) {
       throw new InputError(

@@ -1,19 +1,7 @@
 import { lowestSlots } from './lowestSlots.js';
+import { chooseChainStarts, shrinkClusterVolumes } from './liveClusters.js';
 import { SeededStream } from '../../numeric/random/seededStream.js';
 import { sliceChainSeeds, type SliceChainRequest, type SliceChainResult, type SliceSettings } from './sliceChain.js';
-
-/**
- * Slots of the start points of k slice chains: the surviving live points (finite ln L) in slot
- * order, one picked per chain by `stream.integer`.
- */
-export function chainStartSlots(liveLnL: Float64Array, k: number, stream: SeededStream): Int32Array {
-  const survivors = new Int32Array(liveLnL.length);
-  let count = 0;
-  for (let i = 0; i < liveLnL.length; i++) if (liveLnL[i] !== -Infinity) survivors[count++] = i;
-  const starts = new Int32Array(k);
-  for (let chain = 0; chain < k; chain++) starts[chain] = survivors[stream.integer(count)];
-  return starts;
-}
 
 /** A slice step as it stands while its chains run: what the next step's chains are made from. */
 export interface RunningSliceStep {
@@ -25,8 +13,13 @@ export interface RunningSliceStep {
   readonly slots: Int32Array;
   /** The stream after this step's draws. */
   readonly stream: SeededStream;
-  /** The whitening the next step will use (the caller knows it is not rebuilt then). */
-  readonly whitening: Float64Array;
+  /** Cluster labels of the live points as the next step will have them, except the freed slots; */
+  readonly liveCluster: Int32Array;
+  /** the clusters of the points this step puts into the freed slots; */
+  readonly newLabels: Int32Array;
+  /** the clusters' ln X after this step's removal, and their whitenings as the next step will use them. */
+  readonly clusterLnX: Float64Array;
+  readonly whitenings: readonly Float64Array[];
   readonly settings: SliceSettings;
 }
 
@@ -44,12 +37,18 @@ export function nextStepChains(
   const { dim, physicalDim } = settings;
   const k = slots.length;
   const lnL = Float64Array.from(step.liveLnL);
-  for (let j = 0; j < k; j++) lnL[slots[j]] = j === pending ? Infinity : results[j]!.lnL;
+  const labels = Int32Array.from(step.liveCluster);
+  for (let j = 0; j < k; j++) {
+    lnL[slots[j]] = j === pending ? Infinity : results[j]!.lnL;
+    labels[slots[j]] = step.newLabels[j];
+  }
   const removed = lowestSlots(lnL, k);
   const threshold = lnL[removed[k - 1]];
   for (let j = 0; j < k; j++) lnL[removed[j]] = -Infinity;
+  const clusterLnX = Float64Array.from(step.clusterLnX);
+  shrinkClusterVolumes(labels, lnL, removed, clusterLnX);
   const stream = SeededStream.fromState(step.stream.stateWords());
-  const starts = chainStartSlots(lnL, k, stream);
+  const starts = chooseChainStarts(lnL, labels, clusterLnX, k, stream);
   const seeds = sliceChainSeeds(stream, k);
   const chains: { chain: number; request: SliceChainRequest }[] = [];
   for (let chain = 0; chain < k; chain++) {
@@ -65,7 +64,7 @@ export function nextStepChains(
         startPhysical: result?.physical.slice() ?? step.livePhysical.slice(slot * physicalDim, slot * physicalDim + physicalDim),
         startLnL: lnL[slot],
         threshold,
-        whitening: step.whitening,
+        whitening: step.whitenings[labels[slot]],
         settings,
       },
     });

@@ -10,13 +10,19 @@ export type {
   NestedMethod,
   NestedStopReason,
   NestedCheckpointOptions,
+  EvidenceMethod,
 } from './nestedProblem.js';
+export type { ImportanceOptions, ImportanceSettings } from '../importance/importanceSettings.js';
+export { defaultImportanceSettings } from '../importance/importanceSettings.js';
+export type { ImportanceResult } from '../importance/importanceResult.js';
 
 export { insertionRankTest, insertionRankThreshold } from './insertionRank.js';
+export { mergeEvidenceRuns } from './mergeEvidenceRuns.js';
+export type { MergedEvidence } from './mergeEvidenceRuns.js';
 export type { InsertionRankCheck } from './insertionRank.js';
 export { simulatedLnZSpread } from './evidenceError.js';
 export type { ShrinkageRecord } from './evidenceError.js';
-export { batchLnVolumes, lnVolumeSlice, lnInitialVolume } from './shrinkage.js';
+export { removeFromCluster, lnVolumeSlice, lnInitialVolume } from './shrinkage.js';
 export { boundingEllipsoid, lnUnitBallVolume, sampleInEllipsoid, mahalanobisSquared } from './ellipsoid.js';
 export type { Ellipsoid } from './ellipsoid.js';
 export { buildEllipsoidUnion, sampleFromUnion } from './multiEllipsoid.js';

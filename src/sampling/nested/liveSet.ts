@@ -1,7 +1,7 @@
 import { InputError } from '../../errors.js';
-import { logAddExp } from '../../numeric/statistics/logSumExp.js';
+import { logAddExp, logSumExp } from '../../numeric/statistics/logSumExp.js';
 import type { NestedState } from './nestedState.js';
-import { batchLnVolumes, lnInitialVolume, lnVolumeSlice } from './shrinkage.js';
+import { lnInitialVolume, removeFromCluster } from './shrinkage.js';
 import { BatchEvaluator } from './batchEvaluator.js';
 import { lowestSlots } from './lowestSlots.js';
 
@@ -35,6 +35,7 @@ export async function drawInitialLivePoints(state: NestedState, evaluator: Batch
   state.initialDrawn = drawn;
   state.lnXInitial = lnInitialVolume(kept, drawn);
   state.lnX = state.lnXInitial;
+  state.clusterLnX = Float64Array.of(state.lnXInitial);
   absorbCounts(state, evaluator);
 }
 
@@ -54,48 +55,66 @@ export function maxLiveLnL(state: NestedState): number {
 }
 
 /**
- * Removes the k lowest live points into the dead list (ln X by batchLnVolumes, rectangle-rule
- * weights into the running ln Z) and returns their slots (ascending ln L) and the new threshold.
+ * Removes the k lowest live points into the dead list and returns their slots (ascending ln L)
+ * and the new threshold. Each removed point shrinks its cluster's volume X_c by e^{-1/n_c}, n_c
+ * the cluster's live points (Skilling 2006, Section 3; volumes per cluster as in Handley, Hobson &
+ * Lasenby 2015, Section 3.3, so that any allocation of new points among clusters keeps the sum
+ * right) and carries the slice X_c (1 - e^{-1/n_c}) into ln Z by the rectangle rule; a cluster's
+ * last point carries all its remaining volume (removeFromCluster). The whole volume is the sum
+ * over clusters.
  */
 export function removeLowest(state: NestedState): { slots: Int32Array; threshold: number } {
-  const { dim, physicalDim, livePoints, replacementsPerStep: k } = state.settings;
+  const { dim, physicalDim, replacementsPerStep: k } = state.settings;
   const lnL = state.liveLnL;
+  const labels = state.liveCluster;
+  const clusterLnX = state.clusterLnX;
   const slots = lowestSlots(lnL, k);
-  const lnXAfter = new Float64Array(k);
-  batchLnVolumes(state.lnX, livePoints, k, lnXAfter);
-  let lnXBefore = state.lnX;
+  const live = new Int32Array(clusterLnX.length);
+  for (let i = 0; i < lnL.length; i++) live[labels[i]]++;
   for (let j = 0; j < k; j++) {
     const slot = slots[j];
-    const liveCount = livePoints - j;
-    state.lnZDead = logAddExp(state.lnZDead, lnL[slot] + lnVolumeSlice(lnXBefore, liveCount));
+    const cluster = labels[slot];
+    const count = live[cluster];
+    const lnSlice = removeFromCluster(clusterLnX, live, cluster);
+    state.lnX = logSumExp(clusterLnX);
+    state.lnZDead = logAddExp(state.lnZDead, lnL[slot] + lnSlice);
     state.deadUnit.push(state.liveUnit, slot * dim);
     state.deadPhysical.push(state.livePhysical, slot * physicalDim);
     state.deadLnL.pushValue(lnL[slot]);
-    state.deadLnX.pushValue(lnXAfter[j]);
-    state.deadLiveCount.pushValue(liveCount);
-    lnXBefore = lnXAfter[j];
+    state.deadLnX.pushValue(state.lnX);
+    state.deadLnSlice.pushValue(lnSlice);
+    state.deadLiveCount.pushValue(count);
   }
-  state.lnX = lnXAfter[k - 1];
   const threshold = lnL[slots[k - 1]];
   for (let j = 0; j < k; j++) lnL[slots[j]] = -Infinity;
   return { slots, threshold };
 }
 
-/** Puts new points into the freed slots in order, recording each one's insertion rank. */
-export function insertNewPoints(state: NestedState, slots: Int32Array, unit: Float64Array, physical: Float64Array, lnL: Float64Array): void {
+/**
+ * Puts new points into the freed slots in order, recording each one's insertion rank; `labels`,
+ * when given, are the new points' clusters.
+ */
+export function insertNewPoints(
+  state: NestedState, slots: Int32Array, unit: Float64Array, physical: Float64Array, lnL: Float64Array, labels?: Int32Array,
+): void {
   const { dim, physicalDim, livePoints } = state.settings;
   const live = state.liveLnL;
-  let others = livePoints - slots.length;
   for (let j = 0; j < slots.length; j++) {
+    // Ranked among the live points of its own cluster (all of them without clusters).
     let rank = 0;
-    for (let i = 0; i < livePoints; i++) if (live[i] !== -Infinity && live[i] < lnL[j]) rank++;
+    let others = 0;
+    for (let i = 0; i < livePoints; i++) {
+      if (live[i] === -Infinity || (labels !== undefined && state.liveCluster[i] !== labels[j])) continue;
+      others++;
+      if (live[i] < lnL[j]) rank++;
+    }
     state.rankValue.pushValue(rank);
     state.rankOthers.pushValue(others);
     const slot = slots[j];
     state.liveUnit.set(unit.subarray(j * dim, j * dim + dim), slot * dim);
     state.livePhysical.set(physical.subarray(j * physicalDim, j * physicalDim + physicalDim), slot * physicalDim);
     live[slot] = lnL[j];
-    others++;
+    if (labels !== undefined) state.liveCluster[slot] = labels[j];
   }
   state.steps++;
 }

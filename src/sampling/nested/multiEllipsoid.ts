@@ -1,6 +1,6 @@
 import { boundingEllipsoid, mahalanobisSquared, sampleInEllipsoid, scaleEllipsoidVolume } from './ellipsoid.js';
 import type { Ellipsoid } from './ellipsoid.js';
-import { kMeansTwo } from './kMeansTwo.js';
+import { kMeansTwo } from '../../numeric/clustering/kMeansTwo.js';
 import { logSumExp } from '../../numeric/statistics/logSumExp.js';
 import type { SeededStream } from '../../numeric/random/seededStream.js';
 

@@ -1,4 +1,6 @@
 import type { InsertionRankCheck } from './insertionRank.js';
+import type { ImportanceOptions } from '../importance/importanceSettings.js';
+import type { ImportanceResult } from '../importance/importanceResult.js';
 import type { SliceChainRequest, SliceChainResult } from './sliceChain.js';
 
 /**
@@ -39,6 +41,13 @@ export interface NestedProblem {
 
 /** How constrained draws are made. 'auto': ellipsoids for dim <= autoEllipsoidMaxDim, slice above. */
 export type NestedMethod = 'auto' | 'ellipsoids' | 'slice';
+
+/**
+ * Where ln Z comes from: 'nested', the nested-sampling sum itself; 'importance', importance
+ * sampling from a proposal learned from the nested run (runImportance), the nested run then only
+ * finding and bounding the posterior.
+ */
+export type EvidenceMethod = 'nested' | 'importance';
 
 /** Why the run stopped. */
 export type NestedStopReason = 'converged' | 'maxIterations' | 'maxEvaluations' | 'interrupted';
@@ -90,9 +99,15 @@ export interface NestedOptions {
    * slice sampling: `steps` slice moves per new point, default 5 * dim; `pointsPerChain` points
    * each chain evaluates per likelihood call (speculative stepping out and shrinkage, exact for
    * any value), default 1. Like replacementsPerStep it is part of the random sequence: set it
-   * to a fixed number, never to the thread count.
+   * to a fixed number, never to the thread count. `clusters`: chains move within clusters of the
+   * live points, each with its own volume and whitening (liveClusters.ts); default on with
+   * evidence 'importance', off with 'nested' (off, a run is bit for bit as before clusters).
    */
-  readonly slice?: { readonly steps?: number; readonly pointsPerChain?: number };
+  readonly slice?: { readonly steps?: number; readonly pointsPerChain?: number; readonly clusters?: boolean };
+  /** how ln Z is estimated; default runDefaults.nested.evidence. */
+  readonly evidence?: EvidenceMethod;
+  /** settings of the importance-sampling stage (evidence 'importance'); defaults in importanceSettings.ts. */
+  readonly importance?: ImportanceOptions;
   readonly checkpoint?: NestedCheckpointOptions;
   /** continue from checkpoint.path when the file exists. */
   readonly resume?: boolean;
@@ -108,19 +123,28 @@ export interface NestedOptions {
 }
 
 export interface NestedResult {
-  /** ln of the evidence, dead points plus the final live points. */
+  /** ln of the evidence by `evidenceMethod`: the importance estimate, or the nested one (nestedLnZ). */
   readonly lnZ: number;
+  /** its error: the importance estimate's, or the nested one's (nestedLnZError). */
+  readonly lnZError: number;
+  /** 'importance' when the importance stage ran to its end, else 'nested'. */
+  readonly evidenceMethod: EvidenceMethod;
+  /** ln of the evidence from nested sampling: dead points plus the final live points. */
+  readonly nestedLnZ: number;
   /**
    * Skilling's sqrt(H / N); when initial draws hit impossible points, the relative error
    * sqrt((1 - f) / N) of the finite prior fraction f is added in quadrature.
    */
-  readonly lnZError: number;
+  readonly nestedLnZError: number;
+  /** the importance stage's estimate, diagnostics and draws (null unless evidenceMethod is 'importance'). */
+  readonly importance: ImportanceResult | null;
   /** standard deviation of ln Z over 200 simulated shrinkage sequences (Higson et al. 2018). */
   readonly lnZErrorSimulated: number;
   /** information H (nats), the posterior's KL divergence from the prior. */
   readonly information: number;
   /** dead points (final live points not included). */
   readonly iterations: number;
+  /** likelihood evaluations of the whole run (nested and importance stages). */
   readonly evaluations: number;
   readonly efficiency: number;
   /**
@@ -146,6 +170,10 @@ export interface NestedResult {
   readonly lnX: Float64Array;
   /** normalised posterior log weights (sum of exp = 1). */
   readonly lnWeight: Float64Array;
+  /** live points present when each point was removed (the final live points: N, N - 1, ..., 1); for merging runs. */
+  readonly liveCount: Float64Array;
+  /** each new live point's insertion rank and how many it was ranked among (see insertionRankTest); for merging runs. */
+  readonly insertionRanks: { readonly rank: Float64Array; readonly others: Float64Array };
   readonly insertionRank: InsertionRankCheck;
   readonly method: 'ellipsoids' | 'slice';
   readonly stopReason: NestedStopReason;

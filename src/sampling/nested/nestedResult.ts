@@ -6,9 +6,9 @@ import { logSumExp } from '../../numeric/statistics/logSumExp.js';
 import type { NestedResult, NestedStopReason } from './nestedProblem.js';
 import type { NestedState } from './nestedState.js';
 import { derivedSeed } from '../../numeric/random/derivedSeed.js';
-import { lnVolumeSlice } from './shrinkage.js';
 import { EarlyChains } from './earlyChains.js';
 import { iterationsOf } from './liveSet.js';
+import { importanceResultOf } from '../importance/importanceResult.js';
 
 /** Simulated shrinkage sequences behind lnZErrorSimulated. */
 export const shrinkageSimulations = 200;
@@ -26,15 +26,18 @@ export function nestedResultOf(state: NestedState, stopReason: NestedStopReason,
   const lnL = new Float64Array(count);
   const lnX = new Float64Array(count);
   const lnWeight = new Float64Array(count);
+  const liveCount = new Float64Array(count);
   unitPoints.set(state.deadUnit.view());
   points.set(state.deadPhysical.view());
-  let lnXBefore = state.lnXInitial;
   for (let i = 0; i < deadCount; i++) {
     lnL[i] = state.deadLnL.get(i);
     lnX[i] = state.deadLnX.get(i);
-    lnWeight[i] = lnL[i] + lnVolumeSlice(lnXBefore, state.deadLiveCount.get(i));
-    lnXBefore = lnX[i];
+    lnWeight[i] = lnL[i] + state.deadLnSlice.get(i);
+    liveCount[i] = state.deadLiveCount.get(i);
   }
+  // The final live points share their cluster's remaining volume equally.
+  const inCluster = new Int32Array(state.clusterLnX.length);
+  for (let i = 0; i < livePoints; i++) inCluster[state.liveCluster[i]]++;
   for (let j = 0; j < livePoints; j++) {
     const slot = order[j];
     const row = deadCount + j;
@@ -42,7 +45,9 @@ export function nestedResultOf(state: NestedState, stopReason: NestedStopReason,
     points.set(state.livePhysical.subarray(slot * physicalDim, slot * physicalDim + physicalDim), row * physicalDim);
     lnL[row] = state.liveLnL[slot];
     lnX[row] = state.lnX + Math.log((livePoints - j) / livePoints);
-    lnWeight[row] = lnL[row] + state.lnX - Math.log(livePoints);
+    const cluster = state.liveCluster[slot];
+    lnWeight[row] = lnL[row] + state.clusterLnX[cluster] - Math.log(inCluster[cluster]);
+    liveCount[row] = livePoints - j;
   }
   const lnZ = logSumExp(lnWeight);
   let information = 0;
@@ -66,11 +71,17 @@ export function nestedResultOf(state: NestedState, stopReason: NestedStopReason,
     derivedSeed(seed, 1),
   );
   const insertionRank = insertionRankTest(state.rankValue.view(), state.rankOthers.view(), state.rankValue.count, derivedSeed(seed, 2));
+  // Skilling 2006 sqrt(H/N), plus in quadrature the relative error sqrt((1 - f)/N) of the
+  // negative-binomial estimate of the finite fraction f when initial draws were impossible.
+  const nestedLnZError = Math.sqrt((Math.max(0, information) + (1 - Math.exp(state.lnXInitial))) / livePoints);
+  const importance = state.importance?.complete === true ? importanceResultOf(state.importance, { lnZ, lnZError: nestedLnZError }) : null;
   return {
-    lnZ,
-    // Skilling 2006 sqrt(H/N), plus in quadrature the relative error sqrt((1 - f)/N) of the
-    // negative-binomial estimate of the finite fraction f when initial draws were impossible.
-    lnZError: Math.sqrt((Math.max(0, information) + (1 - Math.exp(state.lnXInitial))) / livePoints),
+    lnZ: importance?.lnZ ?? lnZ,
+    lnZError: importance?.lnZError ?? nestedLnZError,
+    evidenceMethod: importance === null ? 'nested' : 'importance',
+    nestedLnZ: lnZ,
+    nestedLnZError,
+    importance,
     lnZErrorSimulated,
     information,
     iterations: deadCount,
@@ -85,6 +96,8 @@ export function nestedResultOf(state: NestedState, stopReason: NestedStopReason,
     lnL,
     lnX,
     lnWeight,
+    liveCount,
+    insertionRanks: { rank: state.rankValue.view().slice(), others: state.rankOthers.view().slice() },
     insertionRank,
     method,
     stopReason,

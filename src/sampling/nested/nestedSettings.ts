@@ -2,6 +2,7 @@ import { InputError, expectedFound } from '../../errors.js';
 import type { NestedMethod, NestedOptions, NestedProblem } from './nestedProblem.js';
 import type { NestedSettings } from './nestedState.js';
 import { runDefaults } from '../../settings/runDefaults.js';
+import { resolveImportanceSettings } from '../importance/importanceSettings.js';
 
 /**
  * 'auto' uses ellipsoids up to this many dimensions and slice sampling above. From
@@ -56,6 +57,10 @@ export function resolveNestedSettings(problem: NestedProblem, options: NestedOpt
   if (periodic.length !== dim) {
     throw new InputError(`nested sampling problem.periodic: ${expectedFound(`a list of ${dim} booleans`, problem.periodic)}`);
   }
+  const evidence = options.evidence ?? runDefaults.nested.evidence;
+  if (evidence !== 'nested' && evidence !== 'importance') {
+    throw new InputError(`nested sampling evidence: ${expectedFound('"nested" or "importance"', evidence)}`);
+  }
   const boundVolumeFactorForTesting = options.boundVolumeFactorForTesting ?? 1;
   if (!(boundVolumeFactorForTesting > 0)) {
     throw new InputError(`nested sampling boundVolumeFactorForTesting: ${expectedFound('a positive number', boundVolumeFactorForTesting)}`);
@@ -73,8 +78,11 @@ export function resolveNestedSettings(problem: NestedProblem, options: NestedOpt
     boundUpdateInterval: Math.max(1, Math.round(livePoints / 10)),
     sliceSteps,
     slicePointsPerChain,
+    sliceClusters: options.slice?.clusters ?? evidence === 'importance',
     sliceWidthScale: Math.sqrt(dim + 2),
     periodic,
     boundVolumeFactorForTesting,
+    evidence,
+    importance: evidence === 'importance' ? resolveImportanceSettings(options.importance) : null,
   };
 }

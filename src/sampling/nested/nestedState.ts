@@ -1,7 +1,10 @@
 import { GrowableRows } from './growableRows.js';
+import { lnVolumeSlice } from './shrinkage.js';
 import { recordEllipsoidUnion, restoreEllipsoidUnion } from './multiEllipsoid.js';
 import type { EllipsoidUnion, EllipsoidUnionRecord } from './multiEllipsoid.js';
 import { SeededStream } from '../../numeric/random/seededStream.js';
+import type { ImportanceSettings } from '../importance/importanceSettings.js';
+import { recordImportanceState, restoreImportanceState, type ImportanceState, type ImportanceStateRecord } from '../importance/importanceState.js';
 
 /** Settings that fix a run's random sequence; a checkpoint resumes only with the same ones. */
 export interface NestedSettings {
@@ -18,9 +21,14 @@ export interface NestedSettings {
   readonly sliceSteps: number;
   /** points each slice chain puts into one likelihood call (see SliceSettings.pointsPerChain). */
   readonly slicePointsPerChain: number;
+  /** slice chains move within clusters of the live points (see NestedOptions.slice). */
+  readonly sliceClusters: boolean;
   readonly sliceWidthScale: number;
   readonly periodic: readonly boolean[];
   readonly boundVolumeFactorForTesting: number;
+  readonly evidence: 'nested' | 'importance';
+  /** the importance stage's settings (null with evidence 'nested'). */
+  readonly importance: ImportanceSettings | null;
 }
 
 /** Everything a run carries from one step to the next, so that a resumed run continues bit for bit. */
@@ -33,6 +41,9 @@ export interface NestedState {
   readonly deadPhysical: GrowableRows;
   readonly deadLnL: GrowableRows;
   readonly deadLnX: GrowableRows;
+  /** ln of the prior-volume slice each dead point carries into ln Z (see removeLowest). */
+  readonly deadLnSlice: GrowableRows;
+  /** live points of the dead point's cluster when it was removed. */
   readonly deadLiveCount: GrowableRows;
   /** insertion rank of each new live point, and how many live points it was ranked among. */
   readonly rankValue: GrowableRows;
@@ -58,13 +69,21 @@ export interface NestedState {
   /** current bound (null: draw from the whole cube). */
   bound: EllipsoidUnion | null;
   boundBuiltAt: number;
-  /** slice sampling: Cholesky factor of the live covariance and when it was computed. */
-  whitening: Float64Array | null;
+  /**
+   * slice sampling: the live points' clusters (label per slot, -1 for a freed slot; see
+   * liveClusters.ts), each cluster's ln X, the Cholesky factor of each cluster's covariance, and
+   * when they were built.
+   */
+  readonly liveCluster: Int32Array;
+  clusterLnX: Float64Array;
+  whitenings: Float64Array[] | null;
   whiteningBuiltAt: number;
   /** slice sampling: evaluations of all chains, and of each step's longest chain, summed over steps. */
   chainEvaluations: number;
   longestChainEvaluations: number;
   elapsedSeconds: number;
+  /** the importance stage, once begun. */
+  importance: ImportanceState | null;
 }
 
 export function emptyState(settings: NestedSettings): NestedState {
@@ -78,6 +97,7 @@ export function emptyState(settings: NestedSettings): NestedState {
     deadPhysical: new GrowableRows(physicalDim),
     deadLnL: new GrowableRows(1),
     deadLnX: new GrowableRows(1),
+    deadLnSlice: new GrowableRows(1),
     deadLiveCount: new GrowableRows(1),
     rankValue: new GrowableRows(1),
     rankOthers: new GrowableRows(1),
@@ -99,11 +119,14 @@ export function emptyState(settings: NestedSettings): NestedState {
     recentEvaluated: 1,
     bound: null,
     boundBuiltAt: -Infinity,
-    whitening: null,
+    liveCluster: new Int32Array(livePoints),
+    clusterLnX: Float64Array.of(0),
+    whitenings: null,
     whiteningBuiltAt: -Infinity,
     chainEvaluations: 0,
     longestChainEvaluations: 0,
     elapsedSeconds: 0,
+    importance: null,
   };
 }
 
@@ -114,7 +137,11 @@ export interface NestedStateRecord {
   readonly scalars: Record<string, number>;
   readonly streamState: number[];
   readonly bound: EllipsoidUnionRecord | null;
-  readonly whitening: number[] | null;
+  /** one Cholesky factor per cluster (version 1 files hold one, `whitening`). */
+  readonly whitenings?: number[][] | null;
+  readonly whitening?: number[] | null;
+  /** the importance stage, once begun (absent in version 1 files). */
+  readonly importance?: ImportanceStateRecord | null;
 }
 
 const rowTables = [
@@ -122,6 +149,7 @@ const rowTables = [
   'deadPhysical',
   'deadLnL',
   'deadLnX',
+  'deadLnSlice',
   'deadLiveCount',
   'rankValue',
   'rankOthers',
@@ -153,6 +181,8 @@ const scalarNames = [
 export function recordState(state: NestedState): NestedStateRecord {
   const arrays: Record<string, number[]> = {};
   for (const name of liveArrays) arrays[name] = Array.from(state[name]);
+  arrays.liveCluster = Array.from(state.liveCluster);
+  arrays.clusterLnX = Array.from(state.clusterLnX);
   for (const name of rowTables) arrays[name] = Array.from(state[name].view());
   const scalars: Record<string, number> = {};
   for (const name of scalarNames) scalars[name] = state[name];
@@ -162,7 +192,8 @@ export function recordState(state: NestedState): NestedStateRecord {
     scalars,
     streamState: state.stream.stateWords(),
     bound: state.bound === null ? null : recordEllipsoidUnion(state.bound),
-    whitening: state.whitening === null ? null : Array.from(state.whitening),
+    whitenings: state.whitenings === null ? null : state.whitenings.map((w) => Array.from(w)),
+    importance: state.importance === null ? null : recordImportanceState(state.importance),
   };
 }
 
@@ -171,13 +202,26 @@ export function restoreState(record: NestedStateRecord): NestedState {
   for (const name of liveArrays) state[name].set(record.arrays[name]);
   for (const name of rowTables) {
     const table = state[name];
-    const values = record.arrays[name];
+    const values = record.arrays[name] ?? [];
     for (let offset = 0; offset + table.width <= values.length; offset += table.width) table.push(values, offset);
   }
   // Counters added after the first checkpoints were written start from 0 when missing.
   for (const name of scalarNames) state[name] = record.scalars[name] ?? 0;
   state.stream = SeededStream.fromState(record.streamState);
   state.bound = record.bound === null ? null : restoreEllipsoidUnion(record.bound);
-  state.whitening = record.whitening === null ? null : Float64Array.from(record.whitening);
+  // Version 1 files predate clusters: one cluster holding every live point.
+  if (record.whitenings !== undefined) state.whitenings = record.whitenings === null ? null : record.whitenings.map((w) => Float64Array.from(w));
+  else state.whitenings = record.whitening === undefined || record.whitening === null ? null : [Float64Array.from(record.whitening)];
+  if (record.arrays.liveCluster !== undefined) state.liveCluster.set(record.arrays.liveCluster);
+  state.clusterLnX = Float64Array.from(record.arrays.clusterLnX ?? [state.lnX - state.lnXInitial]);
+  if (record.arrays.deadLnSlice === undefined) {
+    // Version 1: one cluster, slices from the ln X sequence.
+    let lnXBefore = state.lnXInitial;
+    for (let i = 0; i < state.deadLnX.count; i++) {
+      state.deadLnSlice.pushValue(lnVolumeSlice(lnXBefore, state.deadLiveCount.get(i)));
+      lnXBefore = state.deadLnX.get(i);
+    }
+  }
+  state.importance = record.importance === undefined || record.importance === null ? null : restoreImportanceState(record.importance);
   return state;
 }

@@ -6,7 +6,8 @@ import { emptyState, recordState, restoreState, type NestedState } from './neste
 import { EarlyChains } from './earlyChains.js';
 import { BatchEvaluator } from './batchEvaluator.js';
 import { resolveNestedSettings } from './nestedSettings.js';
-import { iterationsOf, drawInitialLivePoints, maxLiveLnL } from './liveSet.js';
+import { iterationsOf, drawInitialLivePoints, maxLiveLnL, absorbCounts } from './liveSet.js';
+import { runImportance } from '../importance/runImportance.js';
 import { ellipsoidStep } from './ellipsoidStep.js';
 import { sliceStep } from './sliceStep.js';
 import { nestedResultOf } from './nestedResult.js';
@@ -23,7 +24,8 @@ import { eventLoopTurn } from '../eventLoopTurn.js';
  * per round; slice chains each send their own points and overlap, or run whole in worker threads,
  * where a thread freed during a step starts the next step's chains early (earlyChains.ts). No
  * random draw depends on timing, so (seed, k, and for slice sampling the points per chain s)
- * fixes the result.
+ * fixes the result. With evidence 'importance' a converged run goes on to the importance stage
+ * (runImportance), whose ln Z and error the result then carries; the checkpoint holds both stages.
  */
 export async function runNested(problem: NestedProblem, options: NestedOptions = {}): Promise<NestedResult> {
   const settings = resolveNestedSettings(problem, options);
@@ -84,6 +86,33 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
     ) {
       saveCheckpoint();
     }
+  }
+  if (settings.importance !== null && stopReason === 'converged') {
+    saveCheckpoint();
+    const nested = nestedResultOf(state, stopReason, early);
+    const outcome = await runImportance({
+      dim: settings.dim,
+      physicalDim: settings.physicalDim,
+      periodic: settings.periodic,
+      seed: settings.seed,
+      settings: settings.importance,
+      evaluator,
+      nested,
+      evaluationsLeft: () => (options.maxEvaluations ?? Infinity) - state.evaluations,
+      stopRequested: () => options.signal?.stopRequested === true,
+      afterBatch: (importance) => {
+        state.importance = importance;
+        absorbCounts(state, evaluator);
+        const checkpoint = options.checkpoint;
+        if (checkpoint !== undefined && (checkpoint.everyIterations !== undefined ||
+          (checkpoint.everySeconds !== undefined && Date.now() - lastCheckpointTime >= checkpoint.everySeconds * 1000))) {
+          saveCheckpoint();
+        }
+      },
+    }, state.importance);
+    state.importance = outcome.state;
+    absorbCounts(state, evaluator);
+    stopReason = outcome.stopReason;
   }
   saveCheckpoint();
   report();

@@ -1,17 +1,20 @@
 import { logOneMinusExpNegative } from '../../numeric/statistics/logSumExp.js';
 
 /**
- * Expected ln X of the k lowest of n live points removed together (Skilling 2006, Section 3; the
- * order statistics of n uniform variates, t_j ~ Beta(n - j, 1), as used for a varying number of
- * live points by Higson et al. 2019, "Dynamic nested sampling", Section 2): the j-th removed
- * (j = 0..k-1) has ln X_j = ln X_prev - sum_{l=0}^{j} 1/(n - l). Writes k values into `out`.
+ * Removes the lowest live point of `cluster`, which holds live[cluster] = n points, and returns
+ * the ln of the prior-volume slice it carries into Z (Skilling 2006, Section 2, rectangle rule:
+ * X (1 - e^{-1/n}); see lnVolumeSlice); the cluster's ln X then drops by 1/n, the expected ln of
+ * the largest of n uniforms (Section 3; the order statistics t ~ Beta(n, 1) also give the j-th of k
+ * points removed together, ln X_j = ln X_prev - sum_{l=0}^{j} 1/(n - l), as used for a varying
+ * number of live points by Higson et al. 2019, "Dynamic nested sampling", Section 2). A cluster's
+ * last point carries all its remaining volume, which becomes -Infinity. Updates clusterLnX and live.
  */
-export function batchLnVolumes(lnXPrevious: number, liveCount: number, removed: number, out: Float64Array): void {
-  let lnX = lnXPrevious;
-  for (let j = 0; j < removed; j++) {
-    lnX -= 1 / (liveCount - j);
-    out[j] = lnX;
-  }
+export function removeFromCluster(clusterLnX: Float64Array, live: Int32Array, cluster: number): number {
+  const count = live[cluster];
+  const lnSlice = count === 1 ? clusterLnX[cluster] : lnVolumeSlice(clusterLnX[cluster], count);
+  clusterLnX[cluster] = count === 1 ? -Infinity : clusterLnX[cluster] - 1 / count;
+  live[cluster] = count - 1;
+  return lnSlice;
 }
 
 /**

@@ -14,8 +14,8 @@ export interface SliceChainsJob {
   /** Where the chains start (k rows). */
   readonly start: ChainPoints;
   readonly threshold: number;
-  /** Lower Cholesky factor of the live points' covariance (dim x dim). */
-  readonly whitening: Float64Array;
+  /** Lower Cholesky factor of the live points' covariance (dim x dim), one for all chains or one per chain. */
+  readonly whitening: Float64Array | readonly Float64Array[];
   readonly settings: SliceSettings;
   /** The run's stream (each chain's seed is drawn from it in chain order), or the chains' seeds. */
   readonly seeds: SeededStream | readonly number[];
@@ -155,7 +155,7 @@ class SliceChainsRun {
   private startMove(chain: number): void {
     const { dim, gaussian, direction } = this;
     const { widthScale, maxExpansions } = this.job.settings;
-    const whitening = this.job.whitening;
+    const whitening = this.job.whitening instanceof Float64Array ? this.job.whitening : this.job.whitening[chain];
     const stream = this.streams[chain];
     let norm = 0;
     for (let i = 0; i < dim; i++) {

@@ -1,25 +1,31 @@
-import { choleskyWithRidge } from '../../numeric/linearAlgebra/choleskyWithRidge.js';
 import type { NestedProblem } from './nestedProblem.js';
 import type { NestedState } from './nestedState.js';
 import { sliceChainSeeds, type SliceChainRequest, type SliceSettings } from './sliceChain.js';
 import { sliceChains } from './sliceChains.js';
-import { chainStartSlots, EarlyChains, nextStepChains } from './earlyChains.js';
+import { EarlyChains, nextStepChains } from './earlyChains.js';
+import { chooseChainStarts, rebuildClusters } from './liveClusters.js';
 import { BatchEvaluator } from './batchEvaluator.js';
-import { iterationsOf, absorbCounts, removeLowest, insertNewPoints, survivorRows } from './liveSet.js';
+import { iterationsOf, absorbCounts, removeLowest, insertNewPoints } from './liveSet.js';
 
-/** One step with k slice-sampling chains (run side by side) started from random surviving live points. */
+/**
+ * One step with k slice-sampling chains (run side by side), each started from a surviving live
+ * point of a cluster chosen in proportion to its volume (chooseChainStarts) and moving in that
+ * cluster's whitened space.
+ */
 export async function sliceStep(state: NestedState, evaluator: BatchEvaluator, problem: NestedProblem, early: EarlyChains | null): Promise<void> {
   const { dim, physicalDim, replacementsPerStep: k } = state.settings;
   const { slots, threshold } = removeLowest(state);
   const iterations = iterationsOf(state);
-  // The chains use the whitening as it stood when the step began (built now only in the first
-  // step); a rebuild due now is made from this step's survivors for the next step on. So the
-  // next step's chains depend on nothing this step's chains produce except their end points,
-  // which lets EarlyChains start them before this step ends.
-  if (state.whitening === null) rebuildWhitening(state, iterations);
-  const whitening = state.whitening!;
-  if (iterations - state.whiteningBuiltAt >= state.settings.boundUpdateInterval) rebuildWhitening(state, iterations);
-  const starts = chainStartSlots(state.liveLnL, k, state.stream);
+  // The chains use the clusters and whitenings as they stood when the step began (built now only
+  // in the first step); a rebuild due now is made from this step's survivors for the next step
+  // on, and labels this step's new points by their start points. So the next step's chains
+  // depend on nothing this step's chains produce except their end points, which lets
+  // EarlyChains start them before this step ends.
+  if (state.whitenings === null) rebuildClusters(state, iterations);
+  const starts = chooseChainStarts(state.liveLnL, state.liveCluster, state.clusterLnX, k, state.stream);
+  const whitenings = Array.from(starts, (slot) => state.whitenings![state.liveCluster[slot]]);
+  if (iterations - state.whiteningBuiltAt >= state.settings.boundUpdateInterval) rebuildClusters(state, iterations);
+  const newLabels = Int32Array.from(starts, (slot) => state.liveCluster[slot]);
   const startUnit = new Float64Array(k * dim);
   const startPhysical = new Float64Array(k * physicalDim);
   const startLnL = new Float64Array(k);
@@ -44,14 +50,14 @@ export async function sliceStep(state: NestedState, evaluator: BatchEvaluator, p
       startPhysical: startPhysical.slice(chain * physicalDim, chain * physicalDim + physicalDim),
       startLnL: startLnL[chain],
       threshold,
-      whitening,
+      whitening: whitenings[chain],
       settings: sliceSettings,
     }));
     const results = early === null
       ? await Promise.all(requests.map((request) => problem.runSliceChain!(request)))
       : await early.runStep(state.steps, requests, (partial, pending) => nextStepChains({
         liveLnL: state.liveLnL, liveUnit: state.liveUnit, livePhysical: state.livePhysical, slots, stream: state.stream,
-        whitening: state.whitening!, settings: sliceSettings,
+        liveCluster: state.liveCluster, newLabels, clusterLnX: state.clusterLnX, whitenings: state.whitenings!, settings: sliceSettings,
       }, partial, pending));
     results.forEach((result, chain) => {
       newUnit.set(result.unit, chain * dim);
@@ -66,7 +72,7 @@ export async function sliceStep(state: NestedState, evaluator: BatchEvaluator, p
     await sliceChains({
       chains: k,
       start: { unit: startUnit, physical: startPhysical, lnL: startLnL },
-      threshold, whitening, settings: sliceSettings, seeds: state.stream, evaluate: evaluator.evaluate,
+      threshold, whitening: whitenings, settings: sliceSettings, seeds: state.stream, evaluate: evaluator.evaluate,
       out: { unit: newUnit, physical: newPhysical, lnL: newLnL },
       chainEvaluations,
     });
@@ -79,14 +85,7 @@ export async function sliceStep(state: NestedState, evaluator: BatchEvaluator, p
   state.longestChainEvaluations += longest;
   state.replacementsAccepted += k;
   state.replacementEvaluations += absorbCounts(state, evaluator) + remoteEvaluations;
-  insertNewPoints(state, slots, newUnit, newPhysical, newLnL);
-}
-
-/** The whitening (liveCovarianceFactor) of the surviving live points, built at `iterations`. */
-function rebuildWhitening(state: NestedState, iterations: number): void {
-  const survivors = survivorRows(state);
-  state.whitening = liveCovarianceFactor(survivors.rows, survivors.count, state.settings.dim);
-  state.whiteningBuiltAt = iterations;
+  insertNewPoints(state, slots, newUnit, newPhysical, newLnL, newLabels);
 }
 
 /** The slice settings of a run (the same every step). */
@@ -101,20 +100,4 @@ function sliceSettingsOf(state: NestedState): SliceSettings {
     maxExpansions: 100,
     pointsPerChain: state.settings.slicePointsPerChain,
   };
-}
-
-/** Lower Cholesky factor of the sample covariance of `count` rows (ridge-loaded if singular). */
-function liveCovarianceFactor(rows: Float64Array, count: number, dim: number): Float64Array {
-  const mean = new Float64Array(dim);
-  for (let n = 0; n < count; n++) for (let i = 0; i < dim; i++) mean[i] += rows[n * dim + i] / count;
-  const covariance = new Float64Array(dim * dim);
-  for (let n = 0; n < count; n++) {
-    for (let i = 0; i < dim; i++) {
-      const a = rows[n * dim + i] - mean[i];
-      for (let j = 0; j <= i; j++) covariance[i * dim + j] += (a * (rows[n * dim + j] - mean[j])) / count;
-    }
-  }
-  for (let i = 0; i < dim; i++) for (let j = 0; j < i; j++) covariance[j * dim + i] = covariance[i * dim + j];
-  choleskyWithRidge(covariance, dim, new Float64Array(dim * dim));
-  return covariance;
 }

@@ -34,8 +34,8 @@ describe('replacing k live points per step', () => {
         return gaussian.logLikelihood(points, count);
       },
     };
-    const single = await runNested(gaussian, { livePoints: 200, seed: 8, replacementsPerStep: 1 });
-    const many = await runNested(batched, { livePoints: 200, seed: 8, replacementsPerStep: 40 });
+    const single = await runNested(gaussian, { livePoints: 200, seed: 8, replacementsPerStep: 1, evidence: 'nested' });
+    const many = await runNested(batched, { livePoints: 200, seed: 8, replacementsPerStep: 40, evidence: 'nested' });
     for (const result of [single, many]) expect(Math.abs(result.lnZ)).toBeLessThan(3 * result.lnZError);
     expect(Math.abs(single.lnZ - many.lnZ)).toBeLessThan(3 * Math.hypot(single.lnZError, many.lnZError));
     // Every step's candidates went out in batches of at least k (ellipsoid batches are sized by

@@ -26,6 +26,9 @@ const settings: NestedSettings = {
   periodic: [false, true],
   boundVolumeFactorForTesting: 1,
   slicePointsPerChain: 1,
+  sliceClusters: false,
+  evidence: 'nested',
+  importance: null,
 };
 
 describe('checkpoint files', () => {

@@ -53,7 +53,7 @@ function correlatedGaussianProblem(): NestedProblem {
 describe('correlated Gaussian in a wide uniform box', () => {
   for (const method of ['ellipsoids', 'slice'] as const) {
     it(`${method}: ln Z = -3 ln 20 within 3 errors; posterior mean and covariance within Monte-Carlo error`, async () => {
-      const result = await runNested(correlatedGaussianProblem(), { livePoints: 300, seed: 3, method });
+      const result = await runNested(correlatedGaussianProblem(), { livePoints: 300, seed: 3, method, evidence: 'nested' });
       expect(result.method).toBe(method);
       expect(Math.abs(result.lnZ - trueLnZ)).toBeLessThan(3 * result.lnZError);
       const samples = result.equalWeight();

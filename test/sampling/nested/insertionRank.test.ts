@@ -65,14 +65,14 @@ const gaussian: NestedProblem = {
 // well into the contour.
 describe('insertion-rank check of a run (Fowlie, Handley & Su 2020)', () => {
   it('is not flagged for a correct sampler', async () => {
-    const result = await runNested(gaussian, { livePoints: 200, seed: 2, method: 'ellipsoids' });
+    const result = await runNested(gaussian, { livePoints: 200, seed: 2, method: 'ellipsoids', evidence: 'nested' });
     expect(result.insertionRank.ranks).toBe(result.iterations);
     expect(result.insertionRank.pValue).toBeGreaterThan(0.01);
     expect(result.insertionRank.biased).toBe(false);
   });
 
   it('is flagged for a sampler drawing from ellipsoids shrunk to a quarter of their volume', async () => {
-    const result = await runNested(gaussian, { livePoints: 200, seed: 2, method: 'ellipsoids', boundVolumeFactorForTesting: 0.25 });
+    const result = await runNested(gaussian, { livePoints: 200, seed: 2, method: 'ellipsoids', evidence: 'nested', boundVolumeFactorForTesting: 0.25 });
     expect(result.insertionRank.pValue).toBeLessThan(1e-6);
     expect(result.insertionRank.biased).toBe(true);
   });

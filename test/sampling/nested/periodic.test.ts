@@ -28,7 +28,7 @@ const wrapped: NestedProblem = {
 
 describe('periodic coordinates', () => {
   it('slice sampling wraps across the seam: ln Z = 0 and the circular moment of u0', async () => {
-    const result = await runNested(wrapped, { livePoints: 200, seed: 6, method: 'slice' });
+    const result = await runNested(wrapped, { livePoints: 200, seed: 6, method: 'slice', evidence: 'nested' });
     expect(Math.abs(result.lnZ)).toBeLessThan(3 * result.lnZError);
     for (let i = 0; i < result.count; i++) {
       expect(result.unitPoints[2 * i]).toBeGreaterThanOrEqual(0);

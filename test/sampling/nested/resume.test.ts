@@ -56,8 +56,8 @@ const gaussian: NestedProblem = {
 };
 
 const cases: Array<{ name: string; problem: NestedProblem; options: NestedOptions }> = [
-  { name: 'ellipsoids', problem: gaussianShellsProblem(2), options: { livePoints: 100, seed: 21, method: 'ellipsoids', replacementsPerStep: 3 } },
-  { name: 'slice', problem: gaussian, options: { livePoints: 50, seed: 22, method: 'slice', replacementsPerStep: 2 } },
+  { name: 'ellipsoids', problem: gaussianShellsProblem(2), options: { livePoints: 100, seed: 21, method: 'ellipsoids', replacementsPerStep: 3, evidence: 'nested' } },
+  { name: 'slice', problem: gaussian, options: { livePoints: 50, seed: 22, method: 'slice', replacementsPerStep: 2, evidence: 'nested' } },
 ];
 
 describe('checkpoint and resume', () => {
@@ -102,10 +102,10 @@ describe('checkpoint and resume', () => {
   it('refuses a checkpoint written with other settings, naming the file and key', async () => {
     const path = join(folder, 'ellipsoids.json');
     await expect(
-      runNested(gaussianShellsProblem(2), { livePoints: 100, seed: 99, method: 'ellipsoids', replacementsPerStep: 3, checkpoint: { path }, resume: true }),
+      runNested(gaussianShellsProblem(2), { livePoints: 100, seed: 99, method: 'ellipsoids', replacementsPerStep: 3, evidence: 'nested', checkpoint: { path }, resume: true }),
     ).rejects.toThrow(InputError);
     await expect(
-      runNested(gaussianShellsProblem(2), { livePoints: 100, seed: 99, method: 'ellipsoids', replacementsPerStep: 3, checkpoint: { path }, resume: true }),
+      runNested(gaussianShellsProblem(2), { livePoints: 100, seed: 99, method: 'ellipsoids', replacementsPerStep: 3, evidence: 'nested', checkpoint: { path }, resume: true }),
     ).rejects.toThrow(/key seed/);
   });
 });

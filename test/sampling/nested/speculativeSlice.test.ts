@@ -139,7 +139,7 @@ describe('speculative slice sampling (several points per chain and round)', () =
       },
     };
     const result = await runNested(problem, {
-      livePoints: 150, seed: 4, method: 'slice', replacementsPerStep: 2, slice: { steps: 8, pointsPerChain: 3 },
+      livePoints: 150, seed: 4, method: 'slice', replacementsPerStep: 2, slice: { steps: 8, pointsPerChain: 3 }, evidence: 'nested',
     });
     expect(Math.abs(result.lnZ + 4 * Math.log(20))).toBeLessThan(3 * result.lnZError);
     expect(result.insertionRank.pValue).toBeGreaterThan(0.001);
