@@ -135,7 +135,7 @@ function deepFreeze<T extends object>(value: T): T {
 export const runDefaults: RunSettings = deepFreeze({
   nested: {
     livePoints: 200, seed: 1, method: 'auto', replacementsPerStep: 2, sliceStepsPerParameter: 2, lnZTolerance: 0.1,
-    checkpointSeconds: 30, evidence: 'nested',
+    checkpointSeconds: 30, evidence: 'importance',
   },
   demo: { livePoints: 50, sliceStepsPerParameter: 1, noiseSeed: 1 },
   ensemble: { maxSweeps: 5000, minEffectiveSampleSize: 400, maxRHat: 1.01, checkEverySweeps: 100, proposal: 'stretch', startLivePoints: 50 },

@@ -88,7 +88,13 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
     }
   }
   if (settings.importance !== null && stopReason === 'converged') {
-    saveCheckpoint();
+    // The stage boundary is checkpointed only when one is due: --checkpoint-seconds is the user's.
+    const checkpointDue = () => {
+      const checkpoint = options.checkpoint;
+      return checkpoint !== undefined && (checkpoint.everyIterations !== undefined ||
+        (checkpoint.everySeconds !== undefined && Date.now() - lastCheckpointTime >= checkpoint.everySeconds * 1000));
+    };
+    if (checkpointDue()) saveCheckpoint();
     const nested = nestedResultOf(state, stopReason, early);
     const outcome = await runImportance({
       dim: settings.dim,
@@ -103,11 +109,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
       afterBatch: (importance) => {
         state.importance = importance;
         absorbCounts(state, evaluator);
-        const checkpoint = options.checkpoint;
-        if (checkpoint !== undefined && (checkpoint.everyIterations !== undefined ||
-          (checkpoint.everySeconds !== undefined && Date.now() - lastCheckpointTime >= checkpoint.everySeconds * 1000))) {
-          saveCheckpoint();
-        }
+        if (checkpointDue()) saveCheckpoint();
       },
     }, state.importance);
     state.importance = outcome.state;
