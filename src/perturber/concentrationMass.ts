@@ -2,8 +2,8 @@
  * Concentration-mass relation of Duffy et al. 2008 (MNRAS 390, L64; arXiv:0804.2486), Table 1,
  * NFW fits with M200 defined at 200 times the critical density, full sample (0 <= z <= 2):
  *   c200 = A (M200 / M_pivot)^B (1 + z)^C,   A = 5.71, B = -0.084, C = -0.47, M_pivot = 2e12 h^-1 M_sun.
- * Table 1 itself was not reachable here; the four numbers agree with independent transcriptions
- * of it, one in code co-written by the paper's first author (Correa et al. 2015's commah).
+ * The four numbers are quoted from memory of Table 1 (not checked against the table itself; they
+ * match the values widely used in the subhalo-lensing literature).
  * The fit was made to WMAP5 simulations of field haloes of 1e11 to 1e15 h^-1 M_sun; applying it to
  * subhaloes and to lower masses is an extrapolation (common practice in subhalo-lensing work).
  */

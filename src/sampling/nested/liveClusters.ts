@@ -30,8 +30,8 @@ export function shrinkClusterVolumes(labels: Int32Array, liveLnL: Float64Array, 
  * follows the prior, half evenly keeps a mode whose volume estimate has wandered low from dying
  * out: counted by live points alone, the clusters' numbers drift like a neutral population and
  * lose whole modes (measured: one of the two 20-dimensional Gaussian shells lost in most runs with
- * 50 live points). PolyChord allocates by cluster volume (Handley et al. 2015, Section 3.3, from
- * memory); the even half is this sampler's own.
+ * 50 live points). Allocating by cluster volume is the published choice (Handley et al. 2015,
+ * MNRAS 453, 4384, Section 3.3, from memory); the even half is this sampler's own.
  */
 export function chooseChainStarts(
   liveLnL: Float64Array, labels: Int32Array, clusterLnX: Float64Array, k: number, stream: SeededStream,
