@@ -6,7 +6,7 @@ import { cautionBox, unfinishedBox, colourMapRows, figureHtml, pageFrame, pageLi
 import { diagnosticsTable } from '../tables/diagnosticsTable.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
 import { cosmologyText } from '../text/cosmologyText.js';
-import { LN_EVIDENCE_DIGITS, evidenceTable } from '../tables/evidenceTable.js';
+import { LN_EVIDENCE_DIGITS, evidenceTable, usesImportanceEvidence } from '../tables/evidenceTable.js';
 import { formatNumber } from '../text/formatNumber.js';
 import { parameterTable } from '../tables/parameterTable.js';
 import { perturberMassName, perturberTable } from '../tables/perturberTable.js';
@@ -111,7 +111,7 @@ ${imageRow('Lens and source planes', ['perturbed-convergence', 'perturbed-source
 ${unfinishedBox(s)}
 ${cautionBox(s.caution)}
 <nav class="contents"><a href="#evidence">Evidence</a><a href="#priors">Priors</a><a href="#perturber">Perturber</a><a href="#images">Images</a><a href="#posterior">Posteriors</a><a href="#diagnostics">Sampler diagnostics</a><a href="#files">Files</a><a href="#about">About the figures</a></nav>
-${section('evidence', 'Evidence and Bayes factor', `<div><h3>Evidence of each model</h3>${evidenceTable(s)}<p class="note">ln Z is the natural log of the evidence (marginal likelihood). The first error follows from the information H (Skilling 2006); the second from simulated prior-volume shrinkage. Settings: ${MODEL_NAMES.map((m) => `${m} ${s.models[m].livePoints} live points`).join(', ')}${settings?.lnZTolerance === undefined ? '' : `, stop when the remaining evidence is below ${settings.lnZTolerance} in ln Z`}.</p></div>
+${section('evidence', 'Evidence and Bayes factor', `<div><h3>Evidence of each model</h3>${evidenceTable(s)}<p class="note">ln Z is the natural log of the evidence (marginal likelihood). ${usesImportanceEvidence(s) ? 'ln Z and its error come from importance sampling after each nested run (the spread of the importance weights); the nested-sampling sum is shown beside it with its error from simulated prior-volume shrinkage, for comparison only (see Sampler diagnostics).' : 'The first error follows from the information H (Skilling 2006); the second from simulated prior-volume shrinkage.'} Settings: ${MODEL_NAMES.map((m) => `${m} ${s.models[m].livePoints} live points`).join(', ')}${settings?.lnZTolerance === undefined ? '' : `, stop when the remaining evidence is below ${settings.lnZTolerance} in ln Z`}.</p></div>
 <div class="narrow"><h3>Bayes factor</h3>${bayesFactorTable(s)}</div>
 <h3 id="misfit">Misfit of each best fit</h3>
 ${misfitTable(MODEL_NAMES.map((m) => ({ tone: m, label: `${m} model`, misfit: s.models[m].misfit })))}
