@@ -181,8 +181,7 @@ export class SourceInversion {
     const area = setup.grid.pixelScaleArcsec * setup.grid.pixelScaleArcsec;
     this.mapping.build(this.cells, this.weights, setup.computed.length, rays.raysPerPixel, perRay, cellCount, area, this.m);
     this.lap(2);
-    this.blurred.build(this.m, cellCount, this.b);
-    this.bt.transposeOf(this.b, cellCount);
+    this.blurred.build(this.m, cellCount, this.b, this.bt);
     this.lap(3);
     const prior = this.regularisationPrior(p, cellCount);
     this.lap(4);

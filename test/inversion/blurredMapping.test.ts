@@ -34,7 +34,8 @@ describe('the blurred mapping matrix', () => {
   const m = new SparseRows();
   new MappingMatrix().build(cells, weights, all.length, 4, 4, mesh.cellCount, area, m);
   const b = new SparseRows();
-  new BlurredMapping(14, 12, kernel, used, all).build(m, mesh.cellCount, b);
+  const bt = new SparseRows();
+  new BlurredMapping(14, 12, kernel, used, all).build(m, mesh.cellCount, b, bt);
 
   it('holds, for every cell, the blurred image of that cell alone at the used pixels (to 1e-14)', () => {
     let worst = 0;
@@ -72,5 +73,18 @@ describe('the blurred mapping matrix', () => {
     for (let e = 0; e < b.rowCount; e++) {
       for (let k = b.rowStart[e] + 1; k < b.rowStart[e + 1]; k++) expect(b.column[k]).toBeGreaterThan(b.column[k - 1]);
     }
+  });
+
+  it('gives B^T with the same entries as B, cell by cell', () => {
+    const fromB = new Map<string, number>();
+    for (let e = 0; e < b.rowCount; e++) {
+      for (let k = b.rowStart[e]; k < b.rowStart[e + 1]; k++) fromB.set(`${e},${b.column[k]}`, b.value[k]);
+    }
+    const fromBt = new Map<string, number>();
+    for (let c = 0; c < bt.rowCount; c++) {
+      for (let k = bt.rowStart[c]; k < bt.rowStart[c + 1]; k++) fromBt.set(`${bt.column[k]},${c}`, bt.value[k]);
+    }
+    expect(bt.rowCount).toBe(mesh.cellCount);
+    expect(fromBt).toEqual(fromB);
   });
 });
