@@ -40,10 +40,14 @@ async function until(done: () => boolean, seconds = 60): Promise<void> {
   }
 }
 
-const nested = (out: string): string[] => [
-  'fit', '--config', config, '--data', data, '--out', out, '--perturbers', '0', '--live-points', '30', '--method', 'slice',
+const nested = (out: string, livePoints = 30): string[] => [
+  'fit', '--config', config, '--data', data, '--out', out, '--perturbers', '0', '--live-points', String(livePoints), '--method', 'slice',
   '--tolerance', '0.5', '--threads', '1', '--seed', '5', '--quiet', '--no-report',
 ];
+// Live points of the run stopped by a signal: its whole run takes about 11 s of CPU, so it is
+// still sampling after the 1.5 s wait and the two refused starts on a quiet, fast machine (with
+// 30 live points, 4 s, the margin was about a second).
+const LONG = 90;
 const noStackTrace = (text: string): void => { expect(text).not.toMatch(/\n\s+at /); };
 const leftovers = (folder: string): string[] => readdirSync(folder, { recursive: true }).map(String).filter((f) => f.endsWith('.tmp') || f.endsWith('.lock'));
 
@@ -58,19 +62,19 @@ beforeAll(() => {
 
 describe('one run per output folder, and SIGTERM', () => {
   it('refuses a second run and a resume while the first runs; SIGTERM writes a last checkpoint and the resume ends as an uninterrupted run', async () => {
-    const whole = arcsift(nested(join(root, 'whole')));
+    const whole = arcsift(nested(join(root, 'whole'), LONG));
     expect(whole.status, whole.stderr).toBe(0);
 
     const out = join(root, 'stopped');
     // No checkpoint is due for an hour: the one found after the signal is the signal's.
-    const first = start([...nested(out), '--checkpoint-seconds', '3600']);
+    const first = start([...nested(out, LONG), '--checkpoint-seconds', '3600']);
     await until(() => existsSync(join(out, 'arcsift.lock')));
     await new Promise((resolve) => { setTimeout(resolve, 1500); }); // into the sampling loop
     const pid = first.child.pid;
-    const second = arcsift(nested(out));
+    const second = arcsift(nested(out, LONG));
     expect(second.status).toBe(2);
     expect(second.stderr).toContain(`arcsift: ${join(out, 'arcsift.lock')}: another arcsift run uses this folder (pid ${pid} on ${hostname()}, started `);
-    const resumeMeanwhile = arcsift([...nested(out), '--resume']);
+    const resumeMeanwhile = arcsift([...nested(out, LONG), '--resume']);
     expect(resumeMeanwhile.status).toBe(2);
     expect(resumeMeanwhile.stderr).toContain('another arcsift run uses this folder');
     expect(existsSync(join(out, 'checkpoint.json'))).toBe(false);
@@ -84,7 +88,7 @@ describe('one run per output folder, and SIGTERM', () => {
     expect(existsSync(join(out, 'summary.json'))).toBe(false);
     expect(leftovers(out)).toEqual([]);
 
-    const resumed = arcsift([...nested(out), '--checkpoint-seconds', '3600', '--resume']);
+    const resumed = arcsift([...nested(out, LONG), '--checkpoint-seconds', '3600', '--resume']);
     expect(resumed.status, resumed.stderr).toBe(0);
     expect(readFileSync(join(out, 'posterior-weighted.csv'), 'utf8')).toBe(readFileSync(join(root, 'whole', 'posterior-weighted.csv'), 'utf8'));
     expect(leftovers(out)).toEqual([]);
@@ -170,7 +174,7 @@ describe('file-system faults are user errors naming the path, found before sampl
 describe('a comparison under SIGTERM', () => {
   it('stops both models with their last checkpoints, and the command it prints resumes to the uninterrupted Bayes factor', async () => {
     const compare = (out: string): string[] => [
-      'compare', '--config', config, '--data', data, '--out', out, '--live-points', '20', '--method', 'slice', '--tolerance', '0.5',
+      'compare', '--config', config, '--data', data, '--out', out, '--live-points', '40', '--method', 'slice', '--tolerance', '0.5',
       '--threads', '2', '--seed', '6', '--quiet', '--no-report', '--checkpoint-seconds', '3600',
     ];
     const whole = arcsift(compare(join(root, 'compare-whole')));
@@ -179,7 +183,9 @@ describe('a comparison under SIGTERM', () => {
     const out = join(root, 'compare-stopped');
     const run = start(compare(out));
     await until(() => existsSync(join(out, 'arcsift.lock')));
-    await new Promise((resolve) => { setTimeout(resolve, 2500); }); // both models sampling, side by side
+    // Both models sampling, side by side: the whole comparison takes about 19 s of CPU (20 live
+    // points, 5 s, left a margin of about 2 s on a quiet machine).
+    await new Promise((resolve) => { setTimeout(resolve, 2500); });
     run.child.kill('SIGTERM');
     expect(await run.exited).toBe(4);
     // No checkpoint was due for an hour: both are the signal's.
