@@ -11,6 +11,7 @@ import { PROPOSAL_KINDS, type EnsembleProposalKind, type EnsembleProgress } from
 import { loadDataOf, wholeNumberOption, withDataOptions, type DataArguments } from './dataOptions.js';
 import { formatPriors } from './formatComparison.js';
 import { formatMisfit, misfitNote } from './formatMisfit.js';
+import { rejectionLines } from './formatRejections.js';
 import { formatSky } from './formatSky.js';
 import { cosmologyText } from '../report/text/cosmologyText.js';
 import { evidenceSettingsOf, inOutputFolder, withSamplerOptions, type SamplerArguments } from './samplerOptions.js';
@@ -74,6 +75,7 @@ export function formatNestedFit(summary: NestedFitSummary): string {
   if (m.insertionRankWarning) {
     lines.push(`  warning: the insertion-rank check gives p = ${m.insertionRankPValue.toExponential(1)}: the constrained draws may be biased, so ln Z is suspect (Fowlie, Handley & Su 2020)`);
   }
+  lines.push(...rejectionLines(m.likelihoodRejections, m.evaluations));
   lines.push(`  ${formatMisfit('best fit', m.misfit)}`);
   if (m.misfit !== undefined) lines.push(`  (${misfitNote(m.misfit)})`);
   lines.push('', 'Parameters (posterior median, central 68% interval)', ...formatParameters(m.parameters));
@@ -101,6 +103,7 @@ export function formatEnsembleFit(summary: EnsembleFitSummary): string {
     `  ${m.evaluations} likelihood evaluations, ${m.seconds.toFixed(0)} s on ${m.threads} thread(s); burn-in ${m.burnInSweeps} sweeps left out; ` +
       `acceptance fraction mean ${m.acceptanceFraction.mean.toFixed(3)}, min ${m.acceptanceFraction.min.toFixed(3)}`,
     `  after burn-in: ${m.retainedSamples} samples, smallest ESS ${formatValue(m.smallestEffectiveSampleSize)}, largest R-hat ${formatValue(m.maxRHat)}`,
+    ...rejectionLines(m.likelihoodRejections, m.evaluations),
     '',
   ];
   const names = m.parameters.map((p) => (p.unit === '' ? p.name : `${p.name} [${p.unit}]`));

@@ -1,3 +1,4 @@
+import { rejectionLines } from './formatRejections.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { formatSky } from './formatSky.js';
 import { formatMisfit, misfitNote } from './formatMisfit.js';
@@ -45,6 +46,8 @@ export function formatComparison(summary: ComparisonSummary): string {
   lines.push('Evidence');
   lines.push(`  smooth model     ln Z = ${fixed(smooth.lnEvidence)} +- ${fixed(smooth.lnEvidenceError)}   (${smooth.evaluations} likelihood evaluations, ${fixed(smooth.seconds, 0)} s)`);
   lines.push(`  perturbed model  ln Z = ${fixed(perturbed.lnEvidence)} +- ${fixed(perturbed.lnEvidenceError)}   (${perturbed.evaluations} likelihood evaluations, ${fixed(perturbed.seconds, 0)} s)`);
+  lines.push(...rejectionLines(smooth.likelihoodRejections, smooth.evaluations, 'smooth'));
+  lines.push(...rejectionLines(perturbed.likelihoodRejections, perturbed.evaluations, 'perturbed'));
   lines.push(`  ln Bayes factor (perturbed / smooth) = ${fixed(b.lnBayesFactor)} +- ${fixed(b.lnBayesFactorError)}`);
   lines.push(`  reading (Kass & Raftery 1995): ${b.reading}`);
   lines.push(`  frequentist bound (Sellke, Bayarri & Berger 2001): ${b.significance}`);

@@ -11,6 +11,8 @@ import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { RunInterrupted } from '../errors.js';
 import { refuseAnotherRun, runIdentity } from '../records/runIdentity.js';
+import type { InversionRejections } from '../inversion/inversionRejections.js';
+import { RejectionTallies } from './rejectionTallies.js';
 
 /** Where the walkers start: draws of an earlier fit's posterior (its folder or a posterior table), or at the config's values. */
 export type EnsembleWalkerStart = { readonly posteriorFrom: string } | 'configuredValues';
@@ -52,6 +54,8 @@ export interface ModelEnsemble {
   readonly start: string;
   readonly seconds: number;
   readonly threads: number;
+  /** The pixelated source's likelihoods of minus infinity by reason (null without one), the whole run's. */
+  readonly rejections: InversionRejections | null;
 }
 
 /** The default walker count for `dim` free parameters: max(4, 2 dim + 2), always even. */
@@ -76,8 +80,9 @@ export async function runModelEnsemble(
   const identity = settings.checkpointPath === undefined ? undefined : runIdentity(config, data, settings.seed);
   const started = performance.now();
   const pool = await LikelihoodPool.start({ config, data, perturberCount }, settings.threads);
+  const tallies = new RejectionTallies(pool);
   try {
-    const result = await runEnsemble(posteriorOnSpace(space, (points, count) => pool.evaluate(points, count)), {
+    const result = await runEnsemble({ ...posteriorOnSpace(space, (points, count) => pool.evaluate(points, count)), tallies }, {
       walkers,
       seed: settings.seed,
       start,
@@ -108,6 +113,7 @@ export async function runModelEnsemble(
         : `posterior draws of ${posteriorDrawsFile(from.posteriorFrom)}`,
       seconds: (performance.now() - started) / 1000,
       threads: pool.threads,
+      rejections: system.pixelatedSource === undefined ? null : tallies.counts,
     };
   } finally {
     await pool.close();

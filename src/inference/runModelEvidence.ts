@@ -10,6 +10,8 @@ import { modelPriorTransform } from '../model/modelPriorTransform.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import { RunInterrupted } from '../errors.js';
 import { refuseAnotherRun, runIdentity } from '../records/runIdentity.js';
+import type { InversionRejections } from '../inversion/inversionRejections.js';
+import { RejectionTallies } from './rejectionTallies.js';
 
 /** Settings of one nested-sampling run of a lens model. */
 export interface EvidenceSettings {
@@ -57,6 +59,8 @@ export interface ModelEvidence {
   readonly threads: number;
   /** True when identical perturbers were ordered by x to remove label switching. */
   readonly relabelled: boolean;
+  /** The pixelated source's likelihoods of minus infinity by reason (null without one), the whole run's. */
+  readonly rejections: InversionRejections | null;
   /** Batch sizes of the run's likelihood calls through the pool (slice chains run in workers are not calls). */
   readonly occupancy: BatchOccupancy;
   /** Messages sent to worker threads (runs of points and slice chains; 0 on one thread). */
@@ -108,9 +112,11 @@ export async function runModelEvidence(
   if (pool.width !== system.parameters.length) {
     throw new RangeError(`runModelEvidence: the pool's model has ${pool.width} parameters, this one ${system.parameters.length}`);
   }
+  const tallies = new RejectionTallies(pool);
   try {
     const result = await runNested(
       {
+        tallies,
         dim: space.dim,
         physicalDim: space.physicalDim,
         transform: prior.transform,
@@ -155,6 +161,7 @@ export async function runModelEvidence(
       seconds: (performance.now() - started) / 1000,
       threads: pool.threads,
       relabelled: prior.relabelled,
+      rejections: system.pixelatedSource === undefined ? null : tallies.counts,
       occupancy: pool.occupancy,
       messages: pool.messages,
     };

@@ -79,6 +79,7 @@ export function writeEnsembleOutputs(
     retainedSamples: count,
     evaluations: result.evaluations,
     nonFiniteProposals: result.nonFiniteProposals,
+    ...(ensemble.rejections === null ? {} : { likelihoodRejections: ensemble.rejections }),
     stopRule: ensemble.stopRule,
     converged: result.converged,
     stopped: result.stopped,

@@ -63,6 +63,7 @@ export function writeModelOutputs(
     evaluations: result.evaluations,
     efficiency: result.efficiency,
     nonFiniteLikelihoods: result.nonFiniteCount,
+    ...(evidence.rejections === null ? {} : { likelihoodRejections: evidence.rejections }),
     insertionRankPValue: result.insertionRank.pValue,
     insertionRankWarning: result.insertionRank.biased,
     evidence: evidenceRecordOf(result),

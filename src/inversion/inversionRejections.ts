@@ -11,3 +11,11 @@ export interface InversionRejections {
 export function noRejections(): InversionRejections {
   return { mesh: 0, notPositiveDefinite: 0, regularisation: 0 };
 }
+
+/** The reasons, in the order records and reports list them. */
+export const REJECTION_REASONS = ['mesh', 'notPositiveDefinite', 'regularisation'] as const satisfies ReadonlyArray<keyof InversionRejections>;
+
+/** Adds `more` to `into`, reason by reason. */
+export function addRejections(into: InversionRejections, more: Readonly<InversionRejections>): void {
+  for (const reason of REJECTION_REASONS) into[reason] += more[reason];
+}

@@ -1,3 +1,4 @@
+import { addRejections, noRejections, type InversionRejections } from '../inversion/inversionRejections.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { BatchOccupancy } from './batchOccupancy.js';
@@ -7,7 +8,12 @@ import { workerScriptUrl } from './workerScriptUrl.js';
 import type { SliceChainRequest, SliceChainResult } from '../sampling/nested/sliceChain.js';
 
 /** A worker's answer: the ln L of a run of points, where a slice chain ended, or that it was stopped. */
-export type WorkerReply = { readonly values: Float64Array } | { readonly chain: SliceChainResult } | { readonly stopped: true };
+export type WorkerReply = (
+  { readonly values: Float64Array } | { readonly chain: SliceChainResult } | { readonly stopped: true }
+) & {
+  /** The pixelated source's rejections, by reason, of the evaluations since the worker's last answer for this model. */
+  readonly rejected?: InversionRejections;
+};
 
 /** What a worker is asked: a run of consecutive points of one call, or one slice chain of a nested-sampling step. */
 type WorkerRequest =
@@ -31,6 +37,8 @@ export interface ModelPool {
   readonly messages: number;
   /** Batch sizes of the calls made so far. */
   readonly occupancy: BatchOccupancy;
+  /** Likelihoods of minus infinity from the pixelated source, by reason, so far (all zero without one). */
+  readonly rejections: Readonly<InversionRejections>;
   /** Worker threads with nothing to do right now (nothing queued), for any model of the pool. */
   readonly idleThreads: number;
   evaluate(points: Float64Array, count: number): Promise<Float64Array>;
@@ -46,6 +54,8 @@ class ModelCounters {
   evaluations = 0;
   messages = 0;
   readonly occupancy = new BatchOccupancy();
+  /** Rejections the workers reported (with one thread, the local likelihood holds them). */
+  readonly rejections = noRejections();
 }
 
 /**
@@ -93,6 +103,14 @@ export class LikelihoodPool implements ModelPool {
     return this.counters[0].occupancy;
   }
 
+  get rejections(): Readonly<InversionRejections> {
+    return this.rejectionsOf(0);
+  }
+
+  private rejectionsOf(model: number): Readonly<InversionRejections> {
+    return this.locals?.[model].inversion?.rejections ?? this.counters[model].rejections;
+  }
+
   get inWorkers(): boolean {
     return this.locals === undefined;
   }
@@ -103,8 +121,16 @@ export class LikelihoodPool implements ModelPool {
 
   /** Queues one message for the workers (copied, not transferred: see likelihoodWorker.ts). */
   private submit(message: WorkerRequest, done: (reply: WorkerReply) => void, reject: (error: Error) => void): void {
-    this.counters[message.model].messages++;
-    this.workers!.submit({ message, done, reject });
+    const counters = this.counters[message.model];
+    counters.messages++;
+    this.workers!.submit({
+      message,
+      done: (reply) => {
+        if (reply.rejected !== undefined) addRejections(counters.rejections, reply.rejected);
+        done(reply);
+      },
+      reject,
+    });
   }
 
   /**
@@ -142,6 +168,9 @@ export class LikelihoodPool implements ModelPool {
         return counters.messages;
       },
       occupancy: counters.occupancy,
+      get rejections() {
+        return pool.rejectionsOf(k);
+      },
       get idleThreads() {
         return pool.idleThreads;
       },

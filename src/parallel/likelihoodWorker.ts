@@ -1,4 +1,5 @@
 import { parentPort, workerData } from 'node:worker_threads';
+import { noRejections, REJECTION_REASONS, type InversionRejections } from '../inversion/inversionRejections.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { modelPriorTransform } from '../model/modelPriorTransform.js';
@@ -20,6 +21,26 @@ class HeldModel {
   constructor(private readonly task: LikelihoodTask) {
     this.likelihood = new PixelLikelihood(task.config, task.data, task.perturberCount);
     this.row = new Float64Array(this.likelihood.system.parameters.length);
+  }
+
+  /** Rejections already sent to the pool. */
+  private readonly reported = noRejections();
+
+  /**
+   * The likelihood's rejections by reason since the last call (undefined when none), for the
+   * pool to add up: every answer carries those of the evaluations behind it.
+   */
+  rejectionsSinceLastCall(): InversionRejections | undefined {
+    const now = this.likelihood.inversion?.rejections;
+    if (now === undefined) return undefined;
+    const delta = noRejections();
+    let any = false;
+    for (const reason of REJECTION_REASONS) {
+      delta[reason] = now[reason] - this.reported[reason];
+      this.reported[reason] = now[reason];
+      if (delta[reason] !== 0) any = true;
+    }
+    return any ? delta : undefined;
   }
 
   /** ln L of `count` rows of `points` into a new array. */
@@ -68,10 +89,10 @@ parentPort!.on('message', (message: Message) => {
       return evaluator.evaluate(unit, count, physicalOut);
     };
     runSliceChain(message.chain, evaluate).then(
-      (result) => parentPort!.postMessage({ chain: { ...result, nonFinite: evaluator.nonFinite } }),
+      (result) => parentPort!.postMessage({ chain: { ...result, nonFinite: evaluator.nonFinite }, rejected: model.rejectionsSinceLastCall() }),
       (error: unknown) => {
         if (error instanceof ChainStopped) {
-          parentPort!.postMessage({ stopped: true });
+          parentPort!.postMessage({ stopped: true, rejected: model.rejectionsSinceLastCall() });
           return;
         }
         // Thrown again outside the promise: the worker's 'error' event fails the pool's calls.
@@ -80,6 +101,7 @@ parentPort!.on('message', (message: Message) => {
     );
     return;
   }
-  parentPort!.postMessage({ values: model.logLikelihoods(message.points, message.count) });
+  const values = model.logLikelihoods(message.points, message.count);
+  parentPort!.postMessage({ values, rejected: model.rejectionsSinceLastCall() });
 });
 parentPort!.postMessage({ ready: true });

@@ -1,5 +1,5 @@
 import type { MisfitRecord } from './misfitRecord.js';
-import type { ModelRecord } from './modelRecord.js';
+import type { ModelRecord, RejectionCountsRecord } from './modelRecord.js';
 
 /** Convergence diagnostics of one free parameter; null where the chain was too short to compute one. */
 export interface EnsembleParameterDiagnostics {
@@ -29,6 +29,8 @@ export interface EnsembleRecord {
   readonly retainedSamples: number;
   readonly evaluations: number;
   readonly nonFiniteProposals: number;
+  /** With a pixelated source: its likelihoods of minus infinity by reason (absent otherwise, and in older records). */
+  readonly likelihoodRejections?: RejectionCountsRecord;
   /** When the run counts as mixed: every free parameter's R-hat at most maxRHat, bulk and tail ESS at least minEffectiveSampleSize. */
   readonly stopRule: { readonly minEffectiveSampleSize: number; readonly maxRHat: number };
   /** True when the stop rule was met before the sweep limit. */

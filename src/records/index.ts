@@ -10,7 +10,7 @@ export type { TruthFile, TruthParameter, TruthPerturber } from './truthFile.js';
 export type { SourceFile } from './sourceFile.js';
 export { readSourceFile } from './readSourceFile.js';
 export { priorCaution, verdictCaution, mapPriorNote, sensitivityApproximation } from './cautions.js';
-export type { ModelRecord } from './modelRecord.js';
+export type { ModelRecord, RejectionCountsRecord } from './modelRecord.js';
 export type { MisfitRecord } from './misfitRecord.js';
 export type { EnsembleRecord, EnsembleParameterDiagnostics } from './ensembleRecord.js';
 export type { PerturberSummary } from './perturberSummary.js';

@@ -1,5 +1,17 @@
 import type { MisfitRecord } from './misfitRecord.js';
 
+/**
+ * Likelihood calls a pixelated source answered with minus infinity, by reason: the mesh could not
+ * be built, the posterior precision was not positive definite, the regularisation matrix was not
+ * (src/inversion/inversionRejections.ts). Counted over every call of the run, resumed parts
+ * included.
+ */
+export interface RejectionCountsRecord {
+  readonly mesh: number;
+  readonly notPositiveDefinite: number;
+  readonly regularisation: number;
+}
+
 /** What a summary says of one model's run. */
 export interface ModelRecord {
   readonly label: string;
@@ -13,6 +25,8 @@ export interface ModelRecord {
   readonly evaluations: number;
   readonly efficiency: number;
   readonly nonFiniteLikelihoods: number;
+  /** With a pixelated source: its likelihoods of minus infinity by reason (absent otherwise, and in older records). */
+  readonly likelihoodRejections?: RejectionCountsRecord;
   readonly insertionRankPValue: number;
   readonly insertionRankWarning: boolean;
   /**

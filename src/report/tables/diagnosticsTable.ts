@@ -1,5 +1,6 @@
 import { escapeMarkup } from '../text/escapeMarkup.js';
 import { formatCount, formatNumber } from '../text/formatNumber.js';
+import { rejectionWords } from '../text/rejectionWords.js';
 import { htmlTable, numberCell, type TableCell } from './htmlTable.js';
 import type { ComparisonSummary } from '../../records/comparisonSummary.js';
 import type { ModelRecord } from '../../records/modelRecord.js';
@@ -46,6 +47,9 @@ export function nestedDiagnosticsTable(runs: readonly { readonly tone: string; r
       row('ln Z from', (m) => evidence(m)),
       row('importance draws: effective size; Pareto k&#770; (Vehtari et al. 2024)', importance),
       row('non-finite likelihoods', (m) => numberCell(formatCount(m.nonFiniteLikelihoods))),
+      ...(runs.some((r) => r.record.likelihoodRejections !== undefined)
+        ? [row('pixelated source: likelihood calls rejected, by reason', (m) => m.likelihoodRejections === undefined ? 'n/a' : escapeMarkup(rejectionWords(m.likelihoodRejections)))]
+        : []),
       row('stopped because', (m) => escapeMarkup(m.stopReason)),
       row('wall time [s]', (m) => numberCell(formatNumber(m.seconds, 1))),
       row('threads', (m) => numberCell(String(m.threads))),

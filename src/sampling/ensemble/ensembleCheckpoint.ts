@@ -35,6 +35,7 @@ function identity(dim: number, settled: SettledEnsembleOptions): Record<string, 
  */
 export function saveEnsembleCheckpoint(
   path: string, dim: number, settled: SettledEnsembleOptions, state: EnsembleState, runIdentity?: unknown,
+  tallies?: Record<string, number>,
 ): void {
   writeJsonAtomic(path, {
     format: FORMAT,
@@ -50,6 +51,7 @@ export function saveEnsembleCheckpoint(
     accepted: encodeFloat64(state.accepted),
     chain: encodeFloat64(state.chain.positionRows()),
     chainLogDensities: encodeFloat64(state.chain.logDensityRows()),
+    ...(tallies === undefined ? {} : { tallies }),
   });
 }
 
@@ -115,5 +117,15 @@ export function loadEnsembleCheckpoint(
     lastCheck: null,
     chain,
     random,
+    ...(saved.tallies === undefined ? {} : { tallies: savedTallies(saved.tallies, path) }),
   };
+}
+
+/** The tallies of a checkpoint: an object of whole counts. */
+function savedTallies(value: unknown, path: string): Record<string, number> {
+  const entries = typeof value === 'object' && value !== null && !Array.isArray(value) ? Object.entries(value) : null;
+  if (entries === null || entries.some(([, count]) => typeof count !== 'number' || !Number.isInteger(count) || count < 0)) {
+    throw new InputError(expectedFound('an object of whole counts', value), { file: path, key: 'tallies' });
+  }
+  return Object.fromEntries(entries) as Record<string, number>;
 }

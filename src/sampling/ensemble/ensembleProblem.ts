@@ -1,3 +1,5 @@
+import type { RunTallies } from '../runTallies.js';
+
 /**
  * Batch log density: `points` holds `count` free-parameter vectors row-major (count x dim);
  * returns at least `count` log densities (unnormalised is fine). May return a Promise, so the
@@ -20,4 +22,6 @@ export interface EnsembleProblem {
   readonly logPosterior: BatchLogDensity;
   /** Per free dimension, its period or null (absent: none periodic). */
   readonly periodic?: ReadonlyArray<PeriodicRange | null>;
+  /** Optional counts of the likelihood's side, stored in the checkpoints (see RunTallies). */
+  readonly tallies?: RunTallies;
 }

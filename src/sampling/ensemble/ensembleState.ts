@@ -17,4 +17,6 @@ export interface EnsembleState {
   lastCheck: MixingCheck | null;
   readonly chain: GrowableChain;
   readonly random: SeededStream;
+  /** The problem's RunTallies read back from a checkpoint (absent otherwise). */
+  readonly tallies?: Record<string, number>;
 }

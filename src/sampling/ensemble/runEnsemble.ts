@@ -32,6 +32,7 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
   let state = options.resume && checkpoint ? loadEnsembleCheckpoint(checkpoint.path, dim, settled, checkpoint.checkIdentity) : null;
   if (state === null) state = await freshState(problem, options, settled);
   else if (state.sweep > 0 && isCheckSweep(state.sweep, settled.checkEverySweeps)) checkStopRule(state, settled, dim);
+  if (state.tallies !== undefined) problem.tallies?.restore(state.tallies);
 
   const half = walkers / 2;
   const proposals = new Float64Array(half * dim);
@@ -42,7 +43,7 @@ export async function runEnsemble(problem: EnsembleProblem, options: EnsembleOpt
   let savedTime = performance.now();
   const save = (): void => {
     if (checkpoint === undefined) return;
-    saveEnsembleCheckpoint(checkpoint.path, dim, settled, state, checkpoint.identity);
+    saveEnsembleCheckpoint(checkpoint.path, dim, settled, state, checkpoint.identity, problem.tallies?.read());
     savedAt = state.sweep;
     savedTime = performance.now();
   };

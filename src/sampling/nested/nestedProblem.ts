@@ -1,3 +1,4 @@
+import type { RunTallies } from '../runTallies.js';
 import type { InsertionRankCheck } from './insertionRank.js';
 import type { ImportanceOptions } from '../importance/importanceSettings.js';
 import type { ImportanceResult } from '../importance/importanceResult.js';
@@ -37,6 +38,8 @@ export interface NestedProblem {
    * the same, only sooner.
    */
   idleThreads?(): number;
+  /** Optional counts of the likelihood's side, stored in the checkpoints (see RunTallies). */
+  readonly tallies?: RunTallies;
 }
 
 /** How constrained draws are made. 'auto': ellipsoids for dim <= autoEllipsoidMaxDim, slice above. */

@@ -142,6 +142,8 @@ export interface NestedStateRecord {
   readonly whitening?: number[] | null;
   /** the importance stage, once begun (absent in version 1 files). */
   readonly importance?: ImportanceStateRecord | null;
+  /** the problem's RunTallies when the checkpoint was written (absent when it has none). */
+  readonly tallies?: Record<string, number>;
 }
 
 const rowTables = [

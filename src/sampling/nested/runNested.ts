@@ -43,6 +43,7 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   let state: NestedState;
   if (record !== null) {
     state = restoreState(record);
+    if (record.tallies !== undefined) problem.tallies?.restore(record.tallies);
   } else {
     state = emptyState(settings);
     await drawInitialLivePoints(state, evaluator);
@@ -56,7 +57,8 @@ export async function runNested(problem: NestedProblem, options: NestedOptions =
   const saveCheckpoint = () => {
     if (checkpointPath === undefined) return;
     state.elapsedSeconds = elapsed();
-    writeCheckpoint(checkpointPath, recordState(state), options.checkpoint?.identity);
+    const tallies = problem.tallies?.read();
+    writeCheckpoint(checkpointPath, tallies === undefined ? recordState(state) : { ...recordState(state), tallies }, options.checkpoint?.identity);
     lastCheckpointTime = Date.now();
     lastCheckpointIteration = iterationsOf(state);
   };
