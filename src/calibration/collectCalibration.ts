@@ -1,3 +1,4 @@
+import type { DetectionClaimKind } from '../results/detectionClaim.js';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
@@ -28,6 +29,10 @@ export interface DrawPosterior {
   /** The run's reported parameters (median, 68% and 95% intervals) by name. */
   readonly intervals: ReadonlyMap<string, { readonly unit: string; readonly interval68: readonly [number, number]; readonly interval95: readonly [number, number] }>;
   readonly lnBayesFactor: number | null;
+  /** The comparison's own detection claim (absent in summaries written before it existed; null for a fit). */
+  readonly claim?: DetectionClaimKind | null;
+  /** The ln B threshold of that claim. */
+  readonly claimThresholdLnB?: number | null;
   readonly stopReason: string;
 }
 
@@ -97,9 +102,13 @@ export function readDrawPosterior(rowFolder: string, draw: CalibrationDraw): Dra
   const summary = JSON.parse(readFileSync(join(rowFolder, 'summary.json'), 'utf8')) as ComparisonSummary | NestedFitSummary;
   if (summary.kind === 'comparison') {
     const model = draw.withPerturber ? 'perturbed' : 'smooth';
-    return { draw, ...modelPosterior(join(rowFolder, model, `${POSTERIOR_TABLES.weighted}.csv`), summary.models[model]), lnBayesFactor: summary.bayesFactor.lnBayesFactor };
+    return {
+      draw, ...modelPosterior(join(rowFolder, model, `${POSTERIOR_TABLES.weighted}.csv`), summary.models[model]),
+      lnBayesFactor: summary.bayesFactor.lnBayesFactor, claim: summary.detection?.claim ?? null,
+      claimThresholdLnB: summary.detection?.thresholdLnB ?? null,
+    };
   }
-  return { draw, ...modelPosterior(join(rowFolder, `${POSTERIOR_TABLES.weighted}.csv`), summary.model), lnBayesFactor: null };
+  return { draw, ...modelPosterior(join(rowFolder, `${POSTERIOR_TABLES.weighted}.csv`), summary.model), lnBayesFactor: null, claim: null };
 }
 
 /** What the calibration takes as given, stated in calibration.json and the report. */
@@ -141,7 +150,7 @@ export function collectCalibration(settings: CollectSettings): CalibrationSummar
   const massRange: [number, number] | null = massPrior !== undefined && 'lower' in massPrior && 'upper' in massPrior ? [massPrior.lower, massPrior.upper] : null;
   const massOf = (draw: CalibrationDraw): number | null => (massParameter !== null && draw.withPerturber ? draw.truth[massParameter] ?? null : null);
   const detections: DrawDetection[] = finished.filter((d) => d.lnBayesFactor !== null)
-    .map((d) => ({ lnBayesFactor: d.lnBayesFactor as number, withPerturber: d.draw.withPerturber, log10Mass: massOf(d.draw) }));
+    .map((d) => ({ lnBayesFactor: d.lnBayesFactor as number, withPerturber: d.draw.withPerturber, log10Mass: massOf(d.draw), claim: d.claim ?? null, claimThresholdLnB: d.claimThresholdLnB ?? null }));
   const perDraw: CalibrationDrawRecord[] = record.draws.map((draw) => {
     const row = stateOf.get(draw.id);
     const done = finished.find((d) => d.draw.id === draw.id);

@@ -1,4 +1,5 @@
 import type { CalibrationDetectionRecord } from '../records/calibrationSummary.js';
+import type { DetectionClaimKind } from '../results/detectionClaim.js';
 import { proportionRecord } from './proportionRecord.js';
 
 /** One comparison on a draw: ln B, whether the draw had a perturber, and its true log10 mass if so. */
@@ -6,6 +7,10 @@ export interface DrawDetection {
   readonly lnBayesFactor: number;
   readonly withPerturber: boolean;
   readonly log10Mass: number | null;
+  /** The comparison's own claim (ln B above the claim threshold with the misfit alarms; null when not recorded). */
+  readonly claim: DetectionClaimKind | null;
+  /** The ln B threshold of that claim (null when not recorded). */
+  readonly claimThresholdLnB: number | null;
 }
 
 /** Edges of the probability bins of the reliability table. */
@@ -55,8 +60,24 @@ export function detectionRates(
     thresholdLnB,
     falseDetection: proportionRecord(nulls.filter((d) => d.lnBayesFactor > thresholdLnB).length, nulls.length),
     falseDetectionBound: Math.exp(-thresholdLnB),
+    claims: claimCounts(nulls, perturbed),
     byMass,
     massParameter,
     reliability,
+  };
+}
+
+/** What the comparisons themselves claimed (their detection rule, not thresholdLnB), on draws without and with a perturber. */
+function claimCounts(nulls: readonly DrawDetection[], perturbed: readonly DrawDetection[]): CalibrationDetectionRecord['claims'] {
+  const recorded = (draws: readonly DrawDetection[]) => draws.filter((d) => d.claim !== null);
+  const count = (draws: readonly DrawDetection[], kind: DetectionClaimKind) => draws.filter((d) => d.claim === kind).length;
+  const withoutClaim = recorded(nulls), withClaim = recorded(perturbed);
+  const thresholds = [...new Set([...withoutClaim, ...withClaim].map((d) => d.claimThresholdLnB).filter((t): t is number => t !== null))].sort((a, b) => a - b);
+  return {
+    thresholdsLnB: thresholds,
+    falseClaims: proportionRecord(count(withoutClaim, 'detected'), withoutClaim.length),
+    trueClaims: proportionRecord(count(withClaim, 'detected'), withClaim.length),
+    notEvidenceWithout: count(withoutClaim, 'not-evidence'),
+    notEvidenceWith: count(withClaim, 'not-evidence'),
   };
 }

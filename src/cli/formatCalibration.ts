@@ -26,6 +26,12 @@ export function formatCalibration(s: CalibrationSummary): string {
     for (const b of det.byMass) {
       if (b.trials > 0) lines.push(`  true log10 mass ${b.log10MassLower.toFixed(1)}-${b.log10MassUpper.toFixed(1)}: detected ${b.successes} of ${b.trials} (${percent(b)})`);
     }
+    const c = det.claims;
+    if (c !== undefined && c.falseClaims.trials + c.trueClaims.trials > 0) {
+      lines.push(`Detections claimed by the comparisons' own rule (ln B > ${c.thresholdsLnB.join(' or ')} and the smooth model passing the misfit alarm):`,
+        `  on draws without a perturber: ${c.falseClaims.successes} of ${c.falseClaims.trials} (${percent(c.falseClaims)}); no evidence (smooth model misfit): ${c.notEvidenceWithout}`,
+        `  on draws with a perturber: ${c.trueClaims.successes} of ${c.trueClaims.trials} (${percent(c.trueClaims)}); no evidence (smooth model misfit): ${c.notEvidenceWith}`);
+    }
   }
   if (s.meanRowSeconds !== null) lines.push('', `Run time: ${(s.rowSeconds / 3600).toFixed(2)} h over all rows, ${s.meanRowSeconds.toFixed(0)} s per finished row on average.`);
   return lines.join('\n');

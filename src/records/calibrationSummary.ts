@@ -39,6 +39,20 @@ export interface CalibrationDetectionRecord {
   readonly falseDetection: ProportionRecord;
   /** Under the smooth model P(B >= k) <= 1/k, so no more than exp(-threshold) (Royall 2000). */
   readonly falseDetectionBound: number;
+  /**
+   * What the comparisons claimed by their own rule (ln B above the claim threshold, the smooth
+   * model passing the misfit alarm; results/detectionClaim.ts): detections on draws without a
+   * perturber (false claims) and with one, and how many gave no evidence at all because the
+   * smooth model misfit. Over the draws whose summary records a claim; absent in older files.
+   */
+  readonly claims?: {
+    /** The claim thresholds the comparisons used (one, unless the rows were run with different ones). */
+    readonly thresholdsLnB: readonly number[];
+    readonly falseClaims: ProportionRecord;
+    readonly trueClaims: ProportionRecord;
+    readonly notEvidenceWithout: number;
+    readonly notEvidenceWith: number;
+  };
   /** Among draws with a perturber, by bins of its true log10 mass. */
   readonly byMass: readonly ({ readonly log10MassLower: number; readonly log10MassUpper: number } & ProportionRecord)[];
   readonly massParameter: string | null;

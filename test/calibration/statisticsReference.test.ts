@@ -43,12 +43,13 @@ describe('calibration statistics against scipy', () => {
   });
 
   it('counts false detections, detections by mass and the reliability of P(perturber)', () => {
+    const unclaimed = { claim: null, claimThresholdLnB: null };
     const draws = [
       { lnBayesFactor: -2, withPerturber: false, log10Mass: null }, { lnBayesFactor: 4, withPerturber: false, log10Mass: null },
       { lnBayesFactor: -1, withPerturber: false, log10Mass: null }, { lnBayesFactor: 0.5, withPerturber: false, log10Mass: null },
       { lnBayesFactor: -1, withPerturber: true, log10Mass: 7.2 }, { lnBayesFactor: 8, withPerturber: true, log10Mass: 9.9 },
       { lnBayesFactor: 12, withPerturber: true, log10Mass: 10.6 }, { lnBayesFactor: 2, withPerturber: true, log10Mass: 10.9 },
-    ];
+    ].map((d) => ({ ...d, ...unclaimed }));
     const d = detectionRates(draws, 3, [7, 11], 1, 'm');
     expect([d.falseDetection.successes, d.falseDetection.trials]).toEqual([1, 4]);
     expect(d.falseDetectionBound).toBeCloseTo(Math.exp(-3), 15);
@@ -58,5 +59,22 @@ describe('calibration statistics against scipy', () => {
     expect([bin.successes, bin.trials]).toEqual([0, 1]);
     expect(bin.meanProbability).toBeCloseTo(1 / (1 + Math.exp(-0.5)), 12);
     expect(d.reliability.reduce((s, b) => s + b.trials, 0)).toBe(8);
+  });
+
+  it('counts what the comparisons claimed by their own rule beside the threshold count', () => {
+    // Claims as compare records them (results/detectionClaim.ts): 'detected' only above its own
+    // threshold with a smooth model that passes the misfit alarm, 'not-evidence' when it misfits.
+    const draw = (lnBayesFactor: number, withPerturber: boolean, claim: 'detected' | 'not-detected' | 'not-evidence' | null) =>
+      ({ lnBayesFactor, withPerturber, log10Mass: withPerturber ? 9.5 : null, claim, claimThresholdLnB: claim === null ? null : 50 });
+    const d = detectionRates([
+      draw(60, false, 'detected'), draw(70, false, 'not-evidence'), draw(4, false, 'not-detected'), draw(1, false, null),
+      draw(80, true, 'detected'), draw(55, true, 'detected'), draw(20, true, 'not-detected'),
+    ], 3, [9, 10], 1, 'm');
+    expect(d.claims!.thresholdsLnB).toEqual([50]);
+    expect([d.claims!.falseClaims.successes, d.claims!.falseClaims.trials]).toEqual([1, 3]);
+    expect([d.claims!.trueClaims.successes, d.claims!.trueClaims.trials]).toEqual([2, 3]);
+    expect([d.claims!.notEvidenceWithout, d.claims!.notEvidenceWith]).toEqual([1, 0]);
+    // The threshold count of the same draws: ln B > 3 on 3 of the 4 without a perturber.
+    expect([d.falseDetection.successes, d.falseDetection.trials]).toEqual([3, 4]);
   });
 });

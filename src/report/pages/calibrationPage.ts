@@ -145,6 +145,13 @@ export function writeCalibrationReport(folder: string, pageFile: string, figures
   const detectionHtml = det === null ? '' : pageSection('detections', 'Detections', [
     `<p>A comparison detects the perturber when ln B &gt; ${formatNumber(det.thresholdLnB, 1)}. On draws without a perturber a calibrated Bayes factor exceeds e<sup>${formatNumber(det.thresholdLnB, 1)}</sup> at most ${formatNumber(100 * det.falseDetectionBound, 1)}% of the time (E[B] = 1 under the smooth model; Royall 2000).</p>`,
     proportionTable('false-detection-table', 'draws without a perturber', [{ label: 'false detections', p: det.falseDetection }]),
+    ...(det.claims === undefined || det.claims.falseClaims.trials + det.claims.trueClaims.trials === 0 ? [] : [
+      `<p>What the comparisons claimed by their own rule (ln B &gt; ${det.claims.thresholdsLnB.map((t) => formatNumber(t, 1)).join(' or ')}, with the smooth model passing the misfit alarm; a misfitting smooth model gives no evidence either way): ${det.claims.notEvidenceWithout} draws without a perturber and ${det.claims.notEvidenceWith} with one gave no evidence.</p>`,
+      proportionTable('claim-table', 'claimed detections', [
+        { label: 'on draws without a perturber (false)', p: det.claims.falseClaims },
+        { label: 'on draws with a perturber', p: det.claims.trueClaims },
+      ]),
+    ]),
     '<h3>By true mass</h3>',
     proportionTable('mass-table', 'true log<sub>10</sub> M/M<sub>&#9737;</sub>', det.byMass.map((b) => ({ label: `${formatNumber(b.log10MassLower, 1)}&ndash;${formatNumber(b.log10MassUpper, 1)}`, p: b }))),
     ...(det.reliability.length === 0 ? [] : ['<h3>Posterior probability of a perturber</h3>', `<p class="note">P = 1 / (1 + e<sup>&minus;ln B</sup> / odds) at the draws' own prior odds (draws with a perturber over draws without), against the share of draws in each bin that had one: equal when the evidence is calibrated.</p>`,
