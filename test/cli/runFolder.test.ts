@@ -1,4 +1,5 @@
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { startArcsift, until } from '../support/childRun.js';
+import { spawnSync } from 'node:child_process';
 import { chmodSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { hostname, tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -23,22 +24,7 @@ function arcsift(args: readonly string[], as: { uid?: number; gid?: number } = {
   return { status: run.status, stdout: run.stdout, stderr: run.stderr };
 }
 
-/** A child arcsift with its standard error collected, and a promise of its exit status. */
-function start(args: readonly string[]): { child: ChildProcess; stderr: () => string; exited: Promise<number | null> } {
-  const child = spawn(process.execPath, [cli, ...args], { stdio: ['ignore', 'ignore', 'pipe'] });
-  let stderr = '';
-  child.stderr?.on('data', (chunk: Buffer) => { stderr += chunk.toString('utf8'); });
-  const exited = new Promise<number | null>((resolve) => { child.on('exit', (code) => resolve(code)); });
-  return { child, stderr: () => stderr, exited };
-}
-
-async function until(done: () => boolean, seconds = 60): Promise<void> {
-  const end = Date.now() + seconds * 1000;
-  while (!done()) {
-    if (Date.now() > end) throw new Error('timed out waiting');
-    await new Promise((resolve) => { setTimeout(resolve, 50); });
-  }
-}
+const start = startArcsift;
 
 const nested = (out: string, livePoints = 30): string[] => [
   'fit', '--config', config, '--data', data, '--out', out, '--perturbers', '0', '--live-points', String(livePoints), '--method', 'slice',

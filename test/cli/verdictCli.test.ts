@@ -4,6 +4,7 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } fro
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { startArcsift, until } from '../support/childRun.js';
 import { killAfterFile } from '../support/killAfterFile.js';
 
 // The verdict through the command line (README, "The robust verdict"): its help, a bad family
@@ -95,18 +96,13 @@ describe('arcsift verdict', () => {
     // evaluation limit: the whole verdict takes about 25 s on two quiet cores, so every run is
     // still going when the signal comes 2.5 s in (with a limit, a quiet machine ended them first).
     const out = join(root, 'stopped');
-    const child = spawn(process.execPath, [cli, 'verdict', '--config', fixture, '--data', data, '--out', out, '--live-points', '20', '--seed', '9',
-      '--threads', '2', '--checkpoint-seconds', '3600', '--quiet', '--no-report'], { stdio: ['ignore', 'ignore', 'pipe'] });
-    let stderr = '';
-    child.stderr!.on('data', (chunk) => { stderr += String(chunk); });
-    const exited = new Promise<number | null>((resolve) => { child.on('exit', (code) => resolve(code)); });
-    for (const deadline = Date.now() + 60_000; !existsSync(join(out, 'arcsift.lock'));) {
-      if (Date.now() > deadline) throw new Error('the verdict did not take its folder within 60 s');
-      await new Promise((resolve) => { setTimeout(resolve, 50); });
-    }
+    const stopped = startArcsift(['verdict', '--config', fixture, '--data', data, '--out', out, '--live-points', '20', '--seed', '9',
+      '--threads', '2', '--checkpoint-seconds', '3600', '--quiet', '--no-report']);
+    await until(() => existsSync(join(out, 'arcsift.lock')));
     await new Promise((resolve) => { setTimeout(resolve, 2500); });
-    child.kill('SIGTERM');
-    expect(await exited).toBe(4);
+    stopped.child.kill('SIGTERM');
+    expect(await stopped.exited).toBe(4);
+    const stderr = stopped.stderr();
     const checkpoints = ['isothermal-ellipsoid', 'isothermal-ellipsoid-m-3-4-multipoles'].flatMap((f) => ['smooth', 'perturbed'].map((m) => join(out, 'families', f, m, 'checkpoint.json')));
     expect(stderr).toContain(`checkpoints written: ${checkpoints.join(', ')}`);
     expect(existsSync(join(out, 'verdict.json'))).toBe(false);

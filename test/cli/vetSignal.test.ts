@@ -1,18 +1,18 @@
-import { spawn, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { CLI, startArcsift, until } from '../support/childRun.js';
 
 // `vet` under SIGTERM keeps arcsift's contract for long runs (README, "Interrupted runs"): every
 // running fit ends its step and writes a last checkpoint, the command exits 4 and prints how to
 // continue, and the printed command ends as an uninterrupted vet would (common practice of
 // checkpointing samplers). Scenario: the invented test lens of test/fixtures/inference with two
 // flags. The CLI runs from dist/, which `npm test` builds first.
-const cli = fileURLToPath(new URL('../../dist/cli/main.js', import.meta.url));
 const config = fileURLToPath(new URL('../fixtures/inference/small-lens.yaml', import.meta.url));
-const arcsift = (args: string[]) => spawnSync(process.execPath, [cli, ...args], { encoding: 'utf8', timeout: 300_000 });
+const arcsift = (args: string[]) => spawnSync(process.execPath, [CLI, ...args], { encoding: 'utf8', timeout: 300_000 });
 const leftovers = (folder: string): string[] => readdirSync(folder, { recursive: true }).map(String).filter((f) => f.endsWith('.tmp') || f.endsWith('.lock'));
 
 describe('vet under SIGTERM', () => {
@@ -38,17 +38,12 @@ describe('vet under SIGTERM', () => {
     expect(whole.status, whole.stderr).toBe(0);
 
     const out = join(root, 'stopped');
-    const child = spawn(process.execPath, [cli, ...vet(out)], { stdio: ['ignore', 'ignore', 'pipe'] });
-    let stderr = '';
-    child.stderr!.on('data', (chunk) => { stderr += String(chunk); });
-    const exited = new Promise<number | null>((resolve) => { child.on('exit', (code) => resolve(code)); });
-    for (const deadline = Date.now() + 60_000; !existsSync(join(out, 'arcsift.lock'));) {
-      if (Date.now() > deadline) throw new Error('vet did not take its folder within 60 s');
-      await new Promise((resolve) => { setTimeout(resolve, 50); });
-    }
+    const run = startArcsift(vet(out));
+    await until(() => existsSync(join(out, 'arcsift.lock')));
     await new Promise((resolve) => { setTimeout(resolve, 2500); });
-    child.kill('SIGTERM');
-    expect(await exited).toBe(4);
+    run.child.kill('SIGTERM');
+    expect(await run.exited).toBe(4);
+    const stderr = run.stderr();
     expect(stderr).toContain('arcsift: SIGTERM received');
     const written = /checkpoints written: (.*)\n/.exec(stderr);
     expect(written).not.toBeNull();
