@@ -80,6 +80,9 @@ function coveragePanels(parameters: readonly CalibrationParameterRecord[]): Line
   });
 }
 
+/** "1 draw", "3 draws". */
+const drawsCount = (n: number): string => `${n} draw${n === 1 ? '' : 's'}`;
+
 function proportionTable(id: string, head: string, rows: readonly { label: string; p: ProportionRecord }[]): string {
   return htmlTable({
     id,
@@ -146,7 +149,7 @@ export function writeCalibrationReport(folder: string, pageFile: string, figures
     `<p>A comparison detects the perturber when ln B &gt; ${formatNumber(det.thresholdLnB, 1)}. On draws without a perturber a calibrated Bayes factor exceeds e<sup>${formatNumber(det.thresholdLnB, 1)}</sup> at most ${formatNumber(100 * det.falseDetectionBound, 1)}% of the time (E[B] = 1 under the smooth model; Royall 2000).</p>`,
     proportionTable('false-detection-table', 'draws without a perturber', [{ label: 'false detections', p: det.falseDetection }]),
     ...(det.claims === undefined || det.claims.falseClaims.trials + det.claims.trueClaims.trials === 0 ? [] : [
-      `<p>What the comparisons claimed by their own rule (ln B &gt; ${det.claims.thresholdsLnB.map((t) => formatNumber(t, 1)).join(' or ')}, with the smooth model passing the misfit alarm; a misfitting smooth model gives no evidence either way): ${det.claims.notEvidenceWithout} draws without a perturber and ${det.claims.notEvidenceWith} with one gave no evidence.</p>`,
+      `<p>What the comparisons claimed by their own rule (ln B &gt; ${det.claims.thresholdsLnB.map((t) => formatNumber(t, 1)).join(' or ')}, with the smooth model passing the misfit alarm; a misfitting smooth model gives no evidence either way): ${drawsCount(det.claims.notEvidenceWithout)} without a perturber and ${det.claims.notEvidenceWith} with one gave no evidence.</p>`,
       proportionTable('claim-table', 'claimed detections', [
         { label: 'on draws without a perturber (false)', p: det.claims.falseClaims },
         { label: 'on draws with a perturber', p: det.claims.trueClaims },
