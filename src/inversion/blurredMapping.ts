@@ -53,8 +53,9 @@ export class BlurredMapping {
     }
     this.spreadStart = new Int32Array(computedCount + 1);
     readers.forEach((list, q) => { this.spreadStart[q + 1] = this.spreadStart[q] + list.length; });
-    this.spreadPixel = Int32Array.from(readers.flat(), ([e]) => e);
-    this.spreadTap = Float64Array.from(readers.flat(), ([, tap]) => tap);
+    const flat = readers.flat();
+    this.spreadPixel = Int32Array.from(flat, ([e]) => e);
+    this.spreadTap = Float64Array.from(flat, ([, tap]) => tap);
     this.stamp = new Int32Array(used.length);
     this.work = new Float64Array(used.length);
   }

@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -62,6 +62,12 @@ describe('RunTallies in checkpoints', () => {
     expect(resumed.evaluations).toBe(wholeRun.evaluations);
     expect(second.counts).toEqual(whole.counts);
     expect(whole.counts.low + whole.counts.high).toBe(wholeRun.evaluations);
+
+    // A checkpoint whose tallies are not whole counts is refused, naming the file and key.
+    const text = readFileSync(path, 'utf8');
+    writeFileSync(path, text.replace(/"tallies":\{[^}]*\}/, '"tallies":{"low":-2,"high":"many"}'));
+    await expect(runNested(nestedProblem(new CountingTallies()), { ...options, checkpoint: { path, everySeconds: 3600 }, resume: true }))
+      .rejects.toThrow(/nested\.json.*tallies.*expected an object of whole counts/s);
   });
 
   it('ensemble MCMC: the same through its checkpoint', async () => {

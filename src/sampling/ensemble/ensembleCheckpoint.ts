@@ -6,6 +6,7 @@ import type { SettledEnsembleOptions } from './ensembleOptions.js';
 import type { EnsembleState } from './ensembleState.js';
 import { decodeFloat64, encodeFloat64 } from './float64Encoding.js';
 import { GrowableChain } from './growableChain.js';
+import { checkpointTallies } from '../runTallies.js';
 
 const FORMAT = 'arcsift ensemble checkpoint';
 const VERSION = 2;
@@ -117,15 +118,7 @@ export function loadEnsembleCheckpoint(
     lastCheck: null,
     chain,
     random,
-    ...(saved.tallies === undefined ? {} : { tallies: savedTallies(saved.tallies, path) }),
+    ...(saved.tallies === undefined ? {} : { tallies: checkpointTallies(saved.tallies, path) }),
   };
 }
 
-/** The tallies of a checkpoint: an object of whole counts. */
-function savedTallies(value: unknown, path: string): Record<string, number> {
-  const entries = typeof value === 'object' && value !== null && !Array.isArray(value) ? Object.entries(value) : null;
-  if (entries === null || entries.some(([, count]) => typeof count !== 'number' || !Number.isInteger(count) || count < 0)) {
-    throw new InputError(expectedFound('an object of whole counts', value), { file: path, key: 'tallies' });
-  }
-  return Object.fromEntries(entries) as Record<string, number>;
-}

@@ -2,6 +2,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { InputError } from '../../errors.js';
 import { writeFileAtomic } from '../../io/writeFileAtomic.js';
 import type { NestedSettings, NestedStateRecord } from './nestedState.js';
+import { checkpointTallies } from '../runTallies.js';
 
 /** Format tag written at the top of every nested-sampling checkpoint file. */
 export const checkpointFormat = 'arcsift nested-sampling checkpoint';
@@ -51,6 +52,7 @@ export function readCheckpoint(
     throw new InputError(`expected a "${checkpointFormat}" version ${checkpointVersion} file`, { file: path });
   }
   checkIdentity?.(parsed.runIdentity, path);
+  if (parsed.state.tallies !== undefined) checkpointTallies(parsed.state.tallies, path);
   const found = parsed.state.settings as unknown as Record<string, unknown>;
   // Settings added since version 1 was first written, at the values that reproduce older runs.
   if (found.slicePointsPerChain === undefined) found.slicePointsPerChain = 1;
