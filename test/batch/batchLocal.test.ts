@@ -63,6 +63,12 @@ describe('batch run on this machine', () => {
     await waitForFile(join(out, 'rows', LONG_ROW, LONG_ROW_CHECKPOINT), 60_000);
     process.kill(-runner.pid!, 'SIGKILL');
     await new Promise((resolve) => runner.on('exit', resolve));
+    // The runner's exit comes before its children (the rows' arcsift runs) are gone; until then a
+    // row's lock names a live pid and the resume below rightly refuses to take it over.
+    for (const deadline = Date.now() + 30_000; groupAlive(runner.pid!);) {
+      if (Date.now() > deadline) throw new Error('the killed runner\'s children outlived 30 s');
+      await new Promise((resolve) => { setTimeout(resolve, 50); });
+    }
     expect(existsSync(join(out, 'rows', LONG_ROW, 'summary.json'))).toBe(false);
     // No half-written file is left anywhere in the batch folder.
     expect(readdirSync(out, { recursive: true }).map(String).filter((f) => f.endsWith('.tmp'))).toEqual([]);
@@ -82,3 +88,13 @@ describe('batch run on this machine', () => {
     for (const id of ['smooth-a', LONG_ROW, 'fit-c']) expect(rowResults(out, id)).toEqual(rowResults(reference, id));
   });
 });
+
+/** True while any process of the group `pid` leads is alive (kill with signal 0 tests, sends nothing). */
+function groupAlive(pid: number): boolean {
+  try {
+    process.kill(-pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+}
