@@ -3,6 +3,7 @@ import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js'
 import { invertPermutation } from './invertPermutation.js';
 import { partialCholesky } from './partialCholesky.js';
 import { runningSum } from './runningSum.js';
+import { ensureSimdFloat64Capacity } from './simdTileKernels.js';
 import type { SupernodalFactor } from './supernodalFactor.js';
 import { supernodalInverseDiagonal } from './supernodalInverseDiagonal.js';
 import type { SupernodeTree } from './supernodeTree.js';
@@ -144,8 +145,8 @@ export class MultifrontalCholesky implements SupernodalFactor {
     this.floatingPointOperations = 0;
     this.factorNonzeros = 0;
     const largestFront = this.analyseSupernodes();
-    this.frontEven = ensureFloat64Capacity(this.frontEven, largestFront * largestFront);
-    this.frontOdd = ensureFloat64Capacity(this.frontOdd, largestFront * largestFront);
+    this.frontEven = ensureSimdFloat64Capacity(this.frontEven, largestFront * largestFront);
+    this.frontOdd = ensureSimdFloat64Capacity(this.frontOdd, largestFront * largestFront);
     this.stack = ensureFloat64Capacity(this.stack, this.stackPeak());
     this.lowerBuffer = ensureFloat64Capacity(this.lowerBuffer, this.factorStartBuffer[this.count]);
     this.work = ensureFloat64Capacity(this.work, n);

@@ -1,4 +1,5 @@
 import { columnProduct, productTile } from './productTile.js';
+import { simdKernelsOf, type SimdTileKernels } from './simdTileKernels.js';
 
 const TILE = new Float64Array(16);
 
@@ -8,13 +9,25 @@ const TILE = new Float64Array(16);
  * 1990, ACM Trans. Math. Software 16, 1): C is a[first .. first + size - 1, same columns], P is
  * a[first .., panel .. panel + width - 1] (the factored columns left of C, in a front of the
  * multifrontal Cholesky). Register-blocked 4 x 4 (productTile); the last size mod 4 rows
- * entry by entry. Entries above the diagonal are neither read nor written.
+ * entry by entry. Entries above the diagonal are neither read nor written. When `a` lives in a
+ * memory of the SIMD kernels (ensureSimdFloat64Capacity), the tiles below the diagonal run
+ * there, with the same result to the bit.
  */
 export function symmetricRankUpdate(a: Float64Array, ld: number, first: number, size: number, panel: number, width: number): void {
   if (size <= 0 || width <= 0) return;
   const blockedEnd = first + size - (size & 3);
-  updateTiles(a, ld, first, blockedEnd, panel, width);
+  const simd = simdKernelsOf(a);
+  if (simd === undefined) updateTiles(a, ld, first, blockedEnd, panel, width);
+  else updateTilesSimd(a, simd, ld, first, blockedEnd, panel, width);
   updateLastRows(a, ld, first, blockedEnd, first + size, panel, width);
+}
+
+/** updateTiles with the tiles below each diagonal tile in the SIMD kernel. */
+function updateTilesSimd(a: Float64Array, simd: SimdTileKernels, ld: number, first: number, blockedEnd: number, panel: number, width: number): void {
+  for (let j = first; j < blockedEnd; j += 4) {
+    subtractDiagonalTile(a, ld, j, panel, width);
+    simd.rankUpdateColumns(a.byteOffset, ld, j, j + 4, blockedEnd, panel, width);
+  }
 }
 
 /** Columns first .. blockedEnd - 1 in blocks of four, rows from the block's diagonal to blockedEnd - 1. */

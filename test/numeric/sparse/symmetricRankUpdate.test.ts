@@ -1,5 +1,6 @@
 import { Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
+import { ensureSimdFloat64Capacity, simdKernelsOf } from '../../../src/numeric/sparse/simdTileKernels.js';
 import { symmetricRankUpdate } from '../../../src/numeric/sparse/symmetricRankUpdate.js';
 import { blockOf, randomDense, UNIT_ROUNDOFF } from './denseFronts.js';
 import { uniformStream } from './sparseTestMatrices.js';
@@ -8,15 +9,27 @@ import { uniformStream } from './sparseTestMatrices.js';
 // computed in any order lies within gamma_width (|P| |P|^T)_ij of the exact value, gamma_k =
 // k u / (1 - k u) (Higham 2002, "Accuracy and Stability of Numerical Algorithms", eq. 3.5, from
 // memory); ours and the reference each, plus one rounding of the subtraction from C.
+/** A plain array, or one in a memory of the SIMD kernels (the multifrontal fronts). */
+const ALLOCATORS = {
+  plain: (n: number) => new Float64Array(n),
+  simd: (n: number) => ensureSimdFloat64Capacity(new Float64Array(0), n).subarray(0, n),
+} as const;
+
 describe('symmetricRankUpdate', () => {
-  it('subtracts P P^T from the lower triangle of C, any size and width, touching nothing else', () => {
+  it('runs in WebAssembly SIMD on Node 20 for an array from ensureSimdFloat64Capacity', () => {
+    expect(simdKernelsOf(ALLOCATORS.simd(16))).toBeDefined();
+    expect(simdKernelsOf(ALLOCATORS.plain(16))).toBeUndefined();
+  });
+
+  it.each(Object.keys(ALLOCATORS) as Array<keyof typeof ALLOCATORS>)('subtracts P P^T from the lower triangle of C, any size and width, touching nothing else (%s array)', (kind) => {
+    const allocate = ALLOCATORS[kind];
     const u = uniformStream(41);
     for (const [size, width] of [[1, 1], [2, 3], [3, 1], [4, 4], [5, 2], [7, 9], [8, 64], [37, 5], [64, 64], [130, 70]]) {
       const panel = 2;
       const first = panel + width + 1;
       const ld = first + size + 3;
       // Everything the update may not read or write is NaN: a stray read would spread into C.
-      const a = new Float64Array(ld * ld).fill(Number.NaN);
+      const a = allocate(ld * ld).fill(Number.NaN);
       const p = randomDense(size, width, u);
       const c = randomDense(size, size, u);
       for (let j = 0; j < width; j++) for (let i = 0; i < size; i++) a[(panel + j) * ld + first + i] = p.get(i, j);
@@ -34,6 +47,19 @@ describe('symmetricRankUpdate', () => {
         for (let i = 0; i < j; i++) expect(result.get(i, j), `${size} x ${width} above the diagonal`).toBeNaN();
       }
       expect(Matrix.sub(blockOf(a, ld, first, panel, size, width), p).abs().max(), 'panel unchanged').toBe(0);
+    }
+  });
+
+  it('gives the same bits in SIMD as in JavaScript (each lane sums in the same order)', () => {
+    const u = uniformStream(43);
+    for (const [size, width, first] of [[4, 1, 3], [9, 7, 10], [64, 64, 64], [131, 33, 40]]) {
+      const ld = first + size + 1;
+      const plain = Float64Array.from({ length: ld * ld }, () => u() - 0.5);
+      const simd = ALLOCATORS.simd(ld * ld);
+      simd.set(plain);
+      symmetricRankUpdate(plain, ld, first, size, first - width, width);
+      symmetricRankUpdate(simd, ld, first, size, first - width, width);
+      expect(Array.from(simd), `${size} x ${width}`).toEqual(Array.from(plain));
     }
   });
 

@@ -1,0 +1,84 @@
+/**
+ * A minimal encoder of WebAssembly modules (the binary format of the WebAssembly Core
+ * Specification 2.0, W3C 2022, chapter 5, with the fixed-width SIMD proposal's v128
+ * instructions, merged into 2.0): enough for small hand-written numeric kernels that take i32
+ * arguments and work on an imported memory. Instructions are byte arrays built with `op`.
+ */
+
+/** Value types (spec 5.3.1). */
+export const WASM_TYPE = Object.freeze({ i32: 0x7f, f64: 0x7c, v128: 0x7b });
+
+/** Unsigned LEB128 (spec 5.2.2). */
+export function unsignedLeb128(value: number): number[] {
+  const out: number[] = [];
+  let rest = value >>> 0;
+  do {
+    let byte = rest & 0x7f;
+    rest >>>= 7;
+    if (rest !== 0) byte |= 0x80;
+    out.push(byte);
+  } while (rest !== 0);
+  return out;
+}
+
+/** Signed LEB128 of a 32-bit integer (spec 5.2.2). */
+export function signedLeb128(value: number): number[] {
+  const out: number[] = [];
+  let rest = value | 0;
+  for (;;) {
+    const byte = rest & 0x7f;
+    rest >>= 7;
+    if ((rest === 0 && (byte & 0x40) === 0) || (rest === -1 && (byte & 0x40) !== 0)) {
+      out.push(byte);
+      return out;
+    }
+    out.push(byte | 0x80);
+  }
+}
+
+/** Instructions (spec 5.4): memory accesses take a byte offset and use 8-byte alignment hints. */
+export const op = Object.freeze({
+  localGet: (i: number) => [0x20, ...unsignedLeb128(i)],
+  localSet: (i: number) => [0x21, ...unsignedLeb128(i)],
+  i32Const: (v: number) => [0x41, ...signedLeb128(v)],
+  i32Eqz: [0x45], i32GeS: [0x4e], i32Add: [0x6a], i32Sub: [0x6b], i32Mul: [0x6c], i32Shl: [0x74],
+  block: [0x02, 0x40], loop: [0x03, 0x40], end: [0x0b],
+  br: (depth: number) => [0x0c, ...unsignedLeb128(depth)],
+  brIf: (depth: number) => [0x0d, ...unsignedLeb128(depth)],
+  v128Load: (offset: number) => [0xfd, 0x00, 3, ...unsignedLeb128(offset)],
+  v128Load64Splat: (offset: number) => [0xfd, 0x0a, 3, ...unsignedLeb128(offset)],
+  v128Store: (offset: number) => [0xfd, 0x0b, 3, ...unsignedLeb128(offset)],
+  v128Zero: [0xfd, 0x0c, ...new Array<number>(16).fill(0)],
+  f64x2Add: [0xfd, 0xf0, 0x01], f64x2Sub: [0xfd, 0xf1, 0x01], f64x2Mul: [0xfd, 0xf2, 0x01],
+});
+
+/** One function: its signature's index, its locals as (count, type) runs, and its body without the final `end`. */
+export interface WasmFunction {
+  readonly type: number;
+  readonly locals: ReadonlyArray<readonly [number, number]>;
+  readonly body: readonly number[];
+}
+
+export interface WasmModuleSpec {
+  /** Signatures as (parameter types, result types). */
+  readonly types: ReadonlyArray<readonly [readonly number[], readonly number[]]>;
+  readonly functions: readonly WasmFunction[];
+  /** Exported names of the functions, by index. */
+  readonly exports: ReadonlyArray<readonly [string, number]>;
+}
+
+/** The bytes of a module importing one memory as env.memory (spec 5.5). */
+export function wasmModuleBytes(spec: WasmModuleSpec): Uint8Array<ArrayBuffer> {
+  const name = (s: string): number[] => [...unsignedLeb128(s.length), ...Buffer.from(s, 'utf8')];
+  const vector = (items: number[][]): number[] => [...unsignedLeb128(items.length), ...items.flat()];
+  const section = (id: number, bytes: number[]): number[] => [id, ...unsignedLeb128(bytes.length), ...bytes];
+  const types = section(1, vector(spec.types.map(([parameters, results]) => [0x60, ...vector(parameters.map((t) => [t])), ...vector(results.map((t) => [t]))])));
+  const imports = section(2, vector([[...name('env'), ...name('memory'), 0x02, 0x00, 0x00]]));
+  const functions = section(3, vector(spec.functions.map((f) => unsignedLeb128(f.type))));
+  const exports = section(7, vector(spec.exports.map(([exported, index]) => [...name(exported), 0x00, ...unsignedLeb128(index)])));
+  const code = section(10, vector(spec.functions.map((f) => {
+    const body = [...vector(f.locals.map(([count, type]) => [...unsignedLeb128(count), type])), ...f.body, ...op.end];
+    return [...unsignedLeb128(body.length), ...body];
+  })));
+  return Uint8Array.from([0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00, ...types, ...imports, ...functions, ...exports, ...code]);
+}
