@@ -1,4 +1,5 @@
 import { columnProduct, productTile } from './productTile.js';
+import { simdKernelsOf, type SimdTileKernels } from './simdTileKernels.js';
 
 const TILE = new Float64Array(16);
 
@@ -15,8 +16,23 @@ const TILE = new Float64Array(16);
 export function panelTriangularSolve(a: Float64Array, ld: number, diagonal: number, width: number, rowFrom: number, rowCount: number): void {
   if (rowCount <= 0 || width <= 0) return;
   const blockedEnd = rowFrom + rowCount - (rowCount & 3);
-  solveRowBlocks(a, ld, diagonal, width, rowFrom, blockedEnd);
+  const simd = simdKernelsOf(a);
+  if (simd === undefined) solveRowBlocks(a, ld, diagonal, width, rowFrom, blockedEnd);
+  else solveRowBlocksSimd(a, simd, ld, diagonal, width, rowFrom, blockedEnd);
   solveLastRows(a, ld, diagonal, width, blockedEnd, rowFrom + rowCount);
+}
+
+/**
+ * solveRowBlocks when `a` lives in a memory of the SIMD kernels: the 4 x 4 tiles there (same
+ * operations, same bits), then the last width mod 4 columns of every row (each row's unknowns
+ * depend only on that row's, so the order of rows does not matter).
+ */
+function solveRowBlocksSimd(a: Float64Array, simd: SimdTileKernels, ld: number, diagonal: number, width: number, rowFrom: number, blockedEnd: number): void {
+  const blockedColumns = diagonal + width - (width & 3);
+  simd.panelSolveRows(a.byteOffset, ld, diagonal, blockedColumns - diagonal, rowFrom, blockedEnd);
+  for (let r = rowFrom; r < blockedEnd; r++) {
+    for (let j = blockedColumns; j < diagonal + width; j++) solveEntry(a, ld, diagonal, r, j);
+  }
 }
 
 function solveRowBlocks(a: Float64Array, ld: number, diagonal: number, width: number, rowFrom: number, blockedEnd: number): void {

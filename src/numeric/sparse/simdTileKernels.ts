@@ -8,49 +8,116 @@ export interface SimdTileKernels {
    * a[i, j + c] -= sum_p a[i, p] a[j + c, p] over p = panel .. panel + width - 1.
    */
   rankUpdateColumns(base: number, ld: number, j: number, iFrom: number, iEnd: number, panel: number, width: number): void;
+  /**
+   * The triangular solve X L^T = B of panelTriangularSolve on rows iFrom .. iEnd - 1 (a
+   * multiple of 4 apart) and the first blockedWidth (a multiple of 4) columns from `diagonal`.
+   */
+  panelSolveRows(base: number, ld: number, diagonal: number, blockedWidth: number, iFrom: number, iEnd: number): void;
 }
 
 const WASM_PAGE_BYTES = 65536;
 
+/** Local variable numbers of a kernel: its i32 scratch after the parameters, then the v128 ones. */
+interface TileLocals {
+  readonly base: number;
+  readonly ld: number;
+  /** Loop counter and byte addresses: the 4 rows, the 4 columns, the output, the column stride. */
+  readonly pa: number;
+  readonly pb: number;
+  readonly q: number;
+  readonly stride: number;
+  /** Eight two-lane sums (column c, rows i, i + 1 in sum(2c); rows i + 2, i + 3 in sum(2c + 1)), then a01, a23, b. */
+  readonly firstVector: number;
+}
+
+type Emit = (...parts: number[][]) => void;
+
+function emitter(body: number[]): Emit {
+  return (...parts) => { for (const part of parts) body.push(...part); };
+}
+
+/** Byte address of element (row, column) of the array: base + ((column * ld + row) << 3). */
+function address(t: TileLocals, column: number[], row: number[]): number[] {
+  return [...op.localGet(t.base), ...column, ...op.localGet(t.ld), ...op.i32Mul, ...row, ...op.i32Add, ...op.i32Const(3), ...op.i32Shl, ...op.i32Add];
+}
+
 /**
- * The rank update of a column block as a WebAssembly function on f64x2 vectors (the register
- * blocking of Goto & van de Geijn 2008, ACM Trans. Math. Software 34, 12, as in productTile:
- * a 4 x 4 block of sums in eight two-lane registers, each panel value loaded once per block).
- * Every lane adds its products in the same order as productTile, so the results are the same
- * to the bit. Parameters (i32): base, ld, j, iFrom, iEnd, panel, width.
+ * The 4 x 4 block of sums of productTile in eight two-lane registers, each panel value loaded
+ * once per block (the register blocking of Goto & van de Geijn 2008, ACM Trans. Math. Software
+ * 34, 12): rows `row` .. + 3 against rows `other` .. + 3 over `count` columns from `panel`.
+ * Each lane adds its products in productTile's order, so the sums are the same to the bit.
  */
-function rankUpdateBody(): number[] {
-  const [base, ld, j, iFrom, iEnd, panel, width, i, pa, pb, stride, q, pc] = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
-  const sum = (k: number): number => 13 + k;
-  const [a01, a23, b] = [21, 22, 23];
-  const body: number[] = [];
-  const emit = (...parts: number[][]): void => { for (const part of parts) body.push(...part); };
-  // Byte address of element (row, column): base + ((column * ld + row) << 3).
-  const address = (column: number, row: number): number[] => [
-    ...op.localGet(base), ...op.localGet(column), ...op.localGet(ld), ...op.i32Mul, ...op.localGet(row), ...op.i32Add,
-    ...op.i32Const(3), ...op.i32Shl, ...op.i32Add,
-  ];
-  emit(op.localGet(ld), op.i32Const(3), op.i32Shl, op.localSet(stride), op.localGet(iFrom), op.localSet(i));
-  emit(op.block, op.loop, op.localGet(i), op.localGet(iEnd), op.i32GeS, op.brIf(1));
+function emitTileSums(emit: Emit, t: TileLocals, row: number[], other: number[], panel: number[], count: number[]): void {
+  const sum = (k: number): number => t.firstVector + k;
+  const [a01, a23, b] = [t.firstVector + 8, t.firstVector + 9, t.firstVector + 10];
   for (let k = 0; k < 8; k++) emit(op.v128Zero, op.localSet(sum(k)));
-  emit(address(panel, i), op.localSet(pa), address(panel, j), op.localSet(pb), op.localGet(width), op.localSet(q));
-  emit(op.block, op.loop, op.localGet(q), op.i32Eqz, op.brIf(1));
-  emit(op.localGet(pa), op.v128Load(0), op.localSet(a01), op.localGet(pa), op.v128Load(16), op.localSet(a23));
+  emit(address(t, panel, row), op.localSet(t.pa), address(t, panel, other), op.localSet(t.pb), count, op.localSet(t.q));
+  emit(op.block, op.loop, op.localGet(t.q), op.i32Eqz, op.brIf(1));
+  emit(op.localGet(t.pa), op.v128Load(0), op.localSet(a01), op.localGet(t.pa), op.v128Load(16), op.localSet(a23));
   for (let c = 0; c < 4; c++) {
-    emit(op.localGet(pb), op.v128Load64Splat(8 * c), op.localSet(b));
+    emit(op.localGet(t.pb), op.v128Load64Splat(8 * c), op.localSet(b));
     emit(op.localGet(sum(2 * c)), op.localGet(a01), op.localGet(b), op.f64x2Mul, op.f64x2Add, op.localSet(sum(2 * c)));
     emit(op.localGet(sum(2 * c + 1)), op.localGet(a23), op.localGet(b), op.f64x2Mul, op.f64x2Add, op.localSet(sum(2 * c + 1)));
   }
-  emit(op.localGet(pa), op.localGet(stride), op.i32Add, op.localSet(pa));
-  emit(op.localGet(pb), op.localGet(stride), op.i32Add, op.localSet(pb));
-  emit(op.localGet(q), op.i32Const(1), op.i32Sub, op.localSet(q), op.br(0), op.end, op.end);
-  emit(address(j, i), op.localSet(pc));
+  emit(op.localGet(t.pa), op.localGet(t.stride), op.i32Add, op.localSet(t.pa));
+  emit(op.localGet(t.pb), op.localGet(t.stride), op.i32Add, op.localSet(t.pb));
+  emit(op.localGet(t.q), op.i32Const(1), op.i32Sub, op.localSet(t.q), op.br(0), op.end, op.end);
+}
+
+/**
+ * rankUpdateColumns (symmetricRankUpdate's tiles below the diagonal). Parameters (i32): base,
+ * ld, j, iFrom, iEnd, panel, width; then i32 i, pa, pb, stride, q, pc; then 11 v128.
+ */
+function rankUpdateBody(): number[] {
+  const [j, iFrom, iEnd, panel, width, i, pc] = [2, 3, 4, 5, 6, 7, 12];
+  const t: TileLocals = { base: 0, ld: 1, pa: 8, pb: 9, stride: 10, q: 11, firstVector: 13 };
+  const body: number[] = [];
+  const emit = emitter(body);
+  emit(op.localGet(t.ld), op.i32Const(3), op.i32Shl, op.localSet(t.stride), op.localGet(iFrom), op.localSet(i));
+  emit(op.block, op.loop, op.localGet(i), op.localGet(iEnd), op.i32GeS, op.brIf(1));
+  emitTileSums(emit, t, op.localGet(i), op.localGet(j), op.localGet(panel), op.localGet(width));
+  emit(address(t, op.localGet(j), op.localGet(i)), op.localSet(pc));
   for (let c = 0; c < 4; c++) {
     for (let half = 0; half < 2; half++) {
-      emit(op.localGet(pc), op.localGet(pc), op.v128Load(16 * half), op.localGet(sum(2 * c + half)), op.f64x2Sub, op.v128Store(16 * half));
+      emit(op.localGet(pc), op.localGet(pc), op.v128Load(16 * half), op.localGet(t.firstVector + 2 * c + half), op.f64x2Sub, op.v128Store(16 * half));
     }
-    emit(op.localGet(pc), op.localGet(stride), op.i32Add, op.localSet(pc));
+    emit(op.localGet(pc), op.localGet(t.stride), op.i32Add, op.localSet(pc));
   }
+  emit(op.localGet(i), op.i32Const(4), op.i32Add, op.localSet(i), op.br(0), op.end, op.end);
+  return body;
+}
+
+/**
+ * solveRowBlocks (panelTriangularSolve's blocks of 4 rows x 4 columns), as solveTile computes
+ * each: x_c = (b_c - sums_c - sum_{d < c} x_d L_cd) / L_cc, the operations in the same order.
+ * Parameters (i32): base, ld, diagonal, blockedWidth, iFrom, iEnd; then i32 i, j, pa, pb,
+ * stride, q, pc; then 11 v128 and 4 more for x_0 .. x_3 of one pair of rows.
+ */
+function panelSolveBody(): number[] {
+  const [diagonal, blockedWidth, iFrom, iEnd, i, j, pc] = [2, 3, 4, 5, 6, 7, 12];
+  const t: TileLocals = { base: 0, ld: 1, pa: 8, pb: 9, stride: 10, q: 11, firstVector: 13 };
+  const x = (c: number): number => t.firstVector + 11 + c;
+  const body: number[] = [];
+  const emit = emitter(body);
+  const jPlus = (k: number): number[] => [...op.localGet(j), ...op.i32Const(k), ...op.i32Add];
+  const lower = (row: number, column: number): number[] => [...address(t, jPlus(column), jPlus(row)), ...op.v128Load64Splat(0)];
+  emit(op.localGet(t.ld), op.i32Const(3), op.i32Shl, op.localSet(t.stride), op.localGet(iFrom), op.localSet(i));
+  emit(op.block, op.loop, op.localGet(i), op.localGet(iEnd), op.i32GeS, op.brIf(1));
+  emit(op.localGet(diagonal), op.localSet(j));
+  emit(op.block, op.loop, op.localGet(j), op.localGet(diagonal), op.localGet(blockedWidth), op.i32Add, op.i32GeS, op.brIf(1));
+  emitTileSums(emit, t, op.localGet(i), op.localGet(j), op.localGet(diagonal), [...op.localGet(j), ...op.localGet(diagonal), ...op.i32Sub]);
+  for (let half = 0; half < 2; half++) {
+    emit(address(t, op.localGet(j), op.localGet(i)), op.localSet(pc));
+    for (let c = 0; c < 4; c++) {
+      emit(op.localGet(pc));
+      emit(op.localGet(pc), op.v128Load(16 * half), op.localGet(t.firstVector + 2 * c + half), op.f64x2Sub);
+      for (let d = 0; d < c; d++) emit(op.localGet(x(d)), lower(c, d), op.f64x2Mul, op.f64x2Sub);
+      emit(lower(c, c), op.f64x2Div, op.localSet(x(c)));
+      emit(op.localGet(x(c)), op.v128Store(16 * half));
+      emit(op.localGet(pc), op.localGet(t.stride), op.i32Add, op.localSet(pc));
+    }
+  }
+  emit(op.localGet(j), op.i32Const(4), op.i32Add, op.localSet(j), op.br(0), op.end, op.end);
   emit(op.localGet(i), op.i32Const(4), op.i32Add, op.localSet(i), op.br(0), op.end, op.end);
   return body;
 }
@@ -60,9 +127,12 @@ const I32 = WASM_TYPE.i32;
 /** The compiled module, or null where WebAssembly SIMD is not available (the JavaScript kernels run instead). */
 const compiled: WebAssembly.Module | null = (() => {
   const bytes = wasmModuleBytes({
-    types: [[[I32, I32, I32, I32, I32, I32, I32], []]],
-    functions: [{ type: 0, locals: [[6, I32], [11, WASM_TYPE.v128]], body: rankUpdateBody() }],
-    exports: [['rankUpdateColumns', 0]],
+    types: [[[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32], []]],
+    functions: [
+      { type: 0, locals: [[6, I32], [11, WASM_TYPE.v128]], body: rankUpdateBody() },
+      { type: 1, locals: [[7, I32], [15, WASM_TYPE.v128]], body: panelSolveBody() },
+    ],
+    exports: [['rankUpdateColumns', 0], ['panelSolveRows', 1]],
   });
   return typeof WebAssembly === 'object' && WebAssembly.validate(bytes) ? new WebAssembly.Module(bytes) : null;
 })();

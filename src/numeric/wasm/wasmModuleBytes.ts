@@ -49,7 +49,7 @@ export const op = Object.freeze({
   v128Load64Splat: (offset: number) => [0xfd, 0x0a, 3, ...unsignedLeb128(offset)],
   v128Store: (offset: number) => [0xfd, 0x0b, 3, ...unsignedLeb128(offset)],
   v128Zero: [0xfd, 0x0c, ...new Array<number>(16).fill(0)],
-  f64x2Add: [0xfd, 0xf0, 0x01], f64x2Sub: [0xfd, 0xf1, 0x01], f64x2Mul: [0xfd, 0xf2, 0x01],
+  f64x2Add: [0xfd, 0xf0, 0x01], f64x2Sub: [0xfd, 0xf1, 0x01], f64x2Mul: [0xfd, 0xf2, 0x01], f64x2Div: [0xfd, 0xf3, 0x01],
 });
 
 /** One function: its signature's index, its locals as (count, type) runs, and its body without the final `end`. */

@@ -1,6 +1,7 @@
 // Dense test matrices for the kernels of the supernodal Cholesky, and their column-major
 // storage with a leading dimension, as a front of the multifrontal method holds them.
 import { Matrix } from 'ml-matrix';
+import { ensureSimdFloat64Capacity } from '../../../src/numeric/sparse/simdTileKernels.js';
 
 /** Unit roundoff of IEEE double precision, 2^-53. */
 export const UNIT_ROUNDOFF = 2 ** -53;
@@ -73,3 +74,9 @@ export function infinityCondition(l: Matrix, inverse: Matrix): number {
   const norm = (m: Matrix): number => Math.max(...Array.from({ length: m.rows }, (_, i) => m.getRow(i).reduce((s, v) => s + Math.abs(v), 0)));
   return norm(l) * norm(inverse);
 }
+
+/** A plain array, or one in a memory of the SIMD kernels (as the multifrontal fronts are): the dense kernels are tested on both. */
+export const ALLOCATORS = {
+  plain: (n: number): Float64Array => new Float64Array(n),
+  simd: (n: number): Float64Array => ensureSimdFloat64Capacity(new Float64Array(0), n).subarray(0, n),
+} as const;

@@ -1,20 +1,14 @@
 import { Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { ensureSimdFloat64Capacity, simdKernelsOf } from '../../../src/numeric/sparse/simdTileKernels.js';
+import { simdKernelsOf } from '../../../src/numeric/sparse/simdTileKernels.js';
 import { symmetricRankUpdate } from '../../../src/numeric/sparse/symmetricRankUpdate.js';
-import { blockOf, randomDense, UNIT_ROUNDOFF } from './denseFronts.js';
+import { ALLOCATORS, blockOf, randomDense, UNIT_ROUNDOFF } from './denseFronts.js';
 import { uniformStream } from './sparseTestMatrices.js';
 
 // Reference: C - P P^T by ml-matrix's mmul. Tolerance per entry: a sum of `width` products
 // computed in any order lies within gamma_width (|P| |P|^T)_ij of the exact value, gamma_k =
 // k u / (1 - k u) (Higham 2002, "Accuracy and Stability of Numerical Algorithms", eq. 3.5, from
 // memory); ours and the reference each, plus one rounding of the subtraction from C.
-/** A plain array, or one in a memory of the SIMD kernels (the multifrontal fronts). */
-const ALLOCATORS = {
-  plain: (n: number) => new Float64Array(n),
-  simd: (n: number) => ensureSimdFloat64Capacity(new Float64Array(0), n).subarray(0, n),
-} as const;
-
 describe('symmetricRankUpdate', () => {
   it('runs in WebAssembly SIMD on Node 20 for an array from ensureSimdFloat64Capacity', () => {
     expect(simdKernelsOf(ALLOCATORS.simd(16))).toBeDefined();
