@@ -46,13 +46,14 @@ const NEARBY_POINTS = 16;
 const NEARBY_STEP = 2e-4;
 
 /**
- * NEARBY_POINTS parameter vectors around `model`, each free parameter moved by a relative
- * +-NEARBY_STEP in a fixed pattern: a sampler's successive calls are at different points, and
- * a mesh that moves changes the pattern of the normal matrix, so its ordering and symbolic
- * analysis are redone where a repeated point would find them kept.
+ * NEARBY_POINTS parameter vectors around `model`: each free parameter (`free[i]`, it has a
+ * prior) moved by a relative +-NEARBY_STEP in a fixed pattern, the fixed ones left alone, as a
+ * sampler does. Its successive calls are at different points, and a mesh that moves changes
+ * the pattern of the normal matrix, so the ordering and symbolic analysis are redone where a
+ * repeated point would find them kept.
  */
-function nearbyPoints(model: Float64Array): Float64Array[] {
-  return Array.from({ length: NEARBY_POINTS }, (_, k) => Float64Array.from(model, (v, i) => v * (1 + NEARBY_STEP * (((k + i) % 4) - 1.5))));
+function nearbyPoints(model: Float64Array, free: readonly boolean[]): Float64Array[] {
+  return Array.from({ length: NEARBY_POINTS }, (_, k) => Float64Array.from(model, (v, i) => (free[i] ? v * (1 + NEARBY_STEP * (((k + i) % 4) - 1.5)) : v)));
 }
 
 /**
@@ -79,7 +80,7 @@ export async function run(args: string[]): Promise<void> {
       const likelihood = new PixelLikelihood(config, data, 0);
       const model = likelihood.system.configuredValues();
       const same = bestMillisecondsPerCall(() => likelihood.logLikelihood(model));
-      const points = nearbyPoints(model);
+      const points = nearbyPoints(model, likelihood.system.parameters.map((p) => p.prior !== undefined));
       let next = 0;
       const { ms, cpuMs, callsPerRepeat } = bestMillisecondsPerCall(() => {
         likelihood.logLikelihood(points[next]);
