@@ -1,9 +1,14 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
+import { bandOffset, rowSpan, WeightedGramBand } from '../numeric/sparse/weightedGramBand.js';
 import type { SparseRows } from './sparseRows.js';
 
-/** Meshes of at most this many cells accumulate B^T W B in a dense triangle (8 S^2 bytes: 20 MB at the limit). */
-const DENSE_CELLS = 1600;
+/**
+ * B^T W B is accumulated in a dense band of its lower triangle (S rows of the band's width,
+ * WeightedGramBand) when that holds at most this many entries (8 bytes each: 64 MB at the
+ * limit; the regular 64 x 64 grid of the demo needs 5.3 million), else row by row through B^T.
+ */
+const DENSE_BAND_ENTRIES = 8_000_000;
 
 /**
  * The posterior precision and right-hand side of a regularised linear inversion (Warren & Dye
@@ -23,8 +28,8 @@ export class NormalMatrix implements SymmetricCsr {
   rhs: Float64Array<ArrayBuffer> = new Float64Array(0);
   private work = new Float64Array(0);
   private slot = new Int32Array(0);
-  /** Dense lower triangle of B^T W B (row-major S x S), for meshes of at most DENSE_CELLS cells. */
-  private dense = new Float64Array(0);
+  /** The dense band of B^T W B and its kernel. */
+  private readonly gram = new WeightedGramBand();
 
   /**
    * Builds A and b. `bt` is the transpose of B (cell rows of (used pixel, value)); `hScale`
@@ -45,10 +50,10 @@ export class NormalMatrix implements SymmetricCsr {
     }
     this.rowStart[0] = 0;
     let end = 0;
-    if (cellCount <= DENSE_CELLS) {
-      if (this.dense.length < cellCount * cellCount) this.dense = new Float64Array(cellCount * cellCount);
-      this.accumulateDense(b, w, cellCount);
-      for (let j = 0; j < cellCount; j++) end = this.denseRow(j, end, cellCount, h, hScale);
+    const band = Math.max(rowSpan(b), lowerSpan(h, cellCount));
+    if (cellCount * band <= DENSE_BAND_ENTRIES) {
+      const dense = this.gram.accumulate(b, w, cellCount, band);
+      for (let j = 0; j < cellCount; j++) end = this.denseRow(dense, j, end, band, h, hScale);
     } else {
       for (let j = 0; j < cellCount; j++) end = this.cellRow(j, end, b, bt, w, h, hScale);
     }
@@ -57,31 +62,14 @@ export class NormalMatrix implements SymmetricCsr {
     this.extraRhs(cellCount, w, d, extras, extraCount);
   }
 
-  /**
-   * B^T W B into the dense lower triangle, pixel by pixel: each pair of a row's entries (cells
-   * sorted increasing, so the pairs with b <= a are a prefix) adds w_e B_ea B_eb at (a, b).
-   */
-  private accumulateDense(b: SparseRows, w: Float64Array, cellCount: number): void {
-    const dense = this.dense;
-    const { rowStart, column, value } = b;
-    for (let e = 0; e < b.rowCount; e++) {
-      const from = rowStart[e], to = rowStart[e + 1];
-      const we = w[e];
-      for (let x = from; x < to; x++) {
-        const vx = we * value[x];
-        const rowX = column[x] * cellCount;
-        for (let y = from; y <= x; y++) dense[rowX + column[y]] += vx * value[y];
-      }
-    }
-  }
-
-  /** Row j from the dense triangle (its nonzeros, which it clears) and hScale H_jk. */
-  private denseRow(j: number, end: number, cellCount: number, h: SymmetricCsr, hScale: number): number {
-    if (this.column.length < end + j + 1) this.grow(2 * (end + j + 1));
-    const dense = this.dense, column = this.column, value = this.value;
-    const base = j * cellCount;
+  /** Row j from the dense band (its nonzeros, which it clears) and hScale H_jk. */
+  private denseRow(dense: Float64Array, j: number, end: number, band: number, h: SymmetricCsr, hScale: number): number {
+    const first = Math.max(0, j - band + 1);
+    if (this.column.length < end + j - first + 1) this.grow(2 * (end + j - first + 1));
+    const column = this.column, value = this.value;
+    const base = bandOffset(j, 0, band);
     for (let k = h.rowStart[j]; k < h.rowStart[j + 1]; k++) dense[base + h.column[k]] += hScale * h.value[k];
-    for (let c = 0; c <= j; c++) {
+    for (let c = first; c <= j; c++) {
       const v = dense[base + c];
       if (v !== 0) {
         column[end] = c;
@@ -196,4 +184,13 @@ export class NormalMatrix implements SymmetricCsr {
     this.column = ensureInt32Capacity(this.column, entries);
     this.value = ensureFloat64Capacity(this.value, entries);
   }
+}
+
+/** The band from the first column of each of a lower triangle's first `rows` rows to the diagonal. */
+function lowerSpan(lower: SymmetricCsr, rows: number): number {
+  let span = 1;
+  for (let r = 0; r < rows; r++) {
+    for (let k = lower.rowStart[r]; k < lower.rowStart[r + 1]; k++) span = Math.max(span, r - lower.column[k] + 1);
+  }
+  return span;
 }

@@ -1,4 +1,4 @@
-import { WASM_TYPE, op, wasmModuleBytes } from '../wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, op } from '../wasm/wasmModuleBytes.js';
 
 /** The dense kernels that run as WebAssembly SIMD on a Float64Array held in their own memory. */
 export interface SimdTileKernels {
@@ -125,17 +125,14 @@ function panelSolveBody(): number[] {
 const I32 = WASM_TYPE.i32;
 
 /** The compiled module, or null where WebAssembly SIMD is not available (the JavaScript kernels run instead). */
-const compiled: WebAssembly.Module | null = (() => {
-  const bytes = wasmModuleBytes({
-    types: [[[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32], []]],
-    functions: [
-      { type: 0, locals: [[6, I32], [11, WASM_TYPE.v128]], body: rankUpdateBody() },
-      { type: 1, locals: [[7, I32], [15, WASM_TYPE.v128]], body: panelSolveBody() },
-    ],
-    exports: [['rankUpdateColumns', 0], ['panelSolveRows', 1]],
-  });
-  return typeof WebAssembly === 'object' && WebAssembly.validate(bytes) ? new WebAssembly.Module(bytes) : null;
-})();
+const compiled = compileWasmModule({
+  types: [[[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32], []]],
+  functions: [
+    { type: 0, locals: [[6, I32], [11, WASM_TYPE.v128]], body: rankUpdateBody() },
+    { type: 1, locals: [[7, I32], [15, WASM_TYPE.v128]], body: panelSolveBody() },
+  ],
+  exports: [['rankUpdateColumns', 0], ['panelSolveRows', 1]],
+});
 
 /** The kernels bound to each memory's buffer. */
 const kernelsByBuffer = new WeakMap<ArrayBufferLike, SimdTileKernels>();

@@ -41,7 +41,11 @@ export const op = Object.freeze({
   localGet: (i: number) => [0x20, ...unsignedLeb128(i)],
   localSet: (i: number) => [0x21, ...unsignedLeb128(i)],
   i32Const: (v: number) => [0x41, ...signedLeb128(v)],
-  i32Eqz: [0x45], i32GeS: [0x4e], i32Add: [0x6a], i32Sub: [0x6b], i32Mul: [0x6c], i32Shl: [0x74],
+  i32Eqz: [0x45], i32GtS: [0x4a], i32GeS: [0x4e], i32Add: [0x6a], i32Sub: [0x6b], i32Mul: [0x6c], i32Shl: [0x74],
+  i32Load: (offset: number) => [0x28, 2, ...unsignedLeb128(offset)],
+  f64Load: (offset: number) => [0x2b, 3, ...unsignedLeb128(offset)],
+  f64Store: (offset: number) => [0x39, 3, ...unsignedLeb128(offset)],
+  f64Add: [0xa0], f64Mul: [0xa2],
   block: [0x02, 0x40], loop: [0x03, 0x40], end: [0x0b],
   br: (depth: number) => [0x0c, ...unsignedLeb128(depth)],
   brIf: (depth: number) => [0x0d, ...unsignedLeb128(depth)],
@@ -81,4 +85,14 @@ export function wasmModuleBytes(spec: WasmModuleSpec): Uint8Array<ArrayBuffer> {
     return [...unsignedLeb128(body.length), ...body];
   })));
   return Uint8Array.from([0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00, ...types, ...imports, ...functions, ...exports, ...code]);
+}
+
+/**
+ * The module of `spec` compiled, or null where the engine rejects it (no WebAssembly, or no
+ * SIMD for a module that uses it): callers then run their JavaScript twin.
+ */
+export function compileWasmModule(spec: WasmModuleSpec): WebAssembly.Module | null {
+  if (typeof WebAssembly !== 'object') return null;
+  const bytes = wasmModuleBytes(spec);
+  return WebAssembly.validate(bytes) ? new WebAssembly.Module(bytes) : null;
 }
