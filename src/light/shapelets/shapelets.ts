@@ -2,6 +2,7 @@ import { InputError, expectedFound } from '../../errors.js';
 import type { LightProfile } from '../lightProfile.js';
 import { exactGaussianRow, hermiteOrders, HERMITE_BLOCK, scaledPositions, type GaussianRow } from './hermiteBlock.js';
 import { hermiteRecurrence } from './hermiteFunctions.js';
+import { shapeletRunMeans } from './shapeletRunMeans.js';
 
 /** The (n1, n2) orders of basis function k of `shapelets(maxOrder)`, in basis order. */
 export function shapeletOrders(maxOrder: number): Array<readonly [number, number]> {
@@ -83,48 +84,12 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
         const count = Math.min(perBlock, runs - first);
         hermite(x, y, first * run, count * run, p[offset], p[offset + 1], inverseScale);
         for (let t = 0; t < count; t++) {
-          const into = outOffset + target[first + t];
-          for (let n1 = 0; n1 <= maxOrder; n1++) {
-            runMeansAlongY(alongX, n1 * HERMITE_BLOCK + t * run, alongY, t * run, maxOrder - n1, basisOf, n1 * orderCount, inverseScale, inverseRun, run, out, into, stride);
-          }
+          shapeletRunMeans(alongX, t * run, alongY, t * run, maxOrder, basisOf, inverseScale, inverseRun, run, out, outOffset + target[first + t], stride);
         }
       }
     },
   };
   return profile;
-}
-
-/**
- * For one run and one n1, the means over the run of the bases (n1, n2), n2 = 0..lastN2: each the
- * sum in order of scale * a[aAt + i] * b[bAt + n2 * HERMITE_BLOCK + i] (the products writeProducts
- * stores), times inverseRun, into out[into + basis * stride]. Four n2 share each load of a.
- */
-function runMeansAlongY(
-  a: Float64Array, aAt: number, b: Float64Array, bAt: number, lastN2: number, basisOf: Int32Array, basisRow: number,
-  scale: number, inverseRun: number, run: number, out: Float64Array, into: number, stride: number,
-): void {
-  let n2 = 0;
-  for (; n2 + 3 <= lastN2; n2 += 4) {
-    const b0 = bAt + n2 * HERMITE_BLOCK, b1 = b0 + HERMITE_BLOCK, b2 = b1 + HERMITE_BLOCK, b3 = b2 + HERMITE_BLOCK;
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
-    for (let i = 0; i < run; i++) {
-      const v = scale * a[aAt + i];
-      s0 += v * b[b0 + i];
-      s1 += v * b[b1 + i];
-      s2 += v * b[b2 + i];
-      s3 += v * b[b3 + i];
-    }
-    out[into + basisOf[basisRow + n2] * stride] = s0 * inverseRun;
-    out[into + basisOf[basisRow + n2 + 1] * stride] = s1 * inverseRun;
-    out[into + basisOf[basisRow + n2 + 2] * stride] = s2 * inverseRun;
-    out[into + basisOf[basisRow + n2 + 3] * stride] = s3 * inverseRun;
-  }
-  for (; n2 <= lastN2; n2++) {
-    const b0 = bAt + n2 * HERMITE_BLOCK;
-    let sum = 0;
-    for (let i = 0; i < run; i++) sum += scale * a[aAt + i] * b[b0 + i];
-    out[into + basisOf[basisRow + n2] * stride] = sum * inverseRun;
-  }
 }
 
 /** out[at + i] = scale * a[aAt + i] * b[bAt + i] for i < size: one basis image over a block. */
