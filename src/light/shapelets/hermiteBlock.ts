@@ -28,11 +28,30 @@ export function hermiteOrders(
 ): void {
   if (maxOrder < 1) return;
   for (let i = 0; i < size; i++) block[HERMITE_BLOCK + i] = Math.SQRT2 * u[i] * block[i];
-  for (let k = 1; k < maxOrder; k++) stepOrder(block, u, k, raising[k], lowering[k], size);
+  let k = 1;
+  for (; k + 1 < maxOrder; k += 2) stepTwoOrders(block, u, k, raising[k], lowering[k], raising[k + 1], lowering[k + 1], size);
+  if (k < maxOrder) stepOrder(block, u, k, raising[k], lowering[k], size);
 }
 
 /** Order k + 1 from orders k and k - 1 over the block. */
 function stepOrder(block: Float64Array, u: Float64Array, k: number, raise: number, lower: number, size: number): void {
   const current = k * HERMITE_BLOCK, previous = current - HERMITE_BLOCK, next = current + HERMITE_BLOCK;
   for (let i = 0; i < size; i++) block[next + i] = raise * u[i] * block[current + i] - lower * block[previous + i];
+}
+
+/**
+ * Orders k + 1 and k + 2 in one pass (the arithmetic of two stepOrder calls, so the same values,
+ * with order k + 1 kept in a register instead of stored and loaded again).
+ */
+function stepTwoOrders(
+  block: Float64Array, u: Float64Array, k: number, raise0: number, lower0: number, raise1: number, lower1: number, size: number,
+): void {
+  const current = k * HERMITE_BLOCK, previous = current - HERMITE_BLOCK, next = current + HERMITE_BLOCK, after = next + HERMITE_BLOCK;
+  for (let i = 0; i < size; i++) {
+    const ui = u[i];
+    const c = block[current + i];
+    const n = raise0 * ui * c - lower0 * block[previous + i];
+    block[next + i] = n;
+    block[after + i] = raise1 * ui * n - lower1 * c;
+  }
 }
