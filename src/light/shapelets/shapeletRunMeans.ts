@@ -7,18 +7,19 @@ import { HERMITE_BLOCK } from './hermiteBlock.js';
  * writeBasis stores), times inverseRun, into out[into + basis * stride] with
  * basis = basisOf[n1 * (maxOrder + 1) + n2]. The sums are a triangle of the small matrix product
  * of the two Hermite tables; it is walked two n1 rows by four n2 rows at a time, so each pass
- * over the run loads six values for eight products (the edges of the triangle in narrower
- * passes). Every sum keeps its own order of additions, so the result equals writeBasis followed
- * by in-order sums bit for bit.
+ * over the run loads six values for eight products, with narrower passes at the end of each
+ * pair of rows. The entries left, on the anti-diagonal n1 + n2 = maxOrder, go four to a pass: a
+ * pass with one sum waits on each addition, one with four overlaps them. Every sum keeps its own
+ * order of additions, so the result equals writeBasis followed by in-order sums bit for bit.
  */
 export function shapeletRunMeans(
   a: Float64Array, aAt: number, b: Float64Array, bAt: number, maxOrder: number, basisOf: Int32Array,
   scale: number, inverseRun: number, run: number, out: Float64Array, into: number, stride: number,
 ): void {
   const orderCount = maxOrder + 1;
-  let n1 = 0;
-  for (; n1 + 1 <= maxOrder; n1 += 2) {
-    // Rows n1 and n1 + 1 share n2 = 0..maxOrder - n1 - 1; row n1 has n2 = maxOrder - n1 besides.
+  for (let n1 = 0; n1 + 1 <= maxOrder; n1 += 2) {
+    // Rows n1 and n1 + 1 share n2 = 0..maxOrder - n1 - 1 (row n1's last entry is on the
+    // anti-diagonal n1 + n2 = maxOrder, summed below).
     const shared = maxOrder - n1;
     const row0 = aAt + n1 * HERMITE_BLOCK, row1 = row0 + HERMITE_BLOCK;
     const basis0 = n1 * orderCount, basis1 = basis0 + orderCount;
@@ -26,13 +27,32 @@ export function shapeletRunMeans(
     for (; n2 + 4 <= shared; n2 += 4) {
       twoByFour(a, row0, row1, b, bAt + n2 * HERMITE_BLOCK, scale, run, basisOf, basis0 + n2, basis1 + n2, inverseRun, out, into, stride);
     }
-    for (; n2 < shared; n2++) {
+    if (n2 + 2 <= shared) {
+      const c0 = bAt + n2 * HERMITE_BLOCK, c1 = c0 + HERMITE_BLOCK;
+      fourProducts(
+        a, row0, row0, row1, row1, b, c0, c1, c0, c1, scale, run,
+        basisOf[basis0 + n2], basisOf[basis0 + n2 + 1], basisOf[basis1 + n2], basisOf[basis1 + n2 + 1], inverseRun, out, into, stride,
+      );
+      n2 += 2;
+    }
+    if (n2 < shared) {
       twoByOne(a, row0, row1, b, bAt + n2 * HERMITE_BLOCK, scale, run, basisOf[basis0 + n2], basisOf[basis1 + n2], inverseRun, out, into, stride);
     }
-    oneByOne(a, row0, b, bAt + shared * HERMITE_BLOCK, scale, run, basisOf[basis0 + shared], inverseRun, out, into, stride);
   }
-  if (n1 === maxOrder) {
-    oneByOne(a, aAt + n1 * HERMITE_BLOCK, b, bAt, scale, run, basisOf[n1 * orderCount], inverseRun, out, into, stride);
+  // The anti-diagonal entries (n1, maxOrder - n1) of even n1, four at a time.
+  let n1 = 0;
+  for (; n1 + 6 <= maxOrder; n1 += 8) {
+    const n2 = maxOrder - n1;
+    const a0 = aAt + n1 * HERMITE_BLOCK, b0 = bAt + n2 * HERMITE_BLOCK, step = 2 * HERMITE_BLOCK;
+    fourProducts(
+      a, a0, a0 + step, a0 + 2 * step, a0 + 3 * step, b, b0, b0 - step, b0 - 2 * step, b0 - 3 * step, scale, run,
+      basisOf[n1 * orderCount + n2], basisOf[(n1 + 2) * orderCount + n2 - 2], basisOf[(n1 + 4) * orderCount + n2 - 4],
+      basisOf[(n1 + 6) * orderCount + n2 - 6], inverseRun, out, into, stride,
+    );
+  }
+  for (; n1 <= maxOrder; n1 += 2) {
+    const n2 = maxOrder - n1;
+    oneByOne(a, aAt + n1 * HERMITE_BLOCK, b, bAt + n2 * HERMITE_BLOCK, scale, run, basisOf[n1 * orderCount + n2], inverseRun, out, into, stride);
   }
 }
 
@@ -63,6 +83,25 @@ function twoByFour(
   out[into + basisOf[at1 + 1] * stride] = s11 * inverseRun;
   out[into + basisOf[at1 + 2] * stride] = s12 * inverseRun;
   out[into + basisOf[at1 + 3] * stride] = s13 * inverseRun;
+}
+
+/** Four sums of products of rows, a from a_j against b from b_j (j = 0..3), into bases k0..k3. */
+function fourProducts(
+  a: Float64Array, a0: number, a1: number, a2: number, a3: number,
+  b: Float64Array, b0: number, b1: number, b2: number, b3: number, scale: number, run: number,
+  k0: number, k1: number, k2: number, k3: number, inverseRun: number, out: Float64Array, into: number, stride: number,
+): void {
+  let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+  for (let i = 0; i < run; i++) {
+    s0 += scale * a[a0 + i] * b[b0 + i];
+    s1 += scale * a[a1 + i] * b[b1 + i];
+    s2 += scale * a[a2 + i] * b[b2 + i];
+    s3 += scale * a[a3 + i] * b[b3 + i];
+  }
+  out[into + k0 * stride] = s0 * inverseRun;
+  out[into + k1 * stride] = s1 * inverseRun;
+  out[into + k2 * stride] = s2 * inverseRun;
+  out[into + k3 * stride] = s3 * inverseRun;
 }
 
 /** Sums of rows a0, a1 against row b0 of b, into bases k0 and k1. */
