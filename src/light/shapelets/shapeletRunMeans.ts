@@ -11,10 +11,12 @@ import { HERMITE_BLOCK } from './hermiteBlock.js';
  * pair of rows. The entries left, on the anti-diagonal n1 + n2 = maxOrder, go four to a pass: a
  * pass with one sum waits on each addition, one with four overlaps them. Every sum keeps its own
  * order of additions, so the result equals writeBasis followed by in-order sums bit for bit.
+ * scale and inverseRun come in `factors` ([scale, inverseRun]), not as arguments: V8 boxes a
+ * double passed to a call it does not inline, an allocation per run.
  */
 export function shapeletRunMeans(
   a: Float64Array, aAt: number, b: Float64Array, bAt: number, maxOrder: number, basisOf: Int32Array,
-  scale: number, inverseRun: number, run: number, out: Float64Array, into: number, stride: number,
+  factors: Float64Array, run: number, out: Float64Array, into: number, stride: number,
 ): void {
   const orderCount = maxOrder + 1;
   for (let n1 = 0; n1 + 1 <= maxOrder; n1 += 2) {
@@ -25,18 +27,18 @@ export function shapeletRunMeans(
     const basis0 = n1 * orderCount, basis1 = basis0 + orderCount;
     let n2 = 0;
     for (; n2 + 4 <= shared; n2 += 4) {
-      twoByFour(a, row0, row1, b, bAt + n2 * HERMITE_BLOCK, scale, run, basisOf, basis0 + n2, basis1 + n2, inverseRun, out, into, stride);
+      twoByFour(a, row0, row1, b, bAt + n2 * HERMITE_BLOCK, factors, run, basisOf, basis0 + n2, basis1 + n2, out, into, stride);
     }
     if (n2 + 2 <= shared) {
       const c0 = bAt + n2 * HERMITE_BLOCK, c1 = c0 + HERMITE_BLOCK;
       fourProducts(
-        a, row0, row0, row1, row1, b, c0, c1, c0, c1, scale, run,
-        basisOf[basis0 + n2], basisOf[basis0 + n2 + 1], basisOf[basis1 + n2], basisOf[basis1 + n2 + 1], inverseRun, out, into, stride,
+        a, row0, row0, row1, row1, b, c0, c1, c0, c1, factors, run,
+        basisOf[basis0 + n2], basisOf[basis0 + n2 + 1], basisOf[basis1 + n2], basisOf[basis1 + n2 + 1], out, into, stride,
       );
       n2 += 2;
     }
     if (n2 < shared) {
-      twoByOne(a, row0, row1, b, bAt + n2 * HERMITE_BLOCK, scale, run, basisOf[basis0 + n2], basisOf[basis1 + n2], inverseRun, out, into, stride);
+      twoByOne(a, row0, row1, b, bAt + n2 * HERMITE_BLOCK, factors, run, basisOf[basis0 + n2], basisOf[basis1 + n2], out, into, stride);
     }
   }
   // The anti-diagonal entries (n1, maxOrder - n1) of even n1, four at a time.
@@ -45,22 +47,23 @@ export function shapeletRunMeans(
     const n2 = maxOrder - n1;
     const a0 = aAt + n1 * HERMITE_BLOCK, b0 = bAt + n2 * HERMITE_BLOCK, step = 2 * HERMITE_BLOCK;
     fourProducts(
-      a, a0, a0 + step, a0 + 2 * step, a0 + 3 * step, b, b0, b0 - step, b0 - 2 * step, b0 - 3 * step, scale, run,
+      a, a0, a0 + step, a0 + 2 * step, a0 + 3 * step, b, b0, b0 - step, b0 - 2 * step, b0 - 3 * step, factors, run,
       basisOf[n1 * orderCount + n2], basisOf[(n1 + 2) * orderCount + n2 - 2], basisOf[(n1 + 4) * orderCount + n2 - 4],
-      basisOf[(n1 + 6) * orderCount + n2 - 6], inverseRun, out, into, stride,
+      basisOf[(n1 + 6) * orderCount + n2 - 6], out, into, stride,
     );
   }
   for (; n1 <= maxOrder; n1 += 2) {
     const n2 = maxOrder - n1;
-    oneByOne(a, aAt + n1 * HERMITE_BLOCK, b, bAt + n2 * HERMITE_BLOCK, scale, run, basisOf[n1 * orderCount + n2], inverseRun, out, into, stride);
+    oneByOne(a, aAt + n1 * HERMITE_BLOCK, b, bAt + n2 * HERMITE_BLOCK, factors, run, basisOf[n1 * orderCount + n2], out, into, stride);
   }
 }
 
 /** Sums of rows a0, a1 (of a) against the four consecutive rows of b from b0. */
 function twoByFour(
-  a: Float64Array, a0: number, a1: number, b: Float64Array, b0: number, scale: number, run: number,
-  basisOf: Int32Array, at0: number, at1: number, inverseRun: number, out: Float64Array, into: number, stride: number,
+  a: Float64Array, a0: number, a1: number, b: Float64Array, b0: number, factors: Float64Array, run: number,
+  basisOf: Int32Array, at0: number, at1: number, out: Float64Array, into: number, stride: number,
 ): void {
+  const scale = factors[0], inverseRun = factors[1];
   const b1 = b0 + HERMITE_BLOCK, b2 = b1 + HERMITE_BLOCK, b3 = b2 + HERMITE_BLOCK;
   let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s10 = 0, s11 = 0, s12 = 0, s13 = 0;
   for (let i = 0; i < run; i++) {
@@ -88,9 +91,10 @@ function twoByFour(
 /** Four sums of products of rows, a from a_j against b from b_j (j = 0..3), into bases k0..k3. */
 function fourProducts(
   a: Float64Array, a0: number, a1: number, a2: number, a3: number,
-  b: Float64Array, b0: number, b1: number, b2: number, b3: number, scale: number, run: number,
-  k0: number, k1: number, k2: number, k3: number, inverseRun: number, out: Float64Array, into: number, stride: number,
+  b: Float64Array, b0: number, b1: number, b2: number, b3: number, factors: Float64Array, run: number,
+  k0: number, k1: number, k2: number, k3: number, out: Float64Array, into: number, stride: number,
 ): void {
+  const scale = factors[0], inverseRun = factors[1];
   let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
   for (let i = 0; i < run; i++) {
     s0 += scale * a[a0 + i] * b[b0 + i];
@@ -106,9 +110,10 @@ function fourProducts(
 
 /** Sums of rows a0, a1 against row b0 of b, into bases k0 and k1. */
 function twoByOne(
-  a: Float64Array, a0: number, a1: number, b: Float64Array, b0: number, scale: number, run: number,
-  k0: number, k1: number, inverseRun: number, out: Float64Array, into: number, stride: number,
+  a: Float64Array, a0: number, a1: number, b: Float64Array, b0: number, factors: Float64Array, run: number,
+  k0: number, k1: number, out: Float64Array, into: number, stride: number,
 ): void {
+  const scale = factors[0], inverseRun = factors[1];
   let s0 = 0, s1 = 0;
   for (let i = 0; i < run; i++) {
     const c = b[b0 + i];
@@ -121,9 +126,10 @@ function twoByOne(
 
 /** The sum of row a0 against row b0, into basis k. */
 function oneByOne(
-  a: Float64Array, a0: number, b: Float64Array, b0: number, scale: number, run: number,
-  k: number, inverseRun: number, out: Float64Array, into: number, stride: number,
+  a: Float64Array, a0: number, b: Float64Array, b0: number, factors: Float64Array, run: number,
+  k: number, out: Float64Array, into: number, stride: number,
 ): void {
+  const scale = factors[0], inverseRun = factors[1];
   let sum = 0;
   for (let i = 0; i < run; i++) sum += scale * a[a0 + i] * b[b0 + i];
   out[into + k * stride] = sum * inverseRun;
