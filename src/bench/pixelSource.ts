@@ -35,7 +35,8 @@ const SCENARIOS: Readonly<Record<string, Record<string, unknown>>> = {
   },
 };
 
-function scenarioConfig(name: string): ArcsiftConfig {
+/** The config of scenario `name`: configs/demo-pixelated.yaml fitted with that source. */
+export function scenarioConfig(name: string): ArcsiftConfig {
   const data = readConfigFile(configPath) as EditableConfig;
   data.source.light = [...data.source.light.filter((c) => c.kind !== 'pixelated'), SCENARIOS[name]];
   return parseConfig(data, configPath);

@@ -143,12 +143,14 @@ export class AdaptivePixelMeans {
     lattice.scatterBeta();
     const count = this.pixels.length;
     state.flags.fill(0, 0, count);
-    for (let k = 0; k < this.basisCount; k++) {
+    // Last basis first: see LatticeStencil.pixelStencils.
+    let live = this.stencil.startBases();
+    for (let k = this.basisCount - 1; k >= 0; k--) {
       const base = k * lattice.planeSize;
       lattice.scatterValues(k, base);
       this.basisScale.write(k, base);
       this.stencil.rowStencils(base);
-      this.stencil.pixelStencils(k, base);
+      live = this.stencil.pixelStencils(k, base, live);
     }
     state.directCount = state.collectFlagged(STRAIGHT_TO_FULL, this.allPixels, count, state.direct, state.directCount);
     const pendingCount = state.collectFlagged(REFINE, this.allPixels, count, state.pending, 0);
@@ -157,8 +159,8 @@ export class AdaptivePixelMeans {
   }
 
   /**
-   * m x m sub-pixel means of the pending pixels into `current`: rays of the pixels marked
-   * interpolable are not traced, their source-plane positions come from the lattice.
+   * m x m sub-pixel means of the pending pixels into `current` (`means` at m = S): rays of the
+   * pixels marked interpolable are not traced, their source-plane positions come from the lattice.
    */
   private subPixelMeans(p: Float64Array, m: number, pendingCount: number): void {
     if (!this.hasSource || !this.adaptive) {
@@ -180,11 +182,15 @@ export class AdaptivePixelMeans {
     if (traced < pendingCount) this.subPixelPass(p, m, traced, pendingCount, true);
   }
 
-  /** One pass of subPixelMeans over pending[from..to), in chunks of rays. */
+  /**
+   * One pass of subPixelMeans over pending[from..to), in chunks of rays; the S x S means are the
+   * model's values and go straight into `means`.
+   */
   private subPixelPass(p: Float64Array, m: number, from: number, to: number, interpolate: boolean): void {
     const perChunk = Math.floor(this.chunk.size / (m * m));
     const weights = this.interpolation.lagrangeWeights(m);
     const chunk = this.chunk;
+    const into = m === this.supersampling ? this.state.means : this.state.current;
     for (let start = from; start < to; start += perChunk) {
       const end = Math.min(to, start + perChunk);
       const r = this.fillChunk(m, weights, start, end, interpolate);
@@ -194,7 +200,7 @@ export class AdaptivePixelMeans {
       } else {
         this.raysInterpolated += r;
       }
-      shineMeans(this.lightTerms, p, chunk, end - start, m * m, this.state.current, this.pixels.length);
+      shineMeans(this.lightTerms, p, chunk, end - start, m * m, into, this.pixels.length);
     }
   }
 

@@ -23,6 +23,8 @@ export class LatticeStencil {
   private readonly d5: Float64Array;
   private readonly rowSecond: Float64Array;
   private readonly rowFourth: Float64Array;
+  /** The listed pixels not yet sent to S x S by an earlier basis (see pixelStencils). */
+  private readonly live: Int32Array;
 
   constructor(lattice: PixelLattice, state: PixelMeanState, supersampling: number) {
     this.lattice = lattice;
@@ -33,6 +35,14 @@ export class LatticeStencil {
     this.d5 = Float64Array.from([w5[2] - this.w3[1], w5[1] - this.w3[0], w5[0]]);
     this.rowSecond = new Float64Array(lattice.count === 0 ? 0 : lattice.planeSize);
     this.rowFourth = new Float64Array(lattice.count === 0 ? 0 : lattice.planeSize);
+    this.live = new Int32Array(lattice.pixelsPadded.length);
+  }
+
+  /** Before the first basis of an evaluation: every listed pixel is live; returns their number. */
+  startBases(): number {
+    const live = this.live;
+    for (let e = 0; e < live.length; e++) live[e] = e;
+    return live.length;
   }
 
   /** The stencils along x (3-point part and 5-point correction) at every row point (basis at `base`). */
@@ -53,11 +63,16 @@ export class LatticeStencil {
   }
 
   /**
-   * The stencils along y of basis k: the predicted mean into `means`, the centre value into
-   * `previous`, and pixels whose error indicator exceeds the tolerance flagged REFINE (or
-   * STRAIGHT_TO_FULL above HOPELESS tolerances).
+   * The stencils along y of basis k at the first liveCount live pixels: the predicted mean into
+   * `means`, the centre value into `previous`, and pixels whose error indicator exceeds the
+   * tolerance flagged REFINE (or STRAIGHT_TO_FULL above HOPELESS tolerances). A pixel flagged
+   * STRAIGHT_TO_FULL leaves the live list: the S x S rays will give all its means, so no later
+   * basis needs its stencil. Bases are best taken in the reverse of their listed order: a
+   * many-basis source lists its slowly varying bases first (shapelets by increasing order), so
+   * the fast ones, which send most pixels to S x S, come first and shorten the list for the
+   * rest. Returns the number of pixels left live.
    */
-  pixelStencils(k: number, base: number): void {
+  pixelStencils(k: number, base: number, liveCount: number): number {
     const state = this.state;
     const scale = state.scale[k];
     const values = this.lattice.values;
@@ -70,7 +85,10 @@ export class LatticeStencil {
     const means = state.means, previous = state.previous, flagged = state.flags;
     const relativeTolerance = state.relativeTolerance;
     const out = k * count;
-    for (let e = 0; e < count; e++) {
+    const live = this.live;
+    let kept = 0;
+    for (let t = 0; t < liveCount; t++) {
+      const e = live[t];
       const q = pixelsPadded[e];
       const centre = values[base + q];
       const s0 = rowSecond[q], s1 = rowSecond[q - width] + rowSecond[q + width];
@@ -87,8 +105,13 @@ export class LatticeStencil {
         Math.abs(partX) + Math.abs(partY) + Math.abs(partXY), LATTICE_GUARD * Math.abs(second - centre),
       );
       const tolerance = scale * relativeTolerance[e];
-      if (indicator > HOPELESS * tolerance) flagged[e] = STRAIGHT_TO_FULL;
-      else if (indicator > tolerance && flagged[e] === 0) flagged[e] = REFINE;
+      if (indicator > HOPELESS * tolerance) {
+        flagged[e] = STRAIGHT_TO_FULL;
+        continue;
+      }
+      if (indicator > tolerance) flagged[e] = REFINE;
+      live[kept++] = e;
     }
+    return kept;
   }
 }

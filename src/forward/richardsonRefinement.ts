@@ -45,7 +45,7 @@ export class RichardsonRefinement {
   refine(m: number, level: number, pendingCount: number): number {
     const state = this.state;
     if (m === this.supersampling) {
-      this.acceptExact(pendingCount);
+      // The S x S means, the model's values, are already in `means` (AdaptivePixelMeans).
       this.pixelsByLevel[level + 1] = pendingCount;
       return 0;
     }
@@ -55,15 +55,6 @@ export class RichardsonRefinement {
     const kept = state.collectFlagged(REFINE, state.pending, pendingCount, state.pending, 0);
     this.pixelsByLevel[level + 1] = pendingCount - kept - (state.directCount - directBefore);
     return kept;
-  }
-
-  /** The S x S means of the pending pixels are the model's values. */
-  private acceptExact(pendingCount: number): void {
-    const { count, basisCount, means, current, pending } = this.state;
-    for (let t = 0; t < pendingCount; t++) {
-      const e = pending[t];
-      for (let k = 0; k < basisCount; k++) means[k * count + e] = current[k * count + e];
-    }
   }
 
   /** Richardson extrapolation (the factor of `level`) of the pending pixels into `means`, each flagged. */

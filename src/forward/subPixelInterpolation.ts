@@ -96,13 +96,15 @@ export class SubPixelInterpolation {
     for (let t = start, u = 0; t < end; t++, u += 2) {
       const e = list[t];
       const q = pixelsPadded[e];
-      let ok = true;
-      for (let k = 0; k < basisCount; k++) {
+      // Last basis first, stopping at the first that fails (the fast-varying bases of a
+      // many-basis source come last and fail most often).
+      let ok = 1;
+      for (let k = basisCount - 1; k >= 0 && ok === 1; k--) {
         const centre = values[k * planeSize + q];
         const worst = Math.max(Math.abs(out[k * size + u] - centre), Math.abs(out[k * size + u + 1] - centre));
-        if (worst > INTERPOLATION_GUARD * scale[k] * relativeTolerance[e]) ok = false;
+        if (worst > INTERPOLATION_GUARD * scale[k] * relativeTolerance[e]) ok = 0;
       }
-      this.interpolable[e] = ok ? 1 : 0;
+      this.interpolable[e] = ok;
     }
   }
 

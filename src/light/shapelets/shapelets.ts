@@ -2,6 +2,7 @@ import { InputError, expectedFound } from '../../errors.js';
 import type { LightProfile } from '../lightProfile.js';
 import { exactGaussianRow, hermiteOrders, HERMITE_BLOCK, scaledPositions, type GaussianRow } from './hermiteBlock.js';
 import { hermiteRecurrence } from './hermiteFunctions.js';
+import { shapeletRunMeans } from './shapeletRunMeans.js';
 
 /** The (n1, n2) orders of basis function k of `shapelets(maxOrder)`, in basis order. */
 export function shapeletOrders(maxOrder: number): Array<readonly [number, number]> {
@@ -39,26 +40,31 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
   // basisOf[n1 * orderCount + n2]: the basis index of (n1, n2).
   const basisOf = new Int32Array(orderCount * orderCount).fill(-1);
   orders.forEach(([n1, n2], k) => { basisOf[n1 * orderCount + n2] = k; });
-  const hermite = (x: Float64Array, y: Float64Array, from: number, size: number, centerX: number, centerY: number, inverseScale: number): void => {
-    scaledPositions(x, from, size, centerX, inverseScale, u);
+  // Hermite functions of points from..from+size of (x, y) for the parameters at p[offset..].
+  const hermite = (x: Float64Array, y: Float64Array, from: number, size: number, p: Float64Array, offset: number): void => {
+    scaledPositions(x, from, size, p, offset, offset + 2, u);
     gaussianRow(u, size, alongX);
     hermiteOrders(u, size, maxOrder, raising, lowering, alongX);
-    scaledPositions(y, from, size, centerY, inverseScale, u);
+    scaledPositions(y, from, size, p, offset + 1, offset + 2, u);
     gaussianRow(u, size, alongY);
     hermiteOrders(u, size, maxOrder, raising, lowering, alongY);
   };
   let runScratch = new Float64Array(0);
+  // [1 / beta] for writeProducts, [1 / beta, 1 / run] for shapeletRunMeans: numbers in arrays,
+  // not arguments, since V8 boxes a double passed to a call it does not inline.
+  const basisFactor = new Float64Array(1);
+  const runFactors = new Float64Array(2);
   const profile: LightProfile = {
     kind: 'shapelets',
     parameterNames: ['centerXArcsec', 'centerYArcsec', 'scaleArcsec'],
     basisCount,
     writeBasis(p, offset, x, y, n, out, outOffset, stride) {
-      const inverseScale = 1 / p[offset + 2];
+      basisFactor[0] = 1 / p[offset + 2];
       for (let from = 0; from < n; from += HERMITE_BLOCK) {
         const size = Math.min(HERMITE_BLOCK, n - from);
-        hermite(x, y, from, size, p[offset], p[offset + 1], inverseScale);
+        hermite(x, y, from, size, p, offset);
         for (let k = 0; k < basisCount; k++) {
-          writeProducts(alongX, firstOrders[k] * HERMITE_BLOCK, alongY, secondOrders[k] * HERMITE_BLOCK, inverseScale, size, out, outOffset + k * stride + from);
+          writeProducts(alongX, firstOrders[k] * HERMITE_BLOCK, alongY, secondOrders[k] * HERMITE_BLOCK, basisFactor, size, out, outOffset + k * stride + from);
         }
       }
     },
@@ -76,17 +82,14 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
         }
         return;
       }
-      const inverseScale = 1 / p[offset + 2];
-      const inverseRun = 1 / run;
+      runFactors[0] = 1 / p[offset + 2];
+      runFactors[1] = 1 / run;
       const perBlock = Math.floor(HERMITE_BLOCK / run);
       for (let first = 0; first < runs; first += perBlock) {
         const count = Math.min(perBlock, runs - first);
-        hermite(x, y, first * run, count * run, p[offset], p[offset + 1], inverseScale);
+        hermite(x, y, first * run, count * run, p, offset);
         for (let t = 0; t < count; t++) {
-          const into = outOffset + target[first + t];
-          for (let n1 = 0; n1 <= maxOrder; n1++) {
-            runMeansAlongY(alongX, n1 * HERMITE_BLOCK + t * run, alongY, t * run, maxOrder - n1, basisOf, n1 * orderCount, inverseScale, inverseRun, run, out, into, stride);
-          }
+          shapeletRunMeans(alongX, t * run, alongY, t * run, maxOrder, basisOf, runFactors, run, out, outOffset + target[first + t], stride);
         }
       }
     },
@@ -94,42 +97,10 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
   return profile;
 }
 
-/**
- * For one run and one n1, the means over the run of the bases (n1, n2), n2 = 0..lastN2: each the
- * sum in order of scale * a[aAt + i] * b[bAt + n2 * HERMITE_BLOCK + i] (the products writeProducts
- * stores), times inverseRun, into out[into + basis * stride]. Four n2 share each load of a.
- */
-function runMeansAlongY(
-  a: Float64Array, aAt: number, b: Float64Array, bAt: number, lastN2: number, basisOf: Int32Array, basisRow: number,
-  scale: number, inverseRun: number, run: number, out: Float64Array, into: number, stride: number,
-): void {
-  let n2 = 0;
-  for (; n2 + 3 <= lastN2; n2 += 4) {
-    const b0 = bAt + n2 * HERMITE_BLOCK, b1 = b0 + HERMITE_BLOCK, b2 = b1 + HERMITE_BLOCK, b3 = b2 + HERMITE_BLOCK;
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
-    for (let i = 0; i < run; i++) {
-      const v = scale * a[aAt + i];
-      s0 += v * b[b0 + i];
-      s1 += v * b[b1 + i];
-      s2 += v * b[b2 + i];
-      s3 += v * b[b3 + i];
-    }
-    out[into + basisOf[basisRow + n2] * stride] = s0 * inverseRun;
-    out[into + basisOf[basisRow + n2 + 1] * stride] = s1 * inverseRun;
-    out[into + basisOf[basisRow + n2 + 2] * stride] = s2 * inverseRun;
-    out[into + basisOf[basisRow + n2 + 3] * stride] = s3 * inverseRun;
-  }
-  for (; n2 <= lastN2; n2++) {
-    const b0 = bAt + n2 * HERMITE_BLOCK;
-    let sum = 0;
-    for (let i = 0; i < run; i++) sum += scale * a[aAt + i] * b[b0 + i];
-    out[into + basisOf[basisRow + n2] * stride] = sum * inverseRun;
-  }
-}
-
-/** out[at + i] = scale * a[aAt + i] * b[bAt + i] for i < size: one basis image over a block. */
+/** out[at + i] = scale * a[aAt + i] * b[bAt + i] for i < size, scale = factor[0]: one basis image over a block. */
 function writeProducts(
-  a: Float64Array, aAt: number, b: Float64Array, bAt: number, scale: number, size: number, out: Float64Array, at: number,
+  a: Float64Array, aAt: number, b: Float64Array, bAt: number, factor: Float64Array, size: number, out: Float64Array, at: number,
 ): void {
+  const scale = factor[0];
   for (let i = 0; i < size; i++) out[at + i] = scale * a[aAt + i] * b[bAt + i];
 }
