@@ -145,7 +145,8 @@ export function simdKernelsOf(a: Float64Array): SimdTileKernels | undefined {
 /**
  * `a` when it holds at least `n` values, else a new zeroed array of at least n values in a
  * memory of its own with the SIMD kernels bound to it (an ordinary Float64Array where
- * WebAssembly SIMD is not available). Like ensureFloat64Capacity, the contents are not kept.
+ * WebAssembly SIMD is not available). Unlike ensureFloat64Capacity it does not copy the old
+ * contents: the multifrontal fronts are refilled at every factorisation.
  */
 export function ensureSimdFloat64Capacity(a: Float64Array<ArrayBuffer>, n: number): Float64Array<ArrayBuffer> {
   if (a.length >= n && (compiled === null || simdKernelsOf(a) !== undefined)) return a;
