@@ -1,4 +1,6 @@
 import { WASM_TYPE, compileWasmModule, op } from '../wasm/wasmModuleBytes.js';
+import { copyRange } from './frontOperations.js';
+import { copyInt32 } from './multifrontalSymbolic.js';
 
 /** Compressed sparse rows whose columns increase along each row (rows rowStart[r] .. rowStart[r + 1] - 1). */
 export interface SortedSparseRows {
@@ -76,57 +78,62 @@ type Accumulate = (rowStart: number, column: number, value: number, w: number, d
 
 /**
  * A dense band for G = B^T W B and the kernel that fills it. `accumulate` copies B and w into
- * the kernel's memory (about a millisecond for the demo's 350,000 entries), adds G's lower
- * triangle into the band, and returns the band (bandOffset layout), which the caller reads and
- * must leave all zero again (it is zero the first time and after growth). The memory grows
- * when needed and is reused across calls.
+ * the kernel's memory (under a millisecond for the demo's 350,000 entries), adds G's lower
+ * triangle into the band, and returns the band (bandOffset layout; the array may be longer than
+ * cellCount * band), which the caller reads and must leave all zero again (it is zero the first
+ * time and after growth). The memory and its views are made when a call needs more room than
+ * they have and reused otherwise, so a call allocates nothing.
  */
 export class WeightedGramBand {
-  private memory: WebAssembly.Memory | null = null;
   private kernel: Accumulate | null = null;
-  private plainBand = new Float64Array(0);
+  /** Views of the kernel's memory: the band from byte 0, then B's row starts, columns and values, and w. */
+  private band = new Float64Array(0);
+  private rowStart = new Int32Array(0);
+  private column = new Int32Array(0);
+  private value = new Float64Array(0);
+  private weight = new Float64Array(0);
 
   accumulate(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number): Float64Array {
+    if (compiled === null) return this.accumulatePlain(b, w, cellCount, band);
     const rows = b.rowCount;
     const entries = b.rowStart[rows];
-    if (compiled === null) return this.accumulatePlain(b, w, cellCount, band);
-    // The band first (its room kept, so it stays where it was and stays zero), then B and w.
-    const bandBytes = 8 * cellCount * band;
-    const layout = [4 * (rows + 1), 4 * entries, 8 * entries, 8 * rows];
-    const starts: number[] = [];
-    let dataBytes = 0;
-    for (const size of layout) {
-      starts.push(dataBytes);
-      dataBytes += Math.ceil(size / 16) * 16;
+    if (cellCount * band > this.band.length || rows + 1 > this.rowStart.length || entries > this.column.length) {
+      this.reserve(cellCount * band, rows, entries);
     }
-    this.reserve(bandBytes, dataBytes);
-    const buffer = this.memory!.buffer;
-    const at = (k: number): number => this.bandRoom + starts[k];
-    new Int32Array(buffer, at(0), rows + 1).set(b.rowStart.subarray(0, rows + 1));
-    new Int32Array(buffer, at(1), entries).set(b.column.subarray(0, entries));
-    new Float64Array(buffer, at(2), entries).set(b.value.subarray(0, entries));
-    new Float64Array(buffer, at(3), rows).set(w.subarray(0, rows));
-    this.kernel!(at(0), at(1), at(2), at(3), 0, rows, band - 1);
-    return new Float64Array(buffer, 0, cellCount * band);
+    copyInt32(b.rowStart, rows + 1, this.rowStart);
+    copyInt32(b.column, entries, this.column);
+    copyRange(b.value, 0, this.value, 0, entries);
+    copyRange(w, 0, this.weight, 0, rows);
+    this.kernel!(this.rowStart.byteOffset, this.column.byteOffset, this.value.byteOffset, this.weight.byteOffset, this.band.byteOffset, rows, band - 1);
+    return this.band;
   }
 
-  /** Bytes kept for the band at the start of the memory. */
-  private bandRoom = 0;
-
-  /** A fresh (zeroed) memory when the band or the data outgrow the present one. */
-  private reserve(bandBytes: number, dataBytes: number): void {
-    if (this.memory !== null && bandBytes <= this.bandRoom && this.bandRoom + dataBytes <= this.memory.buffer.byteLength) return;
-    this.bandRoom = Math.max(this.bandRoom, Math.ceil((1.25 * bandBytes) / 16) * 16);
-    this.memory = new WebAssembly.Memory({ initial: Math.ceil((this.bandRoom + 1.25 * dataBytes) / WASM_PAGE_BYTES) });
-    const instance = new WebAssembly.Instance(compiled!, { env: { memory: this.memory } });
-    this.kernel = instance.exports.accumulate as Accumulate;
+  /** A fresh (zeroed) memory with a quarter more room than asked, and its views. */
+  private reserve(bandEntries: number, rows: number, entries: number): void {
+    const sizes = [8 * Math.ceil(1.25 * bandEntries), 4 * (rows + 1), 4 * Math.ceil(1.25 * entries), 8 * Math.ceil(1.25 * entries), 8 * rows];
+    const starts: number[] = [];
+    let bytes = 0;
+    for (const size of sizes) {
+      starts.push(bytes);
+      bytes += Math.ceil(size / 16) * 16;
+    }
+    const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / WASM_PAGE_BYTES) });
+    this.kernel = new WebAssembly.Instance(compiled!, { env: { memory } }).exports.accumulate as Accumulate;
+    const buffer = memory.buffer;
+    this.band = new Float64Array(buffer, starts[0], sizes[0] / 8);
+    this.rowStart = new Int32Array(buffer, starts[1], rows + 1);
+    this.column = new Int32Array(buffer, starts[2], sizes[2] / 4);
+    this.value = new Float64Array(buffer, starts[3], sizes[3] / 8);
+    this.weight = new Float64Array(buffer, starts[4], rows);
   }
+
+  /** The same sums in JavaScript, where WebAssembly is not available. */
+  private plainBand = new Float64Array(0);
 
   private accumulatePlain(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number): Float64Array {
     if (this.plainBand.length < cellCount * band) this.plainBand = new Float64Array(cellCount * band);
-    const dense = this.plainBand.subarray(0, cellCount * band);
-    accumulateGramBand(b, w, band, dense);
-    return dense;
+    accumulateGramBand(b, w, band, this.plainBand);
+    return this.plainBand;
   }
 }
 
