@@ -39,6 +39,7 @@ describe('wasmModuleBytes', () => {
     values.set([1.5, -2, 0.25, 8]);
     (instance.exports.run as () => void)();
     expect(Array.from(values.subarray(4, 6))).toEqual([1.75, 6]);
+    // The vector type's code in the binary format (WebAssembly Core Specification 2.0, sec. 5.3.3).
     expect(WASM_TYPE.v128).toBe(0x7b);
   });
 });
