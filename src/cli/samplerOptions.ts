@@ -6,6 +6,7 @@ import type { EvidenceMethod, NestedMethod } from '../sampling/nested/index.js';
 import { wholeNumberOption } from './dataOptions.js';
 import { progressPrinter } from './progressPrinter.js';
 import { runDefaults } from '../settings/runDefaults.js';
+import { defaultImportanceSettings } from '../sampling/importance/importanceSettings.js';
 import { stopOnSignals } from './stopOnSignals.js';
 import { hideBin } from 'yargs/helpers';
 import { openRunFolder, type RunFolderOptions } from '../inference/openRunFolder.js';
@@ -22,6 +23,8 @@ export interface SamplerArguments {
   resume: boolean;
   'checkpoint-seconds': number;
   evidence: string;
+  'importance-draws': number;
+  'importance-error': number;
   'take-over-lock': boolean;
   quiet: boolean;
 }
@@ -36,6 +39,8 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
     .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? runDefaults.nested.sliceStepsPerParameter, describe: 'slice moves per new live point, per free parameter' })
     .option('tolerance', { type: 'number', default: runDefaults.nested.lnZTolerance, describe: 'stop when the live points could add less than this to ln Z' })
     .option('evidence', { choices: ['nested', 'importance'], default: runDefaults.nested.evidence, describe: 'ln Z from the nested-sampling sum, or from importance sampling after the nested run (fewer evaluations for a small error: see README)' })
+    .option('importance-draws', { type: 'number', default: defaultImportanceSettings.drawsPerStage, describe: 'importance sampling: draws of each stage that adapts the proposal (at least 2 such stages; fewer draws cost less for an expensive likelihood, e.g. a pixelated source)' })
+    .option('importance-error', { type: 'number', default: defaultImportanceSettings.targetLnZError, describe: `importance sampling: the ln Z error the final stage draws enough for (at least --importance-draws draws, at most ${defaultImportanceSettings.maxFinalDraws})` })
     .option('max-evaluations', { type: 'number', describe: 'stop each run after this many likelihood evaluations' })
     .option('checkpoint-seconds', { type: 'number', default: runDefaults.nested.checkpointSeconds, describe: 'seconds between checkpoints of the sampler state (every sampler; SIGTERM or SIGINT also writes one and stops)' })
     .option('resume', { type: 'boolean', default: false, describe: 'continue an interrupted run from its checkpoints in --out' })
@@ -46,6 +51,14 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
 function positiveOption(name: string, value: number): number {
   if (!(value > 0) || !Number.isFinite(value)) throw new InputError(`--${name}: expected a number > 0, found ${value}`);
   return value;
+}
+
+/** The importance stage's draws per adaptation stage and target ln Z error, checked. */
+function importanceOptionsOf(args: SamplerArguments): { drawsPerStage: number; targetLnZError: number } {
+  const drawsPerStage = wholeNumberOption('importance-draws', args['importance-draws'], 10);
+  const most = defaultImportanceSettings.maxFinalDraws;
+  if (drawsPerStage > most) throw new InputError(`--importance-draws: expected a whole number <= ${most} (the final stage's most draws), found ${drawsPerStage}`);
+  return { drawsPerStage, targetLnZError: positiveOption('importance-error', args['importance-error']) };
 }
 
 /**
@@ -84,6 +97,7 @@ export function evidenceSettingsOf(args: SamplerArguments, label: string, option
       replacementsPerStep: runDefaults.nested.replacementsPerStep,
       lnZTolerance: args.tolerance,
       evidence: args.evidence as EvidenceMethod,
+      importance: importanceOptionsOf(args),
       resume: args.resume,
       checkpointSeconds: positiveOption('checkpoint-seconds', args['checkpoint-seconds']),
       onProgress: printer.onProgress,

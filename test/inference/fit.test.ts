@@ -258,4 +258,30 @@ describe('arcsift fit on the command line', () => {
     expect(importance.evaluations).toBeLessThan(summary.model.evaluations);
     expect(typeof importance.suspect).toBe('boolean');
   });
+
+  it('takes the importance stage\'s draws and target error from the options, records them, and refuses bad ones', () => {
+    const folder = join(out, 'importance-budget');
+    const run = arcsift(['fit', '--config', configPath, '--data', dataDir, '--perturbers', '0', '--live-points', '20',
+      '--method', 'slice', '--slice-steps', '1', '--importance-draws', '300', '--importance-error', '0.2',
+      '--threads', '1', '--quiet', '--no-report', '--out', folder]);
+    expect(run.status, run.stderr).toBe(0);
+    const summary = JSON.parse(readFileSync(join(folder, 'summary.json'), 'utf8')) as NestedFitSummary;
+    expect(summary.settings.importance).toEqual({ drawsPerStage: 300, targetLnZError: 0.2 });
+    const importance = summary.model.evidence!.importance!;
+    // Each adaptation stage draws 300 (draws outside the unit cube are not evaluated), the final
+    // stage at least 300 (sampling/importance/runImportance.ts).
+    expect(importance.finalDraws).toBeGreaterThanOrEqual(300);
+    expect(importance.evaluations).toBeLessThanOrEqual(300 * (importance.stages - 1) + importance.finalDraws);
+    expect(importance.evaluations).toBeLessThan(2000);
+    for (const [option, value, says] of [
+      ['--importance-draws', '5', /--importance-draws: expected a whole number >= 10, found 5/],
+      ['--importance-draws', '50000', /--importance-draws: expected a whole number <= 40000/],
+      ['--importance-error', '0', /--importance-error: expected a number > 0, found 0/],
+    ] as const) {
+      const refused = arcsift(['fit', '--config', configPath, '--data', dataDir, '--perturbers', '0', option, value, '--quiet', '--no-report', '--out', join(out, `refused-${value}`)]);
+      expect(refused.status, refused.stderr).toBe(2);
+      expect(refused.stderr).toMatch(says);
+      expect(existsSync(join(out, `refused-${value}`, 'summary.json'))).toBe(false);
+    }
+  });
 });
