@@ -1,5 +1,5 @@
 import { choleskyFactor, choleskySolveInPlace } from '../numeric/linearAlgebra/choleskyFactor.js';
-import { weightedNormalEquations } from '../numeric/linearAlgebra/weightedNormalEquations.js';
+import { SimdNormalEquations } from '../numeric/linearAlgebra/simdNormalEquations.js';
 
 /**
  * Gaussian pixel likelihood with the linear light amplitudes integrated out analytically.
@@ -20,7 +20,7 @@ export class MarginalisedAmplitudes {
   private readonly priorLogTerm: number;
   private readonly normal: Float64Array;
   private readonly rhs: Float64Array;
-  private readonly weighted: Float64Array;
+  private readonly equations = new SimdNormalEquations();
   /** Posterior-mean amplitudes of the last evaluation (A^-1 b). */
   readonly amplitudes: Float64Array;
 
@@ -50,7 +50,6 @@ export class MarginalisedAmplitudes {
     this.priorLogTerm = -0.5 * amplitudeCount * Math.log(priorSigma * priorSigma);
     this.normal = new Float64Array(amplitudeCount * amplitudeCount);
     this.rhs = new Float64Array(amplitudeCount);
-    this.weighted = new Float64Array(n);
     this.amplitudes = new Float64Array(amplitudeCount);
   }
 
@@ -62,7 +61,7 @@ export class MarginalisedAmplitudes {
     const k = this.amplitudeCount;
     const a = this.normal;
     const b = this.rhs;
-    weightedNormalEquations(basis, k, this.pixelCount, this.inverseVariance, this.data, a, b, this.weighted);
+    this.equations.assemble(basis, k, this.pixelCount, this.inverseVariance, this.data, a, b);
     for (let p = 0; p < k; p++) a[p * k + p] += this.priorPrecision;
     const logDet = choleskyFactor(a, k);
     if (Number.isNaN(logDet)) return Number.NEGATIVE_INFINITY;

@@ -1,5 +1,5 @@
 import { choleskyFactor, choleskySolveInPlace } from '../numeric/linearAlgebra/choleskyFactor.js';
-import { weightedNormalEquations } from '../numeric/linearAlgebra/weightedNormalEquations.js';
+import { SimdNormalEquations } from '../numeric/linearAlgebra/simdNormalEquations.js';
 
 /**
  * chi^2 of a target image against a linear combination of basis images, minimised over the
@@ -17,9 +17,9 @@ export class LinearAmplitudeChiSquare {
   private readonly target: Float64Array;
   private readonly inverseVariance: Float64Array;
   private readonly normal: Float64Array;
-  /** The basis at the used pixels (basis k at packed[k * used.length + e]) and scratch. */
+  /** The basis at the used pixels (basis k at packed[k * used.length + e]). */
   private readonly packed: Float64Array;
-  private readonly weighted: Float64Array;
+  private readonly equations = new SimdNormalEquations();
 
   /**
    * @param used row-major indices of the pixels that count
@@ -33,7 +33,6 @@ export class LinearAmplitudeChiSquare {
     this.normal = new Float64Array(amplitudeCount * amplitudeCount);
     this.amplitudes = new Float64Array(amplitudeCount);
     this.packed = new Float64Array(amplitudeCount * used.length);
-    this.weighted = new Float64Array(used.length);
   }
 
   /** Sets the target image (whole grid, row-major); only the used pixels are read. */
@@ -54,7 +53,7 @@ export class LinearAmplitudeChiSquare {
     const a = this.normal;
     const x = this.amplitudes;
     this.pack(basis, pixelCount);
-    weightedNormalEquations(this.packed, k, n, w, d, a, x, this.weighted);
+    this.equations.assemble(this.packed, k, n, w, d, a, x);
     if (Number.isNaN(choleskyFactor(a, k))) return Number.POSITIVE_INFINITY;
     choleskySolveInPlace(a, k, x);
     let chi2 = 0;

@@ -51,6 +51,7 @@ export const op = Object.freeze({
   brIf: (depth: number) => [0x0d, ...unsignedLeb128(depth)],
   v128Load: (offset: number) => [0xfd, 0x00, 3, ...unsignedLeb128(offset)],
   v128Load64Splat: (offset: number) => [0xfd, 0x0a, 3, ...unsignedLeb128(offset)],
+  v128Load64Zero: (offset: number) => [0xfd, 0x5d, 3, ...unsignedLeb128(offset)],
   v128Store: (offset: number) => [0xfd, 0x0b, 3, ...unsignedLeb128(offset)],
   v128Zero: [0xfd, 0x0c, ...new Array<number>(16).fill(0)],
   f64x2Add: [0xfd, 0xf0, 0x01], f64x2Sub: [0xfd, 0xf1, 0x01], f64x2Mul: [0xfd, 0xf2, 0x01], f64x2Div: [0xfd, 0xf3, 0x01],
