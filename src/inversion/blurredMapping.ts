@@ -1,5 +1,6 @@
 import type { PsfKernel } from '../imaging/psfKernel.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
+import { SeparableBlur } from './separableBlur.js';
 import { SparseRows } from './sparseRows.js';
 
 /** Stamps restart from zero before the generation count could overflow an Int32. */
@@ -29,11 +30,22 @@ export class BlurredMapping {
   private readonly spreadTap: Float64Array;
   private readonly mt = new SparseRows();
 
-  constructor(columns: number, rows: number, kernel: PsfKernel, used: Int32Array, computedIndex: Int32Array) {
+  /** With a separable kernel: the two passes' buffers (null otherwise). */
+  private readonly separable: SeparableBlur | null;
+
+  /**
+   * `separable`: the kernel as alongX[a] alongY[b] (within the caller's tolerance), or undefined;
+   * given, B^T is built in two one-dimensional passes (SeparableBlur).
+   */
+  constructor(
+    columns: number, rows: number, kernel: PsfKernel, used: Int32Array, computedIndex: Int32Array,
+    separable?: { readonly alongX: Float64Array; readonly alongY: Float64Array },
+  ) {
     const { columns: kc, rows: kr, values } = kernel;
     const centreA = (kc - 1) / 2, centreB = (kr - 1) / 2;
     let computedCount = 0;
     for (let p = 0; p < computedIndex.length; p++) computedCount = Math.max(computedCount, computedIndex[p] + 1);
+    this.separable = separable === undefined ? null : new SeparableBlur(columns, rows, separable.alongX, separable.alongY, used, computedIndex, computedCount);
     const readers: Array<Array<[number, number]>> = Array.from({ length: computedCount }, () => []);
     for (let e = 0; e < used.length; e++) {
       const p = used[e];
@@ -68,7 +80,8 @@ export class BlurredMapping {
     }
     this.mt.transposeOf(mapping, cellCount);
     outTranspose.reset(cellCount, 8 * mapping.entries);
-    this.fillTransposeRows(outTranspose, cellCount, Math.min(this.stamp.length, this.longestSpread() * longestRow(this.mt)));
+    if (this.separable !== null) this.separable.fillTransposeRows(this.mt, outTranspose, cellCount);
+    else this.fillTransposeRows(outTranspose, cellCount, Math.min(this.stamp.length, this.longestSpread() * longestRow(this.mt)));
     out.transposeOf(outTranspose, this.stamp.length);
   }
 

@@ -32,6 +32,8 @@ export interface InversionSetup {
   /** Row-major indices of the used (fitted) pixels, a subset of `computed`. */
   readonly used: Int32Array;
   readonly kernel: PsfKernel;
+  /** The kernel as the product alongX[a] alongY[b], when it is one (within the caller's tolerance). */
+  readonly separable?: { readonly alongX: Float64Array; readonly alongY: Float64Array };
   /** Data and inverse variances at the used pixels. */
   readonly data: Float64Array;
   readonly inverseVariance: Float64Array;
@@ -111,7 +113,7 @@ export class SourceInversion {
     const rowOfPixel = new Int32Array(grid.columns * grid.rows).fill(-1);
     computed.forEach((p, q) => { rowOfPixel[p] = q; });
     this.usedRows = Int32Array.from(used, (p) => rowOfPixel[p]);
-    this.blurred = new BlurredMapping(grid.columns, grid.rows, kernel, used, rowOfPixel);
+    this.blurred = new BlurredMapping(grid.columns, grid.rows, kernel, used, rowOfPixel, setup.separable);
     if (settings.mesh.kind === 'regular') {
       this.regular = new RegularMesh(settings.mesh.cellsPerSide);
       this.adaptive = null;

@@ -4,6 +4,7 @@ import { InputError } from '../errors.js';
 import { createConvolver } from '../imaging/convolver.js';
 import { pixelGrid } from '../imaging/pixelGrid.js';
 import { ForwardModel } from '../forward/forwardModel.js';
+import { separablePsf } from '../forward/separablePsf.js';
 import { trimPsfKernel } from '../forward/trimPsfKernel.js';
 import { SourceInversion } from '../inversion/sourceInversion.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
@@ -59,14 +60,18 @@ export class PixelLikelihood {
     const term = this.system.pixelatedSource;
     let leastNoise = Number.POSITIVE_INFINITY;
     for (let k = 0; k < n; k++) leastNoise = Math.min(leastNoise, sigma[k]);
+    // The PSF cut where what it leaves out changes no pixel by more than INVERSION_NOISE_FRACTION
+    // of the least noise (trimPsfKernel's bound): the blurred mapping's rows, and so the coupling
+    // of the source cells, shrink with the kernel's area. Where the cut kernel is a product of
+    // its two marginals within the same bound (separablePsf), the blur runs in two passes.
+    const budget = peakBrightness > 0 ? (INVERSION_NOISE_FRACTION * leastNoise) / peakBrightness : 0;
+    const kernel = trimPsfKernel(data.psf, budget).kernel;
     this.inversion = term === undefined ? undefined : new SourceInversion({
       grid,
       computed: this.forward.computedPixels,
       used: this.used,
-      // The PSF cut where what it leaves out changes no pixel by more than INVERSION_NOISE_FRACTION
-      // of the least noise (trimPsfKernel's bound): the blurred mapping's rows, and so the
-      // coupling of the source cells, shrink with the kernel's area.
-      kernel: trimPsfKernel(data.psf, peakBrightness > 0 ? (INVERSION_NOISE_FRACTION * leastNoise) / peakBrightness : 0).kernel,
+      kernel,
+      separable: separablePsf(kernel, budget),
       data: values,
       inverseVariance: Float64Array.from(sigma, (s) => 1 / (s * s)),
       massTerms: this.system.massTerms.map((t) => ({ profile: t.fast ?? t.profile, offset: t.offset })),

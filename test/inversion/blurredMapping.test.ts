@@ -16,7 +16,6 @@ describe('the blurred mapping matrix', () => {
   const grid = pixelGrid(14, 12, 0.1);
   const all = Int32Array.from({ length: 14 * 12 }, (_, p) => p);
   const used = all.filter((p) => (p % 14) > 2 && (p % 14) < 12 && Math.floor(p / 14) > 1 && Math.floor(p / 14) < 10);
-  const kernel = { columns: 3, rows: 3, values: Float64Array.of(0.02, 0.1, 0.03, 0.12, 0.4, 0.1, 0.05, 0.1, 0.08) };
   const rays = new SourceRays(grid, all, 2);
   // An isothermal ellipsoid (Einstein radius 0.4", q 0.8) maps the grid onto a small source region.
   const p = Float64Array.of(0.4, 0.8, 30, 0.05, -0.02, 0);
@@ -33,58 +32,69 @@ describe('the blurred mapping matrix', () => {
   const area = 0.01;
   const m = new SparseRows();
   new MappingMatrix().build(cells, weights, all.length, 4, 4, mesh.cellCount, area, m);
-  const b = new SparseRows();
-  const bt = new SparseRows();
-  new BlurredMapping(14, 12, kernel, used, all).build(m, mesh.cellCount, b, bt);
+  // A kernel of no symmetry, and a separable one (the product of two profiles, as a Gaussian PSF
+  // is), built both in one pass over its taps and in two one-dimensional passes (SeparableBlur).
+  const general = { columns: 3, rows: 3, values: Float64Array.of(0.02, 0.1, 0.03, 0.12, 0.4, 0.1, 0.05, 0.1, 0.08) };
+  const alongX = Float64Array.of(0.05, 0.15, 0.5, 0.2, 0.1), alongY = Float64Array.of(0.2, 0.5, 0.3);
+  const product = { columns: 5, rows: 3, values: Float64Array.from({ length: 15 }, (_, k) => alongX[k % 5] * alongY[Math.floor(k / 5)]) };
+  describe.each([
+    ['a general kernel, one pass', general, undefined],
+    ['a separable kernel, one pass', product, undefined],
+    ['a separable kernel, two passes', product, { alongX, alongY }],
+  ] as const)('with %s', (_, kernel, separable) => {
+    const b = new SparseRows();
+    const bt = new SparseRows();
+    new BlurredMapping(14, 12, kernel, used, all, separable).build(m, mesh.cellCount, b, bt);
 
-  it('holds, for every cell, the blurred image of that cell alone at the used pixels (to 1e-14)', () => {
-    let worst = 0;
-    for (let j = 0; j < mesh.cellCount; j++) {
-      const image = new Float64Array(all.length);
+    it('holds, for every cell, the blurred image of that cell alone at the used pixels (to 1e-14)', () => {
+      let worst = 0;
+      for (let j = 0; j < mesh.cellCount; j++) {
+        const image = new Float64Array(all.length);
+        for (let q = 0; q < all.length; q++) {
+          let sum = 0;
+          for (let t = 4 * q; t < 4 * q + 4; t++) {
+            for (let k = 0; k < 4; k++) if (cells[4 * t + k] === j) sum += weights[4 * t + k];
+          }
+          image[q] = (area * sum) / 4;
+        }
+        const blurred = new Float64Array(all.length);
+        directConvolution(image, 14, 12, kernel, blurred);
+        used.forEach((pixel, e) => {
+          let entry = 0;
+          for (let k = b.rowStart[e]; k < b.rowStart[e + 1]; k++) if (b.column[k] === j) entry = b.value[k];
+          worst = Math.max(worst, Math.abs(entry - blurred[pixel]));
+        });
+      }
+      expect(worst).toBeLessThan(1e-14);
+    });
+
+    it('maps a source of uniform brightness 1 to the pixel area in every pixel whose rays all land on the mesh', () => {
+      // Bilinear weights sum to 1 (common practice), so each ray sees brightness 1 and each pixel
+      // holds brightness x area before the PSF.
       for (let q = 0; q < all.length; q++) {
         let sum = 0;
-        for (let t = 4 * q; t < 4 * q + 4; t++) {
-          for (let k = 0; k < 4; k++) if (cells[4 * t + k] === j) sum += weights[4 * t + k];
-        }
-        image[q] = (area * sum) / 4;
+        for (let k = m.rowStart[q]; k < m.rowStart[q + 1]; k++) sum += m.value[k];
+        expect(Math.abs(sum - area)).toBeLessThan(1e-15);
       }
-      const blurred = new Float64Array(all.length);
-      directConvolution(image, 14, 12, kernel, blurred);
-      used.forEach((pixel, e) => {
-        let entry = 0;
-        for (let k = b.rowStart[e]; k < b.rowStart[e + 1]; k++) if (b.column[k] === j) entry = b.value[k];
-        worst = Math.max(worst, Math.abs(entry - blurred[pixel]));
-      });
-    }
-    expect(worst).toBeLessThan(1e-14);
-  });
+    });
 
-  it('maps a source of uniform brightness 1 to the pixel area in every pixel whose rays all land on the mesh', () => {
-    // Bilinear weights sum to 1 (common practice), so each ray sees brightness 1 and each pixel
-    // holds brightness x area before the PSF.
-    for (let q = 0; q < all.length; q++) {
-      let sum = 0;
-      for (let k = m.rowStart[q]; k < m.rowStart[q + 1]; k++) sum += m.value[k];
-      expect(Math.abs(sum - area)).toBeLessThan(1e-15);
-    }
-  });
+    it('keeps each row of B in increasing cell order, each cell once', () => {
+      for (let e = 0; e < b.rowCount; e++) {
+        for (let k = b.rowStart[e] + 1; k < b.rowStart[e + 1]; k++) expect(b.column[k]).toBeGreaterThan(b.column[k - 1]);
+      }
+    });
 
-  it('keeps each row of B in increasing cell order, each cell once', () => {
-    for (let e = 0; e < b.rowCount; e++) {
-      for (let k = b.rowStart[e] + 1; k < b.rowStart[e + 1]; k++) expect(b.column[k]).toBeGreaterThan(b.column[k - 1]);
-    }
-  });
-
-  it('gives B^T with the same entries as B, cell by cell', () => {
-    const fromB = new Map<string, number>();
-    for (let e = 0; e < b.rowCount; e++) {
-      for (let k = b.rowStart[e]; k < b.rowStart[e + 1]; k++) fromB.set(`${e},${b.column[k]}`, b.value[k]);
-    }
-    const fromBt = new Map<string, number>();
-    for (let c = 0; c < bt.rowCount; c++) {
-      for (let k = bt.rowStart[c]; k < bt.rowStart[c + 1]; k++) fromBt.set(`${bt.column[k]},${c}`, bt.value[k]);
-    }
-    expect(bt.rowCount).toBe(mesh.cellCount);
-    expect(fromBt).toEqual(fromB);
+    it('gives B^T with the same entries as B, cell by cell', () => {
+      const fromB = new Map<string, number>();
+      for (let e = 0; e < b.rowCount; e++) {
+        for (let k = b.rowStart[e]; k < b.rowStart[e + 1]; k++) fromB.set(`${e},${b.column[k]}`, b.value[k]);
+      }
+      const fromBt = new Map<string, number>();
+      for (let c = 0; c < bt.rowCount; c++) {
+        for (let k = bt.rowStart[c]; k < bt.rowStart[c + 1]; k++) fromBt.set(`${bt.column[k]},${c}`, bt.value[k]);
+      }
+      expect(bt.rowCount).toBe(mesh.cellCount);
+      expect(fromBt).toEqual(fromB);
+    });
   });
 });
