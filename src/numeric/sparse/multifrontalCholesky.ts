@@ -1,5 +1,5 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js';
-import { assembleEntries, copyRange, extendAdd, pushUpdate, zeroLower } from './frontOperations.js';
+import { assembleEntries, copyRange, extendAdd, pushUpdate, relativeRuns, zeroLower } from './frontOperations.js';
 import { invertPermutation } from './invertPermutation.js';
 import { partialCholesky } from './partialCholesky.js';
 import {
@@ -52,6 +52,8 @@ export class MultifrontalCholesky implements SupernodalFactor {
   private structureStartBuffer = new Int32Array(1);
   private rowIndexBuffer = new Int32Array(0);
   private relativeBuffer = new Int32Array(0);
+  /** One past the end of the run of consecutive relative positions holding each structure row (relativeRuns). */
+  private runEndBuffer = new Int32Array(0);
   private factorStartBuffer = new Int32Array(1);
   private columnStart = new Int32Array(1);
   private entrySource = new Int32Array(0);
@@ -150,6 +152,9 @@ export class MultifrontalCholesky implements SupernodalFactor {
     this.floatingPointOperations = 0;
     this.factorNonzeros = 0;
     const largestFront = this.analyseSupernodes();
+    const structureEntries = this.structureStartBuffer[this.count];
+    this.runEndBuffer = ensureInt32Capacity(this.runEndBuffer, structureEntries);
+    for (let c = 0; c < this.count; c++) relativeRuns(this.relativeBuffer, this.runEndBuffer, this.structureStartBuffer[c], this.structureStartBuffer[c + 1]);
     this.frontEven = ensureSimdFloat64Capacity(this.frontEven, largestFront * largestFront);
     this.frontOdd = ensureSimdFloat64Capacity(this.frontOdd, largestFront * largestFront);
     this.stack = ensureFloat64Capacity(this.stack, this.stackPeak());
@@ -388,13 +393,13 @@ export class MultifrontalCholesky implements SupernodalFactor {
       const from = this.structureStartBuffer[c];
       const m = this.structureStartBuffer[c + 1] - from;
       if (this.stackedSize(c) > 0) {
-        extendAdd(front, frontSize, this.stack, at, m, m, this.relativeBuffer, from);
+        extendAdd(front, frontSize, this.stack, at, m, m, this.relativeBuffer, this.runEndBuffer, from);
         at += m * m;
         continue;
       }
       const childSize = this.startBuffer[c + 1] - this.startBuffer[c] + m;
       const trailing = (childSize - m) * (childSize + 1);
-      extendAdd(front, frontSize, this.frontOf(c), trailing, childSize, m, this.relativeBuffer, from);
+      extendAdd(front, frontSize, this.frontOf(c), trailing, childSize, m, this.relativeBuffer, this.runEndBuffer, from);
     }
   }
 
