@@ -1,10 +1,7 @@
 import type { PsfKernel } from '../imaging/psfKernel.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
-import { SeparableBlur } from './separableBlur.js';
+import { GENERATION_LIMIT, SeparableBlur } from './separableBlur.js';
 import { SparseRows } from './sparseRows.js';
-
-/** Stamps restart from zero before the generation count could overflow an Int32. */
-const GENERATION_LIMIT = 2 ** 30;
 
 /**
  * The blurred mapping matrix B = P M at the used pixels (Warren & Dye 2003; the PSF applied to

@@ -1,5 +1,8 @@
 import type { SparseRows } from './sparseRows.js';
 
+/** Stamps restart from zero before the generation count could overflow an Int32. */
+export const GENERATION_LIMIT = 2 ** 30;
+
 /**
  * The rows of B^T (each cell's lensed image convolved with the PSF, at the used pixels) for a
  * separable kernel K(a, b) = alongX[a] alongY[b], in two one-dimensional passes instead of one
@@ -61,7 +64,7 @@ export class SeparableBlur {
 
   /** The rows of B^T into `out` (reset by the caller), for M^T `mt` of `cellCount` rows. */
   fillTransposeRows(mt: SparseRows, out: SparseRows, cellCount: number): void {
-    if (this.generation > 2 ** 30) {
+    if (this.generation > GENERATION_LIMIT) {
       this.acrossStamp.fill(0);
       this.downStamp.fill(0);
       this.generation = 0;

@@ -63,7 +63,8 @@ export class PixelLikelihood {
     // The PSF cut where what it leaves out changes no pixel by more than INVERSION_NOISE_FRACTION
     // of the least noise (trimPsfKernel's bound): the blurred mapping's rows, and so the coupling
     // of the source cells, shrink with the kernel's area. Where the cut kernel is a product of
-    // its two marginals within the same bound (separablePsf), the blur runs in two passes.
+    // its two marginals within the same bound (separablePsf), the blur runs in two passes; the
+    // two approximations then add, to at most twice that fraction.
     const budget = peakBrightness > 0 ? (INVERSION_NOISE_FRACTION * leastNoise) / peakBrightness : 0;
     const kernel = trimPsfKernel(data.psf, budget).kernel;
     this.inversion = term === undefined ? undefined : new SourceInversion({

@@ -1,17 +1,10 @@
-import { WASM_TYPE, compileWasmModule, op, type WasmModuleSpec } from '../wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, emitter, op, type WasmModuleSpec } from '../wasm/wasmModuleBytes.js';
+import { memoryWithRegions } from '../wasm/wasmMemory.js';
 import { weightedNormalEquations } from './weightedNormalEquations.js';
-
-const WASM_PAGE_BYTES = 65536;
 
 /** A tile is this many weighted rows (p) by this many plain rows (q): 8 two-lane sums and 5 operands in registers. */
 const TILE_P = 4;
 const TILE_Q = 2;
-
-type Emit = (...parts: number[][]) => void;
-
-function emitter(body: number[]): Emit {
-  return (...parts) => { for (const part of parts) body.push(...part); };
-}
 
 /**
  * weightRows: each weighted row = its plain row times w, point by point, over `rows` rows of n
@@ -167,13 +160,7 @@ export class SimdNormalEquations {
   private reserve(k: number, n: number): void {
     const rows = Math.ceil((k + 1) / TILE_P) * TILE_P;
     const lengths = [rows * n, rows * n, n, 2 * rows * rows];
-    const starts: number[] = [];
-    let bytes = 0;
-    for (const length of lengths) {
-      starts.push(bytes);
-      bytes += Math.ceil((8 * length) / 16) * 16;
-    }
-    const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / WASM_PAGE_BYTES) });
+    const { memory, starts } = memoryWithRegions(lengths.map((length) => 8 * length));
     this.kernels = new WebAssembly.Instance(moduleFor(n), { env: { memory } }).exports as unknown as NormalKernels;
     [this.plain, this.weighted, this.weight, this.sums] = lengths.map((length, j) => new Float64Array(memory.buffer, starts[j], length));
     this.k = k;

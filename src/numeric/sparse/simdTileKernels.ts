@@ -1,4 +1,5 @@
-import { WASM_TYPE, compileWasmModule, op } from '../wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, emitter, op, type Emit } from '../wasm/wasmModuleBytes.js';
+import { memoryWithRegions } from '../wasm/wasmMemory.js';
 
 /** The dense kernels that run as WebAssembly SIMD on a Float64Array held in their own memory. */
 export interface SimdTileKernels {
@@ -15,8 +16,6 @@ export interface SimdTileKernels {
   panelSolveRows(base: number, ld: number, diagonal: number, blockedWidth: number, iFrom: number, iEnd: number): void;
 }
 
-const WASM_PAGE_BYTES = 65536;
-
 /** Local variable numbers of a kernel: its i32 scratch after the parameters, then the v128 ones. */
 interface TileLocals {
   readonly base: number;
@@ -28,12 +27,6 @@ interface TileLocals {
   readonly stride: number;
   /** Eight two-lane sums (column c, rows i, i + 1 in sum(2c); rows i + 2, i + 3 in sum(2c + 1)), then a01, a23, b. */
   readonly firstVector: number;
-}
-
-type Emit = (...parts: number[][]) => void;
-
-function emitter(body: number[]): Emit {
-  return (...parts) => { for (const part of parts) body.push(...part); };
 }
 
 /** Byte address of element (row, column) of the array: base + ((column * ld + row) << 3). */
@@ -152,7 +145,7 @@ export function ensureSimdFloat64Capacity(a: Float64Array<ArrayBuffer>, n: numbe
   if (a.length >= n && (compiled === null || simdKernelsOf(a) !== undefined)) return a;
   const length = Math.max(n, Math.ceil(a.length * 1.5), 1);
   if (compiled === null) return new Float64Array(length);
-  const memory = new WebAssembly.Memory({ initial: Math.ceil((8 * length) / WASM_PAGE_BYTES) });
+  const { memory } = memoryWithRegions([8 * length]);
   const instance = new WebAssembly.Instance(compiled, { env: { memory } });
   kernelsByBuffer.set(memory.buffer, instance.exports as unknown as SimdTileKernels);
   return new Float64Array(memory.buffer, 0, length);

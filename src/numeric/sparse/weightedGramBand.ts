@@ -1,4 +1,5 @@
-import { WASM_TYPE, compileWasmModule, op } from '../wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, emitter, op } from '../wasm/wasmModuleBytes.js';
+import { memoryWithRegions } from '../wasm/wasmMemory.js';
 import { copyRange } from './frontOperations.js';
 import { copyInt32 } from './multifrontalSymbolic.js';
 
@@ -9,8 +10,6 @@ export interface SortedSparseRows {
   readonly column: Int32Array;
   readonly value: Float64Array;
 }
-
-const WASM_PAGE_BYTES = 65536;
 
 /**
  * Where entry (a, b), b <= a, of a lower triangle sits in a band of `band` columns stored row
@@ -48,7 +47,7 @@ function accumulateBody(): number[] {
   const [rowStart, column, value, weight, dense, rows, bandLess, e, x, y, from, to, rowX, scaled, at, rowNext, columnY, scaledNext, valueY, next] =
     [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19];
   const body: number[] = [];
-  const emit = (...parts: number[][]): void => { for (const part of parts) body.push(...part); };
+  const emit = emitter(body);
   const addressOf = (base: number, index: number, shift: number): number[] => [...op.localGet(base), ...op.localGet(index), ...op.i32Const(shift), ...op.i32Shl, ...op.i32Add];
   // scaledLocal = w[e] * value[index]; rowLocal = address of (column[index], 0) in the band.
   const rowOf = (index: number, scaledLocal: number, rowLocal: number): number[][] => [
@@ -133,13 +132,7 @@ export class WeightedGramBand {
   /** A fresh (zeroed) memory with a quarter more room than asked, and its views. */
   private reserve(bandEntries: number, rows: number, entries: number): void {
     const sizes = [8 * Math.ceil(1.25 * bandEntries), 4 * (rows + 1), 4 * Math.ceil(1.25 * entries), 8 * Math.ceil(1.25 * entries), 8 * rows];
-    const starts: number[] = [];
-    let bytes = 0;
-    for (const size of sizes) {
-      starts.push(bytes);
-      bytes += Math.ceil(size / 16) * 16;
-    }
-    const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / WASM_PAGE_BYTES) });
+    const { memory, starts } = memoryWithRegions(sizes);
     this.kernel = new WebAssembly.Instance(compiled!, { env: { memory } }).exports.accumulate as Accumulate;
     const buffer = memory.buffer;
     this.band = new Float64Array(buffer, starts[0], sizes[0] / 8);

@@ -57,6 +57,14 @@ export const op = Object.freeze({
   f64x2Add: [0xfd, 0xf0, 0x01], f64x2Sub: [0xfd, 0xf1, 0x01], f64x2Mul: [0xfd, 0xf2, 0x01], f64x2Div: [0xfd, 0xf3, 0x01],
 });
 
+/** Appends instruction byte arrays to a function body. */
+export type Emit = (...parts: number[][]) => void;
+
+/** An Emit that appends to `body`. */
+export function emitter(body: number[]): Emit {
+  return (...parts) => { for (const part of parts) body.push(...part); };
+}
+
 /** One function: its signature's index, its locals as (count, type) runs, and its body without the final `end`. */
 export interface WasmFunction {
   readonly type: number;
