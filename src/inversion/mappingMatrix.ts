@@ -6,7 +6,7 @@ import type { SparseRows } from './sparseRows.js';
  * cell contributes to pixel q before the PSF, the mean over the pixel's rays of the cell's
  * interpolation weight at each ray, times `scale` (the pixel area, so that cell values are
  * surface brightnesses and pixels hold brightness times area). Rays are raysPerPixel per pixel,
- * with entriesPerRay (cell, weight) pairs each (cell -1: none). Duplicate cells within a pixel
+ * with entriesPerRay (cell, weight) pairs each, its cells first (cell -1: no more). Duplicate cells within a pixel
  * are merged through `slot` (one entry per cell, -1 when free, left all -1).
  */
 export class MappingMatrix {
@@ -21,21 +21,26 @@ export class MappingMatrix {
       this.slot.fill(-1);
     }
     out.reset(pixelCount, pixelCount * raysPerPixel * entriesPerRay);
-    this.fillRows(cells, weights, pixelCount, raysPerPixel * entriesPerRay, scale / raysPerPixel, out);
+    this.fillRows(cells, weights, pixelCount, raysPerPixel, entriesPerRay, scale / raysPerPixel, out);
   }
 
   private fillRows(
-    cells: Int32Array, weights: Float64Array, pixelCount: number, perPixel: number, factor: number, out: SparseRows,
+    cells: Int32Array, weights: Float64Array, pixelCount: number, raysPerPixel: number, perRay: number, factor: number,
+    out: SparseRows,
   ): void {
     const slot = this.slot;
     const column = out.column, value = out.value, rowStart = out.rowStart;
     let end = 0;
     for (let q = 0; q < pixelCount; q++) {
       const start = end;
-      const from = q * perPixel;
-      for (let k = from; k < from + perPixel; k++) {
+      const from = q * raysPerPixel * perRay;
+      for (let k = from; k < from + raysPerPixel * perRay; k++) {
         const c = cells[k];
-        if (c < 0) continue;
+        if (c < 0) {
+          // The ray's entries come first; skip to the next ray.
+          k += perRay - 1 - ((k - from) % perRay);
+          continue;
+        }
         const w = weights[k] * factor;
         const at = slot[c];
         if (at >= 0) value[at] += w;

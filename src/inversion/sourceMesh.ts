@@ -23,7 +23,7 @@ export interface SourceMesh {
   /** True when the cells' neighbourhoods (and so H for a given form) change from call to call. */
   readonly topologyVaries: boolean;
   /**
-   * For n rays: each ray's cells (entriesPerRay each, -1 for none) and weights. A ray outside the
+   * For n rays: each ray's cells (entriesPerRay each, the used first, -1 after them) and weights. A ray outside the
    * mesh gets none. Returns the number of rays outside.
    */
   interpolate(bx: Float64Array, by: Float64Array, n: number, cells: Int32Array, weights: Float64Array): number;

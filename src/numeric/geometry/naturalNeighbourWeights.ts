@@ -20,19 +20,16 @@ export const MAX_NATURAL_NEIGHBOURS = 16;
 export class NaturalNeighbourWeights {
   /** Queries weighed by their triangle (barycentric) because they had too many neighbours, since the last call. */
   fallbacks = 0;
-  /** seen[t] === generation: triangle t was tested for this query; member[t] === generation: it is in the cavity. */
+  /** seen[t] === generation: triangle t is in this query's cavity. */
   private seen = new Int32Array(0);
-  private member = new Int32Array(0);
   private generation = 0;
-  private stack = new Int32Array(64);
-  private cavity = new Int32Array(64);
-  private edgeFrom = new Int32Array(64);
-  private edgeTo = new Int32Array(64);
   /** Per triangle at 3t: its circumcentre and squared radius, for the calls' in-circle tests. */
   private circles = new Float64Array(0);
+  /** The ring being dug: its vertices, their count, and the end of its last edge. */
   private readonly ring = new Int32Array(MAX_NATURAL_NEIGHBOURS);
-  private readonly centreX = new Float64Array(MAX_NATURAL_NEIGHBOURS);
-  private readonly centreY = new Float64Array(MAX_NATURAL_NEIGHBOURS);
+  private ringCount = 0;
+  private ringBroken = false;
+  private lastTo = -1;
 
   /**
    * Weights of the count queries (qx[i], qy[i]) into vertices / weights at
@@ -49,7 +46,6 @@ export class NaturalNeighbourWeights {
     if (this.seen.length < triangulation.triangleCount || this.generation > 0x3fffffff) {
       const size = Math.max(triangulation.triangleCount, 2 * this.seen.length);
       this.seen = new Int32Array(size);
-      this.member = new Int32Array(size);
       this.generation = 0;
     }
     this.fallbacks = 0;
@@ -77,9 +73,18 @@ export class NaturalNeighbourWeights {
     triangulation: DelaunayTriangulation, x: number, y: number, start: number,
     vertices: Int32Array, weights: Float64Array, at: number,
   ): number {
-    const cavityCount = this.collectCavity(triangulation, x, y, start);
-    const ringCount = this.orderRing(triangulation, cavityCount);
-    if (ringCount >= 3 && ringCount <= MAX_NATURAL_NEIGHBOURS) {
+    // A query on a vertex (a traced pixel centre that is also a vertex) takes its value.
+    const { triangles, coords } = triangulation;
+    for (let k = 3 * start; k < 3 * start + 3; k++) {
+      const v = triangles[k];
+      if (coords[2 * v] === x && coords[2 * v + 1] === y) {
+        vertices[at] = v;
+        weights[at] = 1;
+        return 1;
+      }
+    }
+    const ringCount = this.digRing(triangulation, x, y, start);
+    if (ringCount >= 3) {
       const written = this.laplaceWeights(triangulation.coords, x, y, ringCount, vertices, weights, at);
       if (written > 0) return written;
     }
@@ -106,110 +111,91 @@ export class NaturalNeighbourWeights {
     }
   }
 
-  /** The triangles whose circumcircle holds (x, y), by a search from `start` across edges; returns how many. */
-  private collectCavity(triangulation: DelaunayTriangulation, x: number, y: number, start: number): number {
-    const { halfedges } = triangulation;
-    const generation = ++this.generation;
-    const { seen, member, circles } = this;
-    let top = 0;
-    let found = 0;
-    this.stack[top++] = start;
-    seen[start] = generation;
-    while (top > 0) {
-      const t = this.stack[--top];
-      if (found >= this.cavity.length) this.cavity = grow(this.cavity);
-      this.cavity[found++] = t;
-      member[t] = generation;
-      for (let k = 0; k < 3; k++) {
-        const twin = halfedges[3 * t + k];
-        if (twin < 0) continue;
-        const u = (twin / 3) | 0;
-        if (seen[u] === generation) continue;
-        seen[u] = generation;
-        const dx = x - circles[3 * u], dy = y - circles[3 * u + 1];
-        if (!(dx * dx + dy * dy <= circles[3 * u + 2])) continue;
-        if (top >= this.stack.length) this.stack = grow(this.stack);
-        this.stack[top++] = u;
-      }
-    }
-    return found;
-  }
-
   /**
-   * The cavity's boundary as a ring of vertices in order (each boundary half-edge runs from one
-   * ring vertex to the next); returns the ring's length (0 when the boundary is not one ring).
+   * The ring of q's natural neighbours in order, from the triangles whose circumcircle holds
+   * (x, y) (the Bowyer-Watson cavity), dug from `start` across edges. The cavity is a polygon
+   * whose vertices all lie on its boundary, so its triangles' adjacency is a tree: visiting each
+   * triangle's two further edges in turn, depth first, meets the boundary edges in order around
+   * the ring, clockwise as the triangles run, and the ring is the start of each. Returns the
+   * ring's length, 0 when it is longer than MAX_NATURAL_NEIGHBOURS or does not close (a cavity
+   * made inconsistent by rounding), for the caller's fallback.
    */
-  private orderRing(triangulation: DelaunayTriangulation, cavityCount: number): number {
-    const { triangles, halfedges } = triangulation;
-    const generation = this.generation;
-    let edges = 0;
-    for (let c = 0; c < cavityCount; c++) {
-      const t = this.cavity[c];
-      for (let k = 0; k < 3; k++) {
-        const e = 3 * t + k;
-        const twin = halfedges[e];
-        if (twin >= 0 && this.member[(twin / 3) | 0] === generation) continue;
-        if (edges >= this.edgeFrom.length) {
-          this.edgeFrom = grow(this.edgeFrom);
-          this.edgeTo = grow(this.edgeTo);
+  private digRing(triangulation: DelaunayTriangulation, x: number, y: number, start: number): number {
+    this.generation++;
+    this.seen[start] = this.generation;
+    this.ringCount = 0;
+    this.ringBroken = false;
+    this.lastTo = -1;
+    const e = 3 * start;
+    this.dig(triangulation, x, y, e);
+    this.dig(triangulation, x, y, e + 1);
+    this.dig(triangulation, x, y, e + 2);
+    const n = this.ringCount;
+    if (this.ringBroken || n > MAX_NATURAL_NEIGHBOURS || this.lastTo !== this.ring[0]) return 0;
+    return n;
+  }
+
+  /** Half-edge e of a cavity triangle: into the triangle beyond it when that is in the cavity, else onto the ring. */
+  private dig(triangulation: DelaunayTriangulation, x: number, y: number, e: number): void {
+    const { halfedges, triangles } = triangulation;
+    const twin = halfedges[e];
+    if (twin >= 0) {
+      const u = (twin / 3) | 0;
+      const circles = this.circles;
+      const dx = x - circles[3 * u], dy = y - circles[3 * u + 1];
+      if (dx * dx + dy * dy <= circles[3 * u + 2]) {
+        if (this.seen[u] === this.generation) {
+          this.ringBroken = true;
+          return;
         }
-        this.edgeFrom[edges] = triangles[e];
-        this.edgeTo[edges] = triangles[k === 2 ? e - 2 : e + 1];
-        edges++;
+        this.seen[u] = this.generation;
+        const base = 3 * u, k = twin - base;
+        this.dig(triangulation, x, y, k === 2 ? base : twin + 1);
+        this.dig(triangulation, x, y, k === 0 ? base + 2 : twin - 1);
+        return;
       }
     }
-    if (edges > MAX_NATURAL_NEIGHBOURS) return edges;
-    const ring = this.ring;
-    ring[0] = this.edgeFrom[0];
-    let next = this.edgeTo[0];
-    for (let r = 1; r < edges; r++) {
-      let k = 0;
-      while (k < edges && this.edgeFrom[k] !== next) k++;
-      if (k === edges) return 0;
-      ring[r] = next;
-      next = this.edgeTo[k];
-    }
-    return next === ring[0] ? edges : 0;
+    const n = this.ringCount++;
+    const from = triangles[e];
+    if (n < MAX_NATURAL_NEIGHBOURS) this.ring[n] = from;
+    if (this.lastTo >= 0 && this.lastTo !== from) this.ringBroken = true;
+    const base = e - (e % 3);
+    this.lastTo = triangles[e === base + 2 ? base : e + 1];
   }
 
   /**
-   * w_j proportional to s_j / d_j over the ring (Sukumar et al. 2001, eq. 9): the Voronoi edge of
-   * q and ring vertex j runs between the circumcentres of (q, v_(j-1), v_j) and (q, v_j, v_(j+1)).
-   * Returns the entries written, 0 when a circumcentre is not finite (q on a ring edge), for the
-   * caller's fallback.
+   * w_j proportional to s_j / d_j over the ring (Sukumar et al. 2001, eq. 9). The Voronoi edge of
+   * q and ring vertex j joins the circumcentres of the triangles (q, v_(j-1), v_j) and
+   * (q, v_j, v_(j+1)); its length over d_j is (cot alpha_j + cot beta_j) / 2, alpha_j and beta_j
+   * the angles at v_(j-1) and v_(j+1) opposite the edge q v_j (a Voronoi edge over its Delaunay
+   * edge, the cotangent weight of cotangentWeights.ts), and both cotangents of a triangle share
+   * its doubled area: one division per ring vertex and no square root. Returns the entries written, 0 when a
+   * triangle is flat or folded (q on a ring edge) for the caller's fallback.
    */
   private laplaceWeights(
     coords: Float64Array, x: number, y: number, n: number, vertices: Int32Array, weights: Float64Array, at: number,
   ): number {
-    const { ring, centreX, centreY } = this;
+    const ring = this.ring;
+    for (let j = 0; j < n; j++) weights[at + j] = 0;
     for (let j = 0; j < n; j++) {
-      const a = 2 * ring[j], b = 2 * ring[j + 1 === n ? 0 : j + 1];
+      const next = j + 1 === n ? 0 : j + 1;
+      const a = 2 * ring[j], b = 2 * ring[next];
       const ax = coords[a] - x, ay = coords[a + 1] - y, bx = coords[b] - x, by = coords[b + 1] - y;
-      const d = 2 * (ax * by - ay * bx);
-      const a2 = ax * ax + ay * ay, b2 = bx * bx + by * by;
-      const cx = (by * a2 - ay * b2) / d, cy = (ax * b2 - bx * a2) / d;
-      if (!(Math.abs(cx) < Infinity && Math.abs(cy) < Infinity)) return 0;
-      centreX[j] = cx;
-      centreY[j] = cy;
+      // Twice the area of (q, a, b), positive as the ring turns clockwise around q (the
+      // triangulation's half-edges run clockwise, so the cavity's boundary does).
+      const area2 = ay * bx - ax * by;
+      if (!(area2 > 0)) return 0;
+      const ex = bx - ax, ey = by - ay;
+      const inverse = 1 / area2;
+      // cot of the angle at a, between a -> q and a -> b; it sits opposite the edge q b.
+      weights[at + next] += (ey * ay + ex * ax) * -inverse;
+      // cot of the angle at b, between b -> q and b -> a; it sits opposite the edge q a.
+      weights[at + j] += (ex * bx + ey * by) * inverse;
     }
     let sum = 0;
     for (let j = 0; j < n; j++) {
-      const v = 2 * ring[j];
-      const dx = coords[v] - x, dy = coords[v + 1] - y;
-      const distance = Math.sqrt(dx * dx + dy * dy);
-      const previous = j === 0 ? n - 1 : j - 1;
-      const ex = centreX[j] - centreX[previous], ey = centreY[j] - centreY[previous];
-      const s = Math.sqrt(ex * ex + ey * ey);
-      if (distance === 0) {
-        // The query sits on vertex j: it takes that vertex's value.
-        vertices[at] = ring[j];
-        weights[at] = 1;
-        return 1;
-      }
-      const w = s / distance;
       vertices[at + j] = ring[j];
-      weights[at + j] = w;
-      sum += w;
+      sum += weights[at + j];
     }
     if (!(sum > 0 && sum < Infinity)) return 0;
     const inverse = 1 / sum;
@@ -239,10 +225,4 @@ function triangleWeights(triangulation: DelaunayTriangulation, x: number, y: num
   weights[at] = la;
   weights[at + 1] = lb;
   weights[at + 2] = 1 - la - lb;
-}
-
-function grow(buffer: Int32Array): Int32Array<ArrayBuffer> {
-  const bigger = new Int32Array(2 * buffer.length);
-  bigger.set(buffer);
-  return bigger;
 }

@@ -62,6 +62,29 @@ describe('Laplace natural-neighbour weights', () => {
     }
   });
 
+  it('take a vertex\'s value on it and stay a partition of unity on an edge (Sukumar et al. 2001)', () => {
+    // Interpolation is exact at the vertices (the Kronecker-delta property); a query on a
+    // shared edge still sums to 1 and reproduces linear functions.
+    const points = fixture.cases[0].points;
+    const t = triangulate(points);
+    const [a, b] = [t.triangles[0], t.triangles[1]];
+    const qx = [points[a][0], points[b][0], 0.5 * (points[a][0] + points[b][0])];
+    const qy = [points[a][1], points[b][1], 0.5 * (points[a][1] + points[b][1])];
+    const { vertices, weights, outside } = weighAll(t, qx, qy);
+    expect(outside).toBe(0);
+    expect([vertices[0], weights[0], vertices[1]]).toEqual([a, 1, -1]);
+    expect([vertices[per], weights[per], vertices[per + 1]]).toEqual([b, 1, -1]);
+    const f = (x: number, y: number): number => 0.3 + 2 * x - 1.5 * y;
+    let sum = 0, value = 0;
+    for (let k = 2 * per; k < 3 * per; k++) {
+      if (vertices[k] < 0) continue;
+      sum += weights[k];
+      value += weights[k] * f(points[vertices[k]][0], points[vertices[k]][1]);
+    }
+    expect(sum).toBeCloseTo(1, 12);
+    expect(value).toBeCloseTo(f(qx[2], qy[2]), 11);
+  });
+
   it('change continuously as the vertices move through edge flips (unlike the holding triangle)', () => {
     // Four vertices of a square, the fourth moved across the circle through the other three:
     // the Delaunay diagonal flips there, the barycentric weights jump, these do not.
