@@ -35,7 +35,7 @@ export function withSamplerOptions<T>(y: Argv<T>, defaults: { livePoints: number
     .option('threads', { type: 'number', describe: 'worker threads evaluating the likelihood [default: all cores]' })
     .option('seed', { type: 'number', default: runDefaults.nested.seed, describe: 'seed of the sampler (results do not depend on --threads)' })
     .option('live-points', { type: 'number', default: defaults.livePoints, describe: 'live points of each nested-sampling run' })
-    .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: runDefaults.nested.method, describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters, slice otherwise)' })
+    .option('method', { choices: ['auto', 'ellipsoids', 'slice'], default: runDefaults.nested.method, describe: 'constrained draws: multi-ellipsoid bounds, slice sampling, or auto (ellipsoids for smooth models of <= 8 free parameters with >= 10 live points per parameter, slice otherwise)' })
     .option('slice-steps', { type: 'number', default: defaults.sliceStepsPerParameter ?? runDefaults.nested.sliceStepsPerParameter, describe: 'slice moves per new live point, per free parameter' })
     .option('tolerance', { type: 'number', default: runDefaults.nested.lnZTolerance, describe: 'stop when the live points could add less than this to ln Z' })
     .option('evidence', { choices: ['nested', 'importance'], default: runDefaults.nested.evidence, describe: 'ln Z from the nested-sampling sum, or from importance sampling after the nested run (fewer evaluations for a small error: see README)' })

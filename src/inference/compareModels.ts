@@ -60,7 +60,7 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
   // methods carries the difference of their biases (several nats on one model; DEVELOPERS.md,
   // measured choices).
   const perturbedDim = modelParameterSpace(buildLensSystem(config, { perturberCount })).dim;
-  const method = lensModelMethod(settings.perturbed.method, perturbedDim, perturberCount);
+  const method = lensModelMethod(settings.perturbed.method, perturbedDim, perturberCount, settings.perturbed.livePoints);
   // The two runs do not depend on each other: with two threads or more they go side by side,
   // sharing one pool of workers that hold both models, so a worker freed by one run's slice
   // chain takes the other's, and the run that finishes last gets every worker. Each result

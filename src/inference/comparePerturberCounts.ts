@@ -48,7 +48,7 @@ export async function comparePerturberCounts(
   const full = withPerturberCount(config, maxCount);
   const runs: ModelEvidence[] = [];
   // One constrained-draw method for every count, so their biases cancel in the Bayes factors.
-  const method = lensModelMethod(settings.method, modelParameterSpace(buildLensSystem(full, { perturberCount: maxCount })).dim, maxCount);
+  const method = lensModelMethod(settings.method, modelParameterSpace(buildLensSystem(full, { perturberCount: maxCount })).dim, maxCount, settings.livePoints);
   for (let k = 0; k <= maxCount; k++) {
     onModelStart?.(k);
     runs.push(await runModelEvidence(full, data, k, { ...settings, method, checkpointPath: join(folder, `perturbers-${k}`, 'checkpoint.json') }));

@@ -69,15 +69,20 @@ export interface ModelEvidence {
 
 /**
  * The constrained-draw method for a lens model. 'auto' takes multi-ellipsoid bounds only for a
- * smooth model of at most 8 free parameters: with a perturber the likelihood has a plateau (any
- * position at low mass fits as well as the smooth model) joined to a narrow peak, which the
- * bootstrap-grown ellipsoids bound poorly (an efficiency several times below slice sampling's;
- * DEVELOPERS.md, measured choices).
+ * smooth model of at most 8 free parameters with at least 10 live points per parameter: with a
+ * perturber the likelihood has a plateau (any position at low mass fits as well as the smooth
+ * model) joined to a narrow peak, which the bootstrap-grown ellipsoids bound poorly (an
+ * efficiency several times below slice sampling's), and with fewer live points per parameter
+ * the bootstrap grows the bounds until slice sampling needs fewer evaluations (DEVELOPERS.md,
+ * measured choices).
  */
-export function lensModelMethod(requested: NestedMethod, dim: number, perturberCount: number): NestedMethod {
+export function lensModelMethod(requested: NestedMethod, dim: number, perturberCount: number, livePoints: number): NestedMethod {
   if (requested !== 'auto') return requested;
-  return perturberCount === 0 && dim <= 8 ? 'ellipsoids' : 'slice';
+  return perturberCount === 0 && dim <= 8 && livePoints >= ELLIPSOID_LIVE_POINTS_PER_PARAMETER * dim ? 'ellipsoids' : 'slice';
 }
+
+/** Live points per free parameter below which 'auto' takes slice sampling for a smooth model. */
+export const ELLIPSOID_LIVE_POINTS_PER_PARAMETER = 10;
 
 /** A prior transform applied after the model's own, built once the model's parameter space is known. */
 export type ExtraTransform = (system: LensSystem, space: ParameterSpace) => (unit: Float64Array, out: Float64Array) => void;
@@ -130,7 +135,7 @@ export async function runModelEvidence(
       {
         livePoints: settings.livePoints,
         seed: settings.seed,
-        method: lensModelMethod(settings.method, space.dim, perturberCount),
+        method: lensModelMethod(settings.method, space.dim, perturberCount, settings.livePoints),
         slice: {
           steps: settings.sliceSteps ?? Math.max(1, Math.round((settings.sliceStepsPerParameter ?? runDefaults.nested.sliceStepsPerParameter) * space.dim)),
           pointsPerChain: settings.slicePointsPerChain,

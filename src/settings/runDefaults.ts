@@ -10,7 +10,7 @@ export interface RunSettings {
   readonly nested: {
     readonly livePoints: number;
     readonly seed: number;
-    /** 'auto' (multi-ellipsoid bounds for small smooth models, slice sampling otherwise), 'ellipsoids' or 'slice'. */
+    /** 'auto' (multi-ellipsoid bounds for small smooth models with enough live points, slice sampling otherwise; lensModelMethod), 'ellipsoids' or 'slice'. */
     readonly method: 'auto' | 'ellipsoids' | 'slice';
     /**
      * Live points replaced per step: fixed, never tied to the thread count, so results do not

@@ -45,7 +45,8 @@ export function checkFamilies(families: readonly SmoothFamily[], settings: Pick<
     try {
       modelParameterSpace(buildLensSystem(family.config, { perturberCount: 0 }));
       const dim = modelParameterSpace(buildLensSystem(family.config, { perturberCount })).dim;
-      return lensModelMethod(settings.evidence(family, 'perturbed').method, dim, perturberCount);
+      const evidence = settings.evidence(family, 'perturbed');
+      return lensModelMethod(evidence.method, dim, perturberCount, evidence.livePoints);
     } catch (error) {
       throw inFamily(error, family);
     }

@@ -4,7 +4,9 @@ import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError, expectedFound } from '../errors.js';
 import { summarisePerturbers } from '../inference/perturberSummary.js';
 import { awaitAllRuns } from '../inference/awaitAllRuns.js';
-import { runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
+import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
+import { buildLensSystem } from '../model/lensSystem.js';
+import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import type { FlagCandidate } from './flagCandidate.js';
 import { MapPositionPrior } from './mapPositionPrior.js';
 import { firstPerturber, perturberPositionConfig, windowAround } from './perturberPositionConfig.js';
@@ -141,9 +143,12 @@ export async function vetFlags(
   const smoothSettings = settings.evidence('smooth', 'smooth');
   const runs = 1 + candidates.length + (mapPrior === undefined ? 0 : 1);
   const concurrency = vetConcurrency(smoothSettings.threads, runs);
+  // One constrained-draw method for every run, the candidates' (as compare does): a Bayes factor
+  // between runs of different methods carries the difference of their biases.
+  const method = lensModelMethod(smoothSettings.method, modelParameterSpace(buildLensSystem(config, { perturberCount: 1 })).dim, 1, smoothSettings.livePoints);
   const share = (run: EvidenceSettings): EvidenceSettings => (concurrency === 1
-    ? run
-    : { ...run, threads: Math.max(1, Math.floor(run.threads / concurrency)), inWorker: true });
+    ? { ...run, method }
+    : { ...run, method, threads: Math.max(1, Math.floor(run.threads / concurrency)), inWorker: true });
 
   const windows = candidates.map((c) => windowAround(c.xArcsec, c.yArcsec, windowArcsec));
   const windowedConfigs = windows.map((w) => perturberPositionConfig(config, w.x, w.y));
