@@ -97,6 +97,13 @@ describe('vetting flags on a mock with a planted perturber', () => {
     }
   });
 
+  it('runs the smooth model with the candidates\' constrained-draw method, so no Bayes factor mixes two methods\' biases', () => {
+    // 'auto' alone would take ellipsoids for this small smooth model and slice sampling with a
+    // perturber; a Bayes factor between the two carries their bias difference (DEVELOPERS.md).
+    expect(result.smooth.result.method).toBe('slice');
+    for (const c of result.candidates) expect(c.evidence.result.method).toBe(result.smooth.result.method);
+  });
+
   it('writes vet.csv and vet.json: mass interval for confirmed rows, upper limit for the others', () => {
     const lines = readFileSync(join(out, 'vet.csv'), 'utf8').split('\n').filter((l) => l !== '' && !l.startsWith('#'));
     const header = lines[0].split(',');
