@@ -6,9 +6,7 @@ import { bayesFactorReading, significanceBound, type BayesFactorReading, type Si
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { awaitAllRuns } from './awaitAllRuns.js';
 import { summarisePerturbers } from './perturberSummary.js';
-import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
-import { modelParameterSpace } from '../model/modelParameterSpace.js';
-import { buildLensSystem } from '../model/lensSystem.js';
+import { comparisonMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
 import { LikelihoodPool } from '../parallel/likelihoodPool.js';
 import type { PerturberSummary } from '../records/perturberSummary.js';
 import { runDefaults } from '../settings/runDefaults.js';
@@ -56,11 +54,7 @@ export async function compareModels(config: ArcsiftConfig, data: ObservedData, s
       { file: config.file, key: 'perturbers' },
     );
   }
-  // One method for both runs: a Bayes factor between runs made with different constrained-draw
-  // methods carries the difference of their biases (several nats on one model; DEVELOPERS.md,
-  // measured choices).
-  const perturbedDim = modelParameterSpace(buildLensSystem(config, { perturberCount })).dim;
-  const method = lensModelMethod(settings.perturbed.method, perturbedDim, perturberCount, settings.perturbed.livePoints);
+  const method = comparisonMethod(config, perturberCount, settings.perturbed);
   // The two runs do not depend on each other: with two threads or more they go side by side,
   // sharing one pool of workers that hold both models, so a worker freed by one run's slice
   // chain takes the other's, and the run that finishes last gets every worker. Each result

@@ -8,9 +8,7 @@ import { bayesFactorReading, thresholdSource } from '../results/index.js';
 import { runDefaults } from '../settings/runDefaults.js';
 import type { PriorDescription } from '../priors/parameterSpace.js';
 import { summarisePerturbers } from './perturberSummary.js';
-import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
-import { modelParameterSpace } from '../model/modelParameterSpace.js';
-import { buildLensSystem } from '../model/lensSystem.js';
+import { comparisonMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from './runModelEvidence.js';
 import { writeModelOutputs } from './writeModelOutputs.js';
 import { priorCaution } from '../records/cautions.js';
 import type { CountComparisonSummary, CountRow } from '../records/countComparisonSummary.js';
@@ -47,8 +45,7 @@ export async function comparePerturberCounts(
   const started = performance.now();
   const full = withPerturberCount(config, maxCount);
   const runs: ModelEvidence[] = [];
-  // One constrained-draw method for every count, so their biases cancel in the Bayes factors.
-  const method = lensModelMethod(settings.method, modelParameterSpace(buildLensSystem(full, { perturberCount: maxCount })).dim, maxCount, settings.livePoints);
+  const method = comparisonMethod(full, maxCount, settings);
   for (let k = 0; k <= maxCount; k++) {
     onModelStart?.(k);
     runs.push(await runModelEvidence(full, data, k, { ...settings, method, checkpointPath: join(folder, `perturbers-${k}`, 'checkpoint.json') }));

@@ -84,6 +84,17 @@ export function lensModelMethod(requested: NestedMethod, dim: number, perturberC
 /** Live points per free parameter below which 'auto' takes slice sampling for a smooth model. */
 export const ELLIPSOID_LIVE_POINTS_PER_PARAMETER = 10;
 
+/**
+ * The one constrained-draw method for every run of a comparison, from its richest model (the
+ * config with `perturberCount` perturbers): a Bayes factor between runs made with different
+ * methods carries the difference of their biases (several nats on one model; DEVELOPERS.md,
+ * measured choices).
+ */
+export function comparisonMethod(config: ArcsiftConfig, perturberCount: number, settings: Pick<EvidenceSettings, 'method' | 'livePoints'>): NestedMethod {
+  const dim = modelParameterSpace(buildLensSystem(config, { perturberCount })).dim;
+  return lensModelMethod(settings.method, dim, perturberCount, settings.livePoints);
+}
+
 /** A prior transform applied after the model's own, built once the model's parameter space is known. */
 export type ExtraTransform = (system: LensSystem, space: ParameterSpace) => (unit: Float64Array, out: Float64Array) => void;
 

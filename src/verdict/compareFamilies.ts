@@ -3,7 +3,7 @@ import type { ObservedData } from '../data/observedData.js';
 import { InputError } from '../errors.js';
 import { inFamily, type SmoothFamily } from '../config/verdictConfig.js';
 import { readComparison, type Comparison } from '../inference/compareModels.js';
-import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
+import { comparisonMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { modelParameterSpace } from '../model/modelParameterSpace.js';
 import { LikelihoodPool } from '../parallel/likelihoodPool.js';
@@ -44,9 +44,7 @@ export function checkFamilies(families: readonly SmoothFamily[], settings: Pick<
     }
     try {
       modelParameterSpace(buildLensSystem(family.config, { perturberCount: 0 }));
-      const dim = modelParameterSpace(buildLensSystem(family.config, { perturberCount })).dim;
-      const evidence = settings.evidence(family, 'perturbed');
-      return lensModelMethod(evidence.method, dim, perturberCount, evidence.livePoints);
+      return comparisonMethod(family.config, perturberCount, settings.evidence(family, 'perturbed'));
     } catch (error) {
       throw inFamily(error, family);
     }

@@ -4,9 +4,7 @@ import { ImagePlaneSky } from '../data/imagePlaneSky.js';
 import { InputError, expectedFound } from '../errors.js';
 import { summarisePerturbers } from '../inference/perturberSummary.js';
 import { awaitAllRuns } from '../inference/awaitAllRuns.js';
-import { lensModelMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
-import { buildLensSystem } from '../model/lensSystem.js';
-import { modelParameterSpace } from '../model/modelParameterSpace.js';
+import { comparisonMethod, runModelEvidence, type EvidenceSettings, type ModelEvidence } from '../inference/runModelEvidence.js';
 import type { FlagCandidate } from './flagCandidate.js';
 import { MapPositionPrior } from './mapPositionPrior.js';
 import { firstPerturber, perturberPositionConfig, windowAround } from './perturberPositionConfig.js';
@@ -143,9 +141,7 @@ export async function vetFlags(
   const smoothSettings = settings.evidence('smooth', 'smooth');
   const runs = 1 + candidates.length + (mapPrior === undefined ? 0 : 1);
   const concurrency = vetConcurrency(smoothSettings.threads, runs);
-  // One constrained-draw method for every run, the candidates' (as compare does): a Bayes factor
-  // between runs of different methods carries the difference of their biases.
-  const method = lensModelMethod(smoothSettings.method, modelParameterSpace(buildLensSystem(config, { perturberCount: 1 })).dim, 1, smoothSettings.livePoints);
+  const method = comparisonMethod(config, 1, smoothSettings);
   const share = (run: EvidenceSettings): EvidenceSettings => (concurrency === 1
     ? { ...run, method }
     : { ...run, method, threads: Math.max(1, Math.floor(run.threads / concurrency)), inWorker: true });
