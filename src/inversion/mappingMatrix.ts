@@ -6,8 +6,8 @@ import type { SparseRows } from './sparseRows.js';
  * cell contributes to pixel q before the PSF, the mean over the pixel's rays of the cell's
  * interpolation weight at each ray, times `scale` (the pixel area, so that cell values are
  * surface brightnesses and pixels hold brightness times area). Rays are raysPerPixel per pixel,
- * with entriesPerRay (cell, weight) pairs each, its cells first (cell -1: no more). Duplicate cells within a pixel
- * are merged through `slot` (one entry per cell, -1 when free, left all -1).
+ * with entriesPerRay (cell, weight) pairs each, its cells first (cell -1: no more). Duplicate
+ * cells within a pixel are merged through `slot` (one entry per cell, -1 when free, left all -1).
  */
 export class MappingMatrix {
   private slot = new Int32Array(0);
@@ -33,21 +33,19 @@ export class MappingMatrix {
     let end = 0;
     for (let q = 0; q < pixelCount; q++) {
       const start = end;
-      const from = q * raysPerPixel * perRay;
-      for (let k = from; k < from + raysPerPixel * perRay; k++) {
-        const c = cells[k];
-        if (c < 0) {
-          // The ray's entries come first; skip to the next ray.
-          k += perRay - 1 - ((k - from) % perRay);
-          continue;
-        }
-        const w = weights[k] * factor;
-        const at = slot[c];
-        if (at >= 0) value[at] += w;
-        else {
-          slot[c] = end;
-          column[end] = c;
-          value[end++] = w;
+      for (let ray = q * raysPerPixel; ray < (q + 1) * raysPerPixel; ray++) {
+        // A ray's cells come first; its first -1 ends them.
+        for (let k = ray * perRay; k < (ray + 1) * perRay; k++) {
+          const c = cells[k];
+          if (c < 0) break;
+          const w = weights[k] * factor;
+          const at = slot[c];
+          if (at >= 0) value[at] += w;
+          else {
+            slot[c] = end;
+            column[end] = c;
+            value[end++] = w;
+          }
         }
       }
       for (let k = start; k < end; k++) slot[column[k]] = -1;

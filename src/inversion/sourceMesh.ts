@@ -23,8 +23,8 @@ export interface SourceMesh {
   /** True when the cells' neighbourhoods (and so H for a given form) change from call to call. */
   readonly topologyVaries: boolean;
   /**
-   * For n rays: each ray's cells (entriesPerRay each, the used first, -1 after them) and weights. A ray outside the
-   * mesh gets none. Returns the number of rays outside.
+   * For n rays: each ray's cells (entriesPerRay each, the used first, -1 after them) and
+   * weights. A ray outside the mesh gets none. Returns the number of rays outside.
    */
   interpolate(bx: Float64Array, by: Float64Array, n: number, cells: Int32Array, weights: Float64Array): number;
   /** The rows of the difference operator of a form into `rows` (grown as needed). */

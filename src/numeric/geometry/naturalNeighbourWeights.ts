@@ -18,7 +18,10 @@ export const MAX_NATURAL_NEIGHBOURS = 16;
  * weight 0 for the unused); a point outside the convex hull gets none. Buffers are reused.
  */
 export class NaturalNeighbourWeights {
-  /** Queries weighed by their triangle (barycentric) because they had too many neighbours, since the last call. */
+  /**
+   * Queries weighed by their triangle (barycentric) since the last call: more than
+   * MAX_NATURAL_NEIGHBOURS neighbours, a ring that does not close, or a flat ring triangle.
+   */
   fallbacks = 0;
   /** seen[t] === generation: triangle t is in this query's cavity. */
   private seen = new Int32Array(0);
@@ -85,7 +88,7 @@ export class NaturalNeighbourWeights {
     }
     const ringCount = this.digRing(triangulation, x, y, start);
     if (ringCount >= 3) {
-      const written = this.laplaceWeights(triangulation.coords, x, y, ringCount, vertices, weights, at);
+      const written = this.laplaceWeights(coords, x, y, ringCount, vertices, weights, at);
       if (written > 0) return written;
     }
     this.fallbacks++;
@@ -169,8 +172,8 @@ export class NaturalNeighbourWeights {
    * (q, v_j, v_(j+1)); its length over d_j is (cot alpha_j + cot beta_j) / 2, alpha_j and beta_j
    * the angles at v_(j-1) and v_(j+1) opposite the edge q v_j (a Voronoi edge over its Delaunay
    * edge, the cotangent weight of cotangentWeights.ts), and both cotangents of a triangle share
-   * its doubled area: one division per ring vertex and no square root. Returns the entries written, 0 when a
-   * triangle is flat or folded (q on a ring edge) for the caller's fallback.
+   * its doubled area: one division per ring vertex and no square root. Returns the entries
+   * written, 0 when a triangle is flat or folded (q on a ring edge) for the caller's fallback.
    */
   private laplaceWeights(
     coords: Float64Array, x: number, y: number, n: number, vertices: Int32Array, weights: Float64Array, at: number,
