@@ -3,6 +3,7 @@ import { envelopeInverseDiagonal } from '../numeric/sparse/envelopeInverseDiagon
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import { MultifrontalCholesky } from '../numeric/sparse/multifrontalCholesky.js';
 import { NestedDissection, type PlanePoints } from '../numeric/sparse/nestedDissection.js';
+import { PrincipalAxisOrder } from '../numeric/sparse/principalAxisOrder.js';
 import { ReverseCuthillMcKee } from '../numeric/sparse/reverseCuthillMcKee.js';
 import { SupernodeChain } from '../numeric/sparse/supernodeChain.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
@@ -17,7 +18,9 @@ export const NESTED_DISSECTION_DENSITY = 0.12;
 
 /**
  * How A is factored: `nestedDissection` (multifrontal Cholesky over the separator tree),
- * `profileChain` (multifrontal Cholesky over blocks of a reverse Cuthill-McKee order),
+ * `profileChain` (multifrontal Cholesky over blocks of a profile order: the unknowns sorted
+ * along the principal axis of their plane coordinates when every unknown but the dense rows has
+ * them, reverse Cuthill-McKee otherwise),
  * `envelope` (envelope Cholesky in that order, the earlier method, kept for comparison), or
  * `automatic` (one of the first two by NESTED_DISSECTION_DENSITY, per call).
  */
@@ -31,14 +34,16 @@ export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'pr
  * (the Gaussian integral over x; e.g. MacKay 2003, ch. 28; Suyu et al. 2006 give it for a
  * regularised source). A is factored with the dense amplitude rows last, by default with the
  * multifrontal Cholesky in nested-dissection order (the unknowns' plane coordinates guide it)
- * or in reverse Cuthill-McKee order, whichever suits A's density; every choice gives ln Z to
+ * or in a profile order (the unknowns swept along their principal axis, or reverse
+ * Cuthill-McKee without coordinates), whichever suits A's density; every choice gives ln Z to
  * rounding. An ordering and its analysis are kept while A's pattern (and the coordinates, for
- * the dissection) stay the same, so the ordering is a function of those alone: results do not
+ * the orderings that read them) stay the same, so the ordering is a function of those alone: results do not
  * depend on which calls came before (threads, resumed runs). The caller passes ln det P.
  * Buffers are reused.
  */
 export class LinearEvidence {
   private readonly ordering = new ReverseCuthillMcKee();
+  private readonly sweep = new PrincipalAxisOrder();
   private readonly envelope = new EnvelopeCholesky();
   private readonly dissection = new NestedDissection();
   private readonly chain = new SupernodeChain();
@@ -52,6 +57,8 @@ export class LinearEvidence {
   private pointY = new Float64Array(0);
   private pointCount = -1;
   private analysedLast = -1;
+  /** Whether the kept profile analysis came from the principal-axis sweep (else from reverse Cuthill-McKee). */
+  private analysedSwept = false;
   /** A^-1 b of the last successful evaluation (the posterior mean of the unknowns). */
   solution = new Float64Array(0);
   private readonly constantTerm: number;
@@ -117,18 +124,24 @@ export class LinearEvidence {
   /** Orders and analyses unless the kept analysis was for this ordering, pattern, dense count and coordinates. */
   private factorMultifrontal(normal: NormalMatrix, lastCount: number, points: PlanePoints | null): number {
     const dissect = this.used === 'nestedDissection';
-    const kept = this.analysedFor === this.used && lastCount === this.analysedLast
-      && (!dissect || this.samePoints(points)) && this.multifrontal.isAnalysedFor(normal);
+    // Both orderings read the coordinates when given (the sweep only when they cover every
+    // unknown but the dense rows), so a kept analysis needs the same points as well.
+    const swept = !dissect && points !== null && points.count + lastCount === normal.size;
+    const kept = this.analysedFor === this.used && lastCount === this.analysedLast && swept === this.analysedSwept
+      && (!(dissect || swept) || this.samePoints(points)) && this.multifrontal.isAnalysedFor(normal);
     if (!kept) {
       this.analysedFor = null;
       this.order = ensureInt32Capacity(this.order, normal.size);
       const last = this.last.subarray(0, lastCount);
       if (dissect) {
         this.multifrontal.analyse(normal, this.order, this.dissection.order(normal, points, last, this.order));
-        this.keepPoints(points);
+      } else if (swept) {
+        this.multifrontal.analyse(normal, this.sweep.order(points, this.order, last), this.chain.build(normal.size));
       } else {
         this.multifrontal.analyse(normal, this.ordering.order(normal, this.order, last), this.chain.build(normal.size));
       }
+      this.keepPoints(points);
+      this.analysedSwept = swept;
       this.analysedFor = this.used === 'nestedDissection' ? 'nestedDissection' : 'profileChain';
       this.analysedLast = lastCount;
     }
