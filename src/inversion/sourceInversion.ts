@@ -185,6 +185,9 @@ export class SourceInversion {
     this.lap(2);
     this.blurred.build(this.m, cellCount, this.b, this.bt);
     this.lap(3);
+    this.cellPoints.x = this.mesh.cellX;
+    this.cellPoints.y = this.mesh.cellY;
+    this.cellPoints.count = cellCount;
     const prior = this.regularisationPrior(p, cellCount);
     this.lap(4);
     if (prior === null) {
@@ -194,9 +197,6 @@ export class SourceInversion {
     const k = setup.extraCount;
     this.normal.build(this.b, this.bt, cellCount, setup.inverseVariance, setup.data, prior.matrix, prior.scale, extras, k, this.extraPrecision);
     this.lap(5);
-    this.cellPoints.x = this.mesh.cellX;
-    this.cellPoints.y = this.mesh.cellY;
-    this.cellPoints.count = cellCount;
     const value = this.evidence.evaluate(this.normal, k, prior.logDet + k * Math.log(this.extraPrecision), this.cellPoints);
     this.lap(6);
     if (Number.isNaN(value)) {
@@ -244,13 +244,13 @@ export class SourceInversion {
       this.rowWeights = ensureFloat64Capacity(this.rowWeights, this.differences.rowCount);
       this.brightness.rowWeights(this.m, this.usedRows, this.setup.data, cellCount, p[offset], p[offset + 1], this.differences, this.rowWeights);
       const matrix = this.regularisation.build(this.differences, cellCount, this.rowWeights);
-      const logDet = this.regularisation.logDeterminant();
+      const logDet = this.regularisation.logDeterminant(this.cellPoints);
       return Number.isNaN(logDet) ? null : { matrix, scale: 1, logDet };
     }
     if (this.fixedH === null || this.mesh.topologyVaries) {
       this.mesh.differenceRows(settings.regularisation, this.differences);
       const matrix = this.regularisation.build(this.differences, cellCount);
-      const logDet = this.regularisation.logDeterminant();
+      const logDet = this.regularisation.logDeterminant(this.cellPoints);
       if (Number.isNaN(logDet)) return null;
       if (!this.mesh.topologyVaries) this.fixedH = { matrix, logDet };
       return { matrix, scale: strength, logDet: cellCount * Math.log(strength) + logDet };

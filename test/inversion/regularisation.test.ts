@@ -150,6 +150,9 @@ describe('regularisation on a Delaunay mesh', () => {
     for (const v of hull) expected.set(v, v, expected.get(v, v) + 1);
     expect(maxDifference(h, expected)).toBeLessThan(1e-10);
     expect(Math.abs(matrix.logDeterminant() - logDet(expected))).toBeLessThan(1e-9);
+    // In the order of the cells swept along their principal axis (given their coordinates).
+    const points = { x: mesh.cellX, y: mesh.cellY, count };
+    expect(Math.abs(matrix.logDeterminant(points) - logDet(expected))).toBeLessThan(1e-9);
   });
 
   it('gradient gives the Dirichlet energy |grad s|^2 x area of a linear source on a square grid (P1 elements)', () => {
