@@ -53,6 +53,10 @@ export class AdaptiveMesh implements SourceMesh {
     return this.natural.weigh(this.triangulation, bx, by, n, cells, weights);
   }
 
+  get interpolationFallbacks(): number {
+    return this.natural.fallbacks;
+  }
+
   /**
    * Difference rows on the triangulation: the vertices themselves (zeroth order); per triangle,
    * its area's square root times the two components of the gradient of the linear interpolant

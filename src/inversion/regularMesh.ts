@@ -15,6 +15,8 @@ export class RegularMesh implements SourceMesh {
   readonly cellY: Float64Array;
   readonly entriesPerRay = 4;
   readonly topologyVaries = false;
+  /** Bilinear interpolation has no degenerate case. */
+  readonly interpolationFallbacks = 0;
   readonly side: number;
   /** Lower-left node and node spacing of the last build, arcsec. */
   x0 = 0;

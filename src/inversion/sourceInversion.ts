@@ -180,6 +180,7 @@ export class SourceInversion {
     const perRay = this.mesh.entriesPerRay;
     this.lap(1);
     this.raysOutside = this.mesh.interpolate(rays.betaX, rays.betaY, rays.count, this.cells, this.weights);
+    this.rejections.triangleFallbacks += this.mesh.interpolationFallbacks;
     const area = setup.grid.pixelScaleArcsec * setup.grid.pixelScaleArcsec;
     this.mapping.build(this.cells, this.weights, setup.computed.length, rays.raysPerPixel, perRay, cellCount, area, this.m);
     this.lap(2);

@@ -27,6 +27,12 @@ export interface SourceMesh {
    * weights. A ray outside the mesh gets none. Returns the number of rays outside.
    */
   interpolate(bx: Float64Array, by: Float64Array, n: number, cells: Int32Array, weights: Float64Array): number;
+  /**
+   * Rays of the last interpolate() that took a simpler rule than the mesh's own because their
+   * neighbourhood was degenerate (the adaptive mesh: the holding triangle's barycentric weights
+   * where the natural-neighbour ring was flat, folded or too crowded); 0 when there is none.
+   */
+  readonly interpolationFallbacks: number;
   /** The rows of the difference operator of a form into `rows` (grown as needed). */
   differenceRows(form: 'zeroth' | 'gradient' | 'curvature', rows: DifferenceRows): void;
 }

@@ -4,12 +4,15 @@ import type { MisfitRecord } from './misfitRecord.js';
  * Likelihood calls a pixelated source answered with minus infinity, by reason: the mesh could not
  * be built, the posterior precision was not positive definite, the regularisation matrix was not
  * (src/inversion/inversionRejections.ts). Counted over every call of the run, resumed parts
- * included.
+ * included. Beside them, not a rejection: `triangleFallbacks`, the rays an adaptive mesh weighed
+ * by their holding triangle because their natural-neighbour ring was degenerate (absent from
+ * records written before it was counted).
  */
 export interface RejectionCountsRecord {
   readonly mesh: number;
   readonly notPositiveDefinite: number;
   readonly regularisation: number;
+  readonly triangleFallbacks?: number;
 }
 
 /** What a summary says of one model's run. */

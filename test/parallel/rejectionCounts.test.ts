@@ -40,14 +40,14 @@ describe('pixelated-source rejections through the likelihood pool', () => {
       try {
         const values = await pool.evaluate(batch(6, [1, 4, 5]), 6);
         expect(Array.from(values, (v) => v === Number.NEGATIVE_INFINITY)).toEqual([false, true, false, false, true, true]);
-        expect(pool.rejections).toEqual({ mesh: 3, notPositiveDefinite: 0, regularisation: 0 });
+        expect(pool.rejections).toEqual({ mesh: 3, notPositiveDefinite: 0, regularisation: 0, triangleFallbacks: 0 });
         // A run started now counts from here, plus what its checkpoint held.
         const tallies = new RejectionTallies(pool.model(0));
-        tallies.restore({ mesh: 10, notPositiveDefinite: 2 });
+        tallies.restore({ mesh: 10, notPositiveDefinite: 2, triangleFallbacks: 7 });
         await Promise.all([pool.evaluate(batch(3, [0]), 3), pool.evaluate(batch(4, [2, 3]), 4)]);
-        expect(pool.model(0).rejections).toEqual({ mesh: 6, notPositiveDefinite: 0, regularisation: 0 });
-        expect(tallies.counts).toEqual({ mesh: 13, notPositiveDefinite: 2, regularisation: 0 });
-        expect(tallies.read()).toEqual({ mesh: 13, notPositiveDefinite: 2, regularisation: 0 });
+        expect(pool.model(0).rejections).toEqual({ mesh: 6, notPositiveDefinite: 0, regularisation: 0, triangleFallbacks: 0 });
+        expect(tallies.counts).toEqual({ mesh: 13, notPositiveDefinite: 2, regularisation: 0, triangleFallbacks: 7 });
+        expect(tallies.read()).toEqual({ mesh: 13, notPositiveDefinite: 2, regularisation: 0, triangleFallbacks: 7 });
         expect(() => tallies.restore({ mesh: -1 })).toThrow(/whole count/);
       } finally {
         await pool.close();

@@ -48,7 +48,10 @@ export function nestedDiagnosticsTable(runs: readonly { readonly tone: string; r
       row('importance draws: effective size; Pareto k&#770; (Vehtari et al. 2024)', importance),
       row('non-finite likelihoods', (m) => numberCell(formatCount(m.nonFiniteLikelihoods))),
       ...(runs.some((r) => r.record.likelihoodRejections !== undefined)
-        ? [row('pixelated source: likelihood calls rejected, by reason', (m) => m.likelihoodRejections === undefined ? 'n/a' : escapeMarkup(rejectionWords(m.likelihoodRejections)))]
+        ? [
+          row('pixelated source: likelihood calls rejected, by reason', (m) => m.likelihoodRejections === undefined ? 'n/a' : escapeMarkup(rejectionWords(m.likelihoodRejections))),
+          row('pixelated source: rays weighed by their holding triangle (degenerate natural-neighbour ring; the calls went on)', (m) => m.likelihoodRejections?.triangleFallbacks === undefined ? 'n/a' : numberCell(formatCount(m.likelihoodRejections.triangleFallbacks))),
+        ]
         : []),
       row('stopped because', (m) => escapeMarkup(m.stopReason)),
       row('wall time [s]', (m) => numberCell(formatNumber(m.seconds, 1))),

@@ -1,6 +1,9 @@
 import type { RejectionCountsRecord } from '../../records/modelRecord.js';
 
-const WORDS: ReadonlyArray<readonly [keyof RejectionCountsRecord, string]> = [
+/** The reasons of a rejection (the fallback count is not one). */
+type RejectionReason = Exclude<keyof RejectionCountsRecord, 'triangleFallbacks'>;
+
+const WORDS: ReadonlyArray<readonly [RejectionReason, string]> = [
   ['mesh', 'mesh not built'],
   ['notPositiveDefinite', 'posterior precision not positive definite'],
   ['regularisation', 'regularisation matrix not positive definite'],
@@ -15,4 +18,13 @@ export function rejectionWords(counts: RejectionCountsRecord): string {
 /** The total of a record's rejections. */
 export function rejectionTotal(counts: RejectionCountsRecord): number {
   return WORDS.reduce((sum, [key]) => sum + counts[key], 0);
+}
+
+/**
+ * The rays weighed by their holding triangle in words ("none" when there were none or the record
+ * predates the count): not rejections, the calls went on.
+ */
+export function fallbackWords(counts: RejectionCountsRecord): string {
+  const rays = counts.triangleFallbacks ?? 0;
+  return rays === 0 ? 'none' : `${rays} ${rays === 1 ? 'ray weighed by its' : 'rays weighed by their'} holding triangle (degenerate natural-neighbour ring)`;
 }
