@@ -37,9 +37,9 @@ export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'pr
  * or in a profile order (the unknowns swept along their principal axis, or reverse
  * Cuthill-McKee without coordinates), whichever suits A's density; every choice gives ln Z to
  * rounding. An ordering and its analysis are kept while A's pattern (and the coordinates, for
- * the orderings that read them) stay the same, so the ordering is a function of those alone: results do not
- * depend on which calls came before (threads, resumed runs). The caller passes ln det P.
- * Buffers are reused.
+ * the orderings that read them) stay the same, so the ordering is a function of those alone:
+ * results do not depend on which calls came before (threads, resumed runs). The caller passes
+ * ln det P. Buffers are reused.
  */
 export class LinearEvidence {
   private readonly ordering = new ReverseCuthillMcKee();

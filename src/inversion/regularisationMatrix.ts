@@ -13,9 +13,9 @@ const NO_INDICES: readonly number[] = [];
  * A regularisation matrix H = D^T diag(w) D from the rows of a difference operator D and row
  * weights w (1 when none are given), in compressed lower-triangle form, and ln det H by an
  * envelope Cholesky factorisation, the cells swept along the principal axis of their coordinates
- * when given (PrincipalAxisOrder: on the demo's 1,000-cell mesh its envelope costs half the
- * operations of reverse Cuthill-McKee's, 1.5 against 3.0 million, and it needs no pass over
- * the graph), in reverse Cuthill-McKee order otherwise. Buffers are reused across calls.
+ * when given (PrincipalAxisOrder: on the demo's mesh its envelope takes about half the
+ * operations of reverse Cuthill-McKee's, and it needs no pass over the graph), in reverse
+ * Cuthill-McKee order otherwise. Buffers are reused across calls.
  */
 export class RegularisationMatrix {
   private readonly accumulator = new SymmetricSparseAccumulator();
