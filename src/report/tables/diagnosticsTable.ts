@@ -50,7 +50,7 @@ export function nestedDiagnosticsTable(runs: readonly { readonly tone: string; r
       ...(runs.some((r) => r.record.likelihoodRejections !== undefined)
         ? [
           row('pixelated source: likelihood calls rejected, by reason', (m) => m.likelihoodRejections === undefined ? 'n/a' : escapeMarkup(rejectionWords(m.likelihoodRejections))),
-          row('pixelated source: rays weighed by their holding triangle (degenerate natural-neighbour ring; the calls went on)', (m) => m.likelihoodRejections?.triangleFallbacks === undefined ? 'n/a' : numberCell(formatCount(m.likelihoodRejections.triangleFallbacks))),
+          row('pixelated source: rays weighed by their triangle (degenerate natural-neighbour ring)', (m) => m.likelihoodRejections?.triangleFallbacks === undefined ? 'n/a' : numberCell(formatCount(m.likelihoodRejections.triangleFallbacks))),
         ]
         : []),
       row('stopped because', (m) => escapeMarkup(m.stopReason)),
