@@ -134,6 +134,25 @@ function modelRecord(label: string, lnZ: number, lnZError: number, names: string
  * Gaussian samples) and the best-fit, residual and normalised-residual FITS of each model.
  * Returns the run folder.
  */
+/**
+ * A hand-made pixelated source for source.json: a 6 x 6 regular grid over +-0.25" holding a
+ * Gaussian blob, each cell's standard deviation a tenth of the peak.
+ */
+function syntheticSource() {
+  const side = 6;
+  const cellXArcsec: number[] = [], cellYArcsec: number[] = [], values: number[] = [], standardDeviations: number[] = [];
+  for (let b = 0; b < side; b++) {
+    for (let a = 0; a < side; a++) {
+      const x = -0.25 + (0.5 * a) / (side - 1), y = -0.25 + (0.5 * b) / (side - 1);
+      cellXArcsec.push(x);
+      cellYArcsec.push(y);
+      values.push(10 * Math.exp(-(x * x + y * y) / (2 * 0.1 * 0.1)));
+      standardDeviations.push(1);
+    }
+  }
+  return { mesh: 'regular', regularisation: 'gradient', cellXArcsec, cellYArcsec, values, standardDeviations, triangles: null, side, raysOutside: 0 };
+}
+
 export function writeSyntheticRun(root: string): string {
   const dataFolder = join(root, 'data');
   const runFolder = join(root, 'chains', 'synthetic-run');
@@ -174,6 +193,7 @@ export function writeSyntheticRun(root: string): string {
     fits(join(folder, 'best-fit-model.fits'), image(ring), 'counts/s');
     fits(join(folder, 'residual.fits'), image((i, j) => (i - j) * 0.01), 'counts/s');
     fits(join(folder, 'normalised-residual.fits'), image((i, j) => (i - j) * 0.2), '');
+    writeFileSync(join(folder, 'source.json'), JSON.stringify(syntheticSource()));
   }
   const summary = {
     arcsiftVersion: '0.0.0-test', kind: 'comparison', config: 'configs/synthetic.yaml', configSha256: createHash('sha256').update(SYNTHETIC_CONFIG).digest('hex'),

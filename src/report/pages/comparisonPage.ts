@@ -94,6 +94,7 @@ ${imageRow('Observed data', ['data', 'noise'])}
 ${imageRow('<span class="swatch smooth"></span>Smooth model', ['smooth-model', 'smooth-residual', 'smooth-normalised-residual'])}
 ${imageRow('<span class="swatch perturbed"></span>Perturbed model', ['perturbed-model', 'perturbed-residual', 'perturbed-normalised-residual'])}
 ${imageRow('Lens and source planes', ['perturbed-convergence', 'perturbed-source-plane', 'smooth-source-plane'])}
+${imageRow('Pixelated source', ['perturbed-source-significance', 'smooth-source-significance'])}
 </div>
 <p class="note">Images are shown with row 0 at the bottom: x grows to the right and y upwards, in arcsec from the image centre. Data and models share one linear scale; the residuals of both models share one symmetric scale.${run.truth === null ? '' : ' Open circles: simulated perturber position.'} Dot with bars: the perturber's posterior median and 68% intervals.</p>`;
   const notices = [...run.notices, ...input.notices, ...s.dataNotices];
