@@ -1,24 +1,17 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import { parseConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
-import { readConfigFile } from '../config/readConfigFile.js';
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { loadObservedData } from '../data/loadObservedData.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { nelderMead } from '../numeric/optimisation/nelderMead.js';
 import { simulateToFolder } from '../simulate/simulateToFolder.js';
 import { benchOption } from './benchOptions.js';
-
-const configPath = fileURLToPath(new URL('../../configs/demo-pixelated.yaml', import.meta.url));
-
-interface EditableConfig { source: { light: Record<string, unknown>[] } }
+import { PIXELATED_DEMO_CONFIG, pixelatedDemoConfig } from './pixelatedDemoConfig.js';
 
 /** configs/demo-pixelated.yaml with its pixelated source regularised in form `form`. */
 function formConfig(form: string): ArcsiftConfig {
-  const data = readConfigFile(configPath) as EditableConfig;
-  for (const component of data.source.light) if (component.kind === 'pixelated') component.regularisation = form;
-  return parseConfig(data, configPath);
+  return pixelatedDemoConfig((light) => light.map((c) => (c.kind === 'pixelated' ? { ...c, regularisation: form } : c)));
 }
 
 const MASS = 'perturbers[0].log10MassSolar';
@@ -61,7 +54,7 @@ export async function run(args: string[]): Promise<void> {
       const truth = Float64Array.from(likelihood.system.configuredValues());
       const mass = names.indexOf(MASS);
       const strength = names.findIndex((n) => STRENGTH.test(n));
-      if (mass < 0 || strength < 0) throw new Error(`pixelMassProfile: ${configPath} has no ${MASS} or no single regularisation strength`);
+      if (mass < 0 || strength < 0) throw new Error(`pixelMassProfile: ${PIXELATED_DEMO_CONFIG} has no ${MASS} or no single regularisation strength`);
       // log10 lambda at its best with everything else at the truth, on a grid of 0.25 dex.
       let best = Number.NEGATIVE_INFINITY;
       for (let l = -6; l <= 2; l += 0.25) {

@@ -1,21 +1,14 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import { parseConfig, type ArcsiftConfig } from '../config/arcsiftConfig.js';
-import { readConfigFile } from '../config/readConfigFile.js';
+import type { ArcsiftConfig } from '../config/arcsiftConfig.js';
 import { loadObservedData } from '../data/loadObservedData.js';
 import { INVERSION_STAGES } from '../inversion/sourceInversion.js';
 import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
 import { simulateToFolder } from '../simulate/simulateToFolder.js';
 import { benchOption } from './benchOptions.js';
 import { bestMillisecondsPerCall } from './forward.js';
-
-const configPath = fileURLToPath(new URL('../../configs/demo-pixelated.yaml', import.meta.url));
-
-interface EditableConfig {
-  source: { light: Record<string, unknown>[] };
-}
+import { pixelatedDemoConfig } from './pixelatedDemoConfig.js';
 
 /** The fitted source of each scenario, replacing the config's pixelated component. */
 const SCENARIOS: Readonly<Record<string, Record<string, unknown>>> = {
@@ -37,9 +30,7 @@ const SCENARIOS: Readonly<Record<string, Record<string, unknown>>> = {
 
 /** The config of scenario `name`: configs/demo-pixelated.yaml fitted with that source. */
 export function scenarioConfig(name: string): ArcsiftConfig {
-  const data = readConfigFile(configPath) as EditableConfig;
-  data.source.light = [...data.source.light.filter((c) => c.kind !== 'pixelated'), SCENARIOS[name]];
-  return parseConfig(data, configPath);
+  return pixelatedDemoConfig((light) => [...light.filter((c) => c.kind !== 'pixelated'), SCENARIOS[name]]);
 }
 
 /** Points cycled through by the timing: how many, and the relative step of each parameter. */
@@ -72,7 +63,7 @@ export async function run(args: string[]): Promise<void> {
   const only = benchOption(args, '--only');
   const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-'));
   try {
-    const truthConfig = parseConfig(readConfigFile(configPath), configPath);
+    const truthConfig = pixelatedDemoConfig((light) => light);
     simulateToFolder(truthConfig, folder, { seed: 1, noiseless: false });
     for (const name of Object.keys(SCENARIOS).filter((n) => only === undefined || n === only)) {
       const config = scenarioConfig(name);
