@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
 import { AdaptiveMesh } from '../../src/inversion/adaptiveMesh.js';
-import { RegularMesh } from '../../src/inversion/regularMesh.js';
 import { MAX_NATURAL_NEIGHBOURS } from '../../src/numeric/geometry/naturalNeighbourWeights.js';
 
 // A ray whose natural-neighbour ring is degenerate takes its triangle's barycentric weights, and
@@ -43,9 +42,5 @@ describe('interpolation fallbacks of a source mesh', () => {
     // The next call counts afresh.
     expect(mesh.interpolate(bx.subarray(1), by.subarray(1), 2, cells, weights)).toBe(1);
     expect(mesh.interpolationFallbacks).toBe(0);
-  });
-
-  it('is always 0 on a regular grid (bilinear weights have no degenerate case)', () => {
-    expect(new RegularMesh(8).interpolationFallbacks).toBe(0);
   });
 });
