@@ -157,6 +157,14 @@ describe('writeReport on a synthetic run folder', () => {
     for (const text of ['nested-sampling sum', 'importance sampling', '1\u2009234 of 4\u2009000 draws', '0.31 (limit 0.70)']) expect(diagnostics).toContain(text);
   });
 
+  it('does not call the perturber measured when the evidence favours it but the claim is no detection', () => {
+    // Own report contract: ln B = 5.44 favours a perturber (ln B > 1), while the claim is
+    // 'not-evidence' (threshold ln B > 50), so the intervals must not read as a measurement.
+    const section = /<section class="card" id="perturber">[\s\S]*?<\/section>/.exec(html)?.[0] ?? '';
+    expect(section).toContain('but makes no detection (threshold ln B &gt; 50');
+    expect(section).not.toContain('the intervals are the measurement');
+  });
+
   it('writes elsewhere with --out, its links still resolving from there', () => {
     const other = join(root, 'elsewhere', 'page.html');
     expect(writeReport(run, other)).toBe(other);

@@ -1,3 +1,4 @@
+import type { DetectionClaim } from '../../results/detectionClaim.js';
 import type { ParameterSummary } from '../../results/parameterSummary.js';
 import { escapeMarkup } from '../text/escapeMarkup.js';
 import { digitsForSpread, formatNumber } from '../text/formatNumber.js';
@@ -21,6 +22,8 @@ const MASS_DIGITS = 2;
 export interface PerturberTableInput {
   readonly perturbers: ComparisonSummary['perturbers'];
   readonly bayesFactor?: { readonly perturberFavoured: boolean; readonly favouredAbove: number };
+  /** The comparison's detection claim, when it has one. */
+  readonly detection?: Pick<DetectionClaim, 'claim' | 'thresholdLnB'>;
 }
 
 /** HTML name of a perturber's sampled mass: M200 for NFW-type profiles, the total mass otherwise. */
@@ -58,6 +61,8 @@ export function perturberTable(summary: PerturberTableInput, truth: TruthRecord 
     const prior = p.massPriorRange === null ? 'held fixed' : `uniform in log<sub>10</sub> mass on [${p.massPriorRange[0]}, ${p.massPriorRange[1]}]`;
     const note = summary.bayesFactor === undefined
       ? 'A single fit weighs no evidence for the perturber: only a comparison with the smooth model (arcsift compare) can call it a detection. The intervals are this model\'s posterior.'
+      : favoured && summary.detection !== undefined && summary.detection.claim !== 'detected'
+      ? `The evidence favours a perturber (ln B &gt; ${formatNumber(summary.bayesFactor.favouredAbove, 0)}) but makes no detection (threshold ln B &gt; ${formatNumber(summary.detection.thresholdLnB, 0)}; see the detection claim above): the intervals describe the perturber the perturbed model needs, not a measured subhalo.`
       : favoured
       ? 'The evidence favours a perturber: the intervals are the measurement.'
       : `The evidence does not favour a perturber (ln B &le; ${formatNumber(summary.bayesFactor.favouredAbove, 0)}): the 95% upper limit is the result; the intervals are shown for reference.`;
