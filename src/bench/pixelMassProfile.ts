@@ -9,9 +9,23 @@ import { simulateToFolder } from '../simulate/simulateToFolder.js';
 import { benchOption } from './benchOptions.js';
 import { PIXELATED_DEMO_CONFIG, pixelatedDemoConfig } from './pixelatedDemoConfig.js';
 
-/** configs/demo-pixelated.yaml with its pixelated source regularised in form `form`. */
-function formConfig(form: string): ArcsiftConfig {
-  return pixelatedDemoConfig((light) => light.map((c) => (c.kind === 'pixelated' ? { ...c, regularisation: form } : c)));
+/**
+ * configs/demo-pixelated.yaml with its pixelated source regularised in form `form`, its adaptive
+ * mesh's keys replaced by those of `mesh`.
+ */
+function formConfig(form: string, mesh: Record<string, number> = {}): ArcsiftConfig {
+  return pixelatedDemoConfig((light) => light.map((c) => (c.kind === 'pixelated'
+    ? { ...c, regularisation: form, mesh: { ...(c.mesh as Record<string, unknown>), ...mesh } }
+    : c)));
+}
+
+/** A whole or fractional number option of the bench, or undefined when absent. */
+function numberOption(args: string[], name: string, check: (v: number) => boolean, expected: string): number | undefined {
+  const text = benchOption(args, name);
+  if (text === undefined) return undefined;
+  const value = Number(text);
+  if (!check(value)) throw new Error(`${name}: expected ${expected}, found ${text}`);
+  return value;
 }
 
 const MASS = 'perturbers[0].log10MassSolar';
@@ -26,12 +40,13 @@ function stepOf(name: string, value: number): number {
 
 /**
  * `npm run bench -- pixelMassProfile [--forms gradient,curvature] [--masses 6,8.4,8.7,9,9.3]
- * [--free-position]`: where the likelihood of the pixelated demo puts its subhalo's mass, apart
+ * [--free-position] [--cells N] [--bright-share S]`: where the likelihood of the pixelated demo puts its subhalo's mass, apart
  * from any sampler. On the mock of configs/demo-pixelated.yaml (seed 1; the truth has log10 M200
  * = 9.0), for each regularisation form and each fixed mass: ln L (the source marginalised, as the
  * samplers see it) with every other parameter at the truth and log10 lambda at its best there,
  * and its profile, the maximum over the lens's free parameters and log10 lambda (Nelder-Mead,
- * three rounds), with the perturber's centre held at the truth unless --free-position. A profile
+ * three rounds), with the perturber's centre held at the truth unless --free-position, on the
+ * config's adaptive mesh or with its `cells` and `brightShare` replaced. A profile
  * that peaks away from the truth shows a bias of the model (the source and the smooth lens
  * taking up part of the subhalo's distortion) that more live points cannot remove. One JSON line
  * per form and mass, then one per form with the mass of the highest profile. About five minutes
@@ -42,11 +57,14 @@ export async function run(args: string[]): Promise<void> {
   const masses = (benchOption(args, '--masses') ?? '6,8.4,8.7,9,9.3').split(',').map(Number);
   if (masses.some((m) => !Number.isFinite(m))) throw new Error(`--masses: expected numbers separated by commas, found ${benchOption(args, '--masses')}`);
   const freePosition = args.includes('--free-position');
+  const cells = numberOption(args, '--cells', (v) => Number.isInteger(v) && v >= 16, 'a whole number of at least 16');
+  const brightShare = numberOption(args, '--bright-share', (v) => v >= 0 && v <= 0.95, 'a number from 0 to 0.95');
+  const mesh = { ...(cells === undefined ? {} : { cells }), ...(brightShare === undefined ? {} : { brightShare }) };
   const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-'));
   try {
     simulateToFolder(formConfig('gradient'), folder, { seed: 1, noiseless: false });
     for (const form of forms) {
-      const config = formConfig(form);
+      const config = formConfig(form, mesh);
       const { observation } = config;
       const data = loadObservedData({ folder }, { columns: observation.columns, rows: observation.rows, pixelScaleArcsec: observation.pixelScaleArcsec });
       const likelihood = new PixelLikelihood(config, data, 1);
@@ -86,7 +104,7 @@ export async function run(args: string[]): Promise<void> {
         }
         profile.push({ log10M: m, lnL: -result.value });
         console.log(JSON.stringify({
-          benchmark: 'pixelMassProfile', form, log10M: m, freePosition,
+          benchmark: 'pixelMassProfile', form, mesh: config.sourceLight.find((c) => c.pixelated)?.pixelated?.mesh, log10M: m, freePosition,
           lnLAtTruth: Number(likelihood.logLikelihood(start).toFixed(2)),
           lnLProfile: Number((-result.value).toFixed(2)),
           evaluations,
@@ -95,7 +113,7 @@ export async function run(args: string[]): Promise<void> {
         }));
       }
       const peak = profile.reduce((a, b) => (b.lnL > a.lnL ? b : a));
-      console.log(JSON.stringify({ benchmark: 'pixelMassProfile', form, freePosition, truthLog10M: truth[mass], profilePeakLog10M: peak.log10M, lnLProfilePeak: Number(peak.lnL.toFixed(2)) }));
+      console.log(JSON.stringify({ benchmark: 'pixelMassProfile', form, mesh: config.sourceLight.find((c) => c.pixelated)?.pixelated?.mesh, freePosition, truthLog10M: truth[mass], profilePeakLog10M: peak.log10M, lnLProfilePeak: Number(peak.lnL.toFixed(2)) }));
     }
   } finally {
     rmSync(folder, { recursive: true, force: true });

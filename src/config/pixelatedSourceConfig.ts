@@ -13,7 +13,20 @@ export type SourceMeshConfig =
     readonly kind: 'adaptive';
     /** How many vertices (cells): the traced pixels of a lattice chosen once to hold exactly this many. */
     readonly cells: number;
+    /**
+     * The share of the cells (0: none, the default) placed on a lattice of their own over the
+     * bright pixels: the used pixels whose data exceed brightSignalToNoise times their noise.
+     */
+    readonly brightShare: number;
+    readonly brightSignalToNoise: number;
   };
+
+/**
+ * The data-to-noise ratio above which a used pixel counts as bright for an adaptive mesh's
+ * brightShare (common practice: a clear detection in one pixel; on the pixelated demo's mock it
+ * selects the arcs' 945 brightest of 6,848 pixels).
+ */
+export const DEFAULT_BRIGHT_SIGNAL_TO_NOISE = 10;
 
 /** The prior on a pixelated source's cell values (Suyu et al. 2006 forms; brightness-weighted). */
 export type RegularisationForm = 'zeroth' | 'gradient' | 'curvature' | 'brightness';
@@ -38,7 +51,12 @@ export function readPixelatedSource(node: ConfigNode): PixelatedSourceConfig {
   const kind = meshNode.get('kind').oneOf(['regular', 'adaptive'] as const);
   const mesh: SourceMeshConfig = kind === 'regular'
     ? { kind, cellsPerSide: meshNode.get('cellsPerSide').number({ integer: true, min: 3, max: 200 }) }
-    : { kind, cells: meshNode.get('cells').number({ integer: true, min: 16, max: 20000 }) };
+    : {
+      kind,
+      cells: meshNode.get('cells').number({ integer: true, min: 16, max: 20000 }),
+      brightShare: meshNode.get('brightShare').optionalNumber(0, { min: 0, max: 0.95 }),
+      brightSignalToNoise: meshNode.get('brightSignalToNoise').optionalNumber(DEFAULT_BRIGHT_SIGNAL_TO_NOISE, { min: 0, exclusiveMin: true }),
+    };
   meshNode.finish();
   const regularisation = node.get('regularisation').oneOf(REGULARISATION_FORMS);
   const raysPerPixelSide = node.get('raysPerPixelSide').optionalNumber(2, { integer: true, min: 1, max: 8 });

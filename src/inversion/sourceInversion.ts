@@ -59,6 +59,12 @@ export interface SourceReconstruction {
   readonly side: number | null;
 }
 
+/** The used pixels whose data exceed `signalToNoise` times their noise. */
+function brightPixels(setup: InversionSetup, signalToNoise: number): Int32Array {
+  const { used, data, inverseVariance } = setup;
+  return used.filter((_, k) => data[k] * Math.sqrt(inverseVariance[k]) > signalToNoise);
+}
+
 /**
  * The evidence of a lens model with a pixelated source, the source cell values and the other
  * linear amplitudes integrated out (Suyu et al. 2006, the Bayesian evidence of a regularised
@@ -123,7 +129,9 @@ export class SourceInversion {
       this.regular = null;
       this.adaptive = new AdaptiveMesh();
       this.mesh = this.adaptive;
-      this.vertices = new VertexSelection(grid, computed, settings.mesh.cells);
+      const { cells, brightShare, brightSignalToNoise } = settings.mesh;
+      const bright = brightShare > 0 ? { pixels: brightPixels(setup, brightSignalToNoise), share: brightShare } : undefined;
+      this.vertices = new VertexSelection(grid, computed, cells, bright);
     }
     const perRay = this.mesh.entriesPerRay;
     this.cells = new Int32Array(this.rays.count * perRay);

@@ -12,6 +12,12 @@ import type { MassTerm } from '../lensing/massTerm.js';
  * a lattice of spacing s (not necessarily whole) over the traced pixels, s chosen once so that the
  * lattice holds at least the cells asked for; the surplus is thinned in a spread-out order
  * (bit-reversed), so exactly `cells` vertices remain.
+ *
+ * With `bright` given, a share of the cells goes to a lattice of its own over the bright pixels
+ * (where the data show the lensed source) and the rest to one over the other pixels: the arcs
+ * then get a finer mesh than the empty parts of the mask, whose cells the regularisation ties to
+ * the faint surroundings. Placing the source's cells after its brightness is the idea of
+ * Nightingale, Dye & Massey (2018); here the brightness is read once from the data.
  */
 export class VertexSelection {
   /** Source-plane positions of the vertices (count of them), in Z-order of the image pixels. */
@@ -23,10 +29,14 @@ export class VertexSelection {
   private readonly alphaX: Float64Array;
   private readonly alphaY: Float64Array;
 
-  /** `pixels`: the row-major indices of the pixels that may become vertices (e.g. every traced pixel). */
-  constructor(grid: PixelGrid, pixels: Int32Array, cells: number) {
+  /**
+   * `pixels`: the row-major indices of the pixels that may become vertices (e.g. every traced
+   * pixel); `bright`: a subset of them and the share of the cells (0 to 1) its lattice gets
+   * (fewer when it has fewer pixels; the other pixels' lattice gets the rest).
+   */
+  constructor(grid: PixelGrid, pixels: Int32Array, cells: number, bright?: { readonly pixels: Int32Array; readonly share: number }) {
     const { columns, rows, pixelScaleArcsec: scale } = grid;
-    const chosen = latticePixels(pixels, columns, Math.max(1, Math.min(cells, pixels.length)));
+    const chosen = chosenPixels(pixels, columns, Math.max(1, Math.min(cells, pixels.length)), bright);
     const n = chosen.length;
     this.count = n;
     this.rayX = new Float64Array(n);
@@ -47,6 +57,20 @@ export class VertexSelection {
   select(massTerms: readonly MassTerm[], p: Float64Array): void {
     traceRays(massTerms, p, this.rayX, this.rayY, this.count, this.alphaX, this.alphaY, this.x, this.y);
   }
+}
+
+/** The vertex pixels: one lattice over all pixels, or one over the bright ones and one over the others, in Z-order. */
+function chosenPixels(pixels: Int32Array, columns: number, cells: number, bright?: { readonly pixels: Int32Array; readonly share: number }): Int32Array {
+  if (bright === undefined || bright.share <= 0 || bright.pixels.length === 0) return latticePixels(pixels, columns, cells);
+  const isBright = new Set(bright.pixels);
+  const brightPixels = pixels.filter((p) => isBright.has(p));
+  const others = pixels.filter((p) => !isBright.has(p));
+  const brightCells = Math.min(brightPixels.length, Math.round(bright.share * cells));
+  const otherCells = Math.min(others.length, cells - brightCells);
+  const parts = [brightCells > 0 ? latticePixels(brightPixels, columns, brightCells) : [], otherCells > 0 ? latticePixels(others, columns, otherCells) : []];
+  const merged = [...parts[0], ...parts[1]];
+  merged.sort((a, b) => mortonOf(a, columns) - mortonOf(b, columns));
+  return Int32Array.from(merged);
 }
 
 /**

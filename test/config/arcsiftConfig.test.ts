@@ -66,6 +66,22 @@ describe('config loading', () => {
     expect(messageOf(data)).toMatch(/lens\.mass\[0\]\.axisRatio\.prior\.uniform: expected a list of 2 numbers \[lower, upper\]/);
   });
 
+  it('reads an adaptive mesh\'s bright share and names the key of a bad one', () => {
+    const pixelatedPath = fileURLToPath(new URL('../../configs/demo-pixelated.yaml', import.meta.url));
+    const raw = (): any => parse(readFileSync(pixelatedPath, 'utf8'));
+    const meshOf = (data: any): any => data.source.light.find((c: any) => c.kind === 'pixelated').mesh;
+    let data = raw();
+    data.source.light.find((c: any) => c.kind === 'pixelated').mesh = { kind: 'adaptive', cells: 1000, brightShare: 0.5 };
+    const component = parseConfig(data, 'pixelated.yaml').sourceLight.find((c) => c.kind === 'pixelated');
+    expect((component as any).pixelated.mesh).toEqual({ kind: 'adaptive', cells: 1000, brightShare: 0.5, brightSignalToNoise: 10 });
+    data = raw();
+    meshOf(data).brightShare = 1.2;
+    expect(messageOf(data)).toMatch(/source\.light\[5\]\.mesh\.brightShare: expected a number <= 0\.95, found 1\.2/);
+    data = raw();
+    meshOf(data).brightSignalToNoise = 0;
+    expect(messageOf(data)).toMatch(/source\.light\[5\]\.mesh\.brightSignalToNoise: expected a number > 0, found 0/);
+  });
+
   it('reports unreadable and malformed files by name', () => {
     expect(() => loadConfig('/nonexistent/arcsift.yaml')).toThrow(/\/nonexistent\/arcsift\.yaml: cannot read the config file \(ENOENT\)/);
   });

@@ -79,4 +79,49 @@ describe('vertices of the adaptive source mesh', () => {
     const mean = (rows: number[][]): number => rows.reduce((s, r) => s + r[1], 0) / rows.length;
     expect(mean(byRadius.slice(0, third))).toBeLessThan(0.7 * mean(byRadius.slice(-third)));
   });
+
+  it('gives the bright pixels their share of the vertices, on a finer lattice', () => {
+    // An arc-like band of the annulus (x > 0.3") as the bright pixels.
+    const bright = annulus.filter((q) => ((q % 60) - 29.5) * 0.05 > 0.3);
+    const brightSet = new Set(bright);
+    for (const share of [0.3, 0.6]) {
+      const v = new VertexSelection(grid, annulus, 400, { pixels: bright, share });
+      v.select([], new Float64Array(0));
+      expect(v.count).toBe(400);
+      let onBright = 0;
+      for (let i = 0; i < v.count; i++) {
+        const pixel = Math.round(v.y[i] / 0.05 + 29.5) * 60 + Math.round(v.x[i] / 0.05 + 29.5);
+        if (brightSet.has(pixel)) onBright++;
+      }
+      expect(onBright).toBe(Math.round(share * 400));
+    }
+    // With 60% of the vertices on about a quarter of the pixels, the bright band's vertices sit
+    // closer together than the others (a lattice's spacing goes as sqrt(pixels / vertices)).
+    const v = new VertexSelection(grid, annulus, 400, { pixels: bright, share: 0.6 });
+    v.select([], new Float64Array(0));
+    const isBright = (i: number): boolean => v.x[i] > 0.3;
+    const nearest = (i: number): number => {
+      let best = Infinity;
+      for (let j = 0; j < v.count; j++) if (j !== i && isBright(j) === isBright(i)) best = Math.min(best, Math.hypot(v.x[i] - v.x[j], v.y[i] - v.y[j]));
+      return best;
+    };
+    const meanSpacing = (want: boolean): number => {
+      const list = Array.from({ length: v.count }, (_, i) => i).filter((i) => isBright(i) === want);
+      return list.reduce((sum, i) => sum + nearest(i), 0) / list.length;
+    };
+    const expectedRatio = Math.sqrt((bright.length / 240) / ((annulus.length - bright.length) / 160));
+    expect(meanSpacing(true) / meanSpacing(false)).toBeGreaterThan(0.7 * expectedRatio);
+    expect(meanSpacing(true) / meanSpacing(false)).toBeLessThan(1.3 * expectedRatio);
+  });
+
+  it('gives the other pixels what the bright ones cannot hold, and ignores a zero share', () => {
+    const few = annulus.slice(0, 50);
+    const v = new VertexSelection(grid, annulus, 300, { pixels: few, share: 0.5 });
+    expect(v.count).toBe(300);
+    const plain = new VertexSelection(grid, annulus, 300);
+    const none = new VertexSelection(grid, annulus, 300, { pixels: few, share: 0 });
+    plain.select(lens, p);
+    none.select(lens, p);
+    expect(Array.from(none.x)).toEqual(Array.from(plain.x));
+  });
 });
