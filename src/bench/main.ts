@@ -7,7 +7,7 @@ const firstOption = all.findIndex((a) => a.startsWith('--'));
 const names = firstOption < 0 ? all : all.slice(0, firstOption);
 const options = firstOption < 0 ? [] : all.slice(firstOption);
 if (names.length === 0) {
-  console.error('usage: npm run bench -- NAME [NAME ...] [--option value ...]   (forward, likelihood, compare, samplers, evidence, vet, verdict, nestedRun, sparseCholesky, triangulation, pixelSource, pixelRecovery, pixelMassProfile)');
+  console.error('usage: npm run bench -- NAME [NAME ...] [--option value ...]   (forward, likelihood, compare, samplers, evidence, vet, verdict, nestedRun, sparseCholesky, triangulation, pixelSource, pixelRecovery, pixelMassProfile, pixelMeshChoice)');
   process.exit(2);
 }
 for (const name of names) {

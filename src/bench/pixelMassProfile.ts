@@ -31,8 +31,21 @@ function numberOption(args: string[], name: string, check: (v: number) => boolea
 const MASS = 'perturbers[0].log10MassSolar';
 const STRENGTH = /RegularisationStrength$/;
 
+/** Sets point[strength] to the log10 lambda of the highest ln L with the rest of `point` held (a grid of 0.25 dex over [-6, 2]). */
+export function setBestStrength(likelihood: PixelLikelihood, point: Float64Array, strength: number): void {
+  let best = Number.NEGATIVE_INFINITY;
+  let at = point[strength];
+  const trial = Float64Array.from(point);
+  for (let l = -6; l <= 2; l += 0.25) {
+    trial[strength] = l;
+    const value = likelihood.logLikelihood(trial);
+    if (value > best) { best = value; at = l; }
+  }
+  point[strength] = at;
+}
+
 /** Nelder-Mead simplex steps: 0.3 dex for a strength, 0.03" for a perturber's centre, else 0.5% of the value (at least 1e-3). */
-function stepOf(name: string, value: number): number {
+export function stepOf(name: string, value: number): number {
   if (STRENGTH.test(name)) return 0.3;
   if (name.startsWith('perturbers[0].center')) return 0.03;
   return Math.max(1e-3, 0.005 * Math.abs(value));
@@ -73,14 +86,7 @@ export async function run(args: string[]): Promise<void> {
       const mass = names.indexOf(MASS);
       const strength = names.findIndex((n) => STRENGTH.test(n));
       if (mass < 0 || strength < 0) throw new Error(`pixelMassProfile: ${PIXELATED_DEMO_CONFIG} has no ${MASS} or no single regularisation strength`);
-      // log10 lambda at its best with everything else at the truth, on a grid of 0.25 dex.
-      let best = Number.NEGATIVE_INFINITY;
-      for (let l = -6; l <= 2; l += 0.25) {
-        const point = Float64Array.from(truth);
-        point[strength] = l;
-        const value = likelihood.logLikelihood(point);
-        if (value > best) { best = value; truth[strength] = l; }
-      }
+      setBestStrength(likelihood, truth, strength);
       const varied = likelihood.system.parameters
         .map((p, i) => (p.prior !== undefined && i !== mass && (freePosition || !names[i].startsWith('perturbers[0].center')) ? i : -1))
         .filter((i) => i >= 0);

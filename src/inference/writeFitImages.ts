@@ -79,5 +79,6 @@ function sourceFileOf(inversion: SourceInversion, regularisation: string): Sourc
     triangles: r.triangles === null ? null : Array.from(r.triangles),
     side: r.side,
     raysOutside: inversion.raysOutside,
+    ...(inversion.brightCells === null ? {} : { brightCells: inversion.brightCells }),
   };
 }

@@ -158,6 +158,13 @@ export class SourceInversion {
     this.clock = now;
   }
 
+  /** Adaptive mesh: the cells placed on the bright pixels' lattice and the ratio that made a pixel bright (null without a bright share). */
+  get brightCells(): { count: number; signalToNoise: number } | null {
+    const mesh = this.setup.term.settings.mesh;
+    if (this.vertices === null || mesh.kind !== 'adaptive' || mesh.brightShare === 0) return null;
+    return { count: this.vertices.brightCount, signalToNoise: mesh.brightSignalToNoise };
+  }
+
   /** Source cells of the last build. */
   get sourceCellCount(): number {
     return this.cellCount;

@@ -24,6 +24,8 @@ export class VertexSelection {
   readonly x: Float64Array;
   readonly y: Float64Array;
   readonly count: number;
+  /** How many of the vertices come from the bright pixels' lattice (0 without `bright`). */
+  readonly brightCount: number;
   private readonly rayX: Float64Array;
   private readonly rayY: Float64Array;
   private readonly alphaX: Float64Array;
@@ -36,7 +38,8 @@ export class VertexSelection {
    */
   constructor(grid: PixelGrid, pixels: Int32Array, cells: number, bright?: { readonly pixels: Int32Array; readonly share: number }) {
     const { columns, rows, pixelScaleArcsec: scale } = grid;
-    const chosen = chosenPixels(pixels, columns, Math.max(1, Math.min(cells, pixels.length)), bright);
+    const { chosen, brightCount } = chosenPixels(pixels, columns, Math.max(1, Math.min(cells, pixels.length)), bright);
+    this.brightCount = brightCount;
     const n = chosen.length;
     this.count = n;
     this.rayX = new Float64Array(n);
@@ -59,9 +62,14 @@ export class VertexSelection {
   }
 }
 
-/** The vertex pixels: one lattice over all pixels, or one over the bright ones and one over the others, in Z-order. */
-function chosenPixels(pixels: Int32Array, columns: number, cells: number, bright?: { readonly pixels: Int32Array; readonly share: number }): Int32Array {
-  if (bright === undefined || bright.share <= 0 || bright.pixels.length === 0) return latticePixels(pixels, columns, cells);
+/**
+ * The vertex pixels, in Z-order: one lattice over all pixels, or one over the bright ones (the
+ * first brightCount chosen) and one over the others.
+ */
+function chosenPixels(
+  pixels: Int32Array, columns: number, cells: number, bright?: { readonly pixels: Int32Array; readonly share: number },
+): { chosen: Int32Array; brightCount: number } {
+  if (bright === undefined || bright.share <= 0 || bright.pixels.length === 0) return { chosen: latticePixels(pixels, columns, cells), brightCount: 0 };
   const isBright = new Set(bright.pixels);
   const brightPixels = pixels.filter((p) => isBright.has(p));
   const others = pixels.filter((p) => !isBright.has(p));
@@ -70,7 +78,7 @@ function chosenPixels(pixels: Int32Array, columns: number, cells: number, bright
   const parts = [brightCells > 0 ? latticePixels(brightPixels, columns, brightCells) : [], otherCells > 0 ? latticePixels(others, columns, otherCells) : []];
   const merged = [...parts[0], ...parts[1]];
   merged.sort((a, b) => mortonOf(a, columns) - mortonOf(b, columns));
-  return Int32Array.from(merged);
+  return { chosen: Int32Array.from(merged), brightCount: parts[0].length };
 }
 
 /**

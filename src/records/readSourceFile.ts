@@ -30,7 +30,12 @@ export function readSourceFile(file: string): SourceFile {
   if (mesh === 'regular' && !(typeof side === 'number' && side * side === cellXArcsec.length)) {
     throw new InputError(expectedFound(`the side of a ${cellXArcsec.length}-cell square grid`, side), { file, key: 'side' });
   }
+  const bright = record.brightCells as Record<string, unknown> | undefined;
+  if (bright !== undefined && !(typeof bright?.count === 'number' && typeof bright?.signalToNoise === 'number')) {
+    throw new InputError(expectedFound('{ count, signalToNoise }', bright), { file, key: 'brightCells' });
+  }
   return {
+    ...(bright === undefined ? {} : { brightCells: { count: bright.count as number, signalToNoise: bright.signalToNoise as number } }),
     mesh, regularisation: String(record.regularisation ?? ''), cellXArcsec, cellYArcsec, values, standardDeviations,
     triangles, side: side as number | null, raysOutside: typeof record.raysOutside === 'number' ? record.raysOutside : 0,
   };

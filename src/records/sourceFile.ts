@@ -18,4 +18,9 @@ export interface SourceFile {
   readonly side: number | null;
   /** Rays of that evaluation that fell outside the mesh (they see no source). */
   readonly raysOutside: number;
+  /**
+   * Adaptive mesh with a bright share: how many cells sit on the bright pixels' lattice, and the
+   * data-to-noise ratio above which a pixel was bright (absent otherwise).
+   */
+  readonly brightCells?: { readonly count: number; readonly signalToNoise: number };
 }

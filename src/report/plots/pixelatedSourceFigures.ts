@@ -60,7 +60,7 @@ export function pixelatedSourceFigures(
     : '';
   const meshWords = source.mesh === 'regular'
     ? `a regular ${source.side} &times; ${source.side} grid, bilinear between its nodes`
-    : `an adaptive mesh of ${source.values.length} cells (Delaunay triangles on traced image pixels), interpolated with Laplace natural-neighbour weights as in the fit`;
+    : `an adaptive mesh of ${source.values.length} cells (Delaunay triangles on traced image pixels${source.brightCells === undefined ? '' : `, ${source.brightCells.count} of them on the pixels whose data exceed ${source.brightCells.signalToNoise} times their noise`}), interpolated with Laplace natural-neighbour weights as in the fit`;
   const common = `at the best fit of the ${tone} model (highest-likelihood sample): the cells' posterior given that lens and the ${source.regularisation} regularisation at its sampled strength. Mesh: ${meshWords}; drawn on a ${RECONSTRUCTION_CELLS} &times; ${RECONSTRUCTION_CELLS} raster in source-plane arcsec (&beta;), grey off the mesh, where the source is taken to vanish${source.raysOutside > 0 ? ` (${source.raysOutside} rays of the fit fell there)` : ''}.`;
   const figures: ReportFigure[] = [];
   for (const kind of kinds) {

@@ -82,5 +82,10 @@ describe('rasterised source reconstructions (report)', () => {
     expect(() => readSourceFile(file)).toThrow(/values/);
     writeFileSync(file, JSON.stringify(regularSource(3)));
     expect(readSourceFile(file).side).toBe(3);
+    // An adaptive mesh's bright cells: read back as written, a damaged record named.
+    writeFileSync(file, JSON.stringify({ ...adaptiveSource(), brightCells: { count: 4, signalToNoise: 10 } }));
+    expect(readSourceFile(file).brightCells).toEqual({ count: 4, signalToNoise: 10 });
+    writeFileSync(file, JSON.stringify({ ...adaptiveSource(), brightCells: { count: '4' } }));
+    expect(() => readSourceFile(file)).toThrow(/brightCells/);
   });
 });
