@@ -39,6 +39,7 @@ export class PixelLikelihood {
         { file: config.file, key: 'observation' },
       );
     }
+    checkBrightShare(config, data);
     this.system = buildLensSystem(config, { perturberCount });
     const grid = pixelGrid(data.columns, data.rows, data.pixelScaleArcsec);
     const computed = growMaskByKernel(data.mask, data.columns, data.rows, data.psf.columns, data.psf.rows);
@@ -129,5 +130,22 @@ export class PixelLikelihood {
       for (let p = 0; p < image.length; p++) image[p] += amplitudes[k] * basis[k * image.length + p];
     }
     return { image, amplitudes, logLikelihood };
+  }
+}
+
+/**
+ * An InputError naming the key when a pixelated source's adaptive mesh puts a share of its cells
+ * on bright pixels and no used pixel's data exceed brightSignalToNoise times their noise.
+ */
+export function checkBrightShare(config: ArcsiftConfig, data: ObservedData): void {
+  for (const component of config.sourceLight) {
+    const mesh = component.pixelated?.mesh;
+    if (mesh?.kind !== 'adaptive' || mesh.brightShare === 0) continue;
+    const ratio = mesh.brightSignalToNoise;
+    if (data.usedPixels.some((p) => data.image[p] > ratio * data.noise[p])) continue;
+    throw new InputError(
+      `no used pixel's data exceed ${ratio} times their noise, so brightShare has no bright pixels to put cells on; lower brightSignalToNoise or drop brightShare`,
+      { file: config.file, key: `${component.key}.mesh.brightSignalToNoise` },
+    );
   }
 }

@@ -1,5 +1,5 @@
 import { addRejections, noRejections, type InversionRejections } from '../inversion/inversionRejections.js';
-import { PixelLikelihood } from '../likelihood/pixelLikelihood.js';
+import { PixelLikelihood, checkBrightShare } from '../likelihood/pixelLikelihood.js';
 import { buildLensSystem } from '../model/lensSystem.js';
 import { BatchOccupancy } from './batchOccupancy.js';
 import type { LikelihoodTask } from './likelihoodTask.js';
@@ -147,6 +147,8 @@ export class LikelihoodPool implements ModelPool {
       const locals = tasks.map((t) => new PixelLikelihood(t.config, t.data, t.perturberCount));
       return new LikelihoodPool(1, locals.map((local) => local.system.parameters.length), undefined, locals);
     }
+    // What a worker would refuse, refused here, where an InputError reaches the user as one.
+    for (const t of tasks) checkBrightShare(t.config, t.data);
     const widths = tasks.map((t) => buildLensSystem(t.config, { perturberCount: t.perturberCount }).parameters.length);
     const workers = await WorkerPool.start<WorkerRequest, WorkerReply>(workerScriptUrl(import.meta.url, './likelihoodWorker.js'), tasks, count);
     return new LikelihoodPool(count, widths, workers, undefined);
