@@ -1,8 +1,13 @@
 import type { DelaunayTriangulation } from './delaunayTriangulation.js';
 import { locateTriangle } from './locateTriangle.js';
 
-/** Most natural neighbours a query may have; a query with more (a degenerate cluster) is weighed by its triangle. */
-export const MAX_NATURAL_NEIGHBOURS = 16;
+/**
+ * Most natural neighbours a query may have; a query with more (a degenerate cluster) is weighed
+ * by its triangle. A mesh whose cells crowd on the arcs (brightShare) gives rings of up to 19 on
+ * lenses drawn across the pixelated demo's prior; the entries past a ray's ring cost nothing
+ * (the mapping stops at the first unused one).
+ */
+export const MAX_NATURAL_NEIGHBOURS = 24;
 
 /**
  * Laplace natural-neighbour interpolation weights (Belikov, Ivanov, Kontorovich, Korytnik &
