@@ -81,6 +81,7 @@ export async function run(args: string[]): Promise<void> {
       const { observation } = config;
       const data = loadObservedData({ folder }, { columns: observation.columns, rows: observation.rows, pixelScaleArcsec: observation.pixelScaleArcsec });
       const likelihood = new PixelLikelihood(config, data, 1);
+      const meshUsed = config.sourceLight.find((c) => c.pixelated)?.pixelated?.mesh;
       const names = likelihood.system.parameters.map((p) => p.name);
       const truth = Float64Array.from(likelihood.system.configuredValues());
       const mass = names.indexOf(MASS);
@@ -110,7 +111,7 @@ export async function run(args: string[]): Promise<void> {
         }
         profile.push({ log10M: m, lnL: -result.value });
         console.log(JSON.stringify({
-          benchmark: 'pixelMassProfile', form, mesh: config.sourceLight.find((c) => c.pixelated)?.pixelated?.mesh, log10M: m, freePosition,
+          benchmark: 'pixelMassProfile', form, mesh: meshUsed, log10M: m, freePosition,
           lnLAtTruth: Number(likelihood.logLikelihood(start).toFixed(2)),
           lnLProfile: Number((-result.value).toFixed(2)),
           evaluations,
@@ -119,7 +120,7 @@ export async function run(args: string[]): Promise<void> {
         }));
       }
       const peak = profile.reduce((a, b) => (b.lnL > a.lnL ? b : a));
-      console.log(JSON.stringify({ benchmark: 'pixelMassProfile', form, mesh: config.sourceLight.find((c) => c.pixelated)?.pixelated?.mesh, freePosition, truthLog10M: truth[mass], profilePeakLog10M: peak.log10M, lnLProfilePeak: Number(peak.lnL.toFixed(2)) }));
+      console.log(JSON.stringify({ benchmark: 'pixelMassProfile', form, mesh: meshUsed, freePosition, truthLog10M: truth[mass], profilePeakLog10M: peak.log10M, lnLProfilePeak: Number(peak.lnL.toFixed(2)) }));
     }
   } finally {
     rmSync(folder, { recursive: true, force: true });

@@ -67,6 +67,7 @@ export async function run(args: string[]): Promise<void> {
       const names = parameters.map((p) => p.name);
       const truth = Float64Array.from(likelihood.system.configuredValues());
       const strength = names.findIndex((n) => /RegularisationStrength$/.test(n));
+      if (strength < 0) throw new Error('pixelMeshChoice: the pixelated demo config has no single regularisation strength');
       // The strength at its best with everything else at the truth, as the start.
       setBestStrength(likelihood, truth, strength);
       const varied = parameters.map((p, i) => (p.prior !== undefined ? i : -1)).filter((i) => i >= 0);

@@ -24,7 +24,7 @@ export type SourceMeshConfig =
 /**
  * The data-to-noise ratio above which a used pixel counts as bright for an adaptive mesh's
  * brightShare (common practice: a clear detection in one pixel; on the pixelated demo's mock it
- * selects the arcs' 945 brightest of 6,848 pixels).
+ * selects 945 of the 5,160 used pixels, on the arcs).
  */
 export const DEFAULT_BRIGHT_SIGNAL_TO_NOISE = 10;
 

@@ -43,6 +43,8 @@ export interface InversionSetup {
   /** The further linear amplitudes (analytic light bases) and their prior width. */
   readonly extraCount: number;
   readonly amplitudePriorSigma: number;
+  /** An adaptive mesh with a bright share: the used pixels it puts that share of its cells on. */
+  readonly brightPixels?: Int32Array;
 }
 
 /** The source of the last successful evaluation, for reports. */
@@ -57,12 +59,6 @@ export interface SourceReconstruction {
   readonly triangles: Uint32Array | null;
   /** Regular mesh: cells per side. */
   readonly side: number | null;
-}
-
-/** The used pixels whose data exceed `signalToNoise` times their noise. */
-function brightPixels(setup: InversionSetup, signalToNoise: number): Int32Array {
-  const { used, data, inverseVariance } = setup;
-  return used.filter((_, k) => data[k] * Math.sqrt(inverseVariance[k]) > signalToNoise);
 }
 
 /**
@@ -129,8 +125,12 @@ export class SourceInversion {
       this.regular = null;
       this.adaptive = new AdaptiveMesh();
       this.mesh = this.adaptive;
-      const { cells, brightShare, brightSignalToNoise } = settings.mesh;
-      const bright = brightShare > 0 ? { pixels: brightPixels(setup, brightSignalToNoise), share: brightShare } : undefined;
+      const { cells, brightShare } = settings.mesh;
+      let bright: { pixels: Int32Array; share: number } | undefined;
+      if (brightShare > 0) {
+        if (setup.brightPixels === undefined) throw new RangeError('SourceInversion: a bright share needs the bright pixels');
+        bright = { pixels: setup.brightPixels, share: brightShare };
+      }
       this.vertices = new VertexSelection(grid, computed, cells, bright);
     }
     const perRay = this.mesh.entriesPerRay;

@@ -8,6 +8,7 @@ import { separablePsf } from '../forward/separablePsf.js';
 import { trimPsfKernel } from '../forward/trimPsfKernel.js';
 import { SourceInversion } from '../inversion/sourceInversion.js';
 import { buildLensSystem, type LensSystem } from '../model/lensSystem.js';
+import type { PixelatedSourceTerm } from '../model/pixelatedSourceTerm.js';
 import { MarginalisedAmplitudes } from './marginalisedAmplitudes.js';
 import { growMaskByKernel } from './growMaskByKernel.js';
 
@@ -80,6 +81,7 @@ export class PixelLikelihood {
       term,
       extraCount: this.system.amplitudeCount,
       amplitudePriorSigma: config.amplitudePriorSigma,
+      brightPixels: brightPixelsOf(term, data),
     });
   }
 
@@ -133,6 +135,17 @@ export class PixelLikelihood {
   }
 }
 
+/** The used pixels whose data exceed `ratio` times their noise: where a bright share puts its cells. */
+function brightUsedPixels(data: ObservedData, ratio: number): Int32Array {
+  return data.usedPixels.filter((p) => data.image[p] > ratio * data.noise[p]);
+}
+
+/** The bright pixels of a pixelated source's adaptive mesh with a bright share (undefined otherwise). */
+function brightPixelsOf(term: PixelatedSourceTerm | undefined, data: ObservedData): Int32Array | undefined {
+  const mesh = term?.settings.mesh;
+  return mesh?.kind === 'adaptive' && mesh.brightShare > 0 ? brightUsedPixels(data, mesh.brightSignalToNoise) : undefined;
+}
+
 /**
  * An InputError naming the key when a pixelated source's adaptive mesh puts a share of its cells
  * on bright pixels and no used pixel's data exceed brightSignalToNoise times their noise.
@@ -142,7 +155,7 @@ export function checkBrightShare(config: ArcsiftConfig, data: ObservedData): voi
     const mesh = component.pixelated?.mesh;
     if (mesh?.kind !== 'adaptive' || mesh.brightShare === 0) continue;
     const ratio = mesh.brightSignalToNoise;
-    if (data.usedPixels.some((p) => data.image[p] > ratio * data.noise[p])) continue;
+    if (brightUsedPixels(data, ratio).length > 0) continue;
     throw new InputError(
       `no used pixel's data exceed ${ratio} times their noise, so brightShare has no bright pixels to put cells on; lower brightSignalToNoise or drop brightShare`,
       { file: config.file, key: `${component.key}.mesh.brightSignalToNoise` },
