@@ -94,6 +94,7 @@ describe('vertices of the adaptive source mesh', () => {
         if (brightSet.has(pixel)) onBright++;
       }
       expect(onBright).toBe(Math.round(share * 400));
+      expect(v.brightCount).toBe(onBright);
     }
     // With 60% of the vertices on about a quarter of the pixels, the bright band's vertices sit
     // closer together than the others (a lattice's spacing goes as sqrt(pixels / vertices)).
@@ -118,6 +119,8 @@ describe('vertices of the adaptive source mesh', () => {
     const few = annulus.slice(0, 50);
     const v = new VertexSelection(grid, annulus, 300, { pixels: few, share: 0.5 });
     expect(v.count).toBe(300);
+    // Half of 300 asked of 50 bright pixels: all 50 become vertices, the others' lattice takes 250.
+    expect(v.brightCount).toBe(50);
     const plain = new VertexSelection(grid, annulus, 300);
     const none = new VertexSelection(grid, annulus, 300, { pixels: few, share: 0 });
     plain.select(lens, p);
