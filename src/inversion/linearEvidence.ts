@@ -1,4 +1,5 @@
 import { EnvelopeCholesky } from '../numeric/sparse/envelopeCholesky.js';
+import { DenseCholesky } from '../numeric/sparse/denseCholesky.js';
 import { envelopeInverseDiagonal } from '../numeric/sparse/envelopeInverseDiagonal.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import { MultifrontalCholesky } from '../numeric/sparse/multifrontalCholesky.js';
@@ -17,14 +18,26 @@ import type { NormalMatrix } from './normalMatrix.js';
 export const NESTED_DISSECTION_DENSITY = 0.12;
 
 /**
- * How A is factored: `nestedDissection` (multifrontal Cholesky over the separator tree),
+ * Matrices whose stored fraction is at least this are factored as one dense front: their factor
+ * is nearly full whatever the ordering, and the sparse methods' bookkeeping then costs more than
+ * it saves. Measured on the pixelated demo's mock (one thread, 15 repeats, best quartile): the
+ * dense front and the profile chain break even near 0.42 (1,000 cells at 60% on the arcs, 18.7
+ * against 19.2 ms; 1,500 cells at 90%, fraction 0.40, 59.9 against 60.9 ms); at 0.21 the chain
+ * takes 9.7 ms and the front 18.1, at 0.70 (the demo's 600 cells) 8.2 and 5.0.
+ */
+export const DENSE_FRONT_DENSITY = 0.45;
+
+/**
+ * How A is factored: `dense` (one dense front, DenseCholesky), `nestedDissection`
+ * (multifrontal Cholesky over the separator tree),
  * `profileChain` (multifrontal Cholesky over blocks of a profile order: the unknowns sorted
  * along the principal axis of their plane coordinates when every unknown but the dense rows has
  * them, reverse Cuthill-McKee otherwise),
  * `envelope` (envelope Cholesky in that order, the earlier method, kept for comparison), or
- * `automatic` (one of the first two by NESTED_DISSECTION_DENSITY, per call).
+ * `automatic` (dense, nested dissection or profile chain by DENSE_FRONT_DENSITY and
+ * NESTED_DISSECTION_DENSITY, per call).
  */
-export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'profileChain' | 'envelope';
+export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'profileChain' | 'envelope' | 'dense';
 
 /**
  * The evidence of a linear Gaussian model with its unknowns integrated out: data d with inverse
@@ -35,7 +48,8 @@ export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'pr
  * regularised source). A is factored with the dense amplitude rows last, by default with the
  * multifrontal Cholesky in nested-dissection order (the unknowns' plane coordinates guide it)
  * or in a profile order (the unknowns swept along their principal axis, or reverse
- * Cuthill-McKee without coordinates), whichever suits A's density; every choice gives ln Z to
+ * Cuthill-McKee without coordinates), or as one dense front, whichever suits A's density;
+ * every choice gives ln Z to
  * rounding. An ordering and its analysis are kept while A's pattern (and the coordinates, for
  * the orderings that read them) stay the same, so the ordering is a function of those alone:
  * results do not depend on which calls came before (threads, resumed runs). The caller passes
@@ -48,6 +62,7 @@ export class LinearEvidence {
   private readonly dissection = new NestedDissection();
   private readonly chain = new SupernodeChain();
   private readonly multifrontal = new MultifrontalCholesky();
+  private readonly dense = new DenseCholesky();
   private order = new Int32Array(0);
   private last = new Int32Array(0);
   private used: Exclude<LinearEvidenceFactorisation, 'automatic'> = 'envelope';
@@ -72,7 +87,7 @@ export class LinearEvidence {
 
   /** Order of A in the last evaluation. */
   get size(): number {
-    return this.used === 'envelope' ? this.envelope.size : this.multifrontal.size;
+    return this.used === 'envelope' ? this.envelope.size : this.used === 'dense' ? this.dense.size : this.multifrontal.size;
   }
 
   /** The factorisation the last evaluation used. */
@@ -89,10 +104,12 @@ export class LinearEvidence {
     this.last = ensureInt32Capacity(this.last, Math.max(1, lastCount));
     for (let a = 0; a < lastCount; a++) this.last[a] = size - lastCount + a;
     this.used = this.choose(normal);
-    const logDetA = this.used === 'envelope' ? this.factorEnvelope(normal, lastCount) : this.factorMultifrontal(normal, lastCount, points);
+    const logDetA = this.used === 'envelope' ? this.factorEnvelope(normal, lastCount)
+      : this.used === 'dense' ? this.dense.factor(normal) : this.factorMultifrontal(normal, lastCount, points);
     if (Number.isNaN(logDetA)) return Number.NaN;
     this.solution = ensureFloat64Capacity(this.solution, size);
     if (this.used === 'envelope') this.envelope.solve(normal.rhs, this.solution);
+    else if (this.used === 'dense') this.dense.solve(normal.rhs, this.solution);
     else this.multifrontal.solve(normal.rhs, this.solution);
     let quadratic = 0;
     for (let i = 0; i < size; i++) quadratic += normal.rhs[i] * this.solution[i];
@@ -105,13 +122,16 @@ export class LinearEvidence {
    */
   inverseDiagonal(out: Float64Array): void {
     if (this.used === 'envelope') envelopeInverseDiagonal(this.envelope, out);
+    else if (this.used === 'dense') this.dense.inverseDiagonal(out);
     else this.multifrontal.inverseDiagonal(out);
   }
 
   private choose(normal: SymmetricCsr): Exclude<LinearEvidenceFactorisation, 'automatic'> {
     if (this.factorisation !== 'automatic') return this.factorisation;
     const n = normal.size;
-    return 2 * normal.rowStart[n] - n <= NESTED_DISSECTION_DENSITY * n * n ? 'nestedDissection' : 'profileChain';
+    const stored = 2 * normal.rowStart[n] - n;
+    if (stored >= DENSE_FRONT_DENSITY * n * n) return 'dense';
+    return stored <= NESTED_DISSECTION_DENSITY * n * n ? 'nestedDissection' : 'profileChain';
   }
 
   private factorEnvelope(normal: NormalMatrix, lastCount: number): number {

@@ -4,7 +4,7 @@
 // N(d; 0, C + R P^-1 R^T), and brute-force numerical integration over the unknowns.
 import { CholeskyDecomposition, Matrix, inverse } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { LinearEvidence, type LinearEvidenceFactorisation } from '../../src/inversion/linearEvidence.js';
+import { DENSE_FRONT_DENSITY, LinearEvidence, NESTED_DISSECTION_DENSITY, type LinearEvidenceFactorisation } from '../../src/inversion/linearEvidence.js';
 import { NormalMatrix } from '../../src/inversion/normalMatrix.js';
 import { RegularisationMatrix } from '../../src/inversion/regularisationMatrix.js';
 import { addDifferenceRow, emptyDifferenceRows } from '../../src/inversion/sourceMesh.js';
@@ -116,7 +116,7 @@ describe('the evidence of a regularised linear inversion', () => {
     // Both round at ~1e-13 relative here; 1e-9 leaves room for the conditioning of A.
     // Each factorisation, and the automatic choice, on each problem; the 150-cell problem is
     // sparse enough for the automatic choice to take the nested dissection.
-    const factorisations: LinearEvidenceFactorisation[] = ['automatic', 'nestedDissection', 'profileChain', 'envelope'];
+    const factorisations: LinearEvidenceFactorisation[] = ['automatic', 'nestedDissection', 'profileChain', 'envelope', 'dense'];
     for (const [n, cells, extras, seed] of [[40, 6, 2, 3], [60, 12, 0, 5], [30, 3, 1, 8], [400, 150, 2, 21]] as const) {
       const p = problem(n, cells, extras, seed);
       const expected = dataSpaceEvidence(p);
@@ -128,17 +128,20 @@ describe('the evidence of a regularised linear inversion', () => {
     }
   });
 
-  it('takes the nested dissection for a sparse A only', () => {
-    const sparse = problem(400, 150, 2, 21);
-    const { normal, logDetPrior } = normalOf(sparse);
-    const evidence = new LinearEvidence(sparse.d, sparse.w);
-    evidence.evaluate(normal, sparse.extras, logDetPrior, linePoints(sparse.cells));
-    expect(evidence.lastFactorisation).toBe('nestedDissection');
-    const dense = problem(40, 6, 2, 3);
-    const small = normalOf(dense);
-    const denseEvidence = new LinearEvidence(dense.d, dense.w);
-    denseEvidence.evaluate(small.normal, dense.extras, small.logDetPrior, linePoints(dense.cells));
-    expect(denseEvidence.lastFactorisation).toBe('profileChain');
+  it('takes the nested dissection for a sparse A, the profile chain between, one dense front for a full one', () => {
+    // Stored fractions (2 nnz - n) / n^2: 0.06 (150 cells, 2 dense rows), 0.24 (20 cells), 1
+    // (6 cells, 2 dense rows); the thresholds are NESTED_DISSECTION_DENSITY and DENSE_FRONT_DENSITY.
+    const cases = [[problem(400, 150, 2, 21), 'nestedDissection'], [problem(60, 20, 0, 5), 'profileChain'], [problem(40, 6, 2, 3), 'dense']] as const;
+    for (const [p, expected] of cases) {
+      const { normal, logDetPrior } = normalOf(p);
+      const n = normal.size;
+      const fraction = (2 * normal.rowStart[n] - n) / (n * n);
+      expect(fraction < NESTED_DISSECTION_DENSITY || expected !== 'nestedDissection').toBe(true);
+      expect(fraction >= DENSE_FRONT_DENSITY || expected !== 'dense').toBe(true);
+      const evidence = new LinearEvidence(p.d, p.w);
+      evidence.evaluate(normal, p.extras, logDetPrior, linePoints(p.cells));
+      expect(evidence.lastFactorisation).toBe(expected);
+    }
   });
 
   it('keeps an analysis for the same pattern and points only, with the result of a fresh one', () => {
@@ -163,7 +166,7 @@ describe('the evidence of a regularised linear inversion', () => {
     }
   });
 
-  it('gives the diagonal of A^-1 of ml-matrix with either factorisation', () => {
+  it('gives the diagonal of A^-1 of ml-matrix with every factorisation', () => {
     // Posterior variances of the 150-cell problem against ml-matrix's inverse of the dense A
     // (built from the stored lower triangle). A's condition number is 2.5e3 (ml-matrix's SVD),
     // so either route rounds at ~1e-12 relative; 1e-10 leaves a margin and no more.
@@ -176,7 +179,7 @@ describe('the evidence of a regularised linear inversion', () => {
       a.set(normal.column[k], i, normal.value[k]);
     }
     const expected = inverse(a);
-    for (const factorisation of ['nestedDissection', 'profileChain', 'envelope'] as const) {
+    for (const factorisation of ['nestedDissection', 'profileChain', 'envelope', 'dense'] as const) {
       const evidence = new LinearEvidence(p.d, p.w, factorisation);
       evidence.evaluate(normal, p.extras, logDetPrior, linePoints(p.cells));
       expect(evidence.lastFactorisation).toBe(factorisation);
