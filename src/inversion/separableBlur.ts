@@ -1,3 +1,5 @@
+import { memoryWithRegions } from '../numeric/wasm/wasmMemory.js';
+import { separableBlurModule, type SeparableBlurFill } from './separableBlurKernel.js';
 import type { SparseRows } from './sparseRows.js';
 
 /** Stamps restart from zero before the generation count could overflow an Int32. */
@@ -11,7 +13,9 @@ export const GENERATION_LIMIT = 2 ** 30;
  * boundary are those of directConvolution, on an image padded by the kernel's half-sizes so no
  * pass tests an edge. A 7 x 7 kernel costs 14 multiply-adds per entry of M and per intermediate
  * pixel instead of 49 per entry. Each pass lists the pixels it touches in order of first touch
- * (stamps), and leaves its work image all zero.
+ * (stamps), and leaves its work image all zero. Where WebAssembly is available the passes run
+ * there (separableBlurKernel.ts, the same operations in the same order), on copies of the work
+ * images, M^T and the output held in the kernel's memory.
  */
 export class SeparableBlur {
   private readonly width: number;
@@ -28,11 +32,16 @@ export class SeparableBlur {
   private acrossList: Int32Array;
   private downList: Int32Array;
   private generation = 0;
+  /** The WebAssembly twin's memory, or null (none yet, or `plain`). */
+  private wasm: BlurMemory | null = null;
+  private readonly plain: boolean;
 
+  /** `plain`: always the JavaScript loop (tests compare the two). */
   constructor(
     columns: number, rows: number, alongX: Float64Array, alongY: Float64Array,
-    used: Int32Array, computedIndex: Int32Array, computedCount: number,
+    used: Int32Array, computedIndex: Int32Array, computedCount: number, plain = false,
   ) {
+    this.plain = plain || separableBlurModule === null;
     const halfX = (alongX.length - 1) / 2, halfY = (alongY.length - 1) / 2;
     const width = columns + 2 * halfX;
     const size = width * (rows + 2 * halfY);
@@ -64,6 +73,56 @@ export class SeparableBlur {
 
   /** The rows of B^T into `out` (reset by the caller), for M^T `mt` of `cellCount` rows. */
   fillTransposeRows(mt: SparseRows, out: SparseRows, cellCount: number): void {
+    if (this.plain) this.fillPlain(mt, out, cellCount);
+    else this.fillWasm(mt, out, cellCount);
+  }
+
+  private fillWasm(mt: SparseRows, out: SparseRows, cellCount: number): void {
+    const entries = mt.rowStart[cellCount];
+    let longest = 0;
+    for (let c = 0; c < cellCount; c++) longest = Math.max(longest, mt.rowStart[c + 1] - mt.rowStart[c]);
+    const kx = this.alongX.length, ky = this.alongY.length;
+    // A cell's passes list at most longest kx and longest kx ky pixels, and write at most the
+    // latter entries; the output starts at 8 entries per entry of M^T (about twice the demo's).
+    const outNeeded = Math.max(8 * entries, longest * kx * ky);
+    let memory = this.wasm;
+    if (memory === null || !memory.holds(cellCount, entries, longest * kx, longest * kx * ky, outNeeded)) {
+      memory = this.wasm = this.allocate(cellCount, entries, longest * kx, longest * kx * ky, outNeeded, memory);
+    }
+    for (;;) {
+      if (memory.generation > GENERATION_LIMIT) memory.resetStamps();
+      memory.mtStart.set(mt.rowStart.subarray(0, cellCount + 1));
+      memory.mtPixel.set(mt.column.subarray(0, entries));
+      memory.mtValue.set(mt.value.subarray(0, entries));
+      memory.outStart[0] = 0;
+      const done = memory.fill(cellCount);
+      if (done === cellCount) break;
+      // The output ran out of room: a memory with twice as much, and the call again from its start.
+      memory = this.wasm = this.allocate(cellCount, entries, longest * kx, longest * kx * ky, 2 * memory.room.out, memory);
+    }
+    const end = memory.outStart[cellCount];
+    out.reserve(end);
+    out.rowStart.set(memory.outStart.subarray(0, cellCount + 1));
+    out.column.set(memory.outColumn.subarray(0, end));
+    out.value.set(memory.outValue.subarray(0, end));
+    out.rowCount = cellCount;
+  }
+
+  /** A fresh memory with room for these counts (and at least what `old` had), the fixed tables copied in. */
+  private allocate(cells: number, entries: number, across: number, down: number, out: number, old: BlurMemory | null): BlurMemory {
+    const grow = (wanted: number, had: number | undefined): number => Math.max(wanted, had ?? 0, 16);
+    return new BlurMemory(this.tables, {
+      cells: grow(cells, old?.room.cells), entries: grow(Math.ceil(1.25 * entries), old?.room.entries),
+      across: grow(across, old?.room.across), down: grow(down, old?.room.down), out: grow(out, old?.room.out),
+    });
+  }
+
+  /** The fixed tables and sizes a BlurMemory copies. */
+  private get tables(): BlurTables {
+    return { xStart: this.xStart, usedAt: this.usedAt, alongX: this.alongX, alongY: this.alongY, width: this.width, size: this.across.length };
+  }
+
+  private fillPlain(mt: SparseRows, out: SparseRows, cellCount: number): void {
     if (this.generation > GENERATION_LIMIT) {
       this.acrossStamp.fill(0);
       this.downStamp.fill(0);
@@ -140,5 +199,95 @@ export class SeparableBlur {
       value[end++] = v;
     }
     return end;
+  }
+}
+
+/** What a BlurMemory copies from its SeparableBlur: the fixed tables, the padded width and image size. */
+interface BlurTables {
+  readonly xStart: Int32Array;
+  readonly usedAt: Int32Array;
+  readonly alongX: Float64Array;
+  readonly alongY: Float64Array;
+  readonly width: number;
+  readonly size: number;
+}
+
+/** Room of a BlurMemory: cells, entries of M^T, the two lists, and output entries. */
+interface BlurNeeds {
+  readonly cells: number;
+  readonly entries: number;
+  readonly across: number;
+  readonly down: number;
+  readonly out: number;
+}
+
+/**
+ * The WebAssembly twin's memory: the fixed tables (xStart, usedAt, the two marginals), the work
+ * images with their stamps and lists, M^T and the output, one region each, and the kernel bound
+ * to it. A call that needs more room gets a new one (stamps restart at 0).
+ */
+class BlurMemory {
+  readonly room: BlurNeeds;
+  generation = 0;
+  readonly mtStart: Int32Array;
+  readonly mtPixel: Int32Array;
+  readonly mtValue: Float64Array;
+  readonly outStart: Int32Array;
+  readonly outColumn: Int32Array;
+  readonly outValue: Float64Array;
+  private readonly stamps: Int32Array[];
+  private readonly kernel: SeparableBlurFill;
+  private readonly addresses: number[];
+  private readonly kx: number;
+  private readonly ky: number;
+  private readonly width: number;
+
+  constructor(tables: BlurTables, room: BlurNeeds) {
+    this.room = room;
+    const { xStart, usedAt, alongX, alongY, width, size } = tables;
+    const sizes = [
+      4 * xStart.length, 4 * size, 8 * alongX.length, 8 * alongY.length, 8 * size, 8 * size, 4 * size, 4 * size,
+      4 * room.across, 4 * room.down, 4 * (room.cells + 1), 4 * room.entries, 8 * room.entries, 4 * (room.cells + 1), 4 * room.out, 8 * room.out,
+    ];
+    const { memory, starts } = memoryWithRegions(sizes);
+    const buffer = memory.buffer;
+    new Int32Array(buffer, starts[0], xStart.length).set(xStart);
+    new Int32Array(buffer, starts[1], size).set(usedAt);
+    new Float64Array(buffer, starts[2], alongX.length).set(alongX);
+    new Float64Array(buffer, starts[3], alongY.length).set(alongY);
+    this.stamps = [new Int32Array(buffer, starts[6], size), new Int32Array(buffer, starts[7], size)];
+    this.mtStart = new Int32Array(buffer, starts[10], room.cells + 1);
+    this.mtPixel = new Int32Array(buffer, starts[11], room.entries);
+    this.mtValue = new Float64Array(buffer, starts[12], room.entries);
+    this.outStart = new Int32Array(buffer, starts[13], room.cells + 1);
+    this.outColumn = new Int32Array(buffer, starts[14], room.out);
+    this.outValue = new Float64Array(buffer, starts[15], room.out);
+    this.kernel = new WebAssembly.Instance(separableBlurModule!, { env: { memory } }).exports.fillRows as SeparableBlurFill;
+    this.addresses = starts;
+    this.kx = alongX.length;
+    this.ky = alongY.length;
+    this.width = width;
+  }
+
+  holds(cells: number, entries: number, across: number, down: number, out: number): boolean {
+    const r = this.room;
+    return cells <= r.cells && entries <= r.entries && across <= r.across && down <= r.down && out <= r.out;
+  }
+
+  resetStamps(): void {
+    for (const stamp of this.stamps) stamp.fill(0);
+    this.generation = 0;
+  }
+
+  /** Runs the kernel over cells 0 .. cellCount - 1; returns the first cell it could not hold. */
+  fill(cellCount: number): number {
+    const s = this.addresses;
+    const back = ((this.ky - 1) / 2) * this.width;
+    const done = this.kernel(
+      s[10], s[11], s[12], s[0], s[1], s[2], this.kx, s[3], this.ky, this.width, back, s[4], s[5], s[6], s[7], s[8], s[9],
+      s[13], s[14], s[15], 0, cellCount, this.generation, this.room.out,
+    );
+    this.generation += done;
+    return done;
   }
 }
