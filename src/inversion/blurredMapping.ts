@@ -60,6 +60,10 @@ export class BlurredMapping {
       this.stamp.fill(0);
       this.generation = 0;
     }
+    if (this.separable !== null && this.separable.runsInWasm) {
+      this.separable.fillFromMapping(mapping, cellCount, outTranspose, out);
+      return;
+    }
     this.mt.transposeOf(mapping, cellCount);
     outTranspose.reset(cellCount, 8 * mapping.entries);
     if (this.separable !== null) this.separable.fillTransposeRows(this.mt, outTranspose, cellCount);

@@ -1,5 +1,5 @@
 import { memoryWithRegions } from '../numeric/wasm/wasmMemory.js';
-import { separableBlurModule, type SeparableBlurFill } from './separableBlurKernel.js';
+import { separableBlurModule, type SeparableBlurFill, type SparseTranspose } from './separableBlurKernel.js';
 import type { SparseRows } from './sparseRows.js';
 
 /** Stamps restart from zero before the generation count could overflow an Int32. */
@@ -13,9 +13,10 @@ export const GENERATION_LIMIT = 2 ** 30;
  * boundary are those of directConvolution, on an image padded by the kernel's half-sizes so no
  * pass tests an edge. A 7 x 7 kernel costs 14 multiply-adds per entry of M and per intermediate
  * pixel instead of 49 per entry. Each pass lists the pixels it touches in order of first touch
- * (stamps), and leaves its work image all zero. Where WebAssembly is available the passes run
- * there (separableBlurKernel.ts, the same operations in the same order), on copies of the work
- * images, M^T and the output held in the kernel's memory.
+ * (stamps), and leaves its work image all zero. Where WebAssembly is available,
+ * fillFromMapping runs the whole step there (separableBlurKernel.ts): M copied into the kernel's
+ * memory, transposed, the two passes, B^T transposed into B, the same operations in the same
+ * order as the JavaScript twin (transposeOf, fillTransposeRows, transposeOf).
  */
 export class SeparableBlur {
   private readonly width: number;
@@ -32,16 +33,17 @@ export class SeparableBlur {
   private acrossList: Int32Array;
   private downList: Int32Array;
   private generation = 0;
-  /** The WebAssembly twin's memory, or null (none yet, or `plain`). */
+  /** The WebAssembly twin's memory (null until its first call). */
   private wasm: BlurMemory | null = null;
-  private readonly plain: boolean;
+  private readonly usedCount: number;
+  /** Whether fillFromMapping can run (WebAssembly is available). */
+  readonly runsInWasm = separableBlurModule !== null;
 
-  /** `plain`: always the JavaScript loop (tests compare the two). */
   constructor(
     columns: number, rows: number, alongX: Float64Array, alongY: Float64Array,
-    used: Int32Array, computedIndex: Int32Array, computedCount: number, plain = false,
+    used: Int32Array, computedIndex: Int32Array, computedCount: number,
   ) {
-    this.plain = plain || separableBlurModule === null;
+    this.usedCount = used.length;
     const halfX = (alongX.length - 1) / 2, halfY = (alongY.length - 1) / 2;
     const width = columns + 2 * halfX;
     const size = width * (rows + 2 * halfY);
@@ -71,41 +73,51 @@ export class SeparableBlur {
     this.downList = new Int32Array(1024);
   }
 
-  /** The rows of B^T into `out` (reset by the caller), for M^T `mt` of `cellCount` rows. */
-  fillTransposeRows(mt: SparseRows, out: SparseRows, cellCount: number): void {
-    if (this.plain) this.fillPlain(mt, out, cellCount);
-    else this.fillWasm(mt, out, cellCount);
-  }
-
-  private fillWasm(mt: SparseRows, out: SparseRows, cellCount: number): void {
-    const entries = mt.rowStart[cellCount];
-    let longest = 0;
-    for (let c = 0; c < cellCount; c++) longest = Math.max(longest, mt.rowStart[c + 1] - mt.rowStart[c]);
+  /**
+   * B^T into `outTranspose` and B into `out` for the mapping M (computed pixels x cellCount
+   * cells), all in WebAssembly: M copied in, transposed there (SparseRows.transposeOf's counting
+   * sort), the two passes per cell, B^T transposed there, both copied out. The rows are those of
+   * transposeOf, fillTransposeRows and transposeOf to the bit. Only when runsInWasm.
+   */
+  fillFromMapping(mapping: SparseRows, cellCount: number, outTranspose: SparseRows, out: SparseRows): void {
+    const computed = this.xStart.length;
+    const entries = mapping.rowStart[computed];
     const kx = this.alongX.length, ky = this.alongY.length;
-    // A cell's passes list at most longest kx and longest kx ky pixels, and write at most the
-    // latter entries; the output starts at 8 entries per entry of M^T (about twice the demo's).
-    const outNeeded = Math.max(8 * entries, longest * kx * ky);
     let memory = this.wasm;
-    if (memory === null || !memory.holds(cellCount, entries, longest * kx, longest * kx * ky, outNeeded)) {
-      memory = this.wasm = this.allocate(cellCount, entries, longest * kx, longest * kx * ky, outNeeded, memory);
-    }
+    if (memory === null || !memory.holds(cellCount, entries, 0, 0, 8 * entries)) memory = this.wasm = this.allocate(cellCount, entries, 0, 0, 8 * entries, memory);
     for (;;) {
+      memory.mStart.set(mapping.rowStart.subarray(0, computed + 1));
+      memory.mColumn.set(mapping.column.subarray(0, entries));
+      memory.mValue.set(mapping.value.subarray(0, entries));
+      memory.transposeMapping(cellCount);
+      let longest = 0;
+      const mtStart = memory.mtStart;
+      for (let c = 0; c < cellCount; c++) longest = Math.max(longest, mtStart[c + 1] - mtStart[c]);
+      // A cell's passes list at most longest kx and longest kx ky pixels, and write at most the
+      // latter entries; the output starts at 8 entries per entry of M (about twice the demo's).
+      const across = longest * kx, down = longest * kx * ky, outNeeded = Math.max(8 * entries, down);
+      if (!memory.holds(cellCount, entries, across, down, outNeeded)) {
+        memory = this.wasm = this.allocate(cellCount, entries, across, down, outNeeded, memory);
+        continue;
+      }
       if (memory.generation > GENERATION_LIMIT) memory.resetStamps();
-      memory.mtStart.set(mt.rowStart.subarray(0, cellCount + 1));
-      memory.mtPixel.set(mt.column.subarray(0, entries));
-      memory.mtValue.set(mt.value.subarray(0, entries));
       memory.outStart[0] = 0;
-      const done = memory.fill(cellCount);
-      if (done === cellCount) break;
+      if (memory.fill(cellCount) === cellCount) break;
       // The output ran out of room: a memory with twice as much, and the call again from its start.
-      memory = this.wasm = this.allocate(cellCount, entries, longest * kx, longest * kx * ky, 2 * memory.room.out, memory);
+      memory = this.wasm = this.allocate(cellCount, entries, across, down, 2 * memory.room.out, memory);
     }
+    memory.transposeOutput(cellCount);
     const end = memory.outStart[cellCount];
-    out.reserve(end);
-    out.rowStart.set(memory.outStart.subarray(0, cellCount + 1));
-    out.column.set(memory.outColumn.subarray(0, end));
-    out.value.set(memory.outValue.subarray(0, end));
-    out.rowCount = cellCount;
+    outTranspose.reset(cellCount, end);
+    outTranspose.rowStart.set(memory.outStart.subarray(0, cellCount + 1));
+    outTranspose.column.set(memory.outColumn.subarray(0, end));
+    outTranspose.value.set(memory.outValue.subarray(0, end));
+    outTranspose.rowCount = cellCount;
+    out.reset(this.usedCount, end);
+    out.rowStart.set(memory.bStart.subarray(0, this.usedCount + 1));
+    out.column.set(memory.bColumn.subarray(0, end));
+    out.value.set(memory.bValue.subarray(0, end));
+    out.rowCount = this.usedCount;
   }
 
   /** A fresh memory with room for these counts (and at least what `old` had), the fixed tables copied in. */
@@ -119,10 +131,11 @@ export class SeparableBlur {
 
   /** The fixed tables and sizes a BlurMemory copies. */
   private get tables(): BlurTables {
-    return { xStart: this.xStart, usedAt: this.usedAt, alongX: this.alongX, alongY: this.alongY, width: this.width, size: this.across.length };
+    return { xStart: this.xStart, usedAt: this.usedAt, alongX: this.alongX, alongY: this.alongY, width: this.width, size: this.across.length, usedCount: this.usedCount };
   }
 
-  private fillPlain(mt: SparseRows, out: SparseRows, cellCount: number): void {
+  /** The rows of B^T into `out` (reset by the caller), for M^T `mt` of `cellCount` rows, in JavaScript. */
+  fillTransposeRows(mt: SparseRows, out: SparseRows, cellCount: number): void {
     if (this.generation > GENERATION_LIMIT) {
       this.acrossStamp.fill(0);
       this.downStamp.fill(0);
@@ -210,6 +223,7 @@ interface BlurTables {
   readonly alongY: Float64Array;
   readonly width: number;
   readonly size: number;
+  readonly usedCount: number;
 }
 
 /** Room of a BlurMemory: cells, entries of M^T, the two lists, and output entries. */
@@ -235,8 +249,18 @@ class BlurMemory {
   readonly outStart: Int32Array;
   readonly outColumn: Int32Array;
   readonly outValue: Float64Array;
+  /** M (computed pixels x cells) and B (used pixels x cells), the transposes' other sides. */
+  readonly mStart: Int32Array;
+  readonly mColumn: Int32Array;
+  readonly mValue: Float64Array;
+  readonly bStart: Int32Array;
+  readonly bColumn: Int32Array;
+  readonly bValue: Float64Array;
   private readonly stamps: Int32Array[];
   private readonly kernel: SeparableBlurFill;
+  private readonly transpose: SparseTranspose;
+  private readonly computedCount: number;
+  private readonly usedCount: number;
   private readonly addresses: number[];
   private readonly kx: number;
   private readonly ky: number;
@@ -248,6 +272,7 @@ class BlurMemory {
     const sizes = [
       4 * xStart.length, 4 * size, 8 * alongX.length, 8 * alongY.length, 8 * size, 8 * size, 4 * size, 4 * size,
       4 * room.across, 4 * room.down, 4 * (room.cells + 1), 4 * room.entries, 8 * room.entries, 4 * (room.cells + 1), 4 * room.out, 8 * room.out,
+      4 * (xStart.length + 1), 4 * room.entries, 8 * room.entries, 4 * (tables.usedCount + 1), 4 * room.out, 8 * room.out,
     ];
     const { memory, starts } = memoryWithRegions(sizes);
     const buffer = memory.buffer;
@@ -262,7 +287,17 @@ class BlurMemory {
     this.outStart = new Int32Array(buffer, starts[13], room.cells + 1);
     this.outColumn = new Int32Array(buffer, starts[14], room.out);
     this.outValue = new Float64Array(buffer, starts[15], room.out);
-    this.kernel = new WebAssembly.Instance(separableBlurModule!, { env: { memory } }).exports.fillRows as SeparableBlurFill;
+    this.mStart = new Int32Array(buffer, starts[16], xStart.length + 1);
+    this.mColumn = new Int32Array(buffer, starts[17], room.entries);
+    this.mValue = new Float64Array(buffer, starts[18], room.entries);
+    this.bStart = new Int32Array(buffer, starts[19], tables.usedCount + 1);
+    this.bColumn = new Int32Array(buffer, starts[20], room.out);
+    this.bValue = new Float64Array(buffer, starts[21], room.out);
+    const exports = new WebAssembly.Instance(separableBlurModule!, { env: { memory } }).exports;
+    this.kernel = exports.fillRows as SeparableBlurFill;
+    this.transpose = exports.transpose as SparseTranspose;
+    this.computedCount = xStart.length;
+    this.usedCount = tables.usedCount;
     this.addresses = starts;
     this.kx = alongX.length;
     this.ky = alongY.length;
@@ -277,6 +312,18 @@ class BlurMemory {
   resetStamps(): void {
     for (const stamp of this.stamps) stamp.fill(0);
     this.generation = 0;
+  }
+
+  /** M^T (cellCount rows) from M. */
+  transposeMapping(cellCount: number): void {
+    const s = this.addresses;
+    this.transpose(s[16], s[17], s[18], this.computedCount, cellCount, s[10], s[11], s[12]);
+  }
+
+  /** B (used-pixel rows) from B^T (cellCount rows). */
+  transposeOutput(cellCount: number): void {
+    const s = this.addresses;
+    this.transpose(s[13], s[14], s[15], cellCount, this.usedCount, s[19], s[20], s[21]);
   }
 
   /** Runs the kernel over cells 0 .. cellCount - 1; returns the first cell it could not hold. */

@@ -78,14 +78,70 @@ function blurBody(): number[] {
   return body;
 }
 
+/**
+ * SparseRows.transposeOf as a WebAssembly function, the same counting sort step for step (so
+ * the same rows): parameters (i32) the byte addresses of the source's row starts, columns and
+ * values, its rows and columns, and of the transpose's row starts (columns + 1), columns and
+ * values.
+ */
+function transposeBody(): number[] {
+  const [rowStart, column, value, rows, columns, outStart, outColumn, outValue] = Array.from({ length: 8 }, (_, i) => i);
+  const [r, k, at, end, q] = [8, 9, 10, 11, 12];
+  const body: number[] = [];
+  const emit = emitter(body);
+  const get = op.localGet, set = op.localSet;
+  const address = (base: number, index: number[], shift: number): number[] => [...get(base), ...index, ...op.i32Const(shift), ...op.i32Shl, ...op.i32Add];
+  const i32At = (base: number, index: number[]): number[] => [...address(base, index, 2), ...op.i32Load(0)];
+  const plusOne = (local: number): number[] => [...get(local), ...op.i32Const(1), ...op.i32Add];
+  const countedLoop = (local: number, from: number[], bound: number[], inner: () => void): void => {
+    emit(from, set(local), op.block, op.loop, get(local), bound, op.i32GeS, op.brIf(1));
+    inner();
+    emit(plusOne(local), set(local), op.br(0), op.end, op.end);
+  };
+  // Counts per column at outStart[column + 1], then their running sums.
+  countedLoop(q, op.i32Const(0), plusOne(columns), () => emit(address(outStart, get(q), 2), op.i32Const(0), op.i32Store(0)));
+  emit(i32At(rowStart, get(rows)), set(end));
+  countedLoop(k, op.i32Const(0), get(end), () => {
+    emit(address(outStart, [...i32At(column, get(k)), ...op.i32Const(1), ...op.i32Add], 2), set(at));
+    emit(get(at), get(at), op.i32Load(0), op.i32Const(1), op.i32Add, op.i32Store(0));
+  });
+  countedLoop(q, op.i32Const(0), get(columns), () => {
+    emit(address(outStart, plusOne(q), 2), set(at));
+    emit(get(at), get(at), op.i32Load(0), i32At(outStart, get(q)), op.i32Add, op.i32Store(0));
+  });
+  // Each entry (r, c) to the next free place of row c; outStart[c] advances to the row's end.
+  countedLoop(r, op.i32Const(0), get(rows), () => {
+    countedLoop(k, i32At(rowStart, get(r)), i32At(rowStart, plusOne(r)), () => {
+      emit(address(outStart, i32At(column, get(k)), 2), set(q));
+      emit(get(q), op.i32Load(0), set(at), get(q), get(at), op.i32Const(1), op.i32Add, op.i32Store(0));
+      emit(address(outColumn, get(at), 2), get(r), op.i32Store(0));
+      emit(address(outValue, get(at), 3), address(value, get(k), 3), op.f64Load(0), op.f64Store(0));
+    });
+  });
+  // Back by one: outStart[c] = outStart[c - 1] from the last column down, outStart[0] = 0.
+  emit(get(columns), set(q));
+  emit(op.block, op.loop, get(q), op.i32Eqz, op.brIf(1));
+  emit(address(outStart, get(q), 2), address(outStart, get(q), 2), op.i32Const(4), op.i32Sub, op.i32Load(0), op.i32Store(0));
+  emit(get(q), op.i32Const(1), op.i32Sub, set(q), op.br(0), op.end, op.end);
+  emit(get(outStart), op.i32Const(0), op.i32Store(0));
+  return body;
+}
+
 const I32 = WASM_TYPE.i32;
 
 /** The compiled module, or null where WebAssembly is not available (SeparableBlur's JavaScript loop runs instead). */
 export const separableBlurModule = compileWasmModule({
-  types: [[new Array<number>(24).fill(I32), [I32]]],
-  functions: [{ type: 0, locals: [[13, I32], [2, WASM_TYPE.f64]], body: blurBody() }],
-  exports: [['fillRows', 0]],
+  types: [[new Array<number>(24).fill(I32), [I32]], [new Array<number>(8).fill(I32), []]],
+  functions: [
+    { type: 0, locals: [[13, I32], [2, WASM_TYPE.f64]], body: blurBody() },
+    { type: 1, locals: [[5, I32]], body: transposeBody() },
+  ],
+  exports: [['fillRows', 0], ['transpose', 1]],
 });
+
+export type SparseTranspose = (
+  rowStart: number, column: number, value: number, rows: number, columns: number, outStart: number, outColumn: number, outValue: number,
+) => void;
 
 export type SeparableBlurFill = (
   mtStart: number, mtPixel: number, mtValue: number, xStart: number, usedAt: number, alongX: number, kx: number, alongY: number, ky: number,
