@@ -29,10 +29,9 @@ export const DENSE_FRONT_DENSITY = 0.45;
 
 /**
  * How A is factored: `dense` (one dense front, DenseCholesky), `nestedDissection`
- * (multifrontal Cholesky over the separator tree),
- * `profileChain` (multifrontal Cholesky over blocks of a profile order: the unknowns sorted
- * along the principal axis of their plane coordinates when every unknown but the dense rows has
- * them, reverse Cuthill-McKee otherwise),
+ * (multifrontal Cholesky over the separator tree), `profileChain` (multifrontal Cholesky over
+ * blocks of a profile order: the unknowns sorted along the principal axis of their plane
+ * coordinates when every unknown but the dense rows has them, reverse Cuthill-McKee otherwise),
  * `envelope` (envelope Cholesky in that order, the earlier method, kept for comparison), or
  * `automatic` (dense, nested dissection or profile chain by DENSE_FRONT_DENSITY and
  * NESTED_DISSECTION_DENSITY, per call).
@@ -49,11 +48,10 @@ export type LinearEvidenceFactorisation = 'automatic' | 'nestedDissection' | 'pr
  * multifrontal Cholesky in nested-dissection order (the unknowns' plane coordinates guide it)
  * or in a profile order (the unknowns swept along their principal axis, or reverse
  * Cuthill-McKee without coordinates), or as one dense front, whichever suits A's density;
- * every choice gives ln Z to
- * rounding. An ordering and its analysis are kept while A's pattern (and the coordinates, for
- * the orderings that read them) stay the same, so the ordering is a function of those alone:
- * results do not depend on which calls came before (threads, resumed runs). The caller passes
- * ln det P. Buffers are reused.
+ * every choice gives ln Z to rounding. An ordering and its analysis are kept while A's
+ * pattern (and the coordinates, for the orderings that read them) stay the same, so the
+ * ordering is a function of those alone: results do not depend on which calls came before
+ * (threads, resumed runs). The caller passes ln det P. Buffers are reused.
  */
 export class LinearEvidence {
   private readonly ordering = new ReverseCuthillMcKee();
