@@ -2,16 +2,17 @@ import { InputError, expectedFound } from '../../errors.js';
 import type { LightProfile } from '../lightProfile.js';
 import { exactGaussianRow, hermiteOrders, HERMITE_BLOCK, scaledPositions, type GaussianRow } from './hermiteBlock.js';
 import { hermiteRecurrence } from './hermiteFunctions.js';
+import { ShapeletKernel } from './shapeletKernel.js';
+import { shapeletOrders } from './shapeletOrders.js';
 import { shapeletRunMeans } from './shapeletRunMeans.js';
 
-/** The (n1, n2) orders of basis function k of `shapelets(maxOrder)`, in basis order. */
-export function shapeletOrders(maxOrder: number): Array<readonly [number, number]> {
-  const orders: Array<readonly [number, number]> = [];
-  for (let total = 0; total <= maxOrder; total++) {
-    for (let n1 = total; n1 >= 0; n1--) orders.push([n1, total - n1]);
-  }
-  return orders;
-}
+export { shapeletOrders };
+
+/**
+ * Where the per-block work runs: 'auto' takes the WebAssembly kernel (shapeletKernel.ts) where the
+ * engine has SIMD, 'javaScript' the twin it is tested against. Both give the same bits.
+ */
+export type ShapeletEngine = 'auto' | 'javaScript';
 
 /**
  * Cartesian shapelets (Refregier 2003, MNRAS 338, 35, eqs. 1-3):
@@ -23,7 +24,7 @@ export function shapeletOrders(maxOrder: number): Array<readonly [number, number
  * a product of two rows of that block. `gaussianRow` gives phi_0 with Math.exp for the reference;
  * the fast twin passes one with a table-driven exp.
  */
-export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaussianRow): LightProfile {
+export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaussianRow, engine: ShapeletEngine = 'auto'): LightProfile {
   if (!Number.isInteger(maxOrder) || maxOrder < 0) {
     throw new InputError(`shapelet maximum order: ${expectedFound('a whole number >= 0', maxOrder)}`);
   }
@@ -32,10 +33,12 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
   const firstOrders = Int32Array.from(orders, (order) => order[0]);
   const secondOrders = Int32Array.from(orders, (order) => order[1]);
   const orderCount = maxOrder + 1;
-  // Hermite functions of a block of points, order-major: alongX[k * HERMITE_BLOCK + i].
-  const alongX = new Float64Array(orderCount * HERMITE_BLOCK);
-  const alongY = new Float64Array(orderCount * HERMITE_BLOCK);
-  const u = new Float64Array(HERMITE_BLOCK);
+  const kernel = engine === 'auto' ? ShapeletKernel.create(maxOrder) : null;
+  // Hermite functions of a block of points, order-major: alongX[k * HERMITE_BLOCK + i] (views
+  // on the kernel's memory when it runs).
+  const alongX = kernel?.alongX ?? new Float64Array(orderCount * HERMITE_BLOCK);
+  const alongY = kernel?.alongY ?? new Float64Array(orderCount * HERMITE_BLOCK);
+  const u = kernel?.u ?? new Float64Array(HERMITE_BLOCK);
   const { raising, lowering } = hermiteRecurrence(maxOrder);
   // basisOf[n1 * orderCount + n2]: the basis index of (n1, n2).
   const basisOf = new Int32Array(orderCount * orderCount).fill(-1);
@@ -44,10 +47,12 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
   const hermite = (x: Float64Array, y: Float64Array, from: number, size: number, p: Float64Array, offset: number): void => {
     scaledPositions(x, from, size, p, offset, offset + 2, u);
     gaussianRow(u, size, alongX);
-    hermiteOrders(u, size, maxOrder, raising, lowering, alongX);
+    if (kernel !== null) kernel.orders(0, size);
+    else hermiteOrders(u, size, maxOrder, raising, lowering, alongX);
     scaledPositions(y, from, size, p, offset + 1, offset + 2, u);
     gaussianRow(u, size, alongY);
-    hermiteOrders(u, size, maxOrder, raising, lowering, alongY);
+    if (kernel !== null) kernel.orders(1, size);
+    else hermiteOrders(u, size, maxOrder, raising, lowering, alongY);
   };
   let runScratch = new Float64Array(0);
   // [1 / beta] for writeProducts, [1 / beta, 1 / run] for shapeletRunMeans: numbers in arrays,
@@ -88,6 +93,12 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
       for (let first = 0; first < runs; first += perBlock) {
         const count = Math.min(perBlock, runs - first);
         hermite(x, y, first * run, count * run, p, offset);
+        if (kernel !== null) {
+          kernel.scale[0] = runFactors[0];
+          kernel.runMeans(count, run);
+          scatterSums(kernel.sums, basisCount, count, runFactors, target, first, out, outOffset, stride);
+          continue;
+        }
         for (let t = 0; t < count; t++) {
           shapeletRunMeans(alongX, t * run, alongY, t * run, maxOrder, basisOf, runFactors, run, out, outOffset + target[first + t], stride);
         }
@@ -95,6 +106,22 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
     },
   };
   return profile;
+}
+
+/**
+ * out[outOffset + k * stride + target[first + t]] = sums[t * basisCount + k] * inverseRun for the
+ * count runs of a block (inverseRun = factors[1]): the kernel's run sums into the means.
+ */
+function scatterSums(
+  sums: Float64Array, basisCount: number, count: number, factors: Float64Array, target: Int32Array, first: number,
+  out: Float64Array, outOffset: number, stride: number,
+): void {
+  const inverseRun = factors[1];
+  for (let t = 0; t < count; t++) {
+    const into = outOffset + target[first + t];
+    const from = t * basisCount;
+    for (let k = 0; k < basisCount; k++) out[into + k * stride] = sums[from + k] * inverseRun;
+  }
 }
 
 /** out[at + i] = scale * a[aAt + i] * b[bAt + i] for i < size, scale = factor[0]: one basis image over a block. */

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { hermiteFunctions } from '../../../src/light/shapelets/hermiteFunctions.js';
-import { shapeletOrders, shapelets } from '../../../src/light/shapelets/shapelets.js';
+import { ShapeletKernel } from '../../../src/light/shapelets/shapeletKernel.js';
+import { shapeletOrders, shapelets, type ShapeletEngine } from '../../../src/light/shapelets/shapelets.js';
 import { shapeletsOfOrder } from '../../../src/light/index.js';
 import { InputError } from '../../../src/errors.js';
 
@@ -158,16 +159,41 @@ describe('Cartesian shapelets', () => {
   it('average runs of positions exactly as writeBasis followed by in-order sums (the LightProfile contract)', () => {
     // Orders even and odd, below and above four: the run means walk the triangle of (n1, n2)
     // in blocks of two n1 by four n2 rows, with narrower passes at its edges.
-    for (const order of [0, 1, 2, 5, 7, 10]) expectRunMeansMatchBasis(order);
+    // Both engines: the WebAssembly kernel (vectors across bases, each sum in point order) and
+    // its JavaScript twin.
+    for (const engine of ['auto', 'javaScript'] as const) {
+      for (const order of [0, 1, 2, 5, 7, 10, 11]) expectRunMeansMatchBasis(order, engine);
+    }
+  });
+
+  it('run the WebAssembly kernel on this engine, with the JavaScript twin\'s bits for every point count', () => {
+    // Node 20 has WebAssembly SIMD (common practice: V8 ships it since 9.1), so 'auto' is the
+    // kernel here and the comparisons above and below are between two implementations.
+    expect(ShapeletKernel.create(10)).not.toBeNull();
+    const p = Float64Array.of(-0.03, 0.04, 0.15);
+    for (const order of [0, 1, 4, 10, 13]) {
+      // Odd and even counts, one and several blocks (the recurrence goes two points at a time).
+      for (const n of [1, 7, 256, 601]) {
+        const x = Float64Array.from({ length: n }, (_, i) => 0.5 * Math.sin(0.7 * i + order));
+        const y = Float64Array.from({ length: n }, (_, i) => 0.4 * Math.cos(0.23 * i));
+        const [a, b] = (['auto', 'javaScript'] as const).map((engine) => {
+          const profile = shapelets(order, undefined, engine);
+          const out = new Float64Array(profile.basisCount * n);
+          profile.writeBasis(p, 0, x, y, n, out, 0, n);
+          return out;
+        });
+        expect(a).toEqual(b);
+      }
+    }
   });
 });
 
 /** writeRunMeans of shapelets(order) against writeBasis summed in order, bit for bit. */
-function expectRunMeansMatchBasis(order: number): void {
-  const profile = shapelets(order);
+function expectRunMeansMatchBasis(order: number, engine: ShapeletEngine): void {
+  const profile = shapelets(order, undefined, engine);
   const count = profile.basisCount;
   const p = Float64Array.of(0.05, 0.02, 0.2);
-  for (const run of [1, 4, 16, 64, 1024]) {
+  for (const run of [1, 4, 9, 16, 25, 64, 1024]) {
     const runs = 9;
     const n = runs * run;
     const x = Float64Array.from({ length: n }, (_, i) => 0.4 * Math.sin(0.37 * i));

@@ -43,6 +43,34 @@ describe('wasmModuleBytes', () => {
     expect(WASM_TYPE.v128).toBe(0x7b);
   });
 
+  it('splats a value into both lanes and extracts each lane (f64x2.splat 0x14, extract_lane 0x21)', () => {
+    // WebAssembly Core Specification 2.0, sec. 5.4.8 (vector instructions: f64x2.splat is
+    // 0xfd 20, f64x2.extract_lane 0xfd 33 followed by the lane); the engine runs the module:
+    // byte 16 gets splat(value at 0) * (value at 8, in lane 1 of the pair at 0) ... lane by lane.
+    expect(op.f64x2Splat).toEqual([0xfd, 0x14]);
+    expect(op.f64x2ExtractLane(1)).toEqual([0xfd, 0x21, 1]);
+    expect(op.i32And).toEqual([0x71]);
+    const bytes = wasmModuleBytes({
+      types: [[[], []]],
+      functions: [{
+        type: 0, locals: [],
+        body: [
+          ...op.i32Const(16), ...op.f64Const(3), ...op.f64x2Splat, ...op.i32Const(0), ...op.v128Load(0), ...op.f64x2Mul, ...op.f64x2ExtractLane(1), ...op.f64Store(0),
+          ...op.i32Const(24), ...op.i32Const(0), ...op.v128Load(0), ...op.f64x2ExtractLane(0), ...op.f64Store(0),
+          ...op.i32Const(32), ...op.i32Const(7), ...op.i32Const(-4), ...op.i32And, ...op.i32Store(0),
+        ],
+      }],
+      exports: [['run', 0]],
+    });
+    const memory = new WebAssembly.Memory({ initial: 1 });
+    const instance = new WebAssembly.Instance(new WebAssembly.Module(bytes), { env: { memory } });
+    const values = new Float64Array(memory.buffer, 0, 4);
+    values.set([1.5, -2]);
+    (instance.exports.run as () => void)();
+    expect(Array.from(values.subarray(2, 4))).toEqual([-6, 1.5]);
+    expect(new Int32Array(memory.buffer, 32, 1)[0]).toBe(4);
+  });
+
   it('encodes the scalar instructions the kernels use with the opcodes of the specification', () => {
     // WebAssembly Core Specification 2.0, sec. 5.4.6 (i32.store 0x36 with
     // its alignment exponent 2), 5.4.7 (i32.ne 0x47, i32.lt_s 0x48, f64.const 0x44 followed by the
