@@ -223,10 +223,31 @@ export class ForwardModel {
     return same;
   }
 
+  /** Each basis's means convolved with the PSF into `basis`: two at a time where the convolver can. */
   private convolveMeans(means: AdaptivePixelMeans, amplitudes: Int32Array): void {
-    for (let k = 0; k < amplitudes.length; k++) {
+    let k = 0;
+    if (this.convolver.hasPairs) {
+      for (; k + 1 < amplitudes.length; k += 2) {
+        this.copyMeansPair(means.means, k * this.inputPadded.length);
+        this.convolver.convolvePair(this.basis, amplitudes[k] * this.pixelCount, amplitudes[k + 1] * this.pixelCount);
+      }
+    }
+    for (; k < amplitudes.length; k++) {
       this.copyMeans(means.means, k * this.inputPadded.length);
       this.convolver.convolve(this.basis, amplitudes[k] * this.pixelCount);
+    }
+  }
+
+  /** copyMeans for two consecutive bases (from `from` and the next basis) into the convolver's pairInput. */
+  private copyMeansPair(values: Float64Array, from: number): void {
+    const input = this.convolver.pairInput;
+    const padded = this.inputPadded;
+    const area = this.pixelArea;
+    const next = from + padded.length;
+    for (let e = 0; e < padded.length; e++) {
+      const q = 2 * padded[e];
+      input[q] = values[from + e] * area;
+      input[q + 1] = values[next + e] * area;
     }
   }
 

@@ -1,5 +1,29 @@
 import type { PsfKernel } from '../imaging/psfKernel.js';
+import { memoryWithRegions } from '../numeric/wasm/wasmMemory.js';
+import { pairedConvolutionModule, type DirectPass, type GeneralX, type GeneralY, type MirroredX, type MirroredY } from './pairedConvolutionKernel.js';
 import type { SeparablePsf } from './separablePsf.js';
+
+/** The WebAssembly passes over two interleaved images (pairedConvolutionKernel.ts) and their memory. */
+interface PairedPasses {
+  readonly mirroredX: MirroredX;
+  readonly mirroredY: MirroredY;
+  readonly generalX: GeneralX;
+  readonly generalY: GeneralY;
+  readonly direct: DirectPass;
+  /** Byte addresses: the pair planes, the point lists, the factors, the direct kernel. */
+  readonly input: number;
+  readonly pass: number;
+  readonly sums: number;
+  readonly passPoints: number;
+  readonly outputPoints: number;
+  readonly alongX: number;
+  readonly alongY: number;
+  readonly offsets: number;
+  readonly weights: number;
+  /** Pixel q of image l of the pair at inputView[2 q + l]; sums of output e at sumsView[2 e + l]. */
+  readonly inputView: Float64Array;
+  readonly sumsView: Float64Array;
+}
 
 /**
  * Direct convolution (definition in src/imaging/imageConvolver.ts: zero outside the image,
@@ -32,6 +56,13 @@ export class PixelSubsetConvolver {
   private readonly weights: Float64Array;
   /** The convolution at each output pixel, in the order of `outputs`. */
   private readonly sums: Float64Array;
+  /** Two images at once in WebAssembly (null without WebAssembly SIMD). */
+  private readonly pairs: PairedPasses | null;
+  /**
+   * The input of convolvePair: pixel p of image l at pairInput[2 paddedIndex(p) + l], zeros
+   * elsewhere staying (empty when there is no WebAssembly SIMD: check hasPairs).
+   */
+  readonly pairInput: Float64Array;
 
   constructor(columns: number, rows: number, kernel: PsfKernel, outputs: Int32Array, separable?: SeparablePsf) {
     this.columns = columns;
@@ -77,6 +108,70 @@ export class PixelSubsetConvolver {
       this.weights = Float64Array.from(weights);
       this.passPadded = new Int32Array(0);
       this.pass = new Float64Array(0);
+    }
+    this.pairs = this.pairedPasses(outputs.length);
+    this.pairInput = this.pairs?.inputView ?? new Float64Array(0);
+  }
+
+  /** Whether convolvePair can run (WebAssembly SIMD is available). */
+  get hasPairs(): boolean {
+    return this.pairs !== null;
+  }
+
+  /** The paired passes' memory, filled with the point lists and factors; null without the module. */
+  private pairedPasses(outputCount: number): PairedPasses | null {
+    if (pairedConvolutionModule === null) return null;
+    const separable = this.alongX !== undefined && this.alongY !== undefined;
+    const passCount = separable ? this.passPadded.length : 0;
+    const lengths = [
+      16 * this.input.length, separable ? 16 * this.input.length : 0, 16 * this.outputsPadded.length,
+      4 * passCount, 4 * this.outputsPadded.length,
+      8 * (this.alongX?.length ?? 0), 8 * (this.alongY?.length ?? 0), 4 * this.offsets.length, 8 * this.weights.length,
+    ];
+    const { memory, starts } = memoryWithRegions(lengths);
+    const [input, pass, sums, passPoints, outputPoints, alongX, alongY, offsets, weights] = starts;
+    new Int32Array(memory.buffer, passPoints, passCount).set(this.passPadded.subarray(0, passCount));
+    new Int32Array(memory.buffer, outputPoints, this.outputsPadded.length).set(this.outputsPadded);
+    if (this.alongX !== undefined) new Float64Array(memory.buffer, alongX, this.alongX.length).set(this.alongX);
+    if (this.alongY !== undefined) new Float64Array(memory.buffer, alongY, this.alongY.length).set(this.alongY);
+    new Int32Array(memory.buffer, offsets, this.offsets.length).set(this.offsets);
+    new Float64Array(memory.buffer, weights, this.weights.length).set(this.weights);
+    const exports = new WebAssembly.Instance(pairedConvolutionModule, { env: { memory } }).exports;
+    return {
+      mirroredX: exports.mirroredX as MirroredX, mirroredY: exports.mirroredY as MirroredY,
+      generalX: exports.generalX as GeneralX, generalY: exports.generalY as GeneralY, direct: exports.direct as DirectPass,
+      input, pass, sums, passPoints, outputPoints, alongX, alongY, offsets, weights,
+      inputView: new Float64Array(memory.buffer, input, 2 * this.input.length),
+      sumsView: new Float64Array(memory.buffer, sums, 2 * outputCount),
+    };
+  }
+
+  /**
+   * convolve for two images at once, from pairInput: image 0 into output[offset0 + p], image 1
+   * into output[offset1 + p], each to the bit what convolve gives it alone. Only when hasPairs.
+   */
+  convolvePair(output: Float64Array, offset0: number, offset1: number): void {
+    const pairs = this.pairs!;
+    const outputCount = this.outputs.length;
+    if (this.alongX !== undefined && this.alongY !== undefined) {
+      const passCount = this.passPadded.length;
+      if (this.mirroredX) pairs.mirroredX(pairs.passPoints, passCount, pairs.input, pairs.pass, pairs.alongX, this.halfX);
+      else pairs.generalX(pairs.passPoints, passCount, pairs.input, pairs.pass, pairs.alongX, this.alongX.length, this.halfX);
+      const evenCount = this.outputsPadded.length;
+      if (this.mirroredY) pairs.mirroredY(pairs.outputPoints, evenCount, pairs.pass, pairs.sums, pairs.alongY, this.halfY, this.paddedColumns);
+      else pairs.generalY(pairs.outputPoints, evenCount, pairs.pass, pairs.sums, pairs.alongY, this.alongY.length, this.halfY, this.paddedColumns);
+    } else {
+      pairs.direct(pairs.outputPoints, outputCount, pairs.input, pairs.sums, pairs.offsets, pairs.weights, this.offsets.length);
+    }
+    this.scatterPair(pairs.sumsView, output, offset0, offset1);
+  }
+
+  /** The pair sums into the two outputs. */
+  private scatterPair(sums: Float64Array, output: Float64Array, offset0: number, offset1: number): void {
+    const outputs = this.outputs;
+    for (let e = 0; e < outputs.length; e++) {
+      output[offset0 + outputs[e]] = sums[2 * e];
+      output[offset1 + outputs[e]] = sums[2 * e + 1];
     }
   }
 
