@@ -34,8 +34,8 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
   const secondOrders = Int32Array.from(orders, (order) => order[1]);
   const orderCount = maxOrder + 1;
   const kernel = engine === 'auto' ? ShapeletKernel.create(maxOrder) : null;
-  // Hermite functions of a block of points, order-major: alongX[k * HERMITE_BLOCK + i] (views
-  // on the kernel's memory when it runs).
+  // Hermite functions of a block of points, order-major: alongX[k * HERMITE_BLOCK + i]. With the
+  // kernel these are views on its memory, and only row 0 (phi_0) is written here.
   const alongX = kernel?.alongX ?? new Float64Array(orderCount * HERMITE_BLOCK);
   const alongY = kernel?.alongY ?? new Float64Array(orderCount * HERMITE_BLOCK);
   const u = kernel?.u ?? new Float64Array(HERMITE_BLOCK);
@@ -68,6 +68,12 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
       for (let from = 0; from < n; from += HERMITE_BLOCK) {
         const size = Math.min(HERMITE_BLOCK, n - from);
         hermite(x, y, from, size, p, offset);
+        if (kernel !== null) {
+          kernel.scale[0] = basisFactor[0];
+          kernel.writeProducts(size);
+          copyProducts(kernel, basisCount, size, out, outOffset + from, stride);
+          continue;
+        }
         for (let k = 0; k < basisCount; k++) {
           writeProducts(alongX, firstOrders[k] * HERMITE_BLOCK, alongY, secondOrders[k] * HERMITE_BLOCK, basisFactor, size, out, outOffset + k * stride + from);
         }
@@ -106,6 +112,19 @@ export function shapelets(maxOrder: number, gaussianRow: GaussianRow = exactGaus
     },
   };
   return profile;
+}
+
+/** The kernel's basis images of a block (size points) into out[at + k * stride + i]. */
+function copyProducts(kernel: ShapeletKernel, basisCount: number, size: number, out: Float64Array, at: number, stride: number): void {
+  if (size === HERMITE_BLOCK) {
+    for (let k = 0; k < basisCount; k++) out.set(kernel.productRows[k], at + k * stride);
+    return;
+  }
+  const products = kernel.products;
+  for (let k = 0; k < basisCount; k++) {
+    const from = k * HERMITE_BLOCK, into = at + k * stride;
+    for (let i = 0; i < size; i++) out[into + i] = products[from + i];
+  }
 }
 
 /**
