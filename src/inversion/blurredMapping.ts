@@ -2,6 +2,7 @@ import type { PsfKernel } from '../imaging/psfKernel.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import { GENERATION_LIMIT, SeparableBlur } from './separableBlur.js';
 import { SparseRows } from './sparseRows.js';
+import { SpreadMemory, spreadBlurModule } from './spreadBlurKernel.js';
 
 /**
  * The blurred mapping matrix B = P M at the used pixels (Warren & Dye 2003; the PSF applied to
@@ -16,7 +17,8 @@ import { SparseRows } from './sparseRows.js';
  * walks each row of its triangle in increasing addresses). Building B row by row and sorting
  * each row cost 19 ms on the demo's 1,000-cell mesh; this order costs 11 ms. A separable kernel
  * (the product of its two marginals) builds B^T in SeparableBlur's two one-dimensional passes
- * instead: 8 ms there, and no spread list to make.
+ * instead: 8 ms there, and no spread list to make. The one-pass spread runs in WebAssembly where
+ * it compiled (spreadBlurKernel.ts): 73 -> 31 ms for the demo's mesh under a 21 x 21 Moffat PSF.
  */
 export class BlurredMapping {
   private work = new Float64Array(0);
@@ -31,15 +33,22 @@ export class BlurredMapping {
 
   /** With a separable kernel: the two passes' buffers (null otherwise). */
   private readonly separable: SeparableBlur | null;
+  /** The WebAssembly twin of fillTransposeRows: its memory (null until its first call). */
+  private spreadMemory: SpreadMemory | null = null;
+  /** Whether a kernel that is not separable is spread in WebAssembly ('auto', where it compiled). */
+  private readonly spreadRuns: boolean;
 
   /**
    * `separable`: the kernel as alongX[a] alongY[b] (within the caller's tolerance), or undefined;
-   * given, B^T is built in two one-dimensional passes (SeparableBlur).
+   * given, B^T is built in two one-dimensional passes (SeparableBlur). `engine` 'javaScript'
+   * keeps the one-pass spread in JavaScript (the twin the WebAssembly spread is tested against).
    */
   constructor(
     columns: number, rows: number, kernel: PsfKernel, used: Int32Array, computedIndex: Int32Array,
     separable?: { readonly alongX: Float64Array; readonly alongY: Float64Array },
+    engine: 'auto' | 'javaScript' = 'auto',
   ) {
+    this.spreadRuns = engine === 'auto' && spreadBlurModule !== null;
     let computedCount = 0;
     for (let p = 0; p < computedIndex.length; p++) computedCount = Math.max(computedCount, computedIndex[p] + 1);
     this.separable = separable === undefined ? null : new SeparableBlur(columns, rows, separable.alongX, separable.alongY, used, computedIndex, computedCount);
@@ -65,10 +74,45 @@ export class BlurredMapping {
       return;
     }
     this.mt.transposeOf(mapping, cellCount);
-    outTranspose.reset(cellCount, 8 * mapping.entries);
-    if (this.separable !== null) this.separable.fillTransposeRows(this.mt, outTranspose, cellCount);
-    else this.fillTransposeRows(outTranspose, cellCount, Math.min(this.stamp.length, this.longestSpread() * longestRow(this.mt)));
+    if (this.separable === null && this.spreadRuns) {
+      this.spreadInWasm(outTranspose, cellCount);
+    } else {
+      outTranspose.reset(cellCount, 8 * mapping.entries);
+      if (this.separable !== null) this.separable.fillTransposeRows(this.mt, outTranspose, cellCount);
+      else this.fillTransposeRows(outTranspose, cellCount, Math.min(this.stamp.length, this.longestSpread() * longestRow(this.mt)));
+    }
     out.transposeOf(outTranspose, this.stamp.length);
+  }
+
+  /**
+   * fillTransposeRows in WebAssembly (spreadBlurKernel.ts, the same rows to the bit): M^T copied
+   * into the kernel's memory, the rows of B^T copied out. A memory short of room for the output
+   * is replaced by one with twice as much and the call repeated.
+   */
+  private spreadInWasm(out: SparseRows, cellCount: number): void {
+    const mt = this.mt;
+    const entries = mt.entries;
+    let memory = this.spreadMemory;
+    const lists = { start: this.spreadStart, pixel: this.spreadPixel, tap: this.spreadTap };
+    const allocate = (outRoom: number): SpreadMemory => new SpreadMemory(lists, this.stamp.length, {
+      cells: Math.max(cellCount, memory?.cells ?? 0, 16),
+      entries: Math.max(Math.ceil(1.25 * entries), memory?.entries ?? 0, 16),
+      out: Math.max(outRoom, memory?.out ?? 0, 1 << 16),
+    });
+    if (memory === null || memory.cells < cellCount || memory.entries < entries) memory = allocate(32 * entries);
+    for (;;) {
+      memory.mtStart.set(mt.rowStart.subarray(0, cellCount + 1));
+      memory.mtPixel.set(mt.column.subarray(0, entries));
+      memory.mtValue.set(mt.value.subarray(0, entries));
+      if (memory.generation > GENERATION_LIMIT) {
+        memory.stamp.fill(0);
+        memory.generation = 0;
+      }
+      if (memory.fill(cellCount) === cellCount) break;
+      memory = allocate(2 * memory.out);
+    }
+    this.spreadMemory = memory;
+    out.copyFrom(memory.outStart, memory.outColumn, memory.outValue, cellCount);
   }
 
   /** The most used pixels that read one row of M. */

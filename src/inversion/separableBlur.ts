@@ -350,10 +350,5 @@ function rowsIn(from: SparseRows, rows: number, to: RowsRegion): void {
 
 /** The region's first `rows` rows into `to` (reset here to hold them). */
 function rowsOut(from: RowsRegion, rows: number, to: SparseRows): void {
-  const entries = from.start[rows];
-  to.reset(rows, entries);
-  to.rowStart.set(from.start.subarray(0, rows + 1));
-  to.column.set(from.column.subarray(0, entries));
-  to.value.set(from.value.subarray(0, entries));
-  to.rowCount = rows;
+  to.copyFrom(from.start, from.column, from.value, rows);
 }

@@ -1,4 +1,4 @@
-import { WASM_TYPE, compileWasmModule, emitter, op } from '../numeric/wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, element, emitter, op } from '../numeric/wasm/wasmModuleBytes.js';
 
 /**
  * SeparableBlur's per-cell passes (spread along x, spread along y, harvest onto the used pixels)
@@ -22,9 +22,7 @@ function blurBody(): number[] {
   const body: number[] = [];
   const emit = emitter(body);
   const get = op.localGet, set = op.localSet;
-  const at = (base: number, index: number[], shift: number): number[] => [...get(base), ...index, ...op.i32Const(shift), ...op.i32Shl, ...op.i32Add];
-  const i32At = (base: number, index: number[]): number[] => [...at(base, index, 2), ...op.i32Load(0)];
-  const f64At = (base: number, index: number[]): number[] => [...at(base, index, 3), ...op.f64Load(0)];
+  const { at, i32At, f64At } = element;
   const increment = (local: number, by: number[]): number[] => [...get(local), ...by, ...op.i32Add, ...set(local)];
   // while (local < bound) { ...inner; local++ } with the loop's exit at depth 1.
   const countedLoop = (local: number, bound: number[], inner: () => void): void => {
@@ -90,8 +88,7 @@ function transposeBody(): number[] {
   const body: number[] = [];
   const emit = emitter(body);
   const get = op.localGet, set = op.localSet;
-  const address = (base: number, index: number[], shift: number): number[] => [...get(base), ...index, ...op.i32Const(shift), ...op.i32Shl, ...op.i32Add];
-  const i32At = (base: number, index: number[]): number[] => [...address(base, index, 2), ...op.i32Load(0)];
+  const { at: address, i32At } = element;
   const plusOne = (local: number): number[] => [...get(local), ...op.i32Const(1), ...op.i32Add];
   const countedLoop = (local: number, from: number[], bound: number[], inner: () => void): void => {
     emit(from, set(local), op.block, op.loop, get(local), bound, op.i32GeS, op.brIf(1));

@@ -25,6 +25,16 @@ export class SparseRows {
     this.value = ensureFloat64Capacity(this.value, entries);
   }
 
+  /** The first `rows` rows of the compressed rows (start, column, value), copied in (reset here to hold them). */
+  copyFrom(start: Int32Array, column: Int32Array, value: Float64Array, rows: number): void {
+    const entries = start[rows];
+    this.reset(rows, entries);
+    this.rowStart.set(start.subarray(0, rows + 1));
+    this.column.set(column.subarray(0, entries));
+    this.value.set(value.subarray(0, entries));
+    this.rowCount = rows;
+  }
+
   /** Stored entries. */
   get entries(): number {
     return this.rowStart[this.rowCount];

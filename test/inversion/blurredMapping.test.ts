@@ -10,6 +10,7 @@ import { MappingMatrix } from '../../src/inversion/mappingMatrix.js';
 import { RegularMesh } from '../../src/inversion/regularMesh.js';
 import { SourceRays } from '../../src/inversion/sourceRays.js';
 import { SparseRows } from '../../src/inversion/sparseRows.js';
+import { SpreadMemory } from '../../src/inversion/spreadBlurKernel.js';
 import { isothermalEllipsoid } from '../../src/lens/isothermalEllipsoid/isothermalEllipsoid.js';
 
 describe('the blurred mapping matrix', () => {
@@ -95,6 +96,62 @@ describe('the blurred mapping matrix', () => {
       }
       expect(bt.rowCount).toBe(mesh.cellCount);
       expect(fromBt).toEqual(fromB);
+    });
+  });
+
+  describe('the one-pass spread in WebAssembly', () => {
+    // The same operations in the same order as the JavaScript loop: the rows must agree to the
+    // bit; the JavaScript loop is checked against the definition above.
+    const kernels = [['general', general], ['separable, one pass', product]] as const;
+    it.each(kernels)('gives the JavaScript twin\'s B and B^T bit for bit (%s kernel)', (_, kernel) => {
+      const rows = (['auto', 'javaScript'] as const).map((engine) => {
+        const b = new SparseRows(), bt = new SparseRows();
+        const mapping = new BlurredMapping(14, 12, kernel, used, all, undefined, engine);
+        // Twice: the second call reuses the memory and its stamps.
+        mapping.build(m, mesh.cellCount, b, bt);
+        mapping.build(m, mesh.cellCount, b, bt);
+        return [b, bt].map((r) => ({
+          start: Array.from(r.rowStart.subarray(0, r.rowCount + 1)),
+          column: Array.from(r.column.subarray(0, r.entries)),
+          value: Array.from(r.value.subarray(0, r.entries)),
+        }));
+      });
+      expect(rows[0]).toEqual(rows[1]);
+      expect(rows[0][1].column.length).toBeGreaterThan(mesh.cellCount);
+    });
+
+    it('stops before a cell that might not fit, and a larger memory finishes with the same rows', () => {
+      const mt = new SparseRows();
+      mt.transposeOf(m, mesh.cellCount);
+      const lists = { start: Int32Array.of(0, ...Array.from({ length: all.length }, (_, q) => q + 1)), pixel: Int32Array.from(all, (q) => q % used.length), tap: Float64Array.from(all, (q) => 0.5 + q / 1000) };
+      const run = (out: number): { done: number; memory: SpreadMemory } => {
+        const memory = new SpreadMemory(lists, used.length, { cells: mesh.cellCount, entries: mt.entries, out });
+        memory.mtStart.set(mt.rowStart.subarray(0, mesh.cellCount + 1));
+        memory.mtPixel.set(mt.column.subarray(0, mt.entries));
+        memory.mtValue.set(mt.value.subarray(0, mt.entries));
+        return { done: memory.fill(mesh.cellCount), memory };
+      };
+      const small = run(40);
+      const large = run(10 * mt.entries);
+      expect(small.done).toBeGreaterThan(0);
+      expect(small.done).toBeLessThan(mesh.cellCount);
+      expect(large.done).toBe(mesh.cellCount);
+      const end = small.memory.outStart[small.done];
+      expect(end).toBeLessThanOrEqual(40);
+      expect(Array.from(small.memory.outStart.subarray(0, small.done + 1))).toEqual(Array.from(large.memory.outStart.subarray(0, small.done + 1)));
+      expect(Array.from(small.memory.outValue.subarray(0, end))).toEqual(Array.from(large.memory.outValue.subarray(0, end)));
+      // Each row's values: cell c's entries of M^T times its taps, merged by used pixel.
+      for (let c = 0; c < mesh.cellCount; c++) {
+        const expected = new Map<number, number>();
+        for (let k = mt.rowStart[c]; k < mt.rowStart[c + 1]; k++) {
+          const q = mt.column[k];
+          expected.set(q % used.length, (expected.get(q % used.length) ?? 0) + (0.5 + q / 1000) * mt.value[k]);
+        }
+        const got = new Map<number, number>();
+        for (let k = large.memory.outStart[c]; k < large.memory.outStart[c + 1]; k++) got.set(large.memory.outColumn[k], large.memory.outValue[k]);
+        expect([...got.keys()].sort((a, b) => a - b)).toEqual([...expected.keys()].sort((a, b) => a - b));
+        for (const [e, v] of expected) expect(got.get(e)).toBeCloseTo(v, 12);
+      }
     });
   });
 });

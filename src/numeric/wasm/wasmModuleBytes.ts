@@ -61,6 +61,16 @@ export const op = Object.freeze({
   f64x2ExtractLane: (lane: number) => [0xfd, 0x21, lane],
 });
 
+/**
+ * Element addressing through i32 locals that hold byte addresses: `at` is base + (index << shift)
+ * (index an i32 expression), `i32At` and `f64At` load the element there (shift 2 and 3).
+ */
+export const element = Object.freeze({
+  at: (base: number, index: number[], shift: number): number[] => [...op.localGet(base), ...index, ...op.i32Const(shift), ...op.i32Shl, ...op.i32Add],
+  i32At: (base: number, index: number[]): number[] => [...element.at(base, index, 2), ...op.i32Load(0)],
+  f64At: (base: number, index: number[]): number[] => [...element.at(base, index, 3), ...op.f64Load(0)],
+});
+
 /** Appends instruction byte arrays to a function body. */
 export type Emit = (...parts: number[][]) => void;
 
