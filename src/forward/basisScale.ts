@@ -22,11 +22,13 @@ export class BasisScale {
   }
 
   /**
-   * scale[k] for the basis on the plane at `base`. Written, not returned: a double returned from a
-   * call V8 does not inline is boxed, one allocation per evaluation.
+   * scale[k] for the basis on the plane at `base`, after the lattice's scatterValues of that basis
+   * (which finds the brightest listed pixel when they are in raster order). Written, not
+   * returned: a double returned from a call V8 does not inline is boxed, one allocation per
+   * evaluation.
    */
   write(k: number, base: number): void {
-    const brightest = this.brightestPixel(base);
+    const brightest = this.lattice.listedInOrder ? this.lattice.brightest : this.brightestPixel(base);
     if (brightest < 0) {
       this.scale[k] = 0;
       return;

@@ -31,6 +31,12 @@ export class PixelLattice {
   /** Source-plane positions on the padded plane. */
   readonly betaX: Float64Array;
   readonly betaY: Float64Array;
+  /** Whether the listed pixels are in raster order (then scatterValues finds the brightest). */
+  readonly listedInOrder: boolean;
+  /** listed[e] = 1 where lattice ray e is through a listed pixel. */
+  private readonly listed: Uint8Array;
+  /** After scatterValues with listedInOrder: padded index of the brightest listed pixel, -1 if none. */
+  brightest = -1;
 
   /** `active`: false for a lattice that is never used (uniform S x S pixel means): no buffers. */
   constructor(grid: PixelGrid, pixels: Int32Array, basisCount: number, active: boolean) {
@@ -43,7 +49,9 @@ export class PixelLattice {
       const i = p % columns;
       return ((p - i) / columns + 2) * width + i + 2;
     });
+    this.listedInOrder = this.pixelsPadded.every((q, e) => e === 0 || q > this.pixelsPadded[e - 1]);
     if (!active) {
+      this.listed = new Uint8Array(0);
       this.count = 0;
       this.padded = this.rowPoints = new Int32Array(0);
       this.x = this.y = this.ax = this.ay = this.bx = this.by = this.out = this.values = this.betaX = this.betaY = new Float64Array(0);
@@ -64,6 +72,9 @@ export class PixelLattice {
       if (inRows[q] === 1) rowList.push(q);
     }
     this.padded = Int32Array.from(latticeList);
+    const isListed = new Uint8Array(width * height);
+    for (const q of this.pixelsPadded) isListed[q] = 1;
+    this.listed = Uint8Array.from(latticeList, (q) => isListed[q]);
     this.rowPoints = Int32Array.from(rowList);
     const n = latticeList.length;
     this.count = n;
@@ -95,11 +106,39 @@ export class PixelLattice {
     }
   }
 
-  /** Lattice light of basis k onto its padded plane (at `base` = k * planeSize). */
+  /**
+   * Lattice light of basis k onto its padded plane (at `base` = k * planeSize). Where the listed
+   * pixels are in raster order (listedInOrder), also finds the listed pixel of largest |value|,
+   * the first of equals in that order, into `brightest` (padded index, -1 if none): BasisScale
+   * then needs no scan of its own.
+   */
   scatterValues(k: number, base: number): void {
+    if (this.listedInOrder) {
+      this.scatterFindingBrightest(k, base);
+      return;
+    }
     const padded = this.padded;
     const values = this.values, out = this.out;
     const from = k * padded.length;
     for (let e = 0; e < padded.length; e++) values[base + padded[e]] = out[from + e];
+  }
+
+  /** scatterValues with the brightest listed pixel (see there). */
+  private scatterFindingBrightest(k: number, base: number): void {
+    const padded = this.padded, listed = this.listed;
+    const values = this.values, out = this.out;
+    const from = k * padded.length;
+    let brightest = -1;
+    let peak = -1;
+    for (let e = 0; e < padded.length; e++) {
+      const value = out[from + e];
+      values[base + padded[e]] = value;
+      const size = Math.abs(value);
+      if (size > peak && listed[e] === 1) {
+        peak = size;
+        brightest = padded[e];
+      }
+    }
+    this.brightest = brightest;
   }
 }

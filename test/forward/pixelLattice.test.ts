@@ -1,0 +1,51 @@
+// The lattice's scatter of one basis onto its padded plane, and the brightest listed pixel it
+// finds on the way (src/forward/pixelLattice.ts), against a direct scan of the listed pixels
+// (the definition BasisScale used before: the first listed pixel of largest |value|).
+import { describe, expect, it } from 'vitest';
+import { pixelGrid } from '../../src/imaging/pixelGrid.js';
+import { PixelLattice } from '../../src/forward/pixelLattice.js';
+
+function brightestByScan(lattice: PixelLattice, base: number): number {
+  let brightest = -1, peak = -1;
+  for (const q of lattice.pixelsPadded) {
+    const value = Math.abs(lattice.values[base + q]);
+    if (value > peak) {
+      peak = value;
+      brightest = q;
+    }
+  }
+  return brightest;
+}
+
+describe('the pixel lattice', () => {
+  const grid = pixelGrid(9, 7, 0.1);
+  const pixels = Int32Array.of(10, 11, 12, 20, 29, 30, 31, 40);
+
+  it('scatters each basis onto its plane and finds the brightest listed pixel, the first of equals', () => {
+    const lattice = new PixelLattice(grid, pixels, 2, true);
+    expect(lattice.listedInOrder).toBe(true);
+    const n = lattice.count;
+    // Basis 0: a tie between two listed pixels (the first in raster order wins) and a larger value
+    // on a ring ray (not listed, so not the brightest). Basis 1: a negative value is the largest.
+    const rayOf = (q: number): number => lattice.padded.indexOf(q);
+    lattice.out.fill(0.5);
+    lattice.out[rayOf(lattice.pixelsPadded[2])] = -3;
+    lattice.out[rayOf(lattice.pixelsPadded[5])] = 3;
+    lattice.out[lattice.padded.findIndex((q) => !lattice.pixelsPadded.includes(q))] = 9;
+    for (let e = 0; e < n; e++) lattice.out[n + e] = Math.sin(e);
+    lattice.out[n + rayOf(lattice.pixelsPadded[6])] = -2;
+    for (const k of [0, 1]) {
+      const base = k * lattice.planeSize;
+      lattice.scatterValues(k, base);
+      for (let e = 0; e < n; e++) expect(lattice.values[base + lattice.padded[e]]).toBe(lattice.out[k * n + e]);
+      expect(lattice.brightest).toBe(brightestByScan(lattice, base));
+    }
+    lattice.scatterValues(0, 0);
+    expect(lattice.brightest).toBe(lattice.pixelsPadded[2]);
+  });
+
+  it('leaves the search to its caller when the listed pixels are not in raster order', () => {
+    const lattice = new PixelLattice(grid, Int32Array.from(pixels).reverse(), 1, true);
+    expect(lattice.listedInOrder).toBe(false);
+  });
+});
