@@ -88,6 +88,11 @@ export class ForwardModel {
   readonly usedPixels: Int32Array;
   /** PSF-convolved unit-amplitude images: basis k of pixel p at basis[k * pixelCount + p]. */
   readonly basis: Float64Array;
+  /**
+   * The same images at the used pixels only, after computeBasis: basis k at the e-th used pixel
+   * at usedBasis[k * usedPixels.length + e] (what a likelihood over the used pixels reads).
+   */
+  readonly usedBasis: Float64Array;
   /** Relative tolerance of each computed pixel (see ForwardModelOptions). */
   readonly relativeTolerance: Float64Array;
   /** The PSF as convolved (cut to its support), and whether it runs as two 1-D passes. */
@@ -137,6 +142,7 @@ export class ForwardModel {
     );
     this.inputPadded = this.computedPixels.map((p) => this.convolver.paddedIndex(p));
     this.basis = new Float64Array(this.amplitudeCount * this.pixelCount);
+    this.usedBasis = new Float64Array(this.amplitudeCount * this.usedPixels.length);
 
     const bound = bindLightTerms(system);
     const massTerms = system.massTerms.map((term) => ({ profile: term.fast ?? term.profile, offset: term.offset }));
@@ -229,12 +235,15 @@ export class ForwardModel {
     if (this.convolver.hasPairs) {
       for (; k + 1 < amplitudes.length; k += 2) {
         this.copyMeansPair(means.means, k * this.inputPadded.length);
-        this.convolver.convolvePair(this.basis, amplitudes[k] * this.pixelCount, amplitudes[k + 1] * this.pixelCount);
+        const used = this.usedPixels.length;
+        this.convolver.convolvePair(
+          this.basis, amplitudes[k] * this.pixelCount, amplitudes[k + 1] * this.pixelCount, this.usedBasis, amplitudes[k] * used, amplitudes[k + 1] * used,
+        );
       }
     }
     for (; k < amplitudes.length; k++) {
       this.copyMeans(means.means, k * this.inputPadded.length);
-      this.convolver.convolve(this.basis, amplitudes[k] * this.pixelCount);
+      this.convolver.convolve(this.basis, amplitudes[k] * this.pixelCount, this.usedBasis, amplitudes[k] * this.usedPixels.length);
     }
   }
 

@@ -148,9 +148,11 @@ export class PixelSubsetConvolver {
 
   /**
    * convolve for two images at once, from pairInput: image 0 into output[offset0 + p], image 1
-   * into output[offset1 + p], each to the bit what convolve gives it alone. Only when hasPairs.
+   * into output[offset1 + p] (and given `compact`, output pixel e at compact[compactOffset0 + e]
+   * and compact[compactOffset1 + e]), each to the bit what convolve gives it alone. Only when
+   * hasPairs.
    */
-  convolvePair(output: Float64Array, offset0: number, offset1: number): void {
+  convolvePair(output: Float64Array, offset0: number, offset1: number, compact?: Float64Array, compactOffset0 = 0, compactOffset1 = 0): void {
     const pairs = this.pairs!;
     const outputCount = this.outputs.length;
     if (this.alongX !== undefined && this.alongY !== undefined) {
@@ -164,6 +166,16 @@ export class PixelSubsetConvolver {
       pairs.direct(pairs.outputPoints, outputCount, pairs.input, pairs.sums, pairs.offsets, pairs.weights, this.offsets.length);
     }
     this.scatterPair(pairs.sumsView, output, offset0, offset1);
+    if (compact !== undefined) this.compactPair(pairs.sumsView, compact, compactOffset0, compactOffset1);
+  }
+
+  /** The pair sums, output by output, into compact[offset0 + e] and compact[offset1 + e]. */
+  private compactPair(sums: Float64Array, compact: Float64Array, offset0: number, offset1: number): void {
+    const count = this.outputs.length;
+    for (let e = 0; e < count; e++) {
+      compact[offset0 + e] = sums[2 * e];
+      compact[offset1 + e] = sums[2 * e + 1];
+    }
   }
 
   /** The pair sums into the two outputs. */
@@ -183,14 +195,15 @@ export class PixelSubsetConvolver {
   }
 
   /**
-   * Writes the convolution of `input` at each output pixel p into output[outputOffset + p]. The
+   * Writes the convolution of `input` at each output pixel p into output[outputOffset + p], and
+   * (given `compact`) at the e-th output pixel into compact[compactOffset + e]. The
    * 1-D passes sum two points at a time (each point's sum in the same order as alone), so that
    * their additions overlap instead of waiting on one sum (a loop tap by tap over all points was
    * slower). A factor equal to its mirror image (a centred Gaussian) adds each tap pair's inputs
    * before multiplying. DEVELOPERS.md (measured choices) has the timings. Each loop is a method
    * of its own (see latticeLevel in adaptivePixelMeans.ts).
    */
-  convolve(output: Float64Array, outputOffset: number): void {
+  convolve(output: Float64Array, outputOffset: number, compact?: Float64Array, compactOffset = 0): void {
     const alongX = this.alongX;
     const alongY = this.alongY;
     if (alongX !== undefined && alongY !== undefined) {
@@ -202,6 +215,13 @@ export class PixelSubsetConvolver {
       this.directPass();
     }
     this.scatter(output, outputOffset);
+    if (compact !== undefined) this.compactSums(compact, compactOffset);
+  }
+
+  /** `sums` into compact[offset + e] (a loop: a subarray view would be an allocation per call). */
+  private compactSums(compact: Float64Array, offset: number): void {
+    const sums = this.sums;
+    for (let e = 0; e < this.outputs.length; e++) compact[offset + e] = sums[e];
   }
 
   /** Along x at every point of passPadded, into `pass`, two points at a time (see evenLength). */

@@ -30,7 +30,6 @@ export class PixelLikelihood {
   /** The pixelated source's inversion, when the model has one. */
   readonly inversion: SourceInversion | undefined;
   private readonly used: Int32Array;
-  private readonly packed: Float64Array;
 
   constructor(config: ArcsiftConfig, data: ObservedData, perturberCount: number) {
     const observation = config.observation;
@@ -58,7 +57,6 @@ export class PixelLikelihood {
       sigma[k] = data.noise[this.used[k]];
     }
     this.marginal = new MarginalisedAmplitudes(values, sigma, this.system.amplitudeCount, config.amplitudePriorSigma);
-    this.packed = new Float64Array(this.system.amplitudeCount * n);
     const term = this.system.pixelatedSource;
     let leastNoise = Number.POSITIVE_INFINITY;
     for (let k = 0; k < n; k++) leastNoise = Math.min(leastNoise, sigma[k]);
@@ -87,24 +85,13 @@ export class PixelLikelihood {
 
   /** ln L of one model vector (amplitudes marginalised); -Infinity for an impossible model. */
   logLikelihood(model: Float64Array): number {
-    const basis = this.forward.computeBasis(model);
-    this.pack(basis);
+    // The analytic bases at the used pixels (basis k at k * n + e), as the forward model leaves them.
+    this.forward.computeBasis(model);
+    const bases = this.forward.usedBasis;
     const value = this.inversion === undefined
-      ? this.marginal.logLikelihood(this.packed)
-      : this.inversion.logEvidence(this.forward.profileVector, this.packed);
+      ? this.marginal.logLikelihood(bases)
+      : this.inversion.logEvidence(this.forward.profileVector, bases);
     return Number.isFinite(value) ? value : Number.NEGATIVE_INFINITY;
-  }
-
-  /** The analytic bases at the used pixels into `packed` (basis k at k * n + e). */
-  private pack(basis: Float64Array): void {
-    const n = this.used.length;
-    const count = this.forward.pixelCount;
-    const packed = this.packed;
-    for (let k = 0; k < this.system.amplitudeCount; k++) {
-      const row = k * count;
-      const out = k * n;
-      for (let e = 0; e < n; e++) packed[out + e] = basis[row + this.used[e]];
-    }
   }
 
   /**

@@ -76,9 +76,15 @@ describe('convolution at a subset of pixels', () => {
         convolver.pairInput[2 * q + 1] = second[p];
       }
       const paired = new Float64Array(2 * columns * rows).fill(Number.NaN);
-      convolver.convolvePair(paired, 0, columns * rows);
+      // The compact copy: output pixel e of image l at compact[l * outputs.length + e].
+      const compact = new Float64Array(2 * outputs.length).fill(Number.NaN);
+      convolver.convolvePair(paired, 0, columns * rows, compact, 0, outputs.length);
       expect(paired.subarray(0, columns * rows)).toEqual(single[0]);
       expect(paired.subarray(columns * rows)).toEqual(single[1]);
+      expect(Array.from(compact)).toEqual([...Array.from(outputs, (p) => single[0][p]), ...Array.from(outputs, (p) => single[1][p])]);
+      const one = new Float64Array(outputs.length + 3).fill(Number.NaN);
+      convolver.convolve(new Float64Array(columns * rows), 0, one, 3);
+      expect(Array.from(one.subarray(3))).toEqual(Array.from(outputs, (p) => single[1][p]));
     });
   }
 });
