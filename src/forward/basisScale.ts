@@ -23,12 +23,12 @@ export class BasisScale {
 
   /**
    * scale[k] for the basis on the plane at `base`, after the lattice's scatterValues of that basis
-   * (which finds the brightest listed pixel when they are in raster order). Written, not
+   * (which finds its brightest listed pixel). Written, not
    * returned: a double returned from a call V8 does not inline is boxed, one allocation per
    * evaluation.
    */
   write(k: number, base: number): void {
-    const brightest = this.lattice.listedInOrder ? this.lattice.brightest : this.brightestPixel(base);
+    const brightest = this.lattice.brightest;
     if (brightest < 0) {
       this.scale[k] = 0;
       return;
@@ -50,21 +50,5 @@ export class BasisScale {
       }
     }
     this.scale[k] = Math.abs(sum);
-  }
-
-  /** Padded index of the listed pixel of largest |lattice value| (basis at `base`), -1 if none. */
-  private brightestPixel(base: number): number {
-    const values = this.lattice.values;
-    const padded = this.lattice.pixelsPadded;
-    let brightest = -1;
-    let peak = -1;
-    for (let e = 0; e < padded.length; e++) {
-      const value = Math.abs(values[base + padded[e]]);
-      if (value > peak) {
-        peak = value;
-        brightest = padded[e];
-      }
-    }
-    return brightest;
   }
 }

@@ -31,11 +31,12 @@ export class PixelLattice {
   /** Source-plane positions on the padded plane. */
   readonly betaX: Float64Array;
   readonly betaY: Float64Array;
-  /** Whether the listed pixels are in raster order (then scatterValues finds the brightest). */
-  readonly listedInOrder: boolean;
   /** listed[e] = 1 where lattice ray e is through a listed pixel. */
   private readonly listed: Uint8Array;
-  /** After scatterValues with listedInOrder: padded index of the brightest listed pixel, -1 if none. */
+  /**
+   * After scatterValues: padded index of the listed pixel of largest |value| (the first in raster
+   * order of equals), -1 if none.
+   */
   brightest = -1;
 
   /** `active`: false for a lattice that is never used (uniform S x S pixel means): no buffers. */
@@ -49,7 +50,6 @@ export class PixelLattice {
       const i = p % columns;
       return ((p - i) / columns + 2) * width + i + 2;
     });
-    this.listedInOrder = this.pixelsPadded.every((q, e) => e === 0 || q > this.pixelsPadded[e - 1]);
     if (!active) {
       this.listed = new Uint8Array(0);
       this.count = 0;
@@ -107,24 +107,10 @@ export class PixelLattice {
   }
 
   /**
-   * Lattice light of basis k onto its padded plane (at `base` = k * planeSize). Where the listed
-   * pixels are in raster order (listedInOrder), also finds the listed pixel of largest |value|,
-   * the first of equals in that order, into `brightest` (padded index, -1 if none): BasisScale
-   * then needs no scan of its own.
+   * Lattice light of basis k onto its padded plane (at `base` = k * planeSize), and on the way the
+   * listed pixel of largest |value| into `brightest` (BasisScale's reference pixel).
    */
   scatterValues(k: number, base: number): void {
-    if (this.listedInOrder) {
-      this.scatterFindingBrightest(k, base);
-      return;
-    }
-    const padded = this.padded;
-    const values = this.values, out = this.out;
-    const from = k * padded.length;
-    for (let e = 0; e < padded.length; e++) values[base + padded[e]] = out[from + e];
-  }
-
-  /** scatterValues with the brightest listed pixel (see there). */
-  private scatterFindingBrightest(k: number, base: number): void {
     const padded = this.padded, listed = this.listed;
     const values = this.values, out = this.out;
     const from = k * padded.length;

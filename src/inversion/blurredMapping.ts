@@ -2,7 +2,7 @@ import type { PsfKernel } from '../imaging/psfKernel.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import { GENERATION_LIMIT, SeparableBlur } from './separableBlur.js';
 import { SparseRows } from './sparseRows.js';
-import { SpreadMemory, spreadBlurModule } from './spreadBlurKernel.js';
+import { SpreadMemory, spreadBlurModule, type SpreadLists } from './spreadBlurKernel.js';
 
 /**
  * The blurred mapping matrix B = P M at the used pixels (Warren & Dye 2003; the PSF applied to
@@ -25,10 +25,12 @@ export class BlurredMapping {
   /** stamp[e] === generation while used pixel e is in the row of B^T being built. */
   private readonly stamp: Int32Array;
   private generation = 0;
-  /** Row q of M is read by used pixels spreadPixel[spreadStart[q] ..] with taps spreadTap[..]. */
-  private readonly spreadStart: Int32Array;
-  private readonly spreadPixel: Int32Array;
-  private readonly spreadTap: Float64Array;
+  /**
+   * Row q of M is read by used pixels pixel[start[q] ..] with taps tap[..] (what the WebAssembly
+   * spread copies), and the longest such list.
+   */
+  private readonly spreadLists: SpreadLists;
+  private readonly longestSpread: number;
   private readonly mt = new SparseRows();
 
   /** With a separable kernel: the two passes' buffers (null otherwise). */
@@ -56,9 +58,10 @@ export class BlurredMapping {
     const spread = separable === undefined
       ? spreadLists(columns, rows, kernel, used, computedIndex, computedCount)
       : { start: new Int32Array(computedCount + 1), pixel: new Int32Array(0), tap: new Float64Array(0) };
-    this.spreadStart = spread.start;
-    this.spreadPixel = spread.pixel;
-    this.spreadTap = spread.tap;
+    this.spreadLists = spread;
+    let longest = 0;
+    for (let q = 0; q + 1 < spread.start.length; q++) longest = Math.max(longest, spread.start[q + 1] - spread.start[q]);
+    this.longestSpread = longest;
     this.stamp = new Int32Array(used.length);
     this.work = new Float64Array(used.length);
   }
@@ -79,7 +82,7 @@ export class BlurredMapping {
     } else {
       outTranspose.reset(cellCount, 8 * mapping.entries);
       if (this.separable !== null) this.separable.fillTransposeRows(this.mt, outTranspose, cellCount);
-      else this.fillTransposeRows(outTranspose, cellCount, Math.min(this.stamp.length, this.longestSpread() * longestRow(this.mt)));
+      else this.fillTransposeRows(outTranspose, cellCount, Math.min(this.stamp.length, this.longestSpread * longestRow(this.mt)));
     }
     out.transposeOf(outTranspose, this.stamp.length);
   }
@@ -93,13 +96,7 @@ export class BlurredMapping {
     const mt = this.mt;
     const entries = mt.entries;
     let memory = this.spreadMemory;
-    const lists = { start: this.spreadStart, pixel: this.spreadPixel, tap: this.spreadTap };
-    const allocate = (outRoom: number): SpreadMemory => new SpreadMemory(lists, this.stamp.length, {
-      cells: Math.max(cellCount, memory?.cells ?? 0, 16),
-      entries: Math.max(Math.ceil(1.25 * entries), memory?.entries ?? 0, 16),
-      out: Math.max(outRoom, memory?.out ?? 0, 1 << 16),
-    });
-    if (memory === null || memory.cells < cellCount || memory.entries < entries) memory = allocate(32 * entries);
+    if (memory === null || memory.cells < cellCount || memory.entries < entries) memory = this.spreadRoom(cellCount, entries, 32 * entries, memory);
     for (;;) {
       memory.mtStart.set(mt.rowStart.subarray(0, cellCount + 1));
       memory.mtPixel.set(mt.column.subarray(0, entries));
@@ -109,17 +106,19 @@ export class BlurredMapping {
         memory.generation = 0;
       }
       if (memory.fill(cellCount) === cellCount) break;
-      memory = allocate(2 * memory.out);
+      memory = this.spreadRoom(cellCount, entries, 2 * memory.out, memory);
     }
     this.spreadMemory = memory;
     out.copyFrom(memory.outStart, memory.outColumn, memory.outValue, cellCount);
   }
 
-  /** The most used pixels that read one row of M. */
-  private longestSpread(): number {
-    let longest = 0;
-    for (let q = 0; q + 1 < this.spreadStart.length; q++) longest = Math.max(longest, this.spreadStart[q + 1] - this.spreadStart[q]);
-    return longest;
+  /** A fresh spread memory with room for these counts (and at least what `old` had). */
+  private spreadRoom(cells: number, entries: number, out: number, old: SpreadMemory | null): SpreadMemory {
+    return new SpreadMemory(this.spreadLists, this.stamp.length, this.longestSpread, {
+      cells: Math.max(cells, old?.cells ?? 0, 16),
+      entries: Math.max(Math.ceil(1.25 * entries), old?.entries ?? 0, 16),
+      out: Math.max(out, old?.out ?? 0, 1 << 16),
+    });
   }
 
   /**
@@ -128,7 +127,8 @@ export class BlurredMapping {
    * the work row is left all zero.
    */
   private fillTransposeRows(out: SparseRows, cellCount: number, rowBound: number): void {
-    const { spreadStart, spreadPixel, spreadTap, stamp, work } = this;
+    const { start: spreadStart, pixel: spreadPixel, tap: spreadTap } = this.spreadLists;
+    const { stamp, work } = this;
     const mtStart = this.mt.rowStart, mtPixel = this.mt.column, mtValue = this.mt.value;
     let generation = this.generation;
     let end = 0;

@@ -102,7 +102,8 @@ export class SpreadMemory {
   private readonly addresses: readonly number[];
   private readonly longestSpread: number;
 
-  constructor(lists: SpreadLists, usedCount: number, room: { cells: number; entries: number; out: number }) {
+  /** `longestSpread`: the most used pixels in one spread list (bounds a cell's output). */
+  constructor(lists: SpreadLists, usedCount: number, longestSpread: number, room: { cells: number; entries: number; out: number }) {
     this.cells = room.cells;
     this.entries = room.entries;
     this.out = room.out;
@@ -125,9 +126,7 @@ export class SpreadMemory {
     this.outStart = new Int32Array(buffer, starts[8], room.cells + 1);
     this.outColumn = new Int32Array(buffer, starts[9], room.out);
     this.outValue = new Float64Array(buffer, starts[10], room.out);
-    let longest = 0;
-    for (let q = 0; q + 1 < lists.start.length; q++) longest = Math.max(longest, lists.start[q + 1] - lists.start[q]);
-    this.longestSpread = longest;
+    this.longestSpread = longestSpread;
     this.fillRows = new WebAssembly.Instance(spreadBlurModule!, { env: { memory } }).exports.spreadRows as SpreadFill;
   }
 

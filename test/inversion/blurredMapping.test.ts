@@ -125,7 +125,7 @@ describe('the blurred mapping matrix', () => {
       mt.transposeOf(m, mesh.cellCount);
       const lists = { start: Int32Array.of(0, ...Array.from({ length: all.length }, (_, q) => q + 1)), pixel: Int32Array.from(all, (q) => q % used.length), tap: Float64Array.from(all, (q) => 0.5 + q / 1000) };
       const run = (out: number): { done: number; memory: SpreadMemory } => {
-        const memory = new SpreadMemory(lists, used.length, { cells: mesh.cellCount, entries: mt.entries, out });
+        const memory = new SpreadMemory(lists, used.length, 1, { cells: mesh.cellCount, entries: mt.entries, out });
         memory.mtStart.set(mt.rowStart.subarray(0, mesh.cellCount + 1));
         memory.mtPixel.set(mt.column.subarray(0, mt.entries));
         memory.mtValue.set(mt.value.subarray(0, mt.entries));

@@ -192,12 +192,13 @@ function productsBody(maxOrder: number, layout: KernelLayout): number[] {
 export function shapeletModuleSpec(maxOrder: number): WasmModuleSpec {
   const i32 = WASM_TYPE.i32, v128 = WASM_TYPE.v128;
   const vectors = 1 + TILE_PAIRS * TILE_COLUMNS + TILE_PAIRS + TILE_COLUMNS;
+  const layout = layoutFor(maxOrder);
   return {
     types: [[[i32, i32, i32], []], [[i32, i32], []], [[i32], []]],
     functions: [
       { type: 0, locals: [[2, i32], [4, v128]], body: ordersBody(maxOrder) },
-      { type: 1, locals: [[6, i32], [vectors, v128]], body: runMeansBody(maxOrder, layoutFor(maxOrder)) },
-      { type: 2, locals: [[2, i32], [1, v128]], body: productsBody(maxOrder, layoutFor(maxOrder)) },
+      { type: 1, locals: [[6, i32], [vectors, v128]], body: runMeansBody(maxOrder, layout) },
+      { type: 2, locals: [[2, i32], [1, v128]], body: productsBody(maxOrder, layout) },
     ],
     exports: [['orders', 0], ['runMeans', 1], ['products', 2]],
   };

@@ -167,7 +167,7 @@ describe('Cartesian shapelets', () => {
   });
 
   it('run the WebAssembly kernel on this engine, with the JavaScript twin\'s bits for every point count', () => {
-    // Node 20 has WebAssembly SIMD (common practice: V8 ships it since 9.1), so 'auto' is the
+    // Node 20 has WebAssembly SIMD (from memory: V8 has shipped it since about version 9.1, Node 16.4; the assertion below checks it here), so 'auto' is the
     // kernel here and the comparisons above and below are between two implementations.
     expect(ShapeletKernel.create(10)).not.toBeNull();
     const p = Float64Array.of(-0.03, 0.04, 0.15);
