@@ -8,10 +8,17 @@ import { PixelLattice } from './pixelLattice.js';
 import { PixelMeanState, REFINE, STRAIGHT_TO_FULL } from './pixelMeanState.js';
 import { CHUNK, RayChunk, shine, shineMeans, type MeanLightTerm } from './rayChunk.js';
 import { RichardsonRefinement } from './richardsonRefinement.js';
+import { StencilMemory, stencilModule } from './stencilKernel.js';
 import { SubPixelInterpolation } from './subPixelInterpolation.js';
 
 export { EXTRAPOLATED_CONVERGENCE } from './richardsonRefinement.js';
 export type { MeanLightTerm } from './rayChunk.js';
+
+/**
+ * Where the lattice stencils run: 'auto' in WebAssembly (stencilKernel.ts) where the engine has
+ * it, 'javaScript' the twin it is tested against. Both give the same bits.
+ */
+export type StencilEngine = 'auto' | 'javaScript';
 
 /**
  * Mean surface brightness over S x S sub-pixels (S = `supersampling`, the midpoint rule that
@@ -69,7 +76,7 @@ export class AdaptivePixelMeans {
   constructor(
     grid: PixelGrid, supersampling: number, pixels: Int32Array, massTerms: readonly MassTerm[],
     lightTerms: readonly MeanLightTerm[], basisCount: number, relativeTolerance: Float64Array, kernel: PsfKernel,
-    uniform: boolean,
+    uniform: boolean, engine: StencilEngine = 'auto',
   ) {
     if (supersampling * supersampling > CHUNK) throw new RangeError(`supersampling ${supersampling} above ${Math.sqrt(CHUNK)}`);
     this.grid = grid;
@@ -82,12 +89,14 @@ export class AdaptivePixelMeans {
     this.basisCount = basisCount;
     this.adaptive = !uniform && supersampling > 1;
     const count = this.pixels.length;
-    this.state = new PixelMeanState(count, basisCount, relativeTolerance);
+    const memory = this.adaptive && engine === 'auto' && stencilModule !== null
+      ? new StencilMemory(count, basisCount, PixelLattice.planeSizeOf(grid)) : undefined;
+    this.state = new PixelMeanState(count, basisCount, relativeTolerance, memory);
     this.means = this.state.means;
     this.scale = this.state.scale;
     this.allPixels = Int32Array.from({ length: count }, (_, e) => e);
-    this.lattice = new PixelLattice(grid, this.pixels, basisCount, this.adaptive);
-    this.stencil = new LatticeStencil(this.lattice, this.state, supersampling);
+    this.lattice = new PixelLattice(grid, this.pixels, basisCount, this.adaptive, memory?.values);
+    this.stencil = new LatticeStencil(this.lattice, this.state, supersampling, memory);
     this.basisScale = new BasisScale(this.lattice, grid, kernel, this.state.scale);
     this.refinement = new RichardsonRefinement(this.state, supersampling, this.adaptive);
     this.factors = this.refinement.factors;

@@ -1,6 +1,7 @@
 import { midpointStencilWeights } from './midpointStencil.js';
 import type { PixelLattice } from './pixelLattice.js';
 import { HOPELESS, REFINE, STRAIGHT_TO_FULL, type PixelMeanState } from './pixelMeanState.js';
+import type { StencilMemory } from './stencilKernel.js';
 
 /** Weight of the lower-order correction in the lattice error indicator (see LatticeStencil). */
 const LATTICE_GUARD = 0.03;
@@ -13,7 +14,8 @@ const LATTICE_GUARD = 0.03;
  * 3-point stencil would have missed) and, as a guard against those parts cancelling by chance
  * where the light is not smooth on the pixel scale, LATTICE_GUARD times the second-order
  * correction. The stencils run in two passes: along x at every row point, then along y at the
- * pixels.
+ * pixels. Given a StencilMemory (whose views the lattice and the state then hold), both passes run
+ * as its WebAssembly functions, the same operations in the same order.
  */
 export class LatticeStencil {
   private readonly lattice: PixelLattice;
@@ -25,16 +27,26 @@ export class LatticeStencil {
   private readonly rowFourth: Float64Array;
   /** The listed pixels not yet sent to S x S by an earlier basis (see pixelStencils). */
   private readonly live: Int32Array;
+  private readonly memory: StencilMemory | null;
 
-  constructor(lattice: PixelLattice, state: PixelMeanState, supersampling: number) {
+  constructor(lattice: PixelLattice, state: PixelMeanState, supersampling: number, memory?: StencilMemory) {
     this.lattice = lattice;
     this.state = state;
     this.w3 = midpointStencilWeights(supersampling, 1);
     const w5 = midpointStencilWeights(supersampling, 2);
     // Fourth-order part of the 5-point weights: w5 minus w3 padded with zeros.
     this.d5 = Float64Array.from([w5[2] - this.w3[1], w5[1] - this.w3[0], w5[0]]);
-    this.rowSecond = new Float64Array(lattice.count === 0 ? 0 : lattice.planeSize);
-    this.rowFourth = new Float64Array(lattice.count === 0 ? 0 : lattice.planeSize);
+    this.memory = memory ?? null;
+    const planeSize = lattice.count === 0 || memory !== undefined ? 0 : lattice.planeSize;
+    this.rowSecond = new Float64Array(planeSize);
+    this.rowFourth = new Float64Array(planeSize);
+    if (memory !== undefined) {
+      memory.weights.set([this.w3[1], this.w3[0], this.d5[0], this.d5[1], this.d5[2], LATTICE_GUARD, HOPELESS]);
+      memory.pixelsPadded.set(lattice.pixelsPadded);
+      memory.rowPoints.set(lattice.rowPoints);
+      this.live = memory.live;
+      return;
+    }
     this.live = new Int32Array(lattice.pixelsPadded.length);
   }
 
@@ -47,6 +59,10 @@ export class LatticeStencil {
 
   /** The stencils along x (3-point part and 5-point correction) at every row point (basis at `base`). */
   rowStencils(base: number): void {
+    if (this.memory !== null) {
+      this.memory.rowStencils(this.lattice.rowPoints.length, base);
+      return;
+    }
     const values = this.lattice.values;
     const rowSecond = this.rowSecond, rowFourth = this.rowFourth;
     const rowPoints = this.lattice.rowPoints;
@@ -73,6 +89,7 @@ export class LatticeStencil {
    * rest. Returns the number of pixels left live.
    */
   pixelStencils(k: number, base: number, liveCount: number): number {
+    if (this.memory !== null) return this.memory.pixelStencils(k, base, liveCount, this.lattice.width);
     const state = this.state;
     const scale = state.scale[k];
     const values = this.lattice.values;

@@ -39,8 +39,17 @@ export class PixelLattice {
    */
   brightest = -1;
 
-  /** `active`: false for a lattice that is never used (uniform S x S pixel means): no buffers. */
-  constructor(grid: PixelGrid, pixels: Int32Array, basisCount: number, active: boolean) {
+  /** Points on a padded plane of `grid`: (columns + 4) x (rows + 4). */
+  static planeSizeOf(grid: PixelGrid): number {
+    return (grid.columns + 4) * (grid.rows + 4);
+  }
+
+  /**
+   * `active`: false for a lattice that is never used (uniform S x S pixel means): no buffers.
+   * `values`: the planes as a view made elsewhere (the stencil kernel's memory), of
+   * max(1, basisCount) * planeSize elements.
+   */
+  constructor(grid: PixelGrid, pixels: Int32Array, basisCount: number, active: boolean, values?: Float64Array) {
     const { columns, rows } = grid;
     const width = columns + 4;
     const height = rows + 4;
@@ -91,7 +100,7 @@ export class PixelLattice {
     this.bx = new Float64Array(n);
     this.by = new Float64Array(n);
     this.out = new Float64Array(Math.max(1, basisCount) * n);
-    this.values = new Float64Array(Math.max(1, basisCount) * width * height);
+    this.values = values ?? new Float64Array(Math.max(1, basisCount) * width * height);
     this.betaX = new Float64Array(width * height);
     this.betaY = new Float64Array(width * height);
   }

@@ -13,6 +13,15 @@ export const STRAIGHT_TO_FULL = 2;
  */
 export const HOPELESS = 30;
 
+/** Buffers of a PixelMeanState made by its owner (the sizes of the state's own arrays). */
+export interface PixelMeanViews {
+  readonly means: Float64Array;
+  readonly previous: Float64Array;
+  readonly flags: Int32Array;
+  readonly scale: Float64Array;
+  readonly relativeTolerance: Float64Array;
+}
+
 /**
  * The buffers the parts of AdaptivePixelMeans share, for basisCount bases of `count` pixels
  * (basis k of pixel e at index k * count + e).
@@ -36,17 +45,22 @@ export class PixelMeanState {
   /** Relative tolerance of each pixel (see ForwardModelOptions). */
   readonly relativeTolerance: Float64Array;
 
-  constructor(count: number, basisCount: number, relativeTolerance: Float64Array) {
+  /**
+   * `held`: means, previous, flags, scale and relativeTolerance as views made elsewhere (the
+   * stencil kernel's memory, stencilKernel.ts); relativeTolerance is then copied into its view.
+   */
+  constructor(count: number, basisCount: number, relativeTolerance: Float64Array, held?: PixelMeanViews) {
     this.count = count;
     this.basisCount = basisCount;
-    this.means = new Float64Array(basisCount * count);
-    this.previous = new Float64Array(basisCount * count);
+    this.means = held?.means ?? new Float64Array(basisCount * count);
+    this.previous = held?.previous ?? new Float64Array(basisCount * count);
     this.current = new Float64Array(basisCount * count);
-    this.flags = new Int32Array(count);
+    this.flags = held?.flags ?? new Int32Array(count);
     this.pending = new Int32Array(count);
     this.direct = new Int32Array(count);
-    this.scale = new Float64Array(basisCount);
-    this.relativeTolerance = relativeTolerance;
+    this.scale = held?.scale ?? new Float64Array(basisCount);
+    this.relativeTolerance = held === undefined ? relativeTolerance : held.relativeTolerance;
+    if (held !== undefined) held.relativeTolerance.set(relativeTolerance);
   }
 
   /**

@@ -47,7 +47,7 @@ export const op = Object.freeze({
   f64Const: (v: number) => [0x44, ...new Uint8Array(Float64Array.of(v).buffer)],
   f64Load: (offset: number) => [0x2b, 3, ...unsignedLeb128(offset)],
   f64Store: (offset: number) => [0x39, 3, ...unsignedLeb128(offset)],
-  f64Add: [0xa0], f64Mul: [0xa2],
+  f64Add: [0xa0], f64Sub: [0xa1], f64Mul: [0xa2], f64Abs: [0x99], f64Max: [0xa5], f64Gt: [0x64],
   block: [0x02, 0x40], loop: [0x03, 0x40], end: [0x0b],
   br: (depth: number) => [0x0c, ...unsignedLeb128(depth)],
   brIf: (depth: number) => [0x0d, ...unsignedLeb128(depth)],

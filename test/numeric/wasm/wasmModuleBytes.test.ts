@@ -80,4 +80,39 @@ describe('wasmModuleBytes', () => {
     expect(op.i32LtS).toEqual([0x48]);
     expect(op.f64Const(1)).toEqual([0x44, 0, 0, 0, 0, 0, 0, 0xf0, 0x3f]);
   });
+
+  it('encodes f64.sub, abs, max and gt with the opcodes of the specification, and the engine runs them', () => {
+    // WebAssembly Core Specification 2.0, sec. 5.4.7 (numeric instructions: f64.gt 0x64, f64.abs
+    // 0x99, f64.sub 0xa1, f64.max 0xa5).
+    expect(op.f64Gt).toEqual([0x64]);
+    expect(op.f64Abs).toEqual([0x99]);
+    expect(op.f64Sub).toEqual([0xa1]);
+    expect(op.f64Max).toEqual([0xa5]);
+    // Byte 16 gets max(|a - b|, b) and the i32 at 24 gets (a > b), for a at 0 and b at 8.
+    const load = (at: number): number[] => [...op.i32Const(at), ...op.f64Load(0)];
+    const bytes = wasmModuleBytes({
+      types: [[[], []]],
+      functions: [{
+        type: 0, locals: [],
+        body: [
+          ...op.i32Const(16), ...load(0), ...load(8), ...op.f64Sub, ...op.f64Abs, ...load(8), ...op.f64Max, ...op.f64Store(0),
+          ...op.i32Const(24), ...load(0), ...load(8), ...op.f64Gt, ...op.i32Store(0),
+        ],
+      }],
+      exports: [['run', 0]],
+    });
+    const memory = new WebAssembly.Memory({ initial: 1 });
+    const run = new WebAssembly.Instance(new WebAssembly.Module(bytes), { env: { memory } }).exports.run as () => void;
+    const values = new Float64Array(memory.buffer, 0, 3);
+    const flag = new Int32Array(memory.buffer, 24, 1);
+    values.set([1.5, 4]);
+    run();
+    expect([values[2], flag[0]]).toEqual([4, 0]);
+    values.set([-3, 2]);
+    run();
+    expect([values[2], flag[0]]).toEqual([5, 0]);
+    values.set([7, 2]);
+    run();
+    expect([values[2], flag[0]]).toEqual([5, 1]);
+  });
 });
