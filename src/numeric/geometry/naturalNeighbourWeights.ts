@@ -33,11 +33,9 @@ export class NaturalNeighbourWeights {
   private generation = 0;
   /** Per triangle at 3t: its circumcentre and squared radius, for the calls' in-circle tests. */
   private circles = new Float64Array(0);
-  /** The ring being dug: its vertices, their count, and the end of its last edge. */
+  /** The ring being dug (its vertices), and the half-edges still to visit while digging it. */
   private readonly ring = new Int32Array(MAX_NATURAL_NEIGHBOURS);
-  private ringCount = 0;
-  private ringBroken = false;
-  private lastTo = -1;
+  private readonly stack = new Int32Array(4 * MAX_NATURAL_NEIGHBOURS);
 
   /**
    * Weights of the count queries (qx[i], qy[i]) into vertices / weights at
@@ -124,51 +122,49 @@ export class NaturalNeighbourWeights {
    * (x, y) (the Bowyer-Watson cavity), dug from `start` across edges. The cavity is a polygon
    * whose vertices all lie on its boundary, so its triangles' adjacency is a tree: visiting each
    * triangle's two further edges in turn, depth first, meets the boundary edges in order around
-   * the ring, clockwise as the triangles run, and the ring is the start of each. Returns the
-   * ring's length, 0 when it is longer than MAX_NATURAL_NEIGHBOURS or does not close (a cavity
-   * made inconsistent by rounding), for the caller's fallback.
+   * the ring, clockwise as the triangles run, and the ring is the start of each. The depth-first
+   * order is kept on a stack of half-edges (popped in the order a recursion would visit them).
+   * Returns the ring's length, 0 when it is longer than MAX_NATURAL_NEIGHBOURS or does not close
+   * (a cavity made inconsistent by rounding), for the caller's fallback.
    */
   private digRing(triangulation: DelaunayTriangulation, x: number, y: number, start: number): number {
-    this.generation++;
-    this.seen[start] = this.generation;
-    this.ringCount = 0;
-    this.ringBroken = false;
-    this.lastTo = -1;
-    const e = 3 * start;
-    this.dig(triangulation, x, y, e);
-    this.dig(triangulation, x, y, e + 1);
-    this.dig(triangulation, x, y, e + 2);
-    const n = this.ringCount;
-    if (this.ringBroken || n > MAX_NATURAL_NEIGHBOURS || this.lastTo !== this.ring[0]) return 0;
-    return n;
-  }
-
-  /** Half-edge e of a cavity triangle: into the triangle beyond it when that is in the cavity, else onto the ring. */
-  private dig(triangulation: DelaunayTriangulation, x: number, y: number, e: number): void {
     const { halfedges, triangles } = triangulation;
-    const twin = halfedges[e];
-    if (twin >= 0) {
-      const u = (twin / 3) | 0;
-      const circles = this.circles;
-      const dx = x - circles[3 * u], dy = y - circles[3 * u + 1];
-      if (dx * dx + dy * dy <= circles[3 * u + 2]) {
-        if (this.seen[u] === this.generation) {
-          this.ringBroken = true;
-          return;
+    const circles = this.circles, seen = this.seen, ring = this.ring, stack = this.stack;
+    const generation = ++this.generation;
+    seen[start] = generation;
+    let n = 0;
+    let lastTo = -1;
+    const e0 = 3 * start;
+    stack[0] = e0 + 2;
+    stack[1] = e0 + 1;
+    stack[2] = e0;
+    let depth = 3;
+    while (depth > 0) {
+      const e = stack[--depth];
+      const twin = halfedges[e];
+      if (twin >= 0) {
+        const u = (twin / 3) | 0;
+        const dx = x - circles[3 * u], dy = y - circles[3 * u + 1];
+        if (dx * dx + dy * dy <= circles[3 * u + 2]) {
+          // Into the cavity triangle beyond e: a second visit means the cavity is not a tree.
+          // A stack this deep means more than MAX_NATURAL_NEIGHBOURS ring edges (a cavity of
+          // T triangles has T + 2): the fallback either way.
+          if (seen[u] === generation || depth + 2 > stack.length) return 0;
+          seen[u] = generation;
+          const base = 3 * u, k = twin - base;
+          stack[depth++] = k === 0 ? base + 2 : twin - 1;
+          stack[depth++] = k === 2 ? base : twin + 1;
+          continue;
         }
-        this.seen[u] = this.generation;
-        const base = 3 * u, k = twin - base;
-        this.dig(triangulation, x, y, k === 2 ? base : twin + 1);
-        this.dig(triangulation, x, y, k === 0 ? base + 2 : twin - 1);
-        return;
       }
+      // A boundary edge: its start joins the ring, and must be where the last one ended.
+      const from = triangles[e];
+      if (n === MAX_NATURAL_NEIGHBOURS || (lastTo >= 0 && lastTo !== from)) return 0;
+      ring[n++] = from;
+      const base = e - (e % 3);
+      lastTo = triangles[e === base + 2 ? base : e + 1];
     }
-    const n = this.ringCount++;
-    const from = triangles[e];
-    if (n < MAX_NATURAL_NEIGHBOURS) this.ring[n] = from;
-    if (this.lastTo >= 0 && this.lastTo !== from) this.ringBroken = true;
-    const base = e - (e % 3);
-    this.lastTo = triangles[e === base + 2 ? base : e + 1];
+    return lastTo === ring[0] ? n : 0;
   }
 
   /**
