@@ -95,7 +95,7 @@ export class AdaptivePixelMeans {
     this.means = this.state.means;
     this.scale = this.state.scale;
     this.allPixels = Int32Array.from({ length: count }, (_, e) => e);
-    this.lattice = new PixelLattice(grid, this.pixels, basisCount, this.adaptive, memory?.values);
+    this.lattice = new PixelLattice(grid, this.pixels, basisCount, this.adaptive, memory);
     this.stencil = new LatticeStencil(this.lattice, this.state, supersampling, memory);
     this.basisScale = new BasisScale(this.lattice, grid, kernel, this.state.scale);
     this.refinement = new RichardsonRefinement(this.state, supersampling, this.adaptive);
@@ -156,9 +156,8 @@ export class AdaptivePixelMeans {
     let live = this.stencil.startBases();
     for (let k = this.basisCount - 1; k >= 0; k--) {
       const base = k * lattice.planeSize;
-      lattice.scatterValues(k, base);
+      this.stencil.plane(k, base);
       this.basisScale.write(k, base);
-      this.stencil.rowStencils(base);
       live = this.stencil.pixelStencils(k, base, live);
     }
     state.directCount = state.collectFlagged(STRAIGHT_TO_FULL, this.allPixels, count, state.direct, state.directCount);

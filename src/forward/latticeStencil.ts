@@ -44,6 +44,8 @@ export class LatticeStencil {
       memory.weights.set([this.w3[1], this.w3[0], this.d5[0], this.d5[1], this.d5[2], LATTICE_GUARD, HOPELESS]);
       memory.pixelsPadded.set(lattice.pixelsPadded);
       memory.rowPoints.set(lattice.rowPoints);
+      memory.padded.set(lattice.padded);
+      memory.listed.set(lattice.listed);
       this.live = memory.live;
       return;
     }
@@ -55,6 +57,20 @@ export class LatticeStencil {
     const live = this.live;
     for (let e = 0; e < live.length; e++) live[e] = e;
     return live.length;
+  }
+
+  /**
+   * Basis k's lattice light onto its plane at `base` with its brightest listed pixel (the
+   * lattice's scatterValues), then the stencils along x (rowStencils).
+   */
+  plane(k: number, base: number): void {
+    if (this.memory !== null) {
+      this.lattice.brightest = this.memory.scatterPlane(k, base, this.lattice.count);
+      this.memory.rowStencils(this.lattice.rowPoints.length, base);
+      return;
+    }
+    this.lattice.scatterValues(k, base);
+    this.rowStencils(base);
   }
 
   /** The stencils along x (3-point part and 5-point correction) at every row point (basis at `base`). */

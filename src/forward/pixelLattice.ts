@@ -32,7 +32,7 @@ export class PixelLattice {
   readonly betaX: Float64Array;
   readonly betaY: Float64Array;
   /** listed[e] = 1 where lattice ray e is through a listed pixel. */
-  private readonly listed: Uint8Array;
+  readonly listed: Uint8Array;
   /**
    * After scatterValues: padded index of the listed pixel of largest |value| (the first in raster
    * order of equals), -1 if none.
@@ -46,10 +46,13 @@ export class PixelLattice {
 
   /**
    * `active`: false for a lattice that is never used (uniform S x S pixel means): no buffers.
-   * `values`: the planes as a view made elsewhere (the stencil kernel's memory), of
-   * max(1, basisCount) * planeSize elements.
+   * `held`: the planes and the light as views made elsewhere (the stencil kernel's memory), each
+   * of max(1, basisCount) * planeSize elements (the light takes what its rays need).
    */
-  constructor(grid: PixelGrid, pixels: Int32Array, basisCount: number, active: boolean, values?: Float64Array) {
+  constructor(
+    grid: PixelGrid, pixels: Int32Array, basisCount: number, active: boolean,
+    held?: { readonly values: Float64Array; readonly out: Float64Array },
+  ) {
     const { columns, rows } = grid;
     const width = columns + 4;
     const height = rows + 4;
@@ -99,8 +102,8 @@ export class PixelLattice {
     this.ay = new Float64Array(n);
     this.bx = new Float64Array(n);
     this.by = new Float64Array(n);
-    this.out = new Float64Array(Math.max(1, basisCount) * n);
-    this.values = values ?? new Float64Array(Math.max(1, basisCount) * width * height);
+    this.out = held?.out.subarray(0, Math.max(1, basisCount) * n) ?? new Float64Array(Math.max(1, basisCount) * n);
+    this.values = held?.values ?? new Float64Array(Math.max(1, basisCount) * width * height);
     this.betaX = new Float64Array(width * height);
     this.betaY = new Float64Array(width * height);
   }

@@ -94,18 +94,42 @@ function pixelBody(): number[] {
   return body;
 }
 
+/**
+ * scatterPlane(out, padded, listed, n, values, base, from): PixelLattice.scatterValues (see there)
+ * for the lattice light at out[from ..], listed as i32 0 or 1; returns the brightest listed pixel.
+ */
+function scatterBody(): number[] {
+  const [out, padded, listed, n, values, base, from] = [0, 1, 2, 3, 4, 5, 6];
+  const [e, q, brightest] = [7, 8, 9];
+  const [value, size, peak] = [10, 11, 12];
+  const body: number[] = [];
+  const emit = emitter(body);
+  emit(op.i32Const(-1), set(brightest), op.f64Const(-1), set(peak), op.i32Const(0), set(e));
+  emit(op.block, op.loop, get(e), get(n), op.i32GeS, op.brIf(1));
+  emit(f64At(out, plus(get(from), get(e))), set(value), i32At(padded, get(e)), set(q));
+  emit(at(values, plus(get(base), get(q)), 3), get(value), op.f64Store(0));
+  emit(get(value), op.f64Abs, set(size));
+  emit(op.block, get(size), get(peak), op.f64Gt, i32At(listed, get(e)), op.i32And, op.i32Eqz, op.brIf(0));
+  emit(get(size), set(peak), get(q), set(brightest), op.end);
+  emit(get(e), op.i32Const(1), op.i32Add, set(e), op.br(0), op.end, op.end);
+  emit(get(brightest));
+  return body;
+}
+
 const i32 = WASM_TYPE.i32, f64 = WASM_TYPE.f64;
 
 /** The compiled module, or null where the engine has no WebAssembly (LatticeStencil then runs its JavaScript loops). */
 export const stencilModule = compileWasmModule({
-  types: [[new Array<number>(6).fill(i32), []], [new Array<number>(15).fill(i32), [i32]]],
+  types: [[new Array<number>(6).fill(i32), []], [new Array<number>(15).fill(i32), [i32]], [new Array<number>(7).fill(i32), [i32]]],
   functions: [
     { type: 0, locals: [[3, i32], [7, f64]], body: rowBody() },
     { type: 1, locals: [[6, i32], [9, f64], [10, WASM_TYPE.v128]], body: pixelBody() },
+    { type: 2, locals: [[3, i32], [3, f64]], body: scatterBody() },
   ],
-  exports: [['rowStencils', 0], ['pixelStencils', 1]],
+  exports: [['rowStencils', 0], ['pixelStencils', 1], ['scatterPlane', 2]],
 });
 
+type ScatterPass = (out: number, padded: number, listed: number, n: number, values: number, base: number, from: number) => number;
 type RowPass = (values: number, rowPoints: number, rowCount: number, rows: number, weights: number, base: number) => void;
 type PixelPass = (
   values: number, pixelsPadded: number, live: number, liveCount: number, rows: number,
@@ -115,9 +139,10 @@ type PixelPass = (
 
 /**
  * The lattice level's buffers in one WebAssembly memory, for `count` listed pixels, `basisCount`
- * bases and padded planes of `planeSize` points: PixelLattice's planes (`values`), PixelMeanState's
- * means, centre values, flags, scales and tolerances, and the stencil's own rows, live list, pixel
- * and row-point lists and weights. The owners take these views in place of their own arrays, so
+ * bases and padded planes of `planeSize` points: PixelLattice's light (`out`, room for a lattice
+ * of planeSize rays) and planes (`values`), PixelMeanState's means, centre values, flags, scales
+ * and tolerances, and the stencil's own rows, live list, the lattice's ray and pixel lists and
+ * the weights. The owners take these views in place of their own arrays, so
  * the JavaScript that reads or writes them is unchanged.
  */
 export class StencilMemory {
@@ -133,15 +158,21 @@ export class StencilMemory {
   readonly pixelsPadded: Int32Array;
   readonly rowPoints: Int32Array;
   readonly weights: Float64Array;
+  readonly out: Float64Array;
+  /** The lattice's rays' padded indices, and 1 where a ray is through a listed pixel (else 0). */
+  readonly padded: Int32Array;
+  readonly listed: Int32Array;
   private readonly addresses: readonly number[];
   private readonly rowPass: RowPass;
   private readonly pixelPass: PixelPass;
+  private readonly scatterPass: ScatterPass;
 
   constructor(count: number, basisCount: number, planeSize: number) {
     const planes = Math.max(1, basisCount);
     const { memory, starts } = memoryWithRegions([
       8 * planes * planeSize, 8 * basisCount * count, 8 * basisCount * count, 4 * count, 8 * basisCount, 8 * count,
       16 * planeSize, 4 * count, 4 * count, 4 * planeSize, 8 * WEIGHTS,
+      8 * planes * planeSize, 4 * planeSize, 4 * planeSize,
     ]);
     const buffer = memory.buffer;
     this.addresses = starts;
@@ -156,9 +187,22 @@ export class StencilMemory {
     this.pixelsPadded = new Int32Array(buffer, starts[8], count);
     this.rowPoints = new Int32Array(buffer, starts[9], planeSize);
     this.weights = new Float64Array(buffer, starts[10], WEIGHTS);
+    this.out = new Float64Array(buffer, starts[11], planes * planeSize);
+    this.padded = new Int32Array(buffer, starts[12], planeSize);
+    this.listed = new Int32Array(buffer, starts[13], planeSize);
     const exports = new WebAssembly.Instance(stencilModule!, { env: { memory } }).exports;
     this.rowPass = exports.rowStencils as RowPass;
     this.pixelPass = exports.pixelStencils as PixelPass;
+    this.scatterPass = exports.scatterPlane as ScatterPass;
+  }
+
+  /**
+   * The lattice light of basis k (n rays, at out[k * n ..]) onto the plane at `base`; returns the
+   * padded index of the brightest listed pixel (-1 if none).
+   */
+  scatterPlane(k: number, base: number, n: number): number {
+    const s = this.addresses;
+    return this.scatterPass(s[11], s[12], s[13], n, s[0], base, k * n);
   }
 
   /** The x pass over the first rowCount row points of `rowPoints` on the plane at `base`. */

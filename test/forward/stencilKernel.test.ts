@@ -1,6 +1,7 @@
-// The lattice stencils in WebAssembly (src/forward/stencilKernel.ts) against their JavaScript twin
-// in LatticeStencil, bit for bit: the predicted means, the centre values, the flags and the live
-// list after every basis. The twin itself is checked against the brute-force S x S model in
+// The lattice level in WebAssembly (src/forward/stencilKernel.ts) against its JavaScript twin
+// (PixelLattice.scatterValues and LatticeStencil), bit for bit: the planes, each basis's brightest
+// listed pixel, the predicted means, the centre values, the flags and the live list after every
+// basis. The twin itself is checked against the brute-force S x S model in
 // forwardAccuracy.test.ts; here the light is made so that every outcome occurs (pixels done at the
 // lattice, flagged for refinement, sent straight to S x S).
 import { describe, expect, it } from 'vitest';
@@ -38,23 +39,27 @@ function bits(values: ArrayLike<number>): bigint[] {
 function runStencils(memory: StencilMemory | undefined) {
   const tolerance = Float64Array.from(pixels, (_, e) => 2e-4 * (1 + (e % 3)));
   const state = new PixelMeanState(pixels.length, bases, tolerance, memory);
-  const lattice = new PixelLattice(grid, pixels, bases, true, memory?.values);
+  const lattice = new PixelLattice(grid, pixels, bases, true, memory);
   const stencil = new LatticeStencil(lattice, state, supersampling, memory);
   for (let k = 0; k < bases; k++) {
     for (let e = 0; e < lattice.count; e++) lattice.out[k * lattice.count + e] = light(k, lattice.x[e], lattice.y[e]);
   }
   state.flags.fill(0);
   const liveCounts: number[] = [];
+  const brightest: number[] = [];
   let live = stencil.startBases();
   for (let k = bases - 1; k >= 0; k--) {
     const base = k * lattice.planeSize;
-    lattice.scatterValues(k, base);
+    stencil.plane(k, base);
+    brightest.push(lattice.brightest);
     state.scale[k] = Math.abs(lattice.values[base + lattice.brightest]);
-    stencil.rowStencils(base);
     live = stencil.pixelStencils(k, base, live);
     liveCounts.push(live);
   }
-  return { means: bits(state.means), previous: bits(state.previous), flags: Array.from(state.flags), liveCounts };
+  return {
+    means: bits(state.means), previous: bits(state.previous), flags: Array.from(state.flags), liveCounts, brightest,
+    planes: bits(lattice.values),
+  };
 }
 
 describe('the lattice stencils in WebAssembly', () => {
@@ -62,7 +67,7 @@ describe('the lattice stencils in WebAssembly', () => {
     expect(stencilModule).not.toBeNull();
   });
 
-  it('give the JavaScript twin\'s means, centre values, flags and live list to the bit', () => {
+  it('give the JavaScript twin\'s planes, brightest pixels, means, centre values, flags and live list to the bit', () => {
     const twin = runStencils(undefined);
     const kernel = runStencils(new StencilMemory(pixels.length, bases, PixelLattice.planeSizeOf(grid)));
     // Every outcome occurs, and pixels leave the live list basis by basis.
@@ -71,6 +76,9 @@ describe('the lattice stencils in WebAssembly', () => {
     expect(twin.flags).toContain(STRAIGHT_TO_FULL);
     expect(twin.liveCounts[0]).toBeLessThan(pixels.length);
     expect(twin.liveCounts.at(-1)).toBeLessThan(twin.liveCounts[0]);
+    expect(new Set(twin.brightest).size).toBeGreaterThan(1);
+    expect(kernel.brightest).toEqual(twin.brightest);
+    expect(kernel.planes).toEqual(twin.planes);
     expect(kernel.liveCounts).toEqual(twin.liveCounts);
     expect(kernel.flags).toEqual(twin.flags);
     expect(kernel.previous).toEqual(twin.previous);
