@@ -98,7 +98,7 @@ export class AdaptivePixelMeans {
     this.lattice = new PixelLattice(grid, this.pixels, basisCount, this.adaptive, memory);
     this.stencil = new LatticeStencil(this.lattice, this.state, supersampling, memory);
     this.basisScale = new BasisScale(this.lattice, grid, kernel, this.state.scale);
-    this.refinement = new RichardsonRefinement(this.state, supersampling, this.adaptive);
+    this.refinement = new RichardsonRefinement(this.state, supersampling, this.adaptive, memory);
     this.factors = this.refinement.factors;
     this.pixelsByLevel = this.refinement.pixelsByLevel;
     this.chunk = new RayChunk(basisCount, supersampling);

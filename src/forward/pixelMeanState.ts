@@ -17,6 +17,8 @@ export const HOPELESS = 30;
 export interface PixelMeanViews {
   readonly means: Float64Array;
   readonly previous: Float64Array;
+  readonly current: Float64Array;
+  readonly pending: Int32Array;
   readonly flags: Int32Array;
   readonly scale: Float64Array;
   readonly relativeTolerance: Float64Array;
@@ -46,7 +48,7 @@ export class PixelMeanState {
   readonly relativeTolerance: Float64Array;
 
   /**
-   * `held`: means, previous, flags, scale and relativeTolerance as views made elsewhere (the
+   * `held`: means, previous, current, pending, flags, scale and relativeTolerance as views made elsewhere (the
    * stencil kernel's memory, stencilKernel.ts); relativeTolerance is then copied into its view.
    */
   constructor(count: number, basisCount: number, relativeTolerance: Float64Array, held?: PixelMeanViews) {
@@ -54,9 +56,9 @@ export class PixelMeanState {
     this.basisCount = basisCount;
     this.means = held?.means ?? new Float64Array(basisCount * count);
     this.previous = held?.previous ?? new Float64Array(basisCount * count);
-    this.current = new Float64Array(basisCount * count);
+    this.current = held?.current ?? new Float64Array(basisCount * count);
     this.flags = held?.flags ?? new Int32Array(count);
-    this.pending = new Int32Array(count);
+    this.pending = held?.pending ?? new Int32Array(count);
     this.direct = new Int32Array(count);
     this.scale = held?.scale ?? new Float64Array(basisCount);
     this.relativeTolerance = held === undefined ? relativeTolerance : held.relativeTolerance;

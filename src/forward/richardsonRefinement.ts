@@ -1,5 +1,6 @@
 import { richardsonFactor } from './midpointStencil.js';
 import { DONE, HOPELESS, REFINE, STRAIGHT_TO_FULL, type PixelMeanState } from './pixelMeanState.js';
+import type { StencilMemory } from './stencilKernel.js';
 
 /** Weight of the Richardson correction in the indicator of the intermediate levels. */
 const RICHARDSON_GUARD = 0.03;
@@ -28,9 +29,12 @@ export class RichardsonRefinement {
   private readonly richardsonByLevel: Float64Array;
   private readonly supersampling: number;
   private readonly state: PixelMeanState;
+  /** Where the extrapolation runs in WebAssembly (the state's buffers are its views), else null. */
+  private readonly memory: StencilMemory | null;
 
-  constructor(state: PixelMeanState, supersampling: number, adaptive: boolean) {
+  constructor(state: PixelMeanState, supersampling: number, adaptive: boolean, memory?: StencilMemory) {
     this.state = state;
+    this.memory = memory ?? null;
     this.supersampling = supersampling;
     const factors: number[] = [];
     if (adaptive) for (let m = 2; m < supersampling; m *= 2) factors.push(m);
@@ -61,6 +65,10 @@ export class RichardsonRefinement {
   private extrapolate(level: number, pendingCount: number): void {
     const factor = this.richardsonByLevel[level];
     const convergence = level === 0 ? 1 : 1 / EXTRAPOLATED_CONVERGENCE;
+    if (this.memory !== null) {
+      this.memory.extrapolate(pendingCount, factor, convergence, RICHARDSON_GUARD, HOPELESS);
+      return;
+    }
     const { count, basisCount, means, previous, current, pending, flags: flagged, scale, relativeTolerance } = this.state;
     for (let t = 0; t < pendingCount; t++) {
       const e = pending[t];

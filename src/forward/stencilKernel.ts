@@ -9,6 +9,8 @@ import { memoryWithRegions } from '../numeric/wasm/wasmMemory.js';
  * fourth-order weights, the guard weight and the hopeless factor.
  */
 const WEIGHTS = 7;
+/** After them, the extrapolation's four constants (extrapolateBody). */
+const EXTRAPOLATION_CONSTANTS = 4;
 
 const { at, i32At, f64At } = element;
 const get = op.localGet, set = op.localSet;
@@ -116,20 +118,63 @@ function scatterBody(): number[] {
   return body;
 }
 
+/**
+ * extrapolate(means, previous, current, pending, pendingCount, flags, tolerance, scale, weights,
+ * count, basisCount): RichardsonRefinement's extrapolation (see there) of the pending pixels, with
+ * its factor, convergence, guard and hopeless factor at weights[7 ..]; each pixel flagged.
+ */
+function extrapolateBody(): number[] {
+  const [means, previous, current, pending, pendingCount, flags, tolerance, scale, weights, count, basisCount]
+    = Array.from({ length: 11 }, (_, i) => i);
+  const [t, e, k, index, refine, hopelessFlag] = Array.from({ length: 6 }, (_, i) => 11 + i);
+  const [factor, convergence, guard, hopeless, now, step, predicted, indicator, limit, rate]
+    = Array.from({ length: 10 }, (_, i) => 17 + i);
+  const body: number[] = [];
+  const emit = emitter(body);
+  [factor, convergence, guard, hopeless].forEach((local, i) => emit(f64At(weights, op.i32Const(WEIGHTS + i)), set(local)));
+  emit(op.i32Const(0), set(t));
+  emit(op.block, op.loop, get(t), get(pendingCount), op.i32GeS, op.brIf(1));
+  emit(i32At(pending, get(t)), set(e), op.i32Const(0), set(refine), op.i32Const(0), set(hopelessFlag));
+  emit(f64At(tolerance, get(e)), set(rate), op.i32Const(0), set(k));
+  emit(op.block, op.loop, get(k), get(basisCount), op.i32GeS, op.brIf(1));
+  emit(get(k), get(count), op.i32Mul, get(e), op.i32Add, set(index));
+  emit(f64At(current, get(index)), set(now));
+  emit(get(now), f64At(previous, get(index)), op.f64Sub, get(factor), op.f64Mul, set(step));
+  emit(get(now), get(step), op.f64Add, set(predicted));
+  emit(get(convergence), get(predicted), f64At(means, get(index)), op.f64Sub, op.f64Abs, op.f64Mul);
+  emit(get(guard), get(step), op.f64Abs, op.f64Mul, op.f64Max, set(indicator));
+  emit(f64At(scale, get(k)), get(rate), op.f64Mul, set(limit));
+  emit(get(refine), get(indicator), get(limit), op.f64Gt, op.i32Or, set(refine));
+  emit(get(hopelessFlag), get(indicator), get(hopeless), get(limit), op.f64Mul, op.f64Gt, op.i32Or, set(hopelessFlag));
+  emit(at(means, get(index), 3), get(predicted), op.f64Store(0));
+  emit(at(previous, get(index), 3), get(now), op.f64Store(0));
+  emit(get(k), op.i32Const(1), op.i32Add, set(k), op.br(0), op.end, op.end);
+  // STRAIGHT_TO_FULL (2) if hopeless, else REFINE (1) or DONE (0).
+  emit(at(flags, get(e), 2), get(hopelessFlag), op.i32Const(1), op.i32Shl, get(refine), get(hopelessFlag), op.i32Eqz, op.i32And, op.i32Add, op.i32Store(0));
+  emit(get(t), op.i32Const(1), op.i32Add, set(t), op.br(0), op.end, op.end);
+  return body;
+}
+
 const i32 = WASM_TYPE.i32, f64 = WASM_TYPE.f64;
 
 /** The compiled module, or null where the engine has no WebAssembly (LatticeStencil then runs its JavaScript loops). */
 export const stencilModule = compileWasmModule({
-  types: [[new Array<number>(6).fill(i32), []], [new Array<number>(15).fill(i32), [i32]], [new Array<number>(7).fill(i32), [i32]]],
+  types: [[new Array<number>(6).fill(i32), []], [new Array<number>(15).fill(i32), [i32]], [new Array<number>(7).fill(i32), [i32]],
+    [new Array<number>(11).fill(i32), []]],
   functions: [
     { type: 0, locals: [[3, i32], [7, f64]], body: rowBody() },
     { type: 1, locals: [[6, i32], [9, f64], [10, WASM_TYPE.v128]], body: pixelBody() },
     { type: 2, locals: [[3, i32], [3, f64]], body: scatterBody() },
+    { type: 3, locals: [[6, i32], [10, f64]], body: extrapolateBody() },
   ],
-  exports: [['rowStencils', 0], ['pixelStencils', 1], ['scatterPlane', 2]],
+  exports: [['rowStencils', 0], ['pixelStencils', 1], ['scatterPlane', 2], ['extrapolate', 3]],
 });
 
 type ScatterPass = (out: number, padded: number, listed: number, n: number, values: number, base: number, from: number) => number;
+type ExtrapolatePass = (
+  means: number, previous: number, current: number, pending: number, pendingCount: number, flags: number,
+  tolerance: number, scale: number, weights: number, count: number, basisCount: number,
+) => void;
 type RowPass = (values: number, rowPoints: number, rowCount: number, rows: number, weights: number, base: number) => void;
 type PixelPass = (
   values: number, pixelsPadded: number, live: number, liveCount: number, rows: number,
@@ -140,8 +185,8 @@ type PixelPass = (
 /**
  * The lattice level's buffers in one WebAssembly memory, for `count` listed pixels, `basisCount`
  * bases and padded planes of `planeSize` points: PixelLattice's light (`out`, room for a lattice
- * of planeSize rays) and planes (`values`), PixelMeanState's means, centre values, flags, scales
- * and tolerances, and the stencil's own rows, live list, the lattice's ray and pixel lists and
+ * of planeSize rays) and planes (`values`), PixelMeanState's means (current, previous and
+ * predicted), pending list, flags, scales and tolerances, and the stencil's own rows, live list, the lattice's ray and pixel lists and
  * the weights. The owners take these views in place of their own arrays, so
  * the JavaScript that reads or writes them is unchanged.
  */
@@ -162,17 +207,21 @@ export class StencilMemory {
   /** The lattice's rays' padded indices, and 1 where a ray is through a listed pixel (else 0). */
   readonly padded: Int32Array;
   readonly listed: Int32Array;
+  /** PixelMeanState's means at the current factor and its pending list. */
+  readonly current: Float64Array;
+  readonly pending: Int32Array;
   private readonly addresses: readonly number[];
   private readonly rowPass: RowPass;
   private readonly pixelPass: PixelPass;
   private readonly scatterPass: ScatterPass;
+  private readonly extrapolatePass: ExtrapolatePass;
 
   constructor(count: number, basisCount: number, planeSize: number) {
     const planes = Math.max(1, basisCount);
     const { memory, starts } = memoryWithRegions([
       8 * planes * planeSize, 8 * basisCount * count, 8 * basisCount * count, 4 * count, 8 * basisCount, 8 * count,
-      16 * planeSize, 4 * count, 4 * count, 4 * planeSize, 8 * WEIGHTS,
-      8 * planes * planeSize, 4 * planeSize, 4 * planeSize,
+      16 * planeSize, 4 * count, 4 * count, 4 * planeSize, 8 * (WEIGHTS + EXTRAPOLATION_CONSTANTS),
+      8 * planes * planeSize, 4 * planeSize, 4 * planeSize, 8 * basisCount * count, 4 * count,
     ]);
     const buffer = memory.buffer;
     this.addresses = starts;
@@ -186,14 +235,32 @@ export class StencilMemory {
     this.live = new Int32Array(buffer, starts[7], count);
     this.pixelsPadded = new Int32Array(buffer, starts[8], count);
     this.rowPoints = new Int32Array(buffer, starts[9], planeSize);
-    this.weights = new Float64Array(buffer, starts[10], WEIGHTS);
+    this.weights = new Float64Array(buffer, starts[10], WEIGHTS + EXTRAPOLATION_CONSTANTS);
     this.out = new Float64Array(buffer, starts[11], planes * planeSize);
     this.padded = new Int32Array(buffer, starts[12], planeSize);
     this.listed = new Int32Array(buffer, starts[13], planeSize);
+    this.current = new Float64Array(buffer, starts[14], basisCount * count);
+    this.pending = new Int32Array(buffer, starts[15], count);
     const exports = new WebAssembly.Instance(stencilModule!, { env: { memory } }).exports;
     this.rowPass = exports.rowStencils as RowPass;
     this.pixelPass = exports.pixelStencils as PixelPass;
     this.scatterPass = exports.scatterPlane as ScatterPass;
+    this.extrapolatePass = exports.extrapolate as ExtrapolatePass;
+  }
+
+  /**
+   * RichardsonRefinement's extrapolation of the first pendingCount pending pixels with the given
+   * constants (its factor and convergence for the level, its guard and the hopeless factor).
+   */
+  extrapolate(pendingCount: number, factor: number, convergence: number, guard: number, hopeless: number): void {
+    const s = this.addresses;
+    const constants = this.weights;
+    constants[WEIGHTS] = factor;
+    constants[WEIGHTS + 1] = convergence;
+    constants[WEIGHTS + 2] = guard;
+    constants[WEIGHTS + 3] = hopeless;
+    const basisCount = this.scale.length;
+    this.extrapolatePass(s[1], s[2], s[14], s[15], pendingCount, s[3], s[5], s[4], s[10], this.flags.length, basisCount);
   }
 
   /**

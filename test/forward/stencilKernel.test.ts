@@ -9,6 +9,7 @@ import { pixelGrid } from '../../src/imaging/pixelGrid.js';
 import { PixelLattice } from '../../src/forward/pixelLattice.js';
 import { PixelMeanState, REFINE, STRAIGHT_TO_FULL } from '../../src/forward/pixelMeanState.js';
 import { LatticeStencil } from '../../src/forward/latticeStencil.js';
+import { RichardsonRefinement } from '../../src/forward/richardsonRefinement.js';
 import { StencilMemory, stencilModule } from '../../src/forward/stencilKernel.js';
 
 const grid = pixelGrid(31, 23, 0.05);
@@ -57,8 +58,37 @@ function runStencils(memory: StencilMemory | undefined) {
     liveCounts.push(live);
   }
   return {
-    means: bits(state.means), previous: bits(state.previous), flags: Array.from(state.flags), liveCounts, brightest,
+    state, means: bits(state.means), previous: bits(state.previous), flags: Array.from(state.flags), liveCounts, brightest,
     planes: bits(lattice.values),
+  };
+}
+
+/**
+ * The Richardson levels m = 2 and 4 after the lattice, with made-up sub-pixel means: the current
+ * prediction plus a change that falls as m^-2 and differs from pixel to pixel by orders of
+ * magnitude, so that each level finishes some, keeps some and gives up on some.
+ */
+function runRefinement(memory: StencilMemory | undefined) {
+  const { state } = runStencils(memory);
+  const refinement = new RichardsonRefinement(state, supersampling, true, memory);
+  const all = Int32Array.from(pixels, (_, e) => e);
+  state.directCount = state.collectFlagged(STRAIGHT_TO_FULL, all, pixels.length, state.direct, 0);
+  const directAtLattice = state.directCount;
+  let pending = state.collectFlagged(REFINE, all, pixels.length, state.pending, 0);
+  const levels: Array<{ pending: number[]; flags: number[]; direct: number }> = [];
+  [2, 4].forEach((m, level) => {
+    for (let t = 0; t < pending; t++) {
+      const e = state.pending[t];
+      for (let k = 0; k < bases; k++) {
+        const index = k * pixels.length + e;
+        state.current[index] = state.means[index] + [0, 2e-4, 3e-3, 0.3][e % 4] * (1 + k) / (m * m);
+      }
+    }
+    pending = refinement.refine(m, level, pending);
+    levels.push({ pending: Array.from(state.pending.subarray(0, pending)), flags: Array.from(state.flags), direct: state.directCount });
+  });
+  return {
+    levels, directAtLattice, means: bits(state.means), previous: bits(state.previous), byLevel: Array.from(refinement.pixelsByLevel),
   };
 }
 
@@ -81,6 +111,24 @@ describe('the lattice stencils in WebAssembly', () => {
     expect(kernel.planes).toEqual(twin.planes);
     expect(kernel.liveCounts).toEqual(twin.liveCounts);
     expect(kernel.flags).toEqual(twin.flags);
+    expect(kernel.previous).toEqual(twin.previous);
+    expect(kernel.means).toEqual(twin.means);
+  });
+
+  it('extrapolate as RichardsonRefinement\'s JavaScript does, to the bit, flags and pending lists included', () => {
+    const memory = (): StencilMemory => new StencilMemory(pixels.length, bases, PixelLattice.planeSizeOf(grid));
+    const twin = runRefinement(undefined);
+    const kernel = runRefinement(memory());
+    // Across the two levels pixels are kept, finished, and sent straight to S x S.
+    const [first, second] = twin.levels;
+    expect(first.pending.length).toBeGreaterThan(0);
+    expect(first.direct).toBeGreaterThan(twin.directAtLattice);
+    expect(twin.byLevel[2]).toBeGreaterThan(0);
+    expect(second.pending.length).toBeGreaterThan(0);
+    expect(second.pending.length).toBeLessThan(first.pending.length);
+    expect(kernel.levels).toEqual(twin.levels);
+    expect(kernel.byLevel).toEqual(twin.byLevel);
+    expect(kernel.directAtLattice).toBe(twin.directAtLattice);
     expect(kernel.previous).toEqual(twin.previous);
     expect(kernel.means).toEqual(twin.means);
   });

@@ -41,7 +41,7 @@ export const op = Object.freeze({
   localGet: (i: number) => [0x20, ...unsignedLeb128(i)],
   localSet: (i: number) => [0x21, ...unsignedLeb128(i)],
   i32Const: (v: number) => [0x41, ...signedLeb128(v)],
-  i32Eqz: [0x45], i32Ne: [0x47], i32LtS: [0x48], i32GtS: [0x4a], i32GeS: [0x4e], i32Add: [0x6a], i32Sub: [0x6b], i32Mul: [0x6c], i32And: [0x71], i32Shl: [0x74],
+  i32Eqz: [0x45], i32Ne: [0x47], i32LtS: [0x48], i32GtS: [0x4a], i32GeS: [0x4e], i32Add: [0x6a], i32Sub: [0x6b], i32Mul: [0x6c], i32And: [0x71], i32Or: [0x72], i32Shl: [0x74],
   i32Load: (offset: number) => [0x28, 2, ...unsignedLeb128(offset)],
   i32Store: (offset: number) => [0x36, 2, ...unsignedLeb128(offset)],
   f64Const: (v: number) => [0x44, ...new Uint8Array(Float64Array.of(v).buffer)],

@@ -50,6 +50,8 @@ describe('wasmModuleBytes', () => {
     expect(op.f64x2Splat).toEqual([0xfd, 0x14]);
     expect(op.f64x2ExtractLane(1)).toEqual([0xfd, 0x21, 1]);
     expect(op.i32And).toEqual([0x71]);
+    // i32.or is 0x72 (sec. 5.4.7); the engine's 6 | 9 = 15 is checked below.
+    expect(op.i32Or).toEqual([0x72]);
     const bytes = wasmModuleBytes({
       types: [[[], []]],
       functions: [{
@@ -58,6 +60,7 @@ describe('wasmModuleBytes', () => {
           ...op.i32Const(16), ...op.f64Const(3), ...op.f64x2Splat, ...op.i32Const(0), ...op.v128Load(0), ...op.f64x2Mul, ...op.f64x2ExtractLane(1), ...op.f64Store(0),
           ...op.i32Const(24), ...op.i32Const(0), ...op.v128Load(0), ...op.f64x2ExtractLane(0), ...op.f64Store(0),
           ...op.i32Const(32), ...op.i32Const(7), ...op.i32Const(-4), ...op.i32And, ...op.i32Store(0),
+          ...op.i32Const(36), ...op.i32Const(6), ...op.i32Const(9), ...op.i32Or, ...op.i32Store(0),
         ],
       }],
       exports: [['run', 0]],
@@ -69,6 +72,7 @@ describe('wasmModuleBytes', () => {
     (instance.exports.run as () => void)();
     expect(Array.from(values.subarray(2, 4))).toEqual([-6, 1.5]);
     expect(new Int32Array(memory.buffer, 32, 1)[0]).toBe(4);
+    expect(new Int32Array(memory.buffer, 36, 1)[0]).toBe(15);
   });
 
   it('encodes the scalar instructions the kernels use with the opcodes of the specification', () => {
