@@ -2,7 +2,8 @@
  * A minimal encoder of WebAssembly modules (the binary format of the WebAssembly Core
  * Specification 2.0, W3C 2022, chapter 5, with the fixed-width SIMD proposal's v128
  * instructions, merged into 2.0): enough for small hand-written numeric kernels that take i32
- * arguments and work on an imported memory. Instructions are byte arrays built with `op`.
+ * and f64 arguments, call each other and work on an imported memory. Instructions are byte
+ * arrays built with `op`.
  */
 
 /** Value types (spec 5.3.1). */
@@ -41,14 +42,18 @@ export const op = Object.freeze({
   localGet: (i: number) => [0x20, ...unsignedLeb128(i)],
   localSet: (i: number) => [0x21, ...unsignedLeb128(i)],
   i32Const: (v: number) => [0x41, ...signedLeb128(v)],
-  i32Eqz: [0x45], i32Ne: [0x47], i32LtS: [0x48], i32GtS: [0x4a], i32GeS: [0x4e], i32Add: [0x6a], i32Sub: [0x6b], i32Mul: [0x6c], i32And: [0x71], i32Or: [0x72], i32Shl: [0x74],
+  i32Eqz: [0x45], i32Eq: [0x46], i32Ne: [0x47], i32LtS: [0x48], i32GtS: [0x4a], i32GeS: [0x4e],
+  i32Add: [0x6a], i32Sub: [0x6b], i32Mul: [0x6c], i32DivU: [0x6e], i32RemU: [0x70], i32And: [0x71], i32Or: [0x72], i32Shl: [0x74],
   i32Load: (offset: number) => [0x28, 2, ...unsignedLeb128(offset)],
   i32Store: (offset: number) => [0x36, 2, ...unsignedLeb128(offset)],
   f64Const: (v: number) => [0x44, ...new Uint8Array(Float64Array.of(v).buffer)],
   f64Load: (offset: number) => [0x2b, 3, ...unsignedLeb128(offset)],
   f64Store: (offset: number) => [0x39, 3, ...unsignedLeb128(offset)],
-  f64Add: [0xa0], f64Sub: [0xa1], f64Mul: [0xa2], f64Abs: [0x99], f64Max: [0xa5], f64Gt: [0x64],
-  block: [0x02, 0x40], loop: [0x03, 0x40], end: [0x0b],
+  f64Add: [0xa0], f64Sub: [0xa1], f64Mul: [0xa2], f64Div: [0xa3], f64Abs: [0x99], f64Neg: [0x9a], f64Max: [0xa5],
+  f64Eq: [0x61], f64Lt: [0x63], f64Gt: [0x64], f64Le: [0x65], f64Ge: [0x66],
+  block: [0x02, 0x40], loop: [0x03, 0x40], if: [0x04, 0x40], else: [0x05], end: [0x0b],
+  return: [0x0f], select: [0x1b],
+  call: (f: number) => [0x10, ...unsignedLeb128(f)],
   br: (depth: number) => [0x0c, ...unsignedLeb128(depth)],
   brIf: (depth: number) => [0x0d, ...unsignedLeb128(depth)],
   v128Load: (offset: number) => [0xfd, 0x00, 3, ...unsignedLeb128(offset)],

@@ -119,4 +119,62 @@ describe('wasmModuleBytes', () => {
     run();
     expect([values[2], flag[0]]).toEqual([5, 1]);
   });
+
+  it('encodes the comparisons, division, negation and control of the natural-neighbour kernel, and the engine runs them', () => {
+    // WebAssembly Core Specification 2.0 (opcodes from memory, each run below): sec. 5.4.1
+    // (control: if 0x04 with the empty block type 0x40, else 0x05, return 0x0f, call 0x10 and the
+    // function index), 5.4.3 (parametric: select 0x1b), 5.4.7 (numeric: i32.eq 0x46, i32.div_u
+    // 0x6e, i32.rem_u 0x70, i32.or 0x72, f64.eq 0x61, f64.lt 0x63, f64.le 0x65, f64.ge 0x66,
+    // f64.neg 0x9a, f64.div 0xa3).
+    expect([op.if, op.else, op.return, op.call(1), op.select]).toEqual([[0x04, 0x40], [0x05], [0x0f], [0x10, 1], [0x1b]]);
+    expect([op.i32Eq, op.i32DivU, op.i32RemU, op.i32Or]).toEqual([[0x46], [0x6e], [0x70], [0x72]]);
+    expect([op.f64Eq, op.f64Lt, op.f64Le, op.f64Ge, op.f64Neg, op.f64Div]).toEqual([[0x61], [0x63], [0x65], [0x66], [0x9a], [0xa3]]);
+    const { i32, f64 } = WASM_TYPE;
+    const store32 = (at: number, value: number[]): number[] => [...op.i32Const(at), ...value, ...op.i32Store(0)];
+    const store64 = (at: number, value: number[]): number[] => [...op.i32Const(at), ...value, ...op.f64Store(0)];
+    const a = op.localGet(0), b = op.localGet(1);
+    // floats(a, b): the f64 comparisons as i32s at bytes 0..15, a / b at 16 and -a at 24.
+    const floats = [
+      ...store32(0, [...a, ...b, ...op.f64Eq]), ...store32(4, [...a, ...b, ...op.f64Lt]),
+      ...store32(8, [...a, ...b, ...op.f64Le]), ...store32(12, [...a, ...b, ...op.f64Ge]),
+      ...store64(16, [...a, ...b, ...op.f64Div]), ...store64(24, [...a, ...op.f64Neg]),
+    ];
+    // integers(m, n): m == n, m / n, m % n (unsigned), m | n and the smaller by select at 32..51.
+    const integers = [
+      ...store32(32, [...a, ...b, ...op.i32Eq]), ...store32(36, [...a, ...b, ...op.i32DivU]),
+      ...store32(40, [...a, ...b, ...op.i32RemU]), ...store32(44, [...a, ...b, ...op.i32Or]),
+      ...store32(48, [...a, ...b, ...a, ...b, ...op.i32LtS, ...op.select]),
+    ];
+    // sign(m) through if/else and early returns (the final 7 is never reached); signOfSum(m, n) calls it.
+    const sign = [
+      ...a, ...op.i32Const(0), ...op.i32LtS, ...op.if, ...op.i32Const(-1), ...op.return, ...op.end,
+      ...a, ...op.i32Eqz, ...op.if, ...op.i32Const(0), ...op.return, ...op.else, ...op.i32Const(1), ...op.return, ...op.end,
+      ...op.i32Const(7),
+    ];
+    const bytes = wasmModuleBytes({
+      types: [[[f64, f64], []], [[i32, i32], []], [[i32], [i32]], [[i32, i32], [i32]]],
+      functions: [
+        { type: 0, locals: [], body: floats },
+        { type: 1, locals: [], body: integers },
+        { type: 2, locals: [], body: sign },
+        { type: 3, locals: [], body: [...a, ...b, ...op.i32Add, ...op.call(2)] },
+      ],
+      exports: [['floats', 0], ['integers', 1], ['sign', 2], ['signOfSum', 3]],
+    });
+    const memory = new WebAssembly.Memory({ initial: 1 });
+    const run = new WebAssembly.Instance(new WebAssembly.Module(bytes), { env: { memory } }).exports;
+    const flags = new Int32Array(memory.buffer, 0, 13), values = new Float64Array(memory.buffer, 16, 2);
+    // The engine's JavaScript operators are the reference, NaN and signed zeros included.
+    for (const [x, y] of [[1.5, 2], [2, 1.5], [3, 3], [0, -0], [NaN, 1], [1, NaN], [-Infinity, Infinity]]) {
+      (run.floats as (x: number, y: number) => void)(x, y);
+      expect(Array.from(flags.subarray(0, 4)), `${x}, ${y}`).toEqual([+(x === y), +(x < y), +(x <= y), +(x >= y)]);
+      expect(Object.is(values[0], x / y) && Object.is(values[1], -x), `${x}, ${y}`).toBe(true);
+    }
+    for (const [m, n] of [[17, 5], [5, 17], [6, 6], [0x7fffffff, 3]]) {
+      (run.integers as (m: number, n: number) => void)(m, n);
+      expect(Array.from(flags.subarray(8, 13)), `${m}, ${n}`).toEqual([+(m === n), Math.floor(m / n), m % n, m | n, Math.min(m, n)]);
+    }
+    const signOf = run.sign as (m: number) => number, signOfSum = run.signOfSum as (m: number, n: number) => number;
+    expect([signOf(-4), signOf(0), signOf(9), signOfSum(2, -5), signOfSum(-3, 3)]).toEqual([-1, 0, 1, -1, 0]);
+  });
 });
