@@ -21,6 +21,8 @@ export const MAX_NATURAL_NEIGHBOURS = 24;
  * weight 0, also when the triangulation flips an edge), they are non-negative, sum to 1, and
  * reproduce linear functions. Each query writes MAX_NATURAL_NEIGHBOURS entries (vertex -1,
  * weight 0 for the unused); a point outside the convex hull gets none. Buffers are reused.
+ * Its WebAssembly twin is naturalNeighbourKernel.ts, tested against it bit for bit in
+ * test/numeric/geometry/naturalNeighbourKernel.test.ts.
  */
 export class NaturalNeighbourWeights {
   /**
