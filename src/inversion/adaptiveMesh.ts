@@ -1,5 +1,6 @@
 import { cotangentWeights } from '../numeric/geometry/cotangentWeights.js';
 import { DelaunayTriangulation } from '../numeric/geometry/delaunayTriangulation.js';
+import { NaturalNeighbourKernel } from '../numeric/geometry/naturalNeighbourKernel.js';
 import { MAX_NATURAL_NEIGHBOURS, NaturalNeighbourWeights } from '../numeric/geometry/naturalNeighbourWeights.js';
 import { TriangulationStatus, type TriangulationStatusCode } from '../numeric/geometry/triangulationStatus.js';
 import { VertexAdjacency } from '../numeric/geometry/vertexAdjacency.js';
@@ -15,7 +16,9 @@ import { addDifferenceRow, type DifferenceRows, type SourceMesh } from './source
  * evidence changes smoothly with the lens parameters instead of jumping at every edge flip (as
  * barycentric interpolation and unweighted edge differences do). Beyond the hull the source is
  * taken to vanish: rays there see no source, and the regularisation ties the hull vertices to
- * zero, which makes every form positive definite.
+ * zero, which makes every form positive definite. `engine` 'auto' weighs the rays in
+ * WebAssembly (naturalNeighbourKernel.ts) when they are the arrays of rayBuffers(), 'javaScript'
+ * always with NaturalNeighbourWeights, the twin it is tested against; both give the same bits.
  */
 export class AdaptiveMesh implements SourceMesh {
   readonly entriesPerRay = MAX_NATURAL_NEIGHBOURS;
@@ -23,6 +26,11 @@ export class AdaptiveMesh implements SourceMesh {
   readonly triangulation = new DelaunayTriangulation();
   private readonly adjacency = new VertexAdjacency();
   private readonly natural = new NaturalNeighbourWeights();
+  private readonly engine: 'auto' | 'javaScript';
+  /** The kernel whose memory holds the arrays of rayBuffers() (null: none, or no WebAssembly). */
+  private kernel: NaturalNeighbourKernel | null = null;
+  /** Whichever weighed the last interpolate(). */
+  private lastWeigher: { readonly fallbacks: number } = this.natural;
   private edgeWeights = new Float64Array(0);
   cellX = new Float64Array(0);
   cellY = new Float64Array(0);
@@ -30,6 +38,10 @@ export class AdaptiveMesh implements SourceMesh {
   private neighbourCells = new Int32Array(64);
   private neighbourCoefficients = new Float64Array(64);
   private readonly secondRow = new Float64Array(3);
+
+  constructor(engine: 'auto' | 'javaScript' = 'auto') {
+    this.engine = engine;
+  }
 
   /** Triangulates the n vertices (copied); the status says why not when it fails. */
   build(vx: Float64Array, vy: Float64Array, n: number): TriangulationStatusCode {
@@ -49,12 +61,28 @@ export class AdaptiveMesh implements SourceMesh {
     return status;
   }
 
+  rayBuffers(rayCount: number, cellCount: number): { cells: Int32Array; weights: Float64Array } {
+    this.kernel = this.engine === 'auto' ? NaturalNeighbourKernel.create(rayCount, cellCount) : null;
+    if (this.kernel !== null) return { cells: this.kernel.vertices, weights: this.kernel.weights };
+    return { cells: new Int32Array(this.entriesPerRay * rayCount), weights: new Float64Array(this.entriesPerRay * rayCount) };
+  }
+
+  /**
+   * The kernel weighs into its own memory only; other arrays, or a triangulation larger than
+   * the kernel was sized for, take the JavaScript twin (the same results, more slowly).
+   */
   interpolate(bx: Float64Array, by: Float64Array, n: number, cells: Int32Array, weights: Float64Array): number {
+    const kernel = this.kernel;
+    if (kernel !== null && cells === kernel.vertices && weights === kernel.weights && kernel.holds(this.triangulation, n)) {
+      this.lastWeigher = kernel;
+      return kernel.weigh(this.triangulation, bx, by, n);
+    }
+    this.lastWeigher = this.natural;
     return this.natural.weigh(this.triangulation, bx, by, n, cells, weights);
   }
 
   get interpolationFallbacks(): number {
-    return this.natural.fallbacks;
+    return this.lastWeigher.fallbacks;
   }
 
   /**

@@ -52,6 +52,10 @@ export class RegularMesh implements SourceMesh {
     }
   }
 
+  rayBuffers(rayCount: number): { cells: Int32Array; weights: Float64Array } {
+    return { cells: new Int32Array(this.entriesPerRay * rayCount), weights: new Float64Array(this.entriesPerRay * rayCount) };
+  }
+
   // Bilinear interpolation on the unit square of the four surrounding nodes (e.g. Press et al.
   // 2007, Numerical Recipes sec. 3.6).
   interpolate(bx: Float64Array, by: Float64Array, n: number, cells: Int32Array, weights: Float64Array): number {

@@ -97,8 +97,8 @@ export class SourceInversion {
   private readonly m = new SparseRows();
   private readonly b = new SparseRows();
   private readonly bt = new SparseRows();
-  private cells: Int32Array;
-  private weights: Float64Array;
+  private readonly cells: Int32Array;
+  private readonly weights: Float64Array;
   private rowWeights = new Float64Array(0);
   /** A regular mesh's unit H and ln det H, the same at every call. */
   private fixedH: { matrix: SymmetricCsr; logDet: number } | null = null;
@@ -133,9 +133,9 @@ export class SourceInversion {
       }
       this.vertices = new VertexSelection(grid, computed, cells, bright);
     }
-    const perRay = this.mesh.entriesPerRay;
-    this.cells = new Int32Array(this.rays.count * perRay);
-    this.weights = new Float64Array(this.rays.count * perRay);
+    const buffers = this.mesh.rayBuffers(this.rays.count, this.vertices === null ? this.mesh.cellCount : this.vertices.count);
+    this.cells = buffers.cells;
+    this.weights = buffers.weights;
     this.evidence = new LinearEvidence(setup.data, setup.inverseVariance);
     this.extraPrecision = 1 / (setup.amplitudePriorSigma * setup.amplitudePriorSigma);
   }

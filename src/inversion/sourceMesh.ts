@@ -28,6 +28,12 @@ export interface SourceMesh {
    */
   interpolate(bx: Float64Array, by: Float64Array, n: number, cells: Int32Array, weights: Float64Array): number;
   /**
+   * The `cells` and `weights` arrays for interpolate() of rayCount rays on at most cellCount
+   * cells, made once per inversion: the adaptive mesh hands out views on its WebAssembly
+   * kernel's memory, which its interpolation then fills in place; other arrays still work.
+   */
+  rayBuffers(rayCount: number, cellCount: number): { cells: Int32Array; weights: Float64Array };
+  /**
    * Rays of the last interpolate() that took a simpler rule than the mesh's own because their
    * neighbourhood was degenerate (the adaptive mesh: the holding triangle's barycentric weights
    * where the natural-neighbour ring was flat, folded or too crowded); 0 when there is none.
