@@ -86,11 +86,15 @@ export class ForwardModel {
   readonly computedPixels: Int32Array;
   /** Row-major indices of the pixels where `basis` is filled. */
   readonly usedPixels: Int32Array;
-  /** PSF-convolved unit-amplitude images: basis k of pixel p at basis[k * pixelCount + p]. */
+  /**
+   * PSF-convolved unit-amplitude images: basis k of pixel p at basis[k * pixelCount + p], after
+   * computeBasis (computeUsedBasis leaves them).
+   */
   readonly basis: Float64Array;
   /**
-   * The same images at the used pixels only, after computeBasis: basis k at the e-th used pixel
-   * at usedBasis[k * usedPixels.length + e] (what a likelihood over the used pixels reads).
+   * The same images at the used pixels only, after computeBasis or computeUsedBasis: basis k at
+   * the e-th used pixel at usedBasis[k * usedPixels.length + e] (what a likelihood over the used
+   * pixels reads).
    */
   readonly usedBasis: Float64Array;
   /** Relative tolerance of each computed pixel (see ForwardModelOptions). */
@@ -184,20 +188,39 @@ export class ForwardModel {
     return this.varying.latticeSourcePlane;
   }
 
-  /** Fills `basis` for the model vector and returns it. */
+  /** Fills `basis` (and `usedBasis`) for the model vector and returns `basis`. */
   computeBasis(model: Float64Array): Float64Array {
+    this.evaluateBases(model, true);
+    return this.basis;
+  }
+
+  /**
+   * Fills `usedBasis` only for the model vector and returns it: what a likelihood reads. `basis`
+   * is left as it was for the varying bases until the next computeBasis, which spares the copy of
+   * every basis onto the whole grid (66 x 5,160 writes a call for shapelets of order 10).
+   */
+  computeUsedBasis(model: Float64Array): Float64Array {
+    this.evaluateBases(model, false);
+    return this.usedBasis;
+  }
+
+  /**
+   * The fixed bases when their parameters changed (always onto the whole grid as well: they are
+   * rarely redone, and computeBasis may later skip them), then the varying ones, onto the whole
+   * grid when `whole`.
+   */
+  private evaluateBases(model: Float64Array, whole: boolean): void {
     const p = this.profile;
     this.system.writeProfileVector(model, p);
     if (this.fixedAmplitudes.length > 0 && !this.fixedUpToDate(p)) {
       this.fixed.evaluate(p);
-      this.convolveMeans(this.fixed, this.fixedAmplitudes);
+      this.convolveMeans(this.fixed, this.fixedAmplitudes, true);
       this.fixedValid = true;
     }
     if (this.varyingAmplitudes.length > 0) {
       this.varying.evaluate(p);
-      this.convolveMeans(this.varying, this.varyingAmplitudes);
+      this.convolveMeans(this.varying, this.varyingAmplitudes, whole);
     }
-    return this.basis;
   }
 
   /** The model image sum_k amplitudes[k] basis_k for the model vector, into `out`. */
@@ -229,21 +252,25 @@ export class ForwardModel {
     return same;
   }
 
-  /** Each basis's means convolved with the PSF into `basis`: two at a time where the convolver can. */
-  private convolveMeans(means: AdaptivePixelMeans, amplitudes: Int32Array): void {
+  /**
+   * Each basis's means convolved with the PSF into `usedBasis` and, when `whole`, into `basis`:
+   * two at a time where the convolver can.
+   */
+  private convolveMeans(means: AdaptivePixelMeans, amplitudes: Int32Array, whole: boolean): void {
+    const output = whole ? this.basis : null;
     let k = 0;
     if (this.convolver.hasPairs) {
       for (; k + 1 < amplitudes.length; k += 2) {
         this.copyMeansPair(means.means, k * this.inputPadded.length);
         const used = this.usedPixels.length;
         this.convolver.convolvePair(
-          this.basis, amplitudes[k] * this.pixelCount, amplitudes[k + 1] * this.pixelCount, this.usedBasis, amplitudes[k] * used, amplitudes[k + 1] * used,
+          output, amplitudes[k] * this.pixelCount, amplitudes[k + 1] * this.pixelCount, this.usedBasis, amplitudes[k] * used, amplitudes[k + 1] * used,
         );
       }
     }
     for (; k < amplitudes.length; k++) {
       this.copyMeans(means.means, k * this.inputPadded.length);
-      this.convolver.convolve(this.basis, amplitudes[k] * this.pixelCount, this.usedBasis, amplitudes[k] * this.usedPixels.length);
+      this.convolver.convolve(output, amplitudes[k] * this.pixelCount, this.usedBasis, amplitudes[k] * this.usedPixels.length);
     }
   }
 

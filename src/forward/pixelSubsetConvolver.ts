@@ -149,10 +149,10 @@ export class PixelSubsetConvolver {
   /**
    * convolve for two images at once, from pairInput: image 0 into output[offset0 + p], image 1
    * into output[offset1 + p] (and given `compact`, output pixel e at compact[compactOffset0 + e]
-   * and compact[compactOffset1 + e]), each to the bit what convolve gives it alone. Only when
-   * hasPairs.
+   * and compact[compactOffset1 + e]), each to the bit what convolve gives it alone; with output
+   * null, the compact copies only. Only when hasPairs.
    */
-  convolvePair(output: Float64Array, offset0: number, offset1: number, compact?: Float64Array, compactOffset0 = 0, compactOffset1 = 0): void {
+  convolvePair(output: Float64Array | null, offset0: number, offset1: number, compact?: Float64Array, compactOffset0 = 0, compactOffset1 = 0): void {
     const pairs = this.pairs!;
     const outputCount = this.outputs.length;
     if (this.alongX !== undefined && this.alongY !== undefined) {
@@ -165,7 +165,7 @@ export class PixelSubsetConvolver {
     } else {
       pairs.direct(pairs.outputPoints, outputCount, pairs.input, pairs.sums, pairs.offsets, pairs.weights, this.offsets.length);
     }
-    this.scatterPair(pairs.sumsView, output, offset0, offset1);
+    if (output !== null) this.scatterPair(pairs.sumsView, output, offset0, offset1);
     if (compact !== undefined) this.compactPair(pairs.sumsView, compact, compactOffset0, compactOffset1);
   }
 
@@ -195,15 +195,15 @@ export class PixelSubsetConvolver {
   }
 
   /**
-   * Writes the convolution of `input` at each output pixel p into output[outputOffset + p], and
-   * (given `compact`) at the e-th output pixel into compact[compactOffset + e]. The
+   * Writes the convolution of `input` at each output pixel p into output[outputOffset + p] (unless
+   * output is null), and (given `compact`) at the e-th output pixel into compact[compactOffset + e]. The
    * 1-D passes sum two points at a time (each point's sum in the same order as alone), so that
    * their additions overlap instead of waiting on one sum (a loop tap by tap over all points was
    * slower). A factor equal to its mirror image (a centred Gaussian) adds each tap pair's inputs
    * before multiplying. DEVELOPERS.md (measured choices) has the timings. Each loop is a method
    * of its own (see latticeLevel in adaptivePixelMeans.ts).
    */
-  convolve(output: Float64Array, outputOffset: number, compact?: Float64Array, compactOffset = 0): void {
+  convolve(output: Float64Array | null, outputOffset: number, compact?: Float64Array, compactOffset = 0): void {
     const alongX = this.alongX;
     const alongY = this.alongY;
     if (alongX !== undefined && alongY !== undefined) {
@@ -214,7 +214,7 @@ export class PixelSubsetConvolver {
     } else {
       this.directPass();
     }
-    this.scatter(output, outputOffset);
+    if (output !== null) this.scatter(output, outputOffset);
     if (compact !== undefined) this.compactSums(compact, compactOffset);
   }
 

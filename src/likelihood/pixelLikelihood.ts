@@ -86,8 +86,7 @@ export class PixelLikelihood {
   /** ln L of one model vector (amplitudes marginalised); -Infinity for an impossible model. */
   logLikelihood(model: Float64Array): number {
     // The analytic bases at the used pixels (basis k at k * n + e), as the forward model leaves them.
-    this.forward.computeBasis(model);
-    const bases = this.forward.usedBasis;
+    const bases = this.forward.computeUsedBasis(model);
     const value = this.inversion === undefined
       ? this.marginal.logLikelihood(bases)
       : this.inversion.logEvidence(this.forward.profileVector, bases);
@@ -114,7 +113,8 @@ export class PixelLikelihood {
         createConvolver(columns, rows, this.forward.convolvedPsf).convolve(lensed, image);
       }
     }
-    const basis = this.forward.basis;
+    // The likelihood left the whole-grid bases as they were: compute them for this model.
+    const basis = this.forward.computeBasis(model);
     for (let k = 0; k < amplitudes.length; k++) {
       for (let p = 0; p < image.length; p++) image[p] += amplitudes[k] * basis[k * image.length + p];
     }

@@ -54,4 +54,40 @@ describe('forward model', () => {
     expect(chi2).toBeGreaterThan(50);
     expect(a.perturbers[0].massM200Solar).toBeCloseTo(1e9, -3);
   });
+
+  it('gives a likelihood the used pixels alone, the same bits as the whole-grid images there', () => {
+    // Two source bases, so the convolver's paired path runs; the whole-grid images stay as they
+    // were for computeUsedBasis (nothing reads them in a likelihood) and are right again after
+    // computeBasis at another model.
+    const raw = smallScenario({ einsteinRadius: 0.6, sourceSigma: 0.08, supersampling: 4 });
+    raw.source.light.push({ kind: 'ellipticalGaussian', amplitude: 2, sigmaArcsec: 0.05, axisRatio: 0.7,
+      positionAngleDeg: 40, centerXArcsec: -0.05, centerYArcsec: 0.08 });
+    // Sampled parameters make the bases vary from call to call (fixed ones are drawn once).
+    raw.lens.mass[0].einsteinRadiusArcsec = { value: 0.6, prior: { uniform: [0.5, 0.7] } };
+    raw.source.light[0].centerXArcsec = { value: 0.1, prior: { uniform: [0, 0.2] } };
+    const config = parseConfig(raw, 'two-bases.yaml');
+    const system = buildLensSystem(config);
+    const grid = gridOfObservation(config.observation);
+    const make = (): ForwardModel => new ForwardModel(system, grid, 4, psfOfObservation(config.observation, config.file));
+    const a = system.configuredValues();
+    const b = Float64Array.from(a);
+    const radius = system.parameters.findIndex((p) => p.name === 'lens.mass[0].einsteinRadiusArcsec');
+    expect(radius).toBeGreaterThanOrEqual(0);
+    b[radius] = 0.63;
+    const lazy = make();
+    const before = Float64Array.from(lazy.basis);
+    const used = Float64Array.from(lazy.computeUsedBasis(a));
+    expect(Array.from(lazy.basis)).toEqual(Array.from(before));
+    const whole = make();
+    const wholeBasis = whole.computeBasis(a);
+    expect(Array.from(used)).toEqual(Array.from(whole.usedBasis));
+    const n = whole.usedPixels.length;
+    expect(used.length).toBe(2 * n);
+    for (let k = 0; k < 2; k++) {
+      whole.usedPixels.forEach((p, e) => expect(used[k * n + e]).toBe(wholeBasis[k * grid.columns * grid.rows + p]));
+    }
+    expect(used.some((v) => v > 0)).toBe(true);
+    // After the lazy call, a whole-grid call at another model equals a fresh model's.
+    expect(Array.from(lazy.computeBasis(b))).toEqual(Array.from(make().computeBasis(b)));
+  });
 });
