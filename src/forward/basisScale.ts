@@ -23,9 +23,8 @@ export class BasisScale {
 
   /**
    * scale[k] for the basis on the plane at `base`, after the lattice's scatterValues of that basis
-   * (which finds its brightest listed pixel). Written, not
-   * returned: a double returned from a call V8 does not inline is boxed, one allocation per
-   * evaluation.
+   * (which finds its brightest listed pixel). Written, not returned: a double returned from a call
+   * V8 does not inline is boxed, one allocation per evaluation.
    */
   write(k: number, base: number): void {
     const brightest = this.lattice.brightest;

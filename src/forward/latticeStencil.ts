@@ -64,12 +64,8 @@ export class LatticeStencil {
    * lattice's scatterValues), then the stencils along x (rowStencils).
    */
   plane(k: number, base: number): void {
-    if (this.memory !== null) {
-      this.lattice.brightest = this.memory.scatterPlane(k, base, this.lattice.count);
-      this.memory.rowStencils(this.lattice.rowPoints.length, base);
-      return;
-    }
-    this.lattice.scatterValues(k, base);
+    if (this.memory !== null) this.lattice.brightest = this.memory.scatterPlane(k, base, this.lattice.count);
+    else this.lattice.scatterValues(k, base);
     this.rowStencils(base);
   }
 

@@ -57,7 +57,7 @@ export class PixelLattice {
     const width = columns + 4;
     const height = rows + 4;
     this.width = width;
-    this.planeSize = width * height;
+    this.planeSize = PixelLattice.planeSizeOf(grid);
     this.pixelsPadded = pixels.map((p) => {
       const i = p % columns;
       return ((p - i) / columns + 2) * width + i + 2;

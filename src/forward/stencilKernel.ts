@@ -1,4 +1,4 @@
-import { WASM_TYPE, compileWasmModule, element, emitter, op } from '../numeric/wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, element, emitter, integer, op } from '../numeric/wasm/wasmModuleBytes.js';
 import { memoryWithRegions } from '../numeric/wasm/wasmMemory.js';
 
 /**
@@ -14,8 +14,7 @@ const EXTRAPOLATION_CONSTANTS = 4;
 
 const { at, i32At, f64At } = element;
 const get = op.localGet, set = op.localSet;
-const plus = (a: number[], b: number[]): number[] => [...a, ...b, ...op.i32Add];
-const minus = (a: number[], b: number[]): number[] => [...a, ...b, ...op.i32Sub];
+const { plus, minus, increment } = integer;
 
 /**
  * rowStencils(values, rowPoints, rowCount, rows, weights, base): for each row point r, the x
@@ -39,7 +38,7 @@ function rowBody(): number[] {
   emit(at(rows, get(r), 4), get(w30), get(centre), op.f64Mul, get(w31), get(near), op.f64Mul, op.f64Add, op.f64Store(0));
   emit(at(rows, get(r), 4), get(d0), get(centre), op.f64Mul, get(d1), get(near), op.f64Mul, op.f64Add);
   emit(get(d2), value(-2), value(2), op.f64Add, op.f64Mul, op.f64Add, op.f64Store(8));
-  emit(get(t), op.i32Const(1), op.i32Add, set(t), op.br(0), op.end, op.end);
+  emit(increment(t), op.br(0), op.end, op.end);
   return body;
 }
 
@@ -89,9 +88,9 @@ function pixelBody(): number[] {
   // Above the tolerance: REFINE (1).
   emit(op.block, get(indicator), get(limit), op.f64Gt, op.i32Eqz, op.brIf(0));
   emit(at(flags, get(e), 2), op.i32Const(1), op.i32Store(0), op.end);
-  emit(at(live, get(kept), 2), get(e), op.i32Store(0), get(kept), op.i32Const(1), op.i32Add, set(kept));
+  emit(at(live, get(kept), 2), get(e), op.i32Store(0), increment(kept));
   emit(op.end);
-  emit(get(t), op.i32Const(1), op.i32Add, set(t), op.br(0), op.end, op.end);
+  emit(increment(t), op.br(0), op.end, op.end);
   emit(get(kept));
   return body;
 }
@@ -113,7 +112,7 @@ function scatterBody(): number[] {
   emit(get(value), op.f64Abs, set(size));
   emit(op.block, get(size), get(peak), op.f64Gt, i32At(listed, get(e)), op.i32And, op.i32Eqz, op.brIf(0));
   emit(get(size), set(peak), get(q), set(brightest), op.end);
-  emit(get(e), op.i32Const(1), op.i32Add, set(e), op.br(0), op.end, op.end);
+  emit(increment(e), op.br(0), op.end, op.end);
   emit(get(brightest));
   return body;
 }
@@ -148,10 +147,10 @@ function extrapolateBody(): number[] {
   emit(get(hopelessFlag), get(indicator), get(hopeless), get(limit), op.f64Mul, op.f64Gt, op.i32Or, set(hopelessFlag));
   emit(at(means, get(index), 3), get(predicted), op.f64Store(0));
   emit(at(previous, get(index), 3), get(now), op.f64Store(0));
-  emit(get(k), op.i32Const(1), op.i32Add, set(k), op.br(0), op.end, op.end);
+  emit(increment(k), op.br(0), op.end, op.end);
   // STRAIGHT_TO_FULL (2) if hopeless, else REFINE (1) or DONE (0).
   emit(at(flags, get(e), 2), get(hopelessFlag), op.i32Const(1), op.i32Shl, get(refine), get(hopelessFlag), op.i32Eqz, op.i32And, op.i32Add, op.i32Store(0));
-  emit(get(t), op.i32Const(1), op.i32Add, set(t), op.br(0), op.end, op.end);
+  emit(increment(t), op.br(0), op.end, op.end);
   return body;
 }
 

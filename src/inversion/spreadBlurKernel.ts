@@ -1,4 +1,4 @@
-import { WASM_TYPE, compileWasmModule, element, emitter, op } from '../numeric/wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, element, emitter, integer, op } from '../numeric/wasm/wasmModuleBytes.js';
 import { memoryWithRegions } from '../numeric/wasm/wasmMemory.js';
 
 /**
@@ -23,7 +23,7 @@ function spreadBody(): number[] {
   const emit = emitter(body);
   const get = op.localGet, set = op.localSet;
   const { at, i32At, f64At } = element;
-  const increment = (local: number): number[] => [...get(local), ...op.i32Const(1), ...op.i32Add, ...set(local)];
+  const { increment } = integer;
   const countedLoop = (local: number, bound: number[], inner: () => void): void => {
     emit(op.block, op.loop, get(local), bound, op.i32GeS, op.brIf(1));
     inner();

@@ -1,4 +1,4 @@
-import { WASM_TYPE, compileWasmModule, element, emitter, op } from '../wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, element, emitter, integer, op } from '../wasm/wasmModuleBytes.js';
 import { memoryWithRegions } from '../wasm/wasmMemory.js';
 import type { DelaunayTriangulation } from './delaunayTriangulation.js';
 import { BARYCENTRIC_TOLERANCE, scanTriangles } from './locateTriangle.js';
@@ -35,9 +35,8 @@ const i32 = WASM_TYPE.i32, f64 = WASM_TYPE.f64;
 const constant = op.i32Const;
 const header = (field: number): number[] => [...constant(0), ...op.i32Load(4 * field)];
 const setHeader = (field: number, value: number[]): number[] => [...constant(0), ...value, ...op.i32Store(4 * field)];
-const plus = (a: number[], b: number[]): number[] => [...a, ...b, ...op.i32Add];
+const { plus, increment } = integer;
 const times = (a: number[], k: number): number[] => [...a, ...constant(k), ...op.i32Mul];
-const increment = (local: number): number[] => [...get(local), ...constant(1), ...op.i32Add, ...set(local)];
 
 // Function indices, in the order of `functions` below.
 const [WRITE_CIRCLES, WALK_TO, WEIGH_ONE, DIG_RING, LAPLACE_WEIGHTS, TRIANGLE_WEIGHTS, WEIGH_QUERIES] = [0, 1, 2, 3, 4, 5, 6];

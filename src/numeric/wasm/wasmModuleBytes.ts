@@ -76,6 +76,13 @@ export const element = Object.freeze({
   f64At: (base: number, index: number[]): number[] => [...element.at(base, index, 3), ...op.f64Load(0)],
 });
 
+/** i32 expressions the kernels share: a + b and a - b of two expressions, and local += 1. */
+export const integer = Object.freeze({
+  plus: (a: number[], b: number[]): number[] => [...a, ...b, ...op.i32Add],
+  minus: (a: number[], b: number[]): number[] => [...a, ...b, ...op.i32Sub],
+  increment: (local: number): number[] => [...op.localGet(local), ...op.i32Const(1), ...op.i32Add, ...op.localSet(local)],
+});
+
 /** Appends instruction byte arrays to a function body. */
 export type Emit = (...parts: number[][]) => void;
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { op, signedLeb128, unsignedLeb128, WASM_TYPE, wasmModuleBytes } from '../../../src/numeric/wasm/wasmModuleBytes.js';
+import { integer, op, signedLeb128, unsignedLeb128, WASM_TYPE, wasmModuleBytes } from '../../../src/numeric/wasm/wasmModuleBytes.js';
 
 describe('LEB128', () => {
   // The encodings tabled in the DWARF Debugging Information Format, version 4, section 7.6
@@ -176,5 +176,26 @@ describe('wasmModuleBytes', () => {
     }
     const signOf = run.sign as (m: number) => number, signOfSum = run.signOfSum as (m: number, n: number) => number;
     expect([signOf(-4), signOf(0), signOf(9), signOfSum(2, -5), signOfSum(-3, 3)]).toEqual([-1, 0, 1, -1, 0]);
+  });
+
+  it('builds the shared i32 expressions (a + b, a - b, local += 1) that the engine runs', () => {
+    const { plus, minus, increment } = integer;
+    // Local 0 starts at 0 (the specification's function invocation sets locals to zero; from
+    // memory, and the second value checks it); i32 at 0 gets (7 + 5) - 2,
+    // at 4 the local after two increments.
+    const bytes = wasmModuleBytes({
+      types: [[[], []]],
+      functions: [{
+        type: 0, locals: [[1, WASM_TYPE.i32]],
+        body: [
+          ...op.i32Const(0), ...minus(plus(op.i32Const(7), op.i32Const(5)), op.i32Const(2)), ...op.i32Store(0),
+          ...increment(0), ...increment(0), ...op.i32Const(4), ...op.localGet(0), ...op.i32Store(0),
+        ],
+      }],
+      exports: [['run', 0]],
+    });
+    const memory = new WebAssembly.Memory({ initial: 1 });
+    (new WebAssembly.Instance(new WebAssembly.Module(bytes), { env: { memory } }).exports.run as () => void)();
+    expect(Array.from(new Int32Array(memory.buffer, 0, 2))).toEqual([10, 2]);
   });
 });
