@@ -1,5 +1,6 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js';
-import { assembleEntries, copyRange, extendAdd, pushUpdate, relativeRuns, zeroLower } from './frontOperations.js';
+import { FrontMemory, type FrontEngine } from './frontMemory.js';
+import { assembleEntries, pushUpdate, relativeRuns, zeroLower } from './frontOperations.js';
 import { invertPermutation } from './invertPermutation.js';
 import { partialCholesky } from './partialCholesky.js';
 import {
@@ -7,7 +8,6 @@ import {
   firstOutOfPostOrder, linkChildren, markChildRows, markEntryRows, relativeRows, sameInt32, setLocalPositions,
 } from './multifrontalSymbolic.js';
 import { runningSum } from './runningSum.js';
-import { ensureSimdFloat64Capacity } from './simdTileKernels.js';
 import type { SupernodalFactor } from './supernodalFactor.js';
 import { supernodalInverseDiagonal } from './supernodalInverseDiagonal.js';
 import { backSupernode, forwardSupernode, gather, scatter } from './supernodalSolve.js';
@@ -62,11 +62,15 @@ export class MultifrontalCholesky implements SupernodalFactor {
   private patternRowStart = new Int32Array(1);
   private patternColumn = new Int32Array(0);
   private lowerBuffer = new Float64Array(0);
-  private frontEven = new Float64Array(0);
-  private frontOdd = new Float64Array(0);
-  private stack = new Float64Array(0);
+  /** The fronts, the stack and the children's relative rows, where the dense and extend-add kernels run. */
+  private readonly fronts: FrontMemory;
   private work = new Float64Array(0);
   private structureWork = new Float64Array(0);
+
+  /** `engine`: where the fronts' extend-add and dense kernels run (FrontMemory); the results are the same to the bit. */
+  constructor(engine: FrontEngine = 'auto') {
+    this.fronts = new FrontMemory(engine);
+  }
 
   /** Order of the matrix last analysed. */
   get size(): number {
@@ -155,9 +159,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
     const structureEntries = this.structureStartBuffer[this.count];
     this.runEndBuffer = ensureInt32Capacity(this.runEndBuffer, structureEntries);
     for (let c = 0; c < this.count; c++) relativeRuns(this.relativeBuffer, this.runEndBuffer, this.structureStartBuffer[c], this.structureStartBuffer[c + 1]);
-    this.frontEven = ensureSimdFloat64Capacity(this.frontEven, largestFront * largestFront);
-    this.frontOdd = ensureSimdFloat64Capacity(this.frontOdd, largestFront * largestFront);
-    this.stack = ensureFloat64Capacity(this.stack, this.stackPeak());
+    this.fronts.prepare(largestFront * largestFront, this.stackPeak(), this.relativeBuffer, this.runEndBuffer, structureEntries);
     this.lowerBuffer = ensureFloat64Capacity(this.lowerBuffer, this.factorStartBuffer[this.count]);
     this.work = ensureFloat64Capacity(this.work, n);
     this.structureWork = ensureFloat64Capacity(this.structureWork, n);
@@ -345,7 +347,7 @@ export class MultifrontalCholesky implements SupernodalFactor {
 
   /** The front buffer of supernode s: the two alternate, so a parent's front never overwrites its last child's. */
   private frontOf(s: number): Float64Array {
-    return (s & 1) === 0 ? this.frontEven : this.frontOdd;
+    return (s & 1) === 0 ? this.fronts.frontEven : this.fronts.frontOdd;
   }
 
   /** The numeric pass in post-order; stops with NaN at the first supernode with a pivot that is not positive. */
@@ -374,8 +376,8 @@ export class MultifrontalCholesky implements SupernodalFactor {
     this.extendAddChildren(s, front, frontSize);
     const logDet = partialCholesky(front, frontSize, frontSize, width);
     if (Number.isNaN(logDet)) return Number.NaN;
-    copyRange(front, 0, this.lowerBuffer, this.factorStartBuffer[s], frontSize * width);
-    if (this.stackedSize(s) > 0) pushUpdate(front, frontSize, width, m, this.stack, this.stackTop);
+    this.lowerBuffer.set(front.subarray(0, frontSize * width), this.factorStartBuffer[s]);
+    if (this.stackedSize(s) > 0) pushUpdate(front, frontSize, width, m, this.fronts.stack, this.stackTop);
     this.stackTop += this.stackedSize(s);
     return logDet;
   }
@@ -393,13 +395,13 @@ export class MultifrontalCholesky implements SupernodalFactor {
       const from = this.structureStartBuffer[c];
       const m = this.structureStartBuffer[c + 1] - from;
       if (this.stackedSize(c) > 0) {
-        extendAdd(front, frontSize, this.stack, at, m, m, this.relativeBuffer, this.runEndBuffer, from);
+        this.fronts.extendAdd(front, frontSize, this.fronts.stack, at, m, m, from);
         at += m * m;
         continue;
       }
       const childSize = this.startBuffer[c + 1] - this.startBuffer[c] + m;
       const trailing = (childSize - m) * (childSize + 1);
-      extendAdd(front, frontSize, this.frontOf(c), trailing, childSize, m, this.relativeBuffer, this.runEndBuffer, from);
+      this.fronts.extendAdd(front, frontSize, this.frontOf(c), trailing, childSize, m, from);
     }
   }
 

@@ -136,6 +136,17 @@ export function simdKernelsOf(a: Float64Array): SimdTileKernels | undefined {
 }
 
 /**
+ * Binds the SIMD kernels to `memory`, so that simdKernelsOf finds them for arrays on its buffer
+ * (which must not grow after); false where WebAssembly SIMD is not available.
+ */
+export function bindSimdTileKernels(memory: WebAssembly.Memory): boolean {
+  if (compiled === null) return false;
+  const instance = new WebAssembly.Instance(compiled, { env: { memory } });
+  kernelsByBuffer.set(memory.buffer, instance.exports as unknown as SimdTileKernels);
+  return true;
+}
+
+/**
  * `a` when it holds at least `n` values, else a new zeroed array of at least n values in a
  * memory of its own with the SIMD kernels bound to it (an ordinary Float64Array where
  * WebAssembly SIMD is not available). Unlike ensureFloat64Capacity it does not copy the old
@@ -146,7 +157,6 @@ export function ensureSimdFloat64Capacity(a: Float64Array<ArrayBuffer>, n: numbe
   const length = Math.max(n, Math.ceil(a.length * 1.5), 1);
   if (compiled === null) return new Float64Array(length);
   const { memory } = memoryWithRegions([8 * length]);
-  const instance = new WebAssembly.Instance(compiled, { env: { memory } });
-  kernelsByBuffer.set(memory.buffer, instance.exports as unknown as SimdTileKernels);
+  bindSimdTileKernels(memory);
   return new Float64Array(memory.buffer, 0, length);
 }
