@@ -337,7 +337,7 @@ function rowsRegion(buffer: ArrayBufferLike, starts: number[], first: number, ro
 }
 
 // The copies in and out use the engine's block copy of a subarray view: three small views per
-// copy against a loop of element copies (copyInt32, copyRange), which cost 0.7 ms more per
+// copy against a loop of element copies, which cost 0.7 ms more per
 // likelihood on the demo's mesh (blur stage 3.9 against 3.1 ms).
 
 /** The first `rows` rows of `from` into the region (which has room for them). */

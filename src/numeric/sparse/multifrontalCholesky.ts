@@ -4,7 +4,7 @@ import { assembleEntries, pushUpdate, relativeRuns, zeroLower } from './frontOpe
 import { invertPermutation } from './invertPermutation.js';
 import { partialCholesky } from './partialCholesky.js';
 import {
-  collectFromAncestors, columnOperations, copyInt32, copySupernodes, countEntries, entryTargets, fillEntries,
+  collectFromAncestors, columnOperations, copySupernodes, countEntries, entryTargets, fillEntries,
   firstOutOfPostOrder, linkChildren, markChildRows, markEntryRows, relativeRows, sameInt32, setLocalPositions,
 } from './multifrontalSymbolic.js';
 import { runningSum } from './runningSum.js';
@@ -242,8 +242,8 @@ export class MultifrontalCholesky implements SupernodalFactor {
     this.entries = stored;
     this.patternRowStart = ensureInt32Capacity(this.patternRowStart, n + 1);
     this.patternColumn = ensureInt32Capacity(this.patternColumn, stored);
-    copyInt32(matrix.rowStart, n + 1, this.patternRowStart);
-    copyInt32(matrix.column, stored, this.patternColumn);
+    this.patternRowStart.set(matrix.rowStart.subarray(0, n + 1));
+    this.patternColumn.set(matrix.column.subarray(0, stored));
   }
 
   private samePattern(matrix: SymmetricCsr): boolean {

@@ -56,10 +56,6 @@ export function firstOutOfPostOrder(parent: Int32Array, firstChild: Int32Array, 
   return -1;
 }
 
-export function copyInt32(from: Int32Array, length: number, to: Int32Array): void {
-  for (let t = 0; t < length; t++) to[t] = from[t];
-}
-
 export function sameInt32(a: Int32Array, b: Int32Array, length: number): boolean {
   for (let t = 0; t < length; t++) if (a[t] !== b[t]) return false;
   return true;

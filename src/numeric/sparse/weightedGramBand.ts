@@ -1,7 +1,5 @@
 import { WASM_TYPE, compileWasmModule, emitter, op } from '../wasm/wasmModuleBytes.js';
 import { memoryWithRegions } from '../wasm/wasmMemory.js';
-import { copyRange } from './frontOperations.js';
-import { copyInt32 } from './multifrontalSymbolic.js';
 
 /** Compressed sparse rows whose columns increase along each row (rows rowStart[r] .. rowStart[r + 1] - 1). */
 export interface SortedSparseRows {
@@ -99,7 +97,7 @@ type Accumulate = (rowStart: number, column: number, value: number, w: number, d
 
 /**
  * A dense band for G = B^T W B and the kernel that fills it. `accumulate` copies B and w into
- * the kernel's memory (under a millisecond for the demo's 350,000 entries), adds G's lower
+ * the kernel's memory (the engine's block copies of subarray views), adds G's lower
  * triangle into the band, and returns the band (bandOffset layout; the array may be longer than
  * cellCount * band), which the caller reads and must leave all zero again (it is zero the first
  * time and after growth). The memory and its views are made when a call needs more room than
@@ -121,10 +119,10 @@ export class WeightedGramBand {
     if (cellCount * band > this.band.length || rows + 1 > this.rowStart.length || entries > this.column.length) {
       this.reserve(cellCount * band, rows, entries);
     }
-    copyInt32(b.rowStart, rows + 1, this.rowStart);
-    copyInt32(b.column, entries, this.column);
-    copyRange(b.value, 0, this.value, 0, entries);
-    copyRange(w, 0, this.weight, 0, rows);
+    this.rowStart.set(b.rowStart.subarray(0, rows + 1));
+    this.column.set(b.column.subarray(0, entries));
+    this.value.set(b.value.subarray(0, entries));
+    this.weight.set(w.subarray(0, rows));
     this.kernel!(this.rowStart.byteOffset, this.column.byteOffset, this.value.byteOffset, this.weight.byteOffset, this.band.byteOffset, rows, band - 1);
     return this.band;
   }
