@@ -1,6 +1,6 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
-import { bandOffset, rowSpan, WeightedGramBand } from '../numeric/sparse/weightedGramBand.js';
+import { rowSpan, WeightedGramBand, type GrowableLowerRows } from '../numeric/sparse/weightedGramBand.js';
 import type { SparseRows } from './sparseRows.js';
 
 /**
@@ -19,7 +19,7 @@ const DENSE_BAND_ENTRIES = 8_000_000;
  * (the row-wise sparse product of Gustavson 1978 for B^T W B, through the transpose of B) into
  * compressed rows, the K amplitude rows dense and last. Buffers are reused across calls.
  */
-export class NormalMatrix implements SymmetricCsr {
+export class NormalMatrix implements SymmetricCsr, GrowableLowerRows {
   size = 0;
   rowStart: Int32Array<ArrayBuffer> = new Int32Array(1);
   column: Int32Array<ArrayBuffer> = new Int32Array(0);
@@ -27,8 +27,10 @@ export class NormalMatrix implements SymmetricCsr {
   /** b, S + K entries. */
   rhs: Float64Array<ArrayBuffer> = new Float64Array(0);
   private work = new Float64Array(0);
+  /** Per used pixel: w times one vector (d, or an analytic basis). */
+  private weighted = new Float64Array(0);
   private slot = new Int32Array(0);
-  /** The dense band of B^T W B and its kernel. */
+  /** The dense band of B^T W B and its kernels (accumulation, then H added and the rows read out). */
   private readonly gram = new WeightedGramBand();
 
   /**
@@ -48,37 +50,18 @@ export class NormalMatrix implements SymmetricCsr {
       this.slot.fill(-1);
       this.work = ensureFloat64Capacity(this.work, cellCount);
     }
+    this.weighted = ensureFloat64Capacity(this.weighted, w.length);
     this.rowStart[0] = 0;
     let end = 0;
     const band = Math.max(rowSpan(b), lowerSpan(h, cellCount));
     if (cellCount * band <= DENSE_BAND_ENTRIES) {
-      const dense = this.gram.accumulate(b, w, cellCount, band);
-      for (let j = 0; j < cellCount; j++) end = this.denseRow(dense, j, end, band, h, hScale);
+      this.gram.accumulate(b, w, cellCount, band, h.rowStart[cellCount]);
+      end = this.gram.compactRows(h, hScale, cellCount, band, this);
     } else {
       for (let j = 0; j < cellCount; j++) end = this.cellRow(j, end, b, bt, w, h, hScale);
     }
     for (let a = 0; a < extraCount; a++) end = this.extraRow(a, end, bt, cellCount, w, extras, extraCount, extraPrecision);
-    this.cellRhs(bt, cellCount, w, d);
-    this.extraRhs(cellCount, w, d, extras, extraCount);
-  }
-
-  /** Row j from the dense band (its nonzeros, which it clears) and hScale H_jk. */
-  private denseRow(dense: Float64Array, j: number, end: number, band: number, h: SymmetricCsr, hScale: number): number {
-    const first = Math.max(0, j - band + 1);
-    if (this.column.length < end + j - first + 1) this.grow(2 * (end + j - first + 1));
-    const column = this.column, value = this.value;
-    const base = bandOffset(j, 0, band);
-    for (let k = h.rowStart[j]; k < h.rowStart[j + 1]; k++) dense[base + h.column[k]] += hScale * h.value[k];
-    for (let c = first; c <= j; c++) {
-      const v = dense[base + c];
-      if (v !== 0) {
-        column[end] = c;
-        value[end++] = v;
-        dense[base + c] = 0;
-      }
-    }
-    this.rowStart[j + 1] = end;
-    return end;
+    this.fillRhs(bt, cellCount, w, d, extras, extraCount);
   }
 
   /** Row j (a cell) of the lower triangle: (B^T W B)_jk for k <= j, plus hScale H_jk. */
@@ -138,20 +121,15 @@ export class NormalMatrix implements SymmetricCsr {
     const n = w.length;
     if (this.column.length < end + cellCount + a + 1) this.grow(2 * (end + cellCount + a + 1));
     const { column, value } = this;
-    const base = a * n;
-    for (let k = 0; k < cellCount; k++) {
-      let sum = 0;
-      for (let t = bt.rowStart[k]; t < bt.rowStart[k + 1]; t++) {
-        const e = bt.column[t];
-        sum += w[e] * extras[base + e] * bt.value[t];
-      }
-      column[end] = k;
-      value[end++] = sum;
-    }
+    const weighted = this.weighted;
+    for (let e = 0; e < n; e++) weighted[e] = w[e] * extras[a * n + e];
+    projectRows(bt, cellCount, weighted, value, end);
+    for (let k = 0; k < cellCount; k++) column[end + k] = k;
+    end += cellCount;
     for (let c = 0; c <= a; c++) {
       let sum = 0;
       const other = c * n;
-      for (let e = 0; e < n; e++) sum += w[e] * extras[base + e] * extras[other + e];
+      for (let e = 0; e < n; e++) sum += weighted[e] * extras[other + e];
       column[end] = cellCount + c;
       value[end++] = c === a ? sum + precision : sum;
     }
@@ -159,28 +137,21 @@ export class NormalMatrix implements SymmetricCsr {
     return end;
   }
 
-  private cellRhs(bt: SparseRows, cellCount: number, w: Float64Array, d: Float64Array): void {
-    const rhs = this.rhs;
-    for (let j = 0; j < cellCount; j++) {
-      let sum = 0;
-      for (let t = bt.rowStart[j]; t < bt.rowStart[j + 1]; t++) {
-        const e = bt.column[t];
-        sum += w[e] * d[e] * bt.value[t];
-      }
-      rhs[j] = sum;
-    }
-  }
-
-  private extraRhs(cellCount: number, w: Float64Array, d: Float64Array, extras: Float64Array, extraCount: number): void {
+  /** b = [B^T W d, L^T W d]. */
+  private fillRhs(bt: SparseRows, cellCount: number, w: Float64Array, d: Float64Array, extras: Float64Array, extraCount: number): void {
     const n = w.length;
+    const weighted = this.weighted;
+    for (let e = 0; e < n; e++) weighted[e] = w[e] * d[e];
+    projectRows(bt, cellCount, weighted, this.rhs, 0);
     for (let a = 0; a < extraCount; a++) {
       let sum = 0;
-      for (let e = 0; e < n; e++) sum += w[e] * d[e] * extras[a * n + e];
+      for (let e = 0; e < n; e++) sum += weighted[e] * extras[a * n + e];
       this.rhs[cellCount + a] = sum;
     }
   }
 
-  private grow(entries: number): void {
+  /** Room for `entries` entries, those written kept. */
+  grow(entries: number): void {
     this.column = ensureInt32Capacity(this.column, entries);
     this.value = ensureFloat64Capacity(this.value, entries);
   }
@@ -193,4 +164,17 @@ function lowerSpan(lower: SymmetricCsr, rows: number): number {
     for (let k = lower.rowStart[r]; k < lower.rowStart[r + 1]; k++) span = Math.max(span, r - lower.column[k] + 1);
   }
   return span;
+}
+
+/**
+ * out[offset + k] = sum over the entries t of row k of bt, in the row's order, of
+ * weighted[bt.column[t]] bt.value[t]: with weighted_e = w_e v_e, (B^T W v)_k.
+ */
+function projectRows(bt: SparseRows, rows: number, weighted: Float64Array, out: Float64Array, offset: number): void {
+  const start = bt.rowStart, column = bt.column, value = bt.value;
+  for (let k = 0; k < rows; k++) {
+    let sum = 0;
+    for (let t = start[k]; t < start[k + 1]; t++) sum += weighted[column[t]] * value[t];
+    out[offset + k] = sum;
+  }
 }

@@ -1,5 +1,6 @@
-import { WASM_TYPE, compileWasmModule, emitter, op } from '../wasm/wasmModuleBytes.js';
+import { WASM_TYPE, compileWasmModule, element, emitter, integer, op } from '../wasm/wasmModuleBytes.js';
 import { memoryWithRegions } from '../wasm/wasmMemory.js';
+import type { SymmetricCsr } from './symmetricCsr.js';
 
 /** Compressed sparse rows whose columns increase along each row (rows rowStart[r] .. rowStart[r + 1] - 1). */
 export interface SortedSparseRows {
@@ -84,70 +85,224 @@ function accumulateBody(): number[] {
   return body;
 }
 
-const I32 = WASM_TYPE.i32;
+/**
+ * compactBandRows as a WebAssembly function, the same operations in the same order: per row j
+ * from `first`, hScale H_jk added into the band, then its entries from column max(0, j - band +
+ * 1) to j read in order, each that is not 0 appended (column, value) and cleared. It stops
+ * before a row that might not fit the `capacity` entries of the output and returns that row
+ * (cellCount when all are done); outStart[j + 1] = offset + the entries written so far.
+ * Parameters: dense, band - 1, first, cellCount, H's row starts, columns and values (i32 byte
+ * addresses), hScale (f64), the output's row starts, columns and values (byte addresses),
+ * offset, capacity; then i32 j, k, base, c, end, at and f64 v.
+ */
+function compactBody(): number[] {
+  const [dense, bandLess, first, cellCount, hStart, hColumn, hValue, hScale, outStart, outColumn, outValue, offset, capacity] =
+    [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
+  const [j, k, base, c, end, at, v] = [13, 14, 15, 16, 17, 18, 19];
+  const body: number[] = [];
+  const emit = emitter(body);
+  const get = op.localGet, set = op.localSet;
+  const { at: address, i32At } = element;
+  // The row's first column, max(0, j - (band - 1)).
+  const firstColumn = [...integer.minus(get(j), get(bandLess)), ...op.i32Const(0), ...get(j), ...get(bandLess), ...op.i32GeS, ...op.select];
+  emit(get(first), set(j), op.i32Const(0), set(end));
+  emit(op.block, op.loop, get(j), get(cellCount), op.i32GeS, op.brIf(1));
+  // Stop unless j - first column + 1 more entries fit.
+  emit(get(end), get(j), op.i32Add, op.i32Const(1), op.i32Add, firstColumn, op.i32Sub, get(capacity), op.i32GtS, op.brIf(1));
+  emit(address(dense, [...get(j), ...get(bandLess), ...op.i32Mul, ...get(bandLess), ...op.i32Add], 3), set(base));
+  emit(i32At(hStart, get(j)), set(k));
+  emit(op.block, op.loop, get(k), i32At(hStart, integer.plus(get(j), op.i32Const(1))), op.i32GeS, op.brIf(1));
+  emit(address(base, i32At(hColumn, get(k)), 3), set(at));
+  emit(get(at), get(at), op.f64Load(0), get(hScale), element.f64At(hValue, get(k)), op.f64Mul, op.f64Add, op.f64Store(0));
+  emit(integer.increment(k), op.br(0), op.end, op.end);
+  emit(firstColumn, set(c));
+  emit(op.block, op.loop, get(c), get(j), op.i32GtS, op.brIf(1));
+  emit(address(base, get(c), 3), set(at), get(at), op.f64Load(0), set(v));
+  emit(get(v), op.f64Const(0), op.f64Eq, op.i32Eqz, op.if);
+  emit(address(outColumn, get(end), 2), get(c), op.i32Store(0));
+  emit(address(outValue, get(end), 3), get(v), op.f64Store(0));
+  emit(get(at), op.f64Const(0), op.f64Store(0), integer.increment(end));
+  emit(op.end, integer.increment(c), op.br(0), op.end, op.end);
+  emit(address(outStart, integer.plus(get(j), op.i32Const(1)), 2), integer.plus(get(offset), get(end)), op.i32Store(0));
+  emit(integer.increment(j), op.br(0), op.end, op.end);
+  emit(get(j));
+  return body;
+}
 
-/** The compiled module, or null where WebAssembly is not available (the plain loop runs instead). */
+const I32 = WASM_TYPE.i32;
+const F64 = WASM_TYPE.f64;
+
+/** The compiled module, or null where WebAssembly is not available (the plain loops run instead). */
 const compiled = compileWasmModule({
-  types: [[[I32, I32, I32, I32, I32, I32, I32], []]],
-  functions: [{ type: 0, locals: [[6, I32], [1, WASM_TYPE.f64], [3, I32], [2, WASM_TYPE.f64], [1, I32]], body: accumulateBody() }],
-  exports: [['accumulate', 0]],
+  types: [[[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32, I32, F64, I32, I32, I32, I32, I32], [I32]]],
+  functions: [
+    { type: 0, locals: [[6, I32], [1, F64], [3, I32], [2, F64], [1, I32]], body: accumulateBody() },
+    { type: 1, locals: [[6, I32], [1, F64]], body: compactBody() },
+  ],
+  exports: [['accumulate', 0], ['compact', 1]],
 });
 
 type Accumulate = (rowStart: number, column: number, value: number, w: number, dense: number, rows: number, bandLess: number) => void;
+type Compact = (
+  dense: number, bandLess: number, first: number, cellCount: number, hStart: number, hColumn: number, hValue: number, hScale: number,
+  outStart: number, outColumn: number, outValue: number, offset: number, capacity: number,
+) => number;
+
+/** Entries the compacted rows are written in at a time (at least the band, so that every chunk holds a row). */
+const COMPACT_CHUNK = 1 << 18;
+
+/** Compressed lower rows that compactRows fills: `grow(entries)` makes room for that many entries (keeping those written), then the arrays are read again. */
+export interface GrowableLowerRows {
+  readonly rowStart: Int32Array;
+  readonly column: Int32Array;
+  readonly value: Float64Array;
+  grow(entries: number): void;
+}
 
 /**
- * A dense band for G = B^T W B and the kernel that fills it. `accumulate` copies B and w into
- * the kernel's memory (the engine's block copies of subarray views), adds G's lower
+ * A dense band for G = B^T W B and the kernels that fill and read it. `accumulate` copies B and
+ * w into the kernel's memory (the engine's block copies of subarray views), adds G's lower
  * triangle into the band, and returns the band (bandOffset layout; the array may be longer than
- * cellCount * band), which the caller reads and must leave all zero again (it is zero the first
- * time and after growth). The memory and its views are made when a call needs more room than
- * they have and reused otherwise, so a call allocates nothing.
+ * cellCount * band). Then either the caller reads it and leaves it all zero again, or
+ * `compactRows` adds hScale H and reads its nonzeros out row by row, clearing it (it is zero the
+ * first time and after growth). The memory and its views are made when a call needs more room
+ * than they have and reused otherwise, so a call allocates nothing. With engine 'javaScript', or
+ * without WebAssembly, the same operations run as plain loops.
  */
 export class WeightedGramBand {
-  private kernel: Accumulate | null = null;
-  /** Views of the kernel's memory: the band from byte 0, then B's row starts, columns and values, and w. */
+  private accumulateKernel: Accumulate | null = null;
+  private compactKernel: Compact | null = null;
+  /** Views of the kernel's memory: the band, B's row starts, columns and values, w, H's and the output's row starts, columns and values. */
   private band = new Float64Array(0);
   private rowStart = new Int32Array(0);
   private column = new Int32Array(0);
   private value = new Float64Array(0);
   private weight = new Float64Array(0);
+  private hStart = new Int32Array(0);
+  private hColumn = new Int32Array(0);
+  private hValue = new Float64Array(0);
+  private outStart = new Int32Array(0);
+  private outColumn = new Int32Array(0);
+  private outValue = new Float64Array(0);
+  /** The band of the plain loops. */
+  private plainBand = new Float64Array(0);
 
-  accumulate(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number): Float64Array {
-    if (compiled === null) return this.accumulatePlain(b, w, cellCount, band);
+  constructor(readonly engine: 'auto' | 'javaScript' = 'auto') {}
+
+  /** Whether the kernels run (else the plain loops). */
+  private get inWasm(): boolean {
+    return this.engine === 'auto' && compiled !== null;
+  }
+
+  /** `hEntries`: room for the entries of the H that compactRows will add (so that it needs no new memory). */
+  accumulate(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number, hEntries = 0): Float64Array {
+    if (!this.inWasm) return this.accumulatePlain(b, w, cellCount, band);
     const rows = b.rowCount;
     const entries = b.rowStart[rows];
-    if (cellCount * band > this.band.length || rows + 1 > this.rowStart.length || entries > this.column.length) {
-      this.reserve(cellCount * band, rows, entries);
+    if (cellCount * band > this.band.length || rows + 1 > this.rowStart.length || entries > this.column.length
+      || cellCount + 1 > this.hStart.length || hEntries > this.hColumn.length || band > this.outColumn.length) {
+      this.reserve(cellCount, band, rows, entries, hEntries);
     }
     this.rowStart.set(b.rowStart.subarray(0, rows + 1));
     this.column.set(b.column.subarray(0, entries));
     this.value.set(b.value.subarray(0, entries));
     this.weight.set(w.subarray(0, rows));
-    this.kernel!(this.rowStart.byteOffset, this.column.byteOffset, this.value.byteOffset, this.weight.byteOffset, this.band.byteOffset, rows, band - 1);
+    this.accumulateKernel!(this.rowStart.byteOffset, this.column.byteOffset, this.value.byteOffset, this.weight.byteOffset, this.band.byteOffset, rows, band - 1);
     return this.band;
   }
 
-  /** A fresh (zeroed) memory with a quarter more room than asked, and its views. */
-  private reserve(bandEntries: number, rows: number, entries: number): void {
-    const sizes = [8 * Math.ceil(1.25 * bandEntries), 4 * (rows + 1), 4 * Math.ceil(1.25 * entries), 8 * Math.ceil(1.25 * entries), 8 * rows];
-    const { memory, starts } = memoryWithRegions(sizes);
-    this.kernel = new WebAssembly.Instance(compiled!, { env: { memory } }).exports.accumulate as Accumulate;
-    const buffer = memory.buffer;
-    this.band = new Float64Array(buffer, starts[0], sizes[0] / 8);
-    this.rowStart = new Int32Array(buffer, starts[1], rows + 1);
-    this.column = new Int32Array(buffer, starts[2], sizes[2] / 4);
-    this.value = new Float64Array(buffer, starts[3], sizes[3] / 8);
-    this.weight = new Float64Array(buffer, starts[4], rows);
+  /**
+   * After `accumulate` (with room for h's entries): adds hScale H (cellCount rows) into the band
+   * and writes the band's nonzeros as rows 0 .. cellCount - 1 of `out` (compactBandRows), leaving
+   * the band all zero. Returns out.rowStart[cellCount], the entries written.
+   */
+  compactRows(h: SymmetricCsr, hScale: number, cellCount: number, band: number, out: GrowableLowerRows): number {
+    if (!this.inWasm) return compactBandRows(this.plainBand, band, h, hScale, cellCount, out);
+    const hEntries = h.rowStart[cellCount];
+    if (hEntries > this.hColumn.length || cellCount + 1 > this.hStart.length) throw new RangeError('Gram band: accumulate was not given room for H');
+    this.hStart.set(h.rowStart.subarray(0, cellCount + 1));
+    this.hColumn.set(h.column.subarray(0, hEntries));
+    this.hValue.set(h.value.subarray(0, hEntries));
+    const capacity = this.outColumn.length;
+    let written = 0;
+    out.rowStart[0] = 0;
+    for (let j = 0; j < cellCount;) {
+      const next = this.compactKernel!(
+        this.band.byteOffset, band - 1, j, cellCount, this.hStart.byteOffset, this.hColumn.byteOffset, this.hValue.byteOffset, hScale,
+        this.outStart.byteOffset, this.outColumn.byteOffset, this.outValue.byteOffset, written, capacity,
+      );
+      if (next === j) throw new RangeError(`Gram band: row ${j} does not fit the output`);
+      const chunk = this.outStart[next] - written;
+      if (out.column.length < written + chunk) out.grow(2 * (written + chunk));
+      out.rowStart.set(this.outStart.subarray(j + 1, next + 1), j + 1);
+      out.column.set(this.outColumn.subarray(0, chunk), written);
+      out.value.set(this.outValue.subarray(0, chunk), written);
+      written += chunk;
+      j = next;
+    }
+    return written;
   }
 
-  /** The same sums in JavaScript, where WebAssembly is not available. */
-  private plainBand = new Float64Array(0);
+  /** A fresh (zeroed) memory with a quarter more room than asked, and its views. */
+  private reserve(cells: number, band: number, rows: number, entries: number, hEntries: number): void {
+    const more = (n: number): number => Math.ceil(1.25 * Math.max(n, 1));
+    const chunk = Math.max(COMPACT_CHUNK, more(band));
+    const sizes = [
+      8 * more(cells * band), 4 * (rows + 1), 4 * more(entries), 8 * more(entries), 8 * rows,
+      4 * (cells + 1), 4 * more(hEntries), 8 * more(hEntries), 4 * (cells + 1), 4 * chunk, 8 * chunk,
+    ];
+    const { memory, starts } = memoryWithRegions(sizes);
+    const exports = new WebAssembly.Instance(compiled!, { env: { memory } }).exports;
+    this.accumulateKernel = exports.accumulate as Accumulate;
+    this.compactKernel = exports.compact as Compact;
+    const buffer = memory.buffer;
+    const int32 = (k: number): Int32Array<ArrayBuffer> => new Int32Array(buffer, starts[k], sizes[k] / 4);
+    const float64 = (k: number): Float64Array<ArrayBuffer> => new Float64Array(buffer, starts[k], sizes[k] / 8);
+    this.band = float64(0);
+    this.rowStart = new Int32Array(buffer, starts[1], rows + 1);
+    this.column = int32(2);
+    this.value = float64(3);
+    this.weight = new Float64Array(buffer, starts[4], rows);
+    this.hStart = int32(5);
+    this.hColumn = int32(6);
+    this.hValue = float64(7);
+    this.outStart = int32(8);
+    this.outColumn = int32(9);
+    this.outValue = float64(10);
+  }
 
   private accumulatePlain(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number): Float64Array {
     if (this.plainBand.length < cellCount * band) this.plainBand = new Float64Array(cellCount * band);
     accumulateGramBand(b, w, band, this.plainBand);
     return this.plainBand;
   }
+}
+
+/**
+ * WeightedGramBand's compaction in JavaScript (the kernel's twin): per row j, hScale H_jk added
+ * into the band, then the nonzeros of the band's row j (columns max(0, j - band + 1) .. j, in
+ * order) appended to `out` and cleared. Returns the entries written.
+ */
+export function compactBandRows(dense: Float64Array, band: number, h: SymmetricCsr, hScale: number, cellCount: number, out: GrowableLowerRows): number {
+  let end = 0;
+  out.rowStart[0] = 0;
+  for (let j = 0; j < cellCount; j++) {
+    const first = Math.max(0, j - band + 1);
+    if (out.column.length < end + j - first + 1) out.grow(2 * (end + j - first + 1));
+    const column = out.column, value = out.value;
+    const base = bandOffset(j, 0, band);
+    for (let k = h.rowStart[j]; k < h.rowStart[j + 1]; k++) dense[base + h.column[k]] += hScale * h.value[k];
+    for (let c = first; c <= j; c++) {
+      const v = dense[base + c];
+      if (v !== 0) {
+        column[end] = c;
+        value[end++] = v;
+        dense[base + c] = 0;
+      }
+    }
+    out.rowStart[j + 1] = end;
+  }
+  return end;
 }
 
 /** WeightedGramBand's sums in JavaScript, the same operations in the same order, into `dense` (where WebAssembly is not available). */
