@@ -14,6 +14,12 @@ export interface SimdTileKernels {
    * multiple of 4 apart) and the first blockedWidth (a multiple of 4) columns from `diagonal`.
    */
   panelSolveRows(base: number, ld: number, diagonal: number, blockedWidth: number, iFrom: number, iEnd: number): void;
+  /**
+   * Row i of columns jFrom .. jEnd - 1 (a multiple of 4 apart) less the products of their panel
+   * rows: a[i, j] -= sum_p a[i, p] a[j, p] over p = panel .. panel + width - 1 (the rows left
+   * below the last full tile of a rank update).
+   */
+  rankUpdateRow(base: number, ld: number, i: number, jFrom: number, jEnd: number, panel: number, width: number): void;
 }
 
 /** Local variable numbers of a kernel: its i32 scratch after the parameters, then the v128 ones. */
@@ -115,6 +121,40 @@ function panelSolveBody(): number[] {
   return body;
 }
 
+/**
+ * rankUpdateRow: per block of four columns j .. j + 3, two two-lane sums (columns j, j + 1 and
+ * j + 2, j + 3), each lane adding a[i, p] a[j + c, p] over p in columnProduct's order, so each
+ * entry is the same to the bit; then the four entries of row i less their lanes. Parameters
+ * (i32): base, ld, i, jFrom, jEnd, panel, width; then i32 j, pa, pb, stride, q, pc; then v128
+ * s01, s23, x.
+ */
+function rankUpdateRowBody(): number[] {
+  const [i, jFrom, jEnd, panel, width, j, pc] = [2, 3, 4, 5, 6, 7, 12];
+  const t: TileLocals = { base: 0, ld: 1, pa: 8, pb: 9, stride: 10, q: 11, firstVector: 13 };
+  const [s01, s23, x] = [t.firstVector, t.firstVector + 1, t.firstVector + 2];
+  const body: number[] = [];
+  const emit = emitter(body);
+  emit(op.localGet(t.ld), op.i32Const(3), op.i32Shl, op.localSet(t.stride), op.localGet(jFrom), op.localSet(j));
+  emit(op.block, op.loop, op.localGet(j), op.localGet(jEnd), op.i32GeS, op.brIf(1));
+  emit(op.v128Zero, op.localSet(s01), op.v128Zero, op.localSet(s23));
+  emit(address(t, op.localGet(panel), op.localGet(i)), op.localSet(t.pa), address(t, op.localGet(panel), op.localGet(j)), op.localSet(t.pb));
+  emit(op.localGet(width), op.localSet(t.q));
+  emit(op.block, op.loop, op.localGet(t.q), op.i32Eqz, op.brIf(1));
+  emit(op.localGet(t.pa), op.v128Load64Splat(0), op.localSet(x));
+  emit(op.localGet(s01), op.localGet(x), op.localGet(t.pb), op.v128Load(0), op.f64x2Mul, op.f64x2Add, op.localSet(s01));
+  emit(op.localGet(s23), op.localGet(x), op.localGet(t.pb), op.v128Load(16), op.f64x2Mul, op.f64x2Add, op.localSet(s23));
+  emit(op.localGet(t.pa), op.localGet(t.stride), op.i32Add, op.localSet(t.pa));
+  emit(op.localGet(t.pb), op.localGet(t.stride), op.i32Add, op.localSet(t.pb));
+  emit(op.localGet(t.q), op.i32Const(1), op.i32Sub, op.localSet(t.q), op.br(0), op.end, op.end);
+  emit(address(t, op.localGet(j), op.localGet(i)), op.localSet(pc));
+  for (let c = 0; c < 4; c++) {
+    emit(op.localGet(pc), op.localGet(pc), op.f64Load(0), op.localGet(c < 2 ? s01 : s23), op.f64x2ExtractLane(c & 1), op.f64Sub, op.f64Store(0));
+    emit(op.localGet(pc), op.localGet(t.stride), op.i32Add, op.localSet(pc));
+  }
+  emit(op.localGet(j), op.i32Const(4), op.i32Add, op.localSet(j), op.br(0), op.end, op.end);
+  return body;
+}
+
 const I32 = WASM_TYPE.i32;
 
 /** The compiled module, or null where WebAssembly SIMD is not available (the JavaScript kernels run instead). */
@@ -123,8 +163,9 @@ const compiled = compileWasmModule({
   functions: [
     { type: 0, locals: [[6, I32], [11, WASM_TYPE.v128]], body: rankUpdateBody() },
     { type: 1, locals: [[7, I32], [15, WASM_TYPE.v128]], body: panelSolveBody() },
+    { type: 0, locals: [[6, I32], [3, WASM_TYPE.v128]], body: rankUpdateRowBody() },
   ],
-  exports: [['rankUpdateColumns', 0], ['panelSolveRows', 1]],
+  exports: [['rankUpdateColumns', 0], ['panelSolveRows', 1], ['rankUpdateRow', 2]],
 });
 
 /** The kernels bound to each memory's buffer. */

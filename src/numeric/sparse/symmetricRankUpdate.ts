@@ -10,16 +10,29 @@ const TILE = new Float64Array(16);
  * a[first .., panel .. panel + width - 1] (the factored columns left of C, in a front of the
  * multifrontal Cholesky). Register-blocked 4 x 4 (productTile); the last size mod 4 rows
  * entry by entry. Entries above the diagonal are neither read nor written. When `a` lives in a
- * memory of the SIMD kernels (ensureSimdFloat64Capacity), the tiles below the diagonal run
- * there, with the same result to the bit.
+ * memory of the SIMD kernels (ensureSimdFloat64Capacity), the tiles below the diagonal and the
+ * last rows left of the corner run there, with the same result to the bit.
  */
 export function symmetricRankUpdate(a: Float64Array, ld: number, first: number, size: number, panel: number, width: number): void {
   if (size <= 0 || width <= 0) return;
   const blockedEnd = first + size - (size & 3);
   const simd = simdKernelsOf(a);
-  if (simd === undefined) updateTiles(a, ld, first, blockedEnd, panel, width);
-  else updateTilesSimd(a, simd, ld, first, blockedEnd, panel, width);
-  updateLastRows(a, ld, first, blockedEnd, first + size, panel, width);
+  if (simd === undefined) {
+    updateTiles(a, ld, first, blockedEnd, panel, width);
+    updateLastRows(a, ld, first, blockedEnd, first + size, panel, width);
+    return;
+  }
+  updateTilesSimd(a, simd, ld, first, blockedEnd, panel, width);
+  // The last rows: their columns left of blockedEnd in the SIMD kernel, the corner entry by entry.
+  for (let i = blockedEnd; i < first + size; i++) simd.rankUpdateRow(a.byteOffset, ld, i, first, blockedEnd, panel, width);
+  updateCorner(a, ld, blockedEnd, first + size, panel, width);
+}
+
+/** Rows blockedEnd .. end - 1 (at most three), each from column blockedEnd to its diagonal. */
+function updateCorner(a: Float64Array, ld: number, blockedEnd: number, end: number, panel: number, width: number): void {
+  for (let i = blockedEnd; i < end; i++) {
+    for (let j = blockedEnd; j <= i; j++) a[j * ld + i] -= columnProduct(a, ld, i, j, panel, width);
+  }
 }
 
 /** updateTiles with the tiles below each diagonal tile in the SIMD kernel. */
