@@ -32,6 +32,8 @@ export class BlurredMapping {
   private readonly spreadLists: SpreadLists;
   private readonly longestSpread: number;
   private readonly mt = new SparseRows();
+  /** B^T on the way to B when the caller wants only B. */
+  private readonly transposeScratch = new SparseRows();
 
   /** With a separable kernel: the two passes' buffers (null otherwise). */
   private readonly separable: SeparableBlur | null;
@@ -66,16 +68,20 @@ export class BlurredMapping {
     this.work = new Float64Array(used.length);
   }
 
-  /** B into `out` and B^T into `outTranspose`, for the mapping M of `cellCount` cells. */
-  build(mapping: SparseRows, cellCount: number, out: SparseRows, outTranspose: SparseRows): void {
+  /**
+   * B into `out` and B^T into `transposeWanted`, for the mapping M of `cellCount` cells; with
+   * transposeWanted null, B alone (B^T, where it is made on the way, in a scratch of this object).
+   */
+  build(mapping: SparseRows, cellCount: number, out: SparseRows, transposeWanted: SparseRows | null): void {
     if (this.generation > GENERATION_LIMIT) {
       this.stamp.fill(0);
       this.generation = 0;
     }
     if (this.separable !== null && this.separable.runsInWasm) {
-      this.separable.fillFromMapping(mapping, cellCount, outTranspose, out);
+      this.separable.fillFromMapping(mapping, cellCount, transposeWanted, out);
       return;
     }
+    const outTranspose = transposeWanted ?? this.transposeScratch;
     this.mt.transposeOf(mapping, cellCount);
     if (this.separable === null && this.spreadRuns) {
       this.spreadInWasm(outTranspose, cellCount);

@@ -1,7 +1,7 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
-import { rowSpan, WeightedGramBand, type GrowableLowerRows } from '../numeric/sparse/weightedGramBand.js';
-import type { SparseRows } from './sparseRows.js';
+import { projectRows, rowSpan, WeightedGramBand, type GrowableLowerRows } from '../numeric/sparse/weightedGramBand.js';
+import { SparseRows } from './sparseRows.js';
 
 /**
  * B^T W B is accumulated in a dense band of its lower triangle (S rows of the band's width,
@@ -27,21 +27,27 @@ export class NormalMatrix implements SymmetricCsr, GrowableLowerRows {
   /** b, S + K entries. */
   rhs: Float64Array<ArrayBuffer> = new Float64Array(0);
   private work = new Float64Array(0);
-  /** Per used pixel: w times one vector (d, or an analytic basis). */
+  /** Per used pixel, W d then W L_a (count blocks of n), and their products with B^T (count blocks of S). */
   private weighted = new Float64Array(0);
+  private projected = new Float64Array(0);
+  /** B^T, made here when the caller gives none and the band is too wide. */
+  private readonly ownTranspose = new SparseRows();
   private slot = new Int32Array(0);
   /** The dense band of B^T W B and its kernels (accumulation, then H added and the rows read out). */
   private readonly gram = new WeightedGramBand();
 
   /**
-   * Builds A and b. `bt` is the transpose of B (cell rows of (used pixel, value)); `hScale`
-   * multiplies H; `extras` holds K bases of n used pixels (basis a at extras[a * n + e]).
+   * Builds A and b. `bt` is the transpose of B (cell rows of (used pixel, value)), or null to
+   * have it made here when it is needed (above the dense band's limit); `hScale` multiplies H;
+   * `extras` holds K bases of n used pixels (basis a at extras[a * n + e]).
    */
   build(
-    b: SparseRows, bt: SparseRows, cellCount: number, w: Float64Array, d: Float64Array,
+    b: SparseRows, bt: SparseRows | null, cellCount: number, w: Float64Array, d: Float64Array,
     h: SymmetricCsr, hScale: number, extras: Float64Array, extraCount: number, extraPrecision: number,
   ): void {
     const size = cellCount + extraCount;
+    const n = w.length;
+    const count = 1 + extraCount;
     this.size = size;
     this.rowStart = ensureInt32Capacity(this.rowStart, size + 1);
     this.rhs = ensureFloat64Capacity(this.rhs, size);
@@ -50,18 +56,35 @@ export class NormalMatrix implements SymmetricCsr, GrowableLowerRows {
       this.slot.fill(-1);
       this.work = ensureFloat64Capacity(this.work, cellCount);
     }
-    this.weighted = ensureFloat64Capacity(this.weighted, w.length);
+    // W d, then W L_a: the vectors whose products with B^T make b and the amplitude rows.
+    const weighted = this.weighted = ensureFloat64Capacity(this.weighted, count * n);
+    for (let e = 0; e < n; e++) weighted[e] = w[e] * d[e];
+    for (let a = 0; a < extraCount; a++) for (let e = 0; e < n; e++) weighted[(1 + a) * n + e] = w[e] * extras[a * n + e];
     this.rowStart[0] = 0;
     let end = 0;
+    let projected: Float64Array;
     const band = Math.max(rowSpan(b), lowerSpan(h, cellCount));
     if (cellCount * band <= DENSE_BAND_ENTRIES) {
-      this.gram.accumulate(b, w, cellCount, band, h.rowStart[cellCount]);
+      this.gram.accumulate(b, w, cellCount, band, { hEntries: h.rowStart[cellCount], projections: count });
       end = this.gram.compactRows(h, hScale, cellCount, band, this);
+      projected = this.gram.project(weighted, count, cellCount);
     } else {
-      for (let j = 0; j < cellCount; j++) end = this.cellRow(j, end, b, bt, w, h, hScale);
+      let transposed = bt;
+      if (transposed === null) {
+        this.ownTranspose.transposeOf(b, cellCount);
+        transposed = this.ownTranspose;
+      }
+      for (let j = 0; j < cellCount; j++) end = this.cellRow(j, end, b, transposed, w, h, hScale);
+      projected = this.projected = ensureFloat64Capacity(this.projected, count * cellCount);
+      projectRows(b, weighted, count, projected, cellCount);
     }
-    for (let a = 0; a < extraCount; a++) end = this.extraRow(a, end, bt, cellCount, w, extras, extraCount, extraPrecision);
-    this.fillRhs(bt, cellCount, w, d, extras, extraCount);
+    for (let a = 0; a < extraCount; a++) end = this.extraRow(a, end, projected, cellCount, n, extras, extraPrecision);
+    for (let j = 0; j < cellCount; j++) this.rhs[j] = projected[j];
+    for (let a = 0; a < extraCount; a++) {
+      let sum = 0;
+      for (let e = 0; e < n; e++) sum += weighted[e] * extras[a * n + e];
+      this.rhs[cellCount + a] = sum;
+    }
   }
 
   /** Row j (a cell) of the lower triangle: (B^T W B)_jk for k <= j, plus hScale H_jk. */
@@ -113,41 +136,25 @@ export class NormalMatrix implements SymmetricCsr, GrowableLowerRows {
     return Math.min(bound, j + 1);
   }
 
-  /** Row cellCount + a: (L^T W B)_ak for every cell k, then (L^T W L)_ab + precision for b <= a. */
-  private extraRow(
-    a: number, end: number, bt: SparseRows, cellCount: number, w: Float64Array, extras: Float64Array,
-    extraCount: number, precision: number,
-  ): number {
-    const n = w.length;
+  /**
+   * Row cellCount + a: (L^T W B)_ak for every cell k (from the projections), then
+   * (L^T W L)_ab + precision for b <= a.
+   */
+  private extraRow(a: number, end: number, projected: Float64Array, cellCount: number, n: number, extras: Float64Array, precision: number): number {
     if (this.column.length < end + cellCount + a + 1) this.grow(2 * (end + cellCount + a + 1));
-    const { column, value } = this;
-    const weighted = this.weighted;
-    for (let e = 0; e < n; e++) weighted[e] = w[e] * extras[a * n + e];
-    projectRows(bt, cellCount, weighted, value, end);
-    for (let k = 0; k < cellCount; k++) column[end + k] = k;
-    end += cellCount;
+    const { column, value, weighted } = this;
+    for (let k = 0; k < cellCount; k++) {
+      column[end] = k;
+      value[end++] = projected[(1 + a) * cellCount + k];
+    }
     for (let c = 0; c <= a; c++) {
       let sum = 0;
-      const other = c * n;
-      for (let e = 0; e < n; e++) sum += weighted[e] * extras[other + e];
+      for (let e = 0; e < n; e++) sum += weighted[(1 + a) * n + e] * extras[c * n + e];
       column[end] = cellCount + c;
       value[end++] = c === a ? sum + precision : sum;
     }
     this.rowStart[cellCount + a + 1] = end;
     return end;
-  }
-
-  /** b = [B^T W d, L^T W d]. */
-  private fillRhs(bt: SparseRows, cellCount: number, w: Float64Array, d: Float64Array, extras: Float64Array, extraCount: number): void {
-    const n = w.length;
-    const weighted = this.weighted;
-    for (let e = 0; e < n; e++) weighted[e] = w[e] * d[e];
-    projectRows(bt, cellCount, weighted, this.rhs, 0);
-    for (let a = 0; a < extraCount; a++) {
-      let sum = 0;
-      for (let e = 0; e < n; e++) sum += weighted[e] * extras[a * n + e];
-      this.rhs[cellCount + a] = sum;
-    }
   }
 
   /** Room for `entries` entries, those written kept. */
@@ -164,17 +171,4 @@ function lowerSpan(lower: SymmetricCsr, rows: number): number {
     for (let k = lower.rowStart[r]; k < lower.rowStart[r + 1]; k++) span = Math.max(span, r - lower.column[k] + 1);
   }
   return span;
-}
-
-/**
- * out[offset + k] = sum over the entries t of row k of bt, in the row's order, of
- * weighted[bt.column[t]] bt.value[t]: with weighted_e = w_e v_e, (B^T W v)_k.
- */
-function projectRows(bt: SparseRows, rows: number, weighted: Float64Array, out: Float64Array, offset: number): void {
-  const start = bt.rowStart, column = bt.column, value = bt.value;
-  for (let k = 0; k < rows; k++) {
-    let sum = 0;
-    for (let t = start[k]; t < start[k + 1]; t++) sum += weighted[column[t]] * value[t];
-    out[offset + k] = sum;
-  }
 }

@@ -74,12 +74,12 @@ export class SeparableBlur {
   }
 
   /**
-   * B^T into `outTranspose` and B into `out` for the mapping M (computed pixels x cellCount
-   * cells), all in WebAssembly: M copied in, transposed there (SparseRows.transposeOf's counting
-   * sort), the two passes per cell, B^T transposed there, both copied out. The rows are those of
+   * B^T into `outTranspose` (unless null) and B into `out` for the mapping M (computed pixels x
+   * cellCount cells), all in WebAssembly: M copied in, transposed there (SparseRows.transposeOf's
+   * counting sort), the two passes per cell, B^T transposed there, both copied out. The rows are those of
    * transposeOf, fillTransposeRows and transposeOf to the bit. Only when runsInWasm.
    */
-  fillFromMapping(mapping: SparseRows, cellCount: number, outTranspose: SparseRows, out: SparseRows): void {
+  fillFromMapping(mapping: SparseRows, cellCount: number, outTranspose: SparseRows | null, out: SparseRows): void {
     const computed = this.xStart.length;
     const entries = mapping.rowStart[computed];
     const kx = this.alongX.length, ky = this.alongY.length;
@@ -105,7 +105,7 @@ export class SeparableBlur {
       memory = this.wasm = this.allocate(cellCount, entries, across, down, 2 * memory.room.out, memory);
     }
     memory.transposeOutput(cellCount);
-    rowsOut(memory.bt, cellCount, outTranspose);
+    if (outTranspose !== null) rowsOut(memory.bt, cellCount, outTranspose);
     rowsOut(memory.b, this.usedCount, out);
   }
 

@@ -96,7 +96,6 @@ export class SourceInversion {
   private readonly differences = emptyDifferenceRows();
   private readonly m = new SparseRows();
   private readonly b = new SparseRows();
-  private readonly bt = new SparseRows();
   private readonly cells: Int32Array;
   private readonly weights: Float64Array;
   private rowWeights = new Float64Array(0);
@@ -199,7 +198,7 @@ export class SourceInversion {
     const area = setup.grid.pixelScaleArcsec * setup.grid.pixelScaleArcsec;
     this.mapping.build(this.cells, this.weights, setup.computed.length, rays.raysPerPixel, perRay, cellCount, area, this.m);
     this.lap(2);
-    this.blurred.build(this.m, cellCount, this.b, this.bt);
+    this.blurred.build(this.m, cellCount, this.b, null);
     this.lap(3);
     this.cellPoints.x = this.mesh.cellX;
     this.cellPoints.y = this.mesh.cellY;
@@ -211,7 +210,7 @@ export class SourceInversion {
       return Number.NEGATIVE_INFINITY;
     }
     const k = setup.extraCount;
-    this.normal.build(this.b, this.bt, cellCount, setup.inverseVariance, setup.data, prior.matrix, prior.scale, extras, k, this.extraPrecision);
+    this.normal.build(this.b, null, cellCount, setup.inverseVariance, setup.data, prior.matrix, prior.scale, extras, k, this.extraPrecision);
     this.lap(5);
     const value = this.evidence.evaluate(this.normal, k, prior.logDet + k * Math.log(this.extraPrecision), this.cellPoints);
     this.lap(6);

@@ -244,5 +244,26 @@ describe('the evidence of a regularised linear inversion', () => {
       }
     }
     expect(worst).toBeLessThan(1e-9);
+    // b = [B^T W d, L^T W d] and the amplitude row's L^T W B against the dense B and L.
+    let worstProjection = 0;
+    for (let j = 0; j < p.cells; j += 7) {
+      let rhs = 0, amplitude = 0;
+      for (let e = 0; e < p.n; e++) {
+        rhs += bw.get(e, j) * p.d[e];
+        amplitude += bw.get(e, j) * p.lDense.get(e, 0);
+      }
+      const last = p.cells;
+      worstProjection = Math.max(worstProjection, Math.abs(normal.rhs[j] - rhs), Math.abs(normal.value[normal.rowStart[last] + j] - amplitude));
+      expect(normal.column[normal.rowStart[last] + j]).toBe(j);
+    }
+    expect(worstProjection).toBeLessThan(1e-9);
+    // Without B^T from the caller the matrix makes its own: the same entries to the bit.
+    const own = new NormalMatrix();
+    own.build(p.b, null, p.cells, p.w, p.d, h, p.lambda, p.extrasPacked, p.extras, 1 / (p.s * p.s));
+    const stored = normal.rowStart[normal.size];
+    expect(Array.from(own.rowStart.subarray(0, normal.size + 1))).toEqual(Array.from(normal.rowStart.subarray(0, normal.size + 1)));
+    expect(Array.from(own.column.subarray(0, stored))).toEqual(Array.from(normal.column.subarray(0, stored)));
+    expect(Array.from(own.value.subarray(0, stored))).toEqual(Array.from(normal.value.subarray(0, stored)));
+    expect(Array.from(own.rhs.subarray(0, normal.size))).toEqual(Array.from(normal.rhs.subarray(0, normal.size)));
   });
 });

@@ -1,5 +1,6 @@
 import { WASM_TYPE, compileWasmModule, element, emitter, integer, op } from '../wasm/wasmModuleBytes.js';
 import { memoryWithRegions } from '../wasm/wasmMemory.js';
+import { ensureFloat64Capacity } from './ensureCapacity.js';
 import type { SymmetricCsr } from './symmetricCsr.js';
 
 /** Compressed sparse rows whose columns increase along each row (rows rowStart[r] .. rowStart[r + 1] - 1). */
@@ -129,20 +130,54 @@ function compactBody(): number[] {
   return body;
 }
 
+/**
+ * projectRows as a WebAssembly function, the same operations in the same order: for each row e
+ * of B and each of its entries (e, c, v), out[a cellCount + c] += weighted[a rows + e] v for a =
+ * 0 .. count - 1 (out zeroed by the caller). Parameters (i32; arrays as byte addresses):
+ * rowStart, column, value, rows, weighted, count, out, cellCount; then i32 e, k, a, c, at, pw and
+ * f64 v.
+ */
+function projectBody(): number[] {
+  const [rowStart, column, value, rows, weighted, count, out, cellCount, e, k, a, c, at, pw, v] = Array.from({ length: 15 }, (_, i) => i);
+  const body: number[] = [];
+  const emit = emitter(body);
+  const get = op.localGet, set = op.localSet;
+  const { at: address, i32At } = element;
+  emit(op.i32Const(0), set(e));
+  emit(op.block, op.loop, get(e), get(rows), op.i32GeS, op.brIf(1));
+  emit(i32At(rowStart, get(e)), set(k));
+  emit(op.block, op.loop, get(k), i32At(rowStart, integer.plus(get(e), op.i32Const(1))), op.i32GeS, op.brIf(1));
+  emit(i32At(column, get(k)), set(c), element.f64At(value, get(k)), set(v));
+  emit(address(out, get(c), 3), set(at), address(weighted, get(e), 3), set(pw), op.i32Const(0), set(a));
+  emit(op.block, op.loop, get(a), get(count), op.i32GeS, op.brIf(1));
+  emit(get(at), get(at), op.f64Load(0), get(pw), op.f64Load(0), get(v), op.f64Mul, op.f64Add, op.f64Store(0));
+  emit(get(at), get(cellCount), op.i32Const(3), op.i32Shl, op.i32Add, set(at));
+  emit(get(pw), get(rows), op.i32Const(3), op.i32Shl, op.i32Add, set(pw));
+  emit(integer.increment(a), op.br(0), op.end, op.end);
+  emit(integer.increment(k), op.br(0), op.end, op.end);
+  emit(integer.increment(e), op.br(0), op.end, op.end);
+  return body;
+}
+
 const I32 = WASM_TYPE.i32;
 const F64 = WASM_TYPE.f64;
 
 /** The compiled module, or null where WebAssembly is not available (the plain loops run instead). */
 const compiled = compileWasmModule({
-  types: [[[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32, I32, F64, I32, I32, I32, I32, I32], [I32]]],
+  types: [
+    [[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32, I32, F64, I32, I32, I32, I32, I32], [I32]],
+    [[I32, I32, I32, I32, I32, I32, I32, I32], []],
+  ],
   functions: [
     { type: 0, locals: [[6, I32], [1, F64], [3, I32], [2, F64], [1, I32]], body: accumulateBody() },
     { type: 1, locals: [[6, I32], [1, F64]], body: compactBody() },
+    { type: 2, locals: [[6, I32], [1, F64]], body: projectBody() },
   ],
-  exports: [['accumulate', 0], ['compact', 1]],
+  exports: [['accumulate', 0], ['compact', 1], ['project', 2]],
 });
 
 type Accumulate = (rowStart: number, column: number, value: number, w: number, dense: number, rows: number, bandLess: number) => void;
+type Project = (rowStart: number, column: number, value: number, rows: number, weighted: number, count: number, out: number, cellCount: number) => void;
 type Compact = (
   dense: number, bandLess: number, first: number, cellCount: number, hStart: number, hColumn: number, hValue: number, hScale: number,
   outStart: number, outColumn: number, outValue: number, offset: number, capacity: number,
@@ -150,6 +185,12 @@ type Compact = (
 
 /** Entries the compacted rows are written in at a time (at least the band, so that every chunk holds a row). */
 const COMPACT_CHUNK = 1 << 18;
+
+/** What a call of `accumulate` makes room for besides B: H's entries (compactRows) and the vectors of `project`. */
+export interface GramRoom {
+  readonly hEntries?: number;
+  readonly projections?: number;
+}
 
 /** Compressed lower rows that compactRows fills: `grow(entries)` makes room for that many entries (keeping those written), then the arrays are read again. */
 export interface GrowableLowerRows {
@@ -165,13 +206,17 @@ export interface GrowableLowerRows {
  * triangle into the band, and returns the band (bandOffset layout; the array may be longer than
  * cellCount * band). Then either the caller reads it and leaves it all zero again, or
  * `compactRows` adds hScale H and reads its nonzeros out row by row, clearing it (it is zero the
- * first time and after growth). The memory and its views are made when a call needs more room
- * than they have and reused otherwise, so a call allocates nothing. With engine 'javaScript', or
- * without WebAssembly, the same operations run as plain loops.
+ * first time and after growth); `project` gives B^T W v for weighted vectors W v from the same
+ * copy of B. The memory and its views are made when a call needs more room than they have and
+ * reused otherwise, so a call allocates nothing. With engine 'javaScript', or without
+ * WebAssembly, the same operations run as plain loops.
  */
 export class WeightedGramBand {
   private accumulateKernel: Accumulate | null = null;
   private compactKernel: Compact | null = null;
+  private projectKernel: Project | null = null;
+  /** B's row count in the last accumulate. */
+  private rows = 0;
   /** Views of the kernel's memory: the band, B's row starts, columns and values, w, H's and the output's row starts, columns and values. */
   private band = new Float64Array(0);
   private rowStart = new Int32Array(0);
@@ -184,8 +229,13 @@ export class WeightedGramBand {
   private outStart = new Int32Array(0);
   private outColumn = new Int32Array(0);
   private outValue = new Float64Array(0);
-  /** The band of the plain loops. */
+  /** The weighted vectors and their projections (project). */
+  private weighted = new Float64Array(0);
+  private projected = new Float64Array(0);
+  /** The band of the plain loops, and the B they last read. */
   private plainBand = new Float64Array(0);
+  private plainRows: SortedSparseRows | null = null;
+  private plainProjected = new Float64Array(0);
 
   constructor(readonly engine: 'auto' | 'javaScript' = 'auto') {}
 
@@ -194,15 +244,18 @@ export class WeightedGramBand {
     return this.engine === 'auto' && compiled !== null;
   }
 
-  /** `hEntries`: room for the entries of the H that compactRows will add (so that it needs no new memory). */
-  accumulate(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number, hEntries = 0): Float64Array {
+  /** `room`: what compactRows and project will need after this call (so that they need no new memory). */
+  accumulate(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number, room: GramRoom = {}): Float64Array {
     if (!this.inWasm) return this.accumulatePlain(b, w, cellCount, band);
     const rows = b.rowCount;
     const entries = b.rowStart[rows];
+    const hEntries = room.hEntries ?? 0, projections = room.projections ?? 0;
     if (cellCount * band > this.band.length || rows + 1 > this.rowStart.length || entries > this.column.length
-      || cellCount + 1 > this.hStart.length || hEntries > this.hColumn.length || band > this.outColumn.length) {
-      this.reserve(cellCount, band, rows, entries, hEntries);
+      || cellCount + 1 > this.hStart.length || hEntries > this.hColumn.length || band > this.outColumn.length
+      || projections * rows > this.weighted.length || projections * cellCount > this.projected.length) {
+      this.reserve(cellCount, band, rows, entries, hEntries, projections);
     }
+    this.rows = rows;
     this.rowStart.set(b.rowStart.subarray(0, rows + 1));
     this.column.set(b.column.subarray(0, entries));
     this.value.set(b.value.subarray(0, entries));
@@ -243,18 +296,39 @@ export class WeightedGramBand {
     return written;
   }
 
+  /**
+   * After `accumulate` (with room for `count` projections): out[a cellCount + k] = sum over the
+   * rows e of B, in order, of weighted[a rows + e] B_ek, i.e. (B^T W v_a)_k for weighted = W v_a
+   * (projectRows). Returns a view of the kernel's memory, valid until the next call.
+   */
+  project(weighted: Float64Array, count: number, cellCount: number): Float64Array {
+    if (!this.inWasm) {
+      this.plainProjected = ensureFloat64Capacity(this.plainProjected, count * cellCount);
+      projectRows(this.plainRows!, weighted, count, this.plainProjected, cellCount);
+      return this.plainProjected;
+    }
+    const rows = this.rows;
+    if (count * rows > this.weighted.length || count * cellCount > this.projected.length) throw new RangeError('Gram band: accumulate was not given room for the projections');
+    this.weighted.set(weighted.subarray(0, count * rows));
+    this.projected.fill(0, 0, count * cellCount);
+    this.projectKernel!(this.rowStart.byteOffset, this.column.byteOffset, this.value.byteOffset, rows, this.weighted.byteOffset, count, this.projected.byteOffset, cellCount);
+    return this.projected;
+  }
+
   /** A fresh (zeroed) memory with a quarter more room than asked, and its views. */
-  private reserve(cells: number, band: number, rows: number, entries: number, hEntries: number): void {
+  private reserve(cells: number, band: number, rows: number, entries: number, hEntries: number, projections: number): void {
     const more = (n: number): number => Math.ceil(1.25 * Math.max(n, 1));
     const chunk = Math.max(COMPACT_CHUNK, more(band));
     const sizes = [
       8 * more(cells * band), 4 * (rows + 1), 4 * more(entries), 8 * more(entries), 8 * rows,
       4 * (cells + 1), 4 * more(hEntries), 8 * more(hEntries), 4 * (cells + 1), 4 * chunk, 8 * chunk,
+      8 * projections * rows, 8 * more(projections * cells),
     ];
     const { memory, starts } = memoryWithRegions(sizes);
     const exports = new WebAssembly.Instance(compiled!, { env: { memory } }).exports;
     this.accumulateKernel = exports.accumulate as Accumulate;
     this.compactKernel = exports.compact as Compact;
+    this.projectKernel = exports.project as Project;
     const buffer = memory.buffer;
     const int32 = (k: number): Int32Array<ArrayBuffer> => new Int32Array(buffer, starts[k], sizes[k] / 4);
     const float64 = (k: number): Float64Array<ArrayBuffer> => new Float64Array(buffer, starts[k], sizes[k] / 8);
@@ -269,9 +343,12 @@ export class WeightedGramBand {
     this.outStart = int32(8);
     this.outColumn = int32(9);
     this.outValue = float64(10);
+    this.weighted = float64(11);
+    this.projected = float64(12);
   }
 
   private accumulatePlain(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number): Float64Array {
+    this.plainRows = b;
     if (this.plainBand.length < cellCount * band) this.plainBand = new Float64Array(cellCount * band);
     accumulateGramBand(b, w, band, this.plainBand);
     return this.plainBand;
@@ -315,6 +392,22 @@ export function accumulateGramBand(b: SortedSparseRows, w: Float64Array, band: n
       const scaled = we * value[x];
       const rowX = bandOffset(column[x], 0, band);
       for (let y = from; y <= x; y++) dense[rowX + column[y]] += scaled * value[y];
+    }
+  }
+}
+
+/**
+ * WeightedGramBand.project in JavaScript (the kernel's twin): out[a cellCount + k] = sum over the
+ * rows e of b, in order, of weighted[a rows + e] b_ek, for a = 0 .. count - 1.
+ */
+export function projectRows(b: SortedSparseRows, weighted: Float64Array, count: number, out: Float64Array, cellCount: number): void {
+  const { rowStart, column, value } = b;
+  const rows = b.rowCount;
+  out.fill(0, 0, count * cellCount);
+  for (let e = 0; e < rows; e++) {
+    for (let k = rowStart[e]; k < rowStart[e + 1]; k++) {
+      const c = column[k], v = value[k];
+      for (let a = 0; a < count; a++) out[a * cellCount + c] += weighted[a * rows + e] * v;
     }
   }
 }

@@ -111,7 +111,7 @@ describe('WeightedGramBand.compactRows', () => {
       const band = Math.max(rowSpan(b), reach + 1);
       const results = [kernel, twin].map((gram) => {
         const out = rowsOf(cells, 3);
-        gram.accumulate(b, w, cells, band, h.rowStart[cells]);
+        gram.accumulate(b, w, cells, band, { hEntries: h.rowStart[cells] });
         const entries = gram.compactRows(h, scale, cells, band, out);
         expect(out.rowStart[cells], `${rows} rows, ${gram.engine}`).toBe(entries);
         return out;
@@ -156,7 +156,7 @@ describe('WeightedGramBand.compactRows', () => {
       const band = rowSpan(b);
       const [fromKernel, fromTwin] = [kernel, twin].map((gram) => {
         const out = rowsOf(cells, 10);
-        gram.accumulate(b, w, cells, band, h.rowStart[cells]);
+        gram.accumulate(b, w, cells, band, { hEntries: h.rowStart[cells] });
         gram.compactRows(h, 2, cells, band, out);
         return out;
       });
@@ -165,6 +165,37 @@ describe('WeightedGramBand.compactRows', () => {
       expect(Array.from(fromKernel.rowStart)).toEqual(Array.from(fromTwin.rowStart));
       expect(Array.from(fromKernel.value.subarray(0, entries))).toEqual(Array.from(fromTwin.value.subarray(0, entries)));
       expect(Array.from(fromKernel.column.subarray(0, entries))).toEqual(Array.from(fromTwin.column.subarray(0, entries)));
+    }
+  });
+});
+
+describe('WeightedGramBand.project', () => {
+  it('gives B^T W v as ml-matrix computes it, the kernel its twin\'s bits, for one to three vectors', () => {
+    // Reference: ml-matrix's B^T times each weighted vector; each entry a sum of at most `rows`
+    // products, so within gamma_rows (|B|^T |W v|)_k (Higham 2002, eq. 3.5, from memory).
+    const u = uniformStream(55);
+    const kernel = new WeightedGramBand();
+    const twin = new WeightedGramBand('javaScript');
+    for (const [rows, cells, width, count] of [[1, 1, 1, 1], [40, 30, 8, 2], [300, 120, 25, 3], [50, 200, 9, 1]]) {
+      const b = randomRows(rows, cells, width, u);
+      const w = Float64Array.from({ length: rows }, () => 0.5 + u());
+      const weighted = Float64Array.from({ length: count * rows }, () => u() - 0.4);
+      const band = rowSpan(b);
+      const [fromKernel, fromTwin] = [kernel, twin].map((gram) => {
+        gram.accumulate(b, w, cells, band, { projections: count });
+        return gram.project(weighted, count, cells).slice(0, count * cells);
+      });
+      expect(Array.from(fromKernel), `${rows} rows, ${count} vectors`).toEqual(Array.from(fromTwin));
+      const dense = denseOf(b, cells);
+      const gamma = (rows * UNIT_ROUNDOFF) / (1 - rows * UNIT_ROUNDOFF);
+      for (let a = 0; a < count; a++) {
+        const v = Matrix.columnVector(Array.from(weighted.subarray(a * rows, (a + 1) * rows)));
+        const expected = dense.transpose().mmul(v);
+        const magnitude = Matrix.abs(dense).transpose().mmul(Matrix.abs(v));
+        for (let k = 0; k < cells; k++) {
+          expect(Math.abs(fromTwin[a * cells + k] - expected.get(k, 0)), `${rows} rows, vector ${a}, cell ${k}`).toBeLessThanOrEqual(2 * gamma * magnitude.get(k, 0));
+        }
+      }
     }
   });
 });
