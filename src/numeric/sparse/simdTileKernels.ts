@@ -20,6 +20,8 @@ export interface SimdTileKernels {
    * below the last full tile of a rank update).
    */
   rankUpdateRow(base: number, ld: number, i: number, jFrom: number, jEnd: number, panel: number, width: number): void;
+  /** The diagonal tile of columns j .. j + 3 less its panel products, on and below the diagonal only. */
+  rankUpdateDiagonal(base: number, ld: number, j: number, panel: number, width: number): void;
 }
 
 /** Local variable numbers of a kernel: its i32 scratch after the parameters, then the v128 ones. */
@@ -155,17 +157,49 @@ function rankUpdateRowBody(): number[] {
   return body;
 }
 
+/**
+ * rankUpdateDiagonal: the tile sums of rows j .. j + 3 against themselves (emitTileSums, so each
+ * entry is productTile's to the bit), subtracted from the ten entries on and below the
+ * diagonal: whole pairs where both rows are, a single lane for the pair the diagonal cuts.
+ * Parameters (i32): base, ld, j, panel, width; then i32 pa, pb, stride, q, pc; then 11 v128.
+ */
+function rankUpdateDiagonalBody(): number[] {
+  const [j, panel, width, pc] = [2, 3, 4, 9];
+  const t: TileLocals = { base: 0, ld: 1, pa: 5, pb: 6, stride: 7, q: 8, firstVector: 10 };
+  const body: number[] = [];
+  const emit = emitter(body);
+  emit(op.localGet(t.ld), op.i32Const(3), op.i32Shl, op.localSet(t.stride));
+  emitTileSums(emit, t, op.localGet(j), op.localGet(j), op.localGet(panel), op.localGet(width));
+  emit(address(t, op.localGet(j), op.localGet(j)), op.localSet(pc));
+  const pair = (c: number, half: number): number[][] => [
+    op.localGet(pc), op.localGet(pc), op.v128Load(16 * half), op.localGet(t.firstVector + 2 * c + half), op.f64x2Sub, op.v128Store(16 * half),
+  ];
+  const lane = (c: number, row: number): number[][] => [
+    op.localGet(pc), op.localGet(pc), op.f64Load(8 * row), op.localGet(t.firstVector + 2 * c + (row >> 1)), op.f64x2ExtractLane(row & 1), op.f64Sub, op.f64Store(8 * row),
+  ];
+  for (let c = 0; c < 4; c++) {
+    // Column c: rows c .. 3 of the tile.
+    if (c === 0) emit(...pair(0, 0), ...pair(0, 1));
+    if (c === 1) emit(...lane(1, 1), ...pair(1, 1));
+    if (c === 2) emit(...pair(2, 1));
+    if (c === 3) emit(...lane(3, 3));
+    emit(op.localGet(pc), op.localGet(t.stride), op.i32Add, op.localSet(pc));
+  }
+  return body;
+}
+
 const I32 = WASM_TYPE.i32;
 
 /** The compiled module, or null where WebAssembly SIMD is not available (the JavaScript kernels run instead). */
 const compiled = compileWasmModule({
-  types: [[[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32], []]],
+  types: [[[I32, I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32, I32], []], [[I32, I32, I32, I32, I32], []]],
   functions: [
     { type: 0, locals: [[6, I32], [11, WASM_TYPE.v128]], body: rankUpdateBody() },
     { type: 1, locals: [[7, I32], [15, WASM_TYPE.v128]], body: panelSolveBody() },
     { type: 0, locals: [[6, I32], [3, WASM_TYPE.v128]], body: rankUpdateRowBody() },
+    { type: 2, locals: [[5, I32], [11, WASM_TYPE.v128]], body: rankUpdateDiagonalBody() },
   ],
-  exports: [['rankUpdateColumns', 0], ['panelSolveRows', 1], ['rankUpdateRow', 2]],
+  exports: [['rankUpdateColumns', 0], ['panelSolveRows', 1], ['rankUpdateRow', 2], ['rankUpdateDiagonal', 3]],
 });
 
 /** The kernels bound to each memory's buffer. */

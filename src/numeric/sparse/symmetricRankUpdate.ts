@@ -38,7 +38,7 @@ function updateCorner(a: Float64Array, ld: number, blockedEnd: number, end: numb
 /** updateTiles with the tiles below each diagonal tile in the SIMD kernel. */
 function updateTilesSimd(a: Float64Array, simd: SimdTileKernels, ld: number, first: number, blockedEnd: number, panel: number, width: number): void {
   for (let j = first; j < blockedEnd; j += 4) {
-    subtractDiagonalTile(a, ld, j, panel, width);
+    simd.rankUpdateDiagonal(a.byteOffset, ld, j, panel, width);
     simd.rankUpdateColumns(a.byteOffset, ld, j, j + 4, blockedEnd, panel, width);
   }
 }
