@@ -147,23 +147,23 @@ export class LinearEvidence {
     const swept = !dissect && points !== null && points.count + lastCount === normal.size;
     const kept = this.analysedFor === this.used && lastCount === this.analysedLast && swept === this.analysedSwept
       && (!(dissect || swept) || this.samePoints(points)) && this.multifrontal.isAnalysedFor(normal);
-    if (!kept) {
-      this.analysedFor = null;
-      this.order = ensureInt32Capacity(this.order, normal.size);
-      const last = this.last.subarray(0, lastCount);
-      if (dissect) {
-        this.multifrontal.analyse(normal, this.order, this.dissection.order(normal, points, last, this.order));
-      } else if (swept) {
-        this.multifrontal.analyse(normal, this.sweep.order(points, this.order, last), this.chain.build(normal.size));
-      } else {
-        this.multifrontal.analyse(normal, this.ordering.order(normal, this.order, last), this.chain.build(normal.size));
-      }
-      this.keepPoints(points);
-      this.analysedSwept = swept;
-      this.analysedFor = this.used === 'nestedDissection' ? 'nestedDissection' : 'profileChain';
-      this.analysedLast = lastCount;
+    if (kept) return this.multifrontal.factor(normal);
+    this.analysedFor = null;
+    this.order = ensureInt32Capacity(this.order, normal.size);
+    const last = this.last.subarray(0, lastCount);
+    let logDet: number;
+    if (dissect) {
+      logDet = this.multifrontal.analyseAndFactor(normal, this.order, this.dissection.order(normal, points, last, this.order));
+    } else if (swept) {
+      logDet = this.multifrontal.analyseAndFactor(normal, this.sweep.order(points, this.order, last), this.chain.build(normal.size));
+    } else {
+      logDet = this.multifrontal.analyseAndFactor(normal, this.ordering.order(normal, this.order, last), this.chain.build(normal.size));
     }
-    return this.multifrontal.factor(normal);
+    this.keepPoints(points);
+    this.analysedSwept = swept;
+    this.analysedFor = this.used === 'nestedDissection' ? 'nestedDissection' : 'profileChain';
+    this.analysedLast = lastCount;
+    return logDet;
   }
 
   private samePoints(points: PlanePoints | null): boolean {

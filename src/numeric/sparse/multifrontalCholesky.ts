@@ -181,11 +181,22 @@ export class MultifrontalCholesky implements SupernodalFactor {
     if (!this.isAnalysedFor(matrix)) {
       throw new Error('multifrontal Cholesky: the pattern differs from the one analysed; call analyse first');
     }
+    return this.factorValues(matrix);
+  }
+
+  /** The numeric pass over the analysed pattern, which `matrix` has. */
+  private factorValues(matrix: SymmetricCsr): number {
     this.factored = false;
     this.stackTop = 0;
     const logDet = this.factorSupernodes(matrix.value);
     this.factored = !Number.isNaN(logDet);
     return logDet;
+  }
+
+  /** `analyse` then `factor` of the same matrix, without checking again the pattern just analysed. */
+  analyseAndFactor(matrix: SymmetricCsr, order: Int32Array, tree: SupernodeTree): number {
+    this.analyse(matrix, order, tree);
+    return this.factorValues(matrix);
   }
 
   /**

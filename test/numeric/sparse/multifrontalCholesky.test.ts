@@ -242,6 +242,19 @@ describe('MultifrontalCholesky', () => {
     }
   });
 
+  it('gives the same factor from analyseAndFactor as from analyse and factor', () => {
+    const u = uniformStream(59);
+    for (const g of geometricCases()) {
+      const kernel = newMultifrontalKernel(16);
+      const { matrix, tree, order, logDet } = factorMultifrontal(kernel, g.matrix, u, g.points);
+      const together = new MultifrontalCholesky();
+      expect(together.analyseAndFactor(matrix, order, tree), g.matrix.name).toBe(logDet);
+      const entries = together.factorStart[together.supernodeCount];
+      expect(Array.from(together.lower.subarray(0, entries)), g.matrix.name).toEqual(Array.from(kernel.cholesky.lower.subarray(0, entries)));
+      expectSameSolutions(together, kernel.cholesky, g.matrix.n, g.matrix.name);
+    }
+  });
+
   it('handles an empty matrix: ln det 0', () => {
     const m = emptyMatrix();
     const cholesky = new MultifrontalCholesky();
