@@ -76,7 +76,8 @@ export class SeparableBlur {
   /**
    * B^T into `outTranspose` (unless null) and B into `out` for the mapping M (computed pixels x
    * cellCount cells), all in WebAssembly: M copied in, transposed there (SparseRows.transposeOf's
-   * counting sort), the two passes per cell, B^T transposed there, both copied out. The rows are those of
+   * counting sort), the two passes per cell, B^T transposed there; B^T copied out, and `out`
+   * given B as views of the kernel's memory (SparseRows.viewOf: valid until the next call). The rows are those of
    * transposeOf, fillTransposeRows and transposeOf to the bit. Only when runsInWasm.
    */
   fillFromMapping(mapping: SparseRows, cellCount: number, outTranspose: SparseRows | null, out: SparseRows): void {
@@ -106,7 +107,7 @@ export class SeparableBlur {
     }
     memory.transposeOutput(cellCount);
     if (outTranspose !== null) rowsOut(memory.bt, cellCount, outTranspose);
-    rowsOut(memory.b, this.usedCount, out);
+    out.viewOf(memory.b.start, memory.b.column, memory.b.value, this.usedCount);
   }
 
   /** A fresh memory with room for these counts (and at least what `old` had), the fixed tables copied in. */
@@ -314,9 +315,9 @@ class BlurMemory {
 
 /** A compressed-row matrix in a kernel's memory: its three arrays and their byte addresses. */
 interface RowsRegion {
-  readonly start: Int32Array;
-  readonly column: Int32Array;
-  readonly value: Float64Array;
+  readonly start: Int32Array<ArrayBuffer>;
+  readonly column: Int32Array<ArrayBuffer>;
+  readonly value: Float64Array<ArrayBuffer>;
   readonly startAt: number;
   readonly columnAt: number;
   readonly valueAt: number;
@@ -328,7 +329,7 @@ function rowsSizes(rows: number, entries: number): number[] {
 }
 
 /** The matrix whose regions are starts[first .. first + 2] (laid out by rowsSizes). */
-function rowsRegion(buffer: ArrayBufferLike, starts: number[], first: number, rows: number, entries: number): RowsRegion {
+function rowsRegion(buffer: ArrayBuffer, starts: number[], first: number, rows: number, entries: number): RowsRegion {
   const [startAt, columnAt, valueAt] = starts.slice(first, first + 3);
   return {
     start: new Int32Array(buffer, startAt, rows + 1), column: new Int32Array(buffer, columnAt, entries), value: new Float64Array(buffer, valueAt, entries),

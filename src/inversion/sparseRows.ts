@@ -35,6 +35,18 @@ export class SparseRows {
     this.rowCount = rows;
   }
 
+  /**
+   * Takes the compressed rows (start, column, value) as its arrays, without a copy: views of a
+   * kernel's memory, valid until that kernel next writes them (a later reset may write into
+   * them, or replace them when they are too short).
+   */
+  viewOf(start: Int32Array<ArrayBuffer>, column: Int32Array<ArrayBuffer>, value: Float64Array<ArrayBuffer>, rows: number): void {
+    this.rowStart = start;
+    this.column = column;
+    this.value = value;
+    this.rowCount = rows;
+  }
+
   /** Stored entries. */
   get entries(): number {
     return this.rowStart[this.rowCount];
