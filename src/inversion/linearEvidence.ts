@@ -7,6 +7,7 @@ import { NestedDissection, type PlanePoints } from '../numeric/sparse/nestedDiss
 import { PrincipalAxisOrder } from '../numeric/sparse/principalAxisOrder.js';
 import { ReverseCuthillMcKee } from '../numeric/sparse/reverseCuthillMcKee.js';
 import { SupernodeChain } from '../numeric/sparse/supernodeChain.js';
+import type { SupernodeTree } from '../numeric/sparse/supernodeTree.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
 import type { NormalMatrix } from './normalMatrix.js';
 
@@ -151,14 +152,15 @@ export class LinearEvidence {
     this.analysedFor = null;
     this.order = ensureInt32Capacity(this.order, normal.size);
     const last = this.last.subarray(0, lastCount);
-    let logDet: number;
+    let order: Int32Array = this.order;
+    let tree: SupernodeTree;
     if (dissect) {
-      logDet = this.multifrontal.analyseAndFactor(normal, this.order, this.dissection.order(normal, points, last, this.order));
-    } else if (swept) {
-      logDet = this.multifrontal.analyseAndFactor(normal, this.sweep.order(points, this.order, last), this.chain.build(normal.size));
+      tree = this.dissection.order(normal, points, last, order);
     } else {
-      logDet = this.multifrontal.analyseAndFactor(normal, this.ordering.order(normal, this.order, last), this.chain.build(normal.size));
+      order = swept ? this.sweep.order(points, order, last) : this.ordering.order(normal, order, last);
+      tree = this.chain.build(normal.size);
     }
+    const logDet = this.multifrontal.analyseAndFactor(normal, order, tree);
     this.keepPoints(points);
     this.analysedSwept = swept;
     this.analysedFor = this.used === 'nestedDissection' ? 'nestedDissection' : 'profileChain';

@@ -1,3 +1,4 @@
+import { dot } from '../numeric/sparse/dot.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
 import type { SymmetricCsr } from '../numeric/sparse/symmetricCsr.js';
 import { projectRows, rowSpan, WeightedGramBand, type GrowableLowerRows } from '../numeric/sparse/weightedGramBand.js';
@@ -65,7 +66,7 @@ export class NormalMatrix implements SymmetricCsr, GrowableLowerRows {
     let projected: Float64Array;
     const band = Math.max(rowSpan(b), lowerSpan(h, cellCount));
     if (cellCount * band <= DENSE_BAND_ENTRIES) {
-      this.gram.accumulate(b, w, cellCount, band, { hEntries: h.rowStart[cellCount], projections: count });
+      this.gram.accumulate(b, w, cellCount, band, h.rowStart[cellCount], count);
       end = this.gram.compactRows(h, hScale, cellCount, band, this);
       projected = this.gram.project(weighted, count, cellCount);
     } else {
@@ -80,11 +81,7 @@ export class NormalMatrix implements SymmetricCsr, GrowableLowerRows {
     }
     for (let a = 0; a < extraCount; a++) end = this.extraRow(a, end, projected, cellCount, n, extras, extraPrecision);
     for (let j = 0; j < cellCount; j++) this.rhs[j] = projected[j];
-    for (let a = 0; a < extraCount; a++) {
-      let sum = 0;
-      for (let e = 0; e < n; e++) sum += weighted[e] * extras[a * n + e];
-      this.rhs[cellCount + a] = sum;
-    }
+    for (let a = 0; a < extraCount; a++) this.rhs[cellCount + a] = dot(weighted, 0, extras, a * n, n);
   }
 
   /** Row j (a cell) of the lower triangle: (B^T W B)_jk for k <= j, plus hScale H_jk. */
@@ -148,8 +145,7 @@ export class NormalMatrix implements SymmetricCsr, GrowableLowerRows {
       value[end++] = projected[(1 + a) * cellCount + k];
     }
     for (let c = 0; c <= a; c++) {
-      let sum = 0;
-      for (let e = 0; e < n; e++) sum += weighted[(1 + a) * n + e] * extras[c * n + e];
+      const sum = dot(weighted, (1 + a) * n, extras, c * n, n);
       column[end] = cellCount + c;
       value[end++] = c === a ? sum + precision : sum;
     }

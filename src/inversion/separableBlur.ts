@@ -77,8 +77,9 @@ export class SeparableBlur {
    * B^T into `outTranspose` (unless null) and B into `out` for the mapping M (computed pixels x
    * cellCount cells), all in WebAssembly: M copied in, transposed there (SparseRows.transposeOf's
    * counting sort), the two passes per cell, B^T transposed there; B^T copied out, and `out`
-   * given B as views of the kernel's memory (SparseRows.viewOf: valid until the next call). The rows are those of
-   * transposeOf, fillTransposeRows and transposeOf to the bit. Only when runsInWasm.
+   * given B as views of the kernel's memory (SparseRows.viewOf: valid until the next call). The
+   * rows are those of transposeOf, fillTransposeRows and transposeOf to the bit. Only when
+   * runsInWasm.
    */
   fillFromMapping(mapping: SparseRows, cellCount: number, outTranspose: SparseRows | null, out: SparseRows): void {
     const computed = this.xStart.length;

@@ -1,13 +1,9 @@
 // The numeric operations on one dense front of MultifrontalCholesky (Duff & Reid 1983, ACM
 // Trans. Math. Software 9, 302): assembling A's entries, extend-adding a child's update matrix,
-// pushing its own update matrix to the stack, and copying and clearing fronts.
+// pushing its own update matrix to the stack, and clearing fronts.
 
 export function assembleEntries(front: Float64Array, value: Float64Array, entrySource: Int32Array, entryTarget: Int32Array, from: number, to: number): void {
   for (let t = from; t < to; t++) front[entryTarget[t]] += value[entrySource[t]];
-}
-
-export function copyRange(from: Float64Array, fromOffset: number, to: Float64Array, toOffset: number, length: number): void {
-  for (let t = 0; t < length; t++) to[toOffset + t] = from[fromOffset + t];
 }
 
 /** Copies the lower triangle of the front's trailing m x m block to the stack at `top` (m x m, column-major). */

@@ -25,17 +25,10 @@ export function symmetricRankUpdate(a: Float64Array, ld: number, first: number, 
   updateTilesSimd(a, simd, ld, first, blockedEnd, panel, width);
   // The last rows: their columns left of blockedEnd in the SIMD kernel, the corner entry by entry.
   for (let i = blockedEnd; i < first + size; i++) simd.rankUpdateRow(a.byteOffset, ld, i, first, blockedEnd, panel, width);
-  updateCorner(a, ld, blockedEnd, first + size, panel, width);
+  updateLastRows(a, ld, blockedEnd, blockedEnd, first + size, panel, width);
 }
 
-/** Rows blockedEnd .. end - 1 (at most three), each from column blockedEnd to its diagonal. */
-function updateCorner(a: Float64Array, ld: number, blockedEnd: number, end: number, panel: number, width: number): void {
-  for (let i = blockedEnd; i < end; i++) {
-    for (let j = blockedEnd; j <= i; j++) a[j * ld + i] -= columnProduct(a, ld, i, j, panel, width);
-  }
-}
-
-/** updateTiles with the tiles below each diagonal tile in the SIMD kernel. */
+/** updateTiles in the SIMD kernels: each block's diagonal tile, then the tiles below it. */
 function updateTilesSimd(a: Float64Array, simd: SimdTileKernels, ld: number, first: number, blockedEnd: number, panel: number, width: number): void {
   for (let j = first; j < blockedEnd; j += 4) {
     simd.rankUpdateDiagonal(a.byteOffset, ld, j, panel, width);

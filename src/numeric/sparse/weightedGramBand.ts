@@ -186,12 +186,6 @@ type Compact = (
 /** Entries the compacted rows are written in at a time (at least the band, so that every chunk holds a row). */
 const COMPACT_CHUNK = 1 << 18;
 
-/** What a call of `accumulate` makes room for besides B: H's entries (compactRows) and the vectors of `project`. */
-export interface GramRoom {
-  readonly hEntries?: number;
-  readonly projections?: number;
-}
-
 /** Compressed lower rows that compactRows fills: `grow(entries)` makes room for that many entries (keeping those written), then the arrays are read again. */
 export interface GrowableLowerRows {
   readonly rowStart: Int32Array;
@@ -244,12 +238,14 @@ export class WeightedGramBand {
     return this.engine === 'auto' && compiled !== null;
   }
 
-  /** `room`: what compactRows and project will need after this call (so that they need no new memory). */
-  accumulate(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number, room: GramRoom = {}): Float64Array {
+  /**
+   * `hEntries` and `projections`: the room compactRows (H's entries) and project (its vectors)
+   * will need after this call, so that they need no new memory.
+   */
+  accumulate(b: SortedSparseRows, w: Float64Array, cellCount: number, band: number, hEntries = 0, projections = 0): Float64Array {
     if (!this.inWasm) return this.accumulatePlain(b, w, cellCount, band);
     const rows = b.rowCount;
     const entries = b.rowStart[rows];
-    const hEntries = room.hEntries ?? 0, projections = room.projections ?? 0;
     if (cellCount * band > this.band.length || rows + 1 > this.rowStart.length || entries > this.column.length
       || cellCount + 1 > this.hStart.length || hEntries > this.hColumn.length || band > this.outColumn.length
       || projections * rows > this.weighted.length || projections * cellCount > this.projected.length) {

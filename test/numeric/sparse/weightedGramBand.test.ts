@@ -111,7 +111,7 @@ describe('WeightedGramBand.compactRows', () => {
       const band = Math.max(rowSpan(b), reach + 1);
       const results = [kernel, twin].map((gram) => {
         const out = rowsOf(cells, 3);
-        gram.accumulate(b, w, cells, band, { hEntries: h.rowStart[cells] });
+        gram.accumulate(b, w, cells, band, h.rowStart[cells]);
         const entries = gram.compactRows(h, scale, cells, band, out);
         expect(out.rowStart[cells], `${rows} rows, ${gram.engine}`).toBe(entries);
         return out;
@@ -156,7 +156,7 @@ describe('WeightedGramBand.compactRows', () => {
       const band = rowSpan(b);
       const [fromKernel, fromTwin] = [kernel, twin].map((gram) => {
         const out = rowsOf(cells, 10);
-        gram.accumulate(b, w, cells, band, { hEntries: h.rowStart[cells] });
+        gram.accumulate(b, w, cells, band, h.rowStart[cells]);
         gram.compactRows(h, 2, cells, band, out);
         return out;
       });
@@ -182,7 +182,7 @@ describe('WeightedGramBand.project', () => {
       const weighted = Float64Array.from({ length: count * rows }, () => u() - 0.4);
       const band = rowSpan(b);
       const [fromKernel, fromTwin] = [kernel, twin].map((gram) => {
-        gram.accumulate(b, w, cells, band, { projections: count });
+        gram.accumulate(b, w, cells, band, 0, count);
         return gram.project(weighted, count, cells).slice(0, count * cells);
       });
       expect(Array.from(fromKernel), `${rows} rows, ${count} vectors`).toEqual(Array.from(fromTwin));
