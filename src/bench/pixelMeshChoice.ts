@@ -39,8 +39,9 @@ function maximise(f: (point: Float64Array) => number, start: Float64Array, varie
 
 /**
  * `npm run bench -- pixelMeshChoice [--meshes 1000:0,2000:0,600:0.9]`: how the adaptive mesh
- * (cells:brightShare) of the pixelated demo's perturbed model moves the lens and the subhalo, and
- * which mesh the data prefer. On the mock of configs/demo-pixelated.yaml (seed 1), per mesh: the
+ * (cells:brightShare, or cells:brightShare:raysPerPixelSide to change the rays as well; the
+ * config's 2 otherwise) of the pixelated demo's perturbed model moves the lens and the subhalo,
+ * and which mesh the data prefer. On the mock of configs/demo-pixelated.yaml (seed 1), per mesh: the
  * maximum of ln L (the source marginalised, as the samplers see it) over every free parameter
  * (Nelder-Mead in three rounds, from the truth and from a start off it along the
  * ellipticity-shear direction, the better kept) and the parameters there; and the maximum with
@@ -51,15 +52,22 @@ function maximise(f: (point: Float64Array) => number, start: Float64Array, varie
  */
 export async function run(args: string[]): Promise<void> {
   const meshes = (benchOption(args, '--meshes') ?? '1000:0,2000:0,600:0.9').split(',').map((text) => {
-    const [cells, share] = text.split(':').map(Number);
-    if (!Number.isInteger(cells) || cells < 16 || !(share >= 0 && share <= 0.95)) throw new Error(`--meshes: expected cells:share pairs such as 600:0.9, found ${text}`);
-    return { cells, brightShare: share };
+    const fields = text.split(':').map(Number);
+    const [cells, share] = fields;
+    const rays = fields.length > 2 ? fields[2] : undefined;
+    const raysFit = rays === undefined || (Number.isInteger(rays) && rays >= 1);
+    if (fields.length > 3 || !Number.isInteger(cells) || cells < 16 || !(share >= 0 && share <= 0.95) || !raysFit) {
+      throw new Error(`--meshes: expected cells:share or cells:share:rays such as 600:0.9 or 600:0.9:1, found ${text}`);
+    }
+    return { mesh: { cells, brightShare: share }, rays };
   });
   const folder = mkdtempSync(join(tmpdir(), 'arcsift-bench-'));
   try {
     simulateToFolder(pixelatedDemoConfig((light) => light), folder, { seed: 1, noiseless: false });
-    for (const mesh of meshes) {
-      const config = pixelatedDemoConfig((light) => light.map((c) => (c.kind === 'pixelated' ? { ...c, mesh: { kind: 'adaptive', ...mesh } } : c)));
+    for (const { mesh, rays } of meshes) {
+      const config = pixelatedDemoConfig((light) => light.map((c) => (c.kind === 'pixelated'
+        ? { ...c, mesh: { kind: 'adaptive', ...mesh }, ...(rays === undefined ? {} : { raysPerPixelSide: rays }) }
+        : c)));
       const { observation } = config;
       const data = loadObservedData({ folder }, { columns: observation.columns, rows: observation.rows, pixelScaleArcsec: observation.pixelScaleArcsec });
       const likelihood = new PixelLikelihood(config, data, 1);
@@ -82,6 +90,7 @@ export async function run(args: string[]): Promise<void> {
       console.log(JSON.stringify({
         benchmark: 'pixelMeshChoice',
         mesh: { cells: likelihood.inversion?.sourceCellCount, brightShare: mesh.brightShare },
+        raysPerPixelSide: likelihood.system.pixelatedSource?.settings.raysPerPixelSide,
         lnLMax: Number(top.value.toFixed(2)),
         lnLMaxOtherStart: Number(Math.min(fromTruth.value, fromOff.value).toFixed(2)),
         lnLLensAtTruth: Number(held.value.toFixed(2)),
