@@ -73,8 +73,10 @@ export class LinearEvidence {
   private analysedLast = -1;
   /** Whether the kept profile analysis came from the principal-axis sweep (else from reverse Cuthill-McKee). */
   private analysedSwept = false;
-  /** A^-1 b of the last successful evaluation (the posterior mean of the unknowns). */
-  solution = new Float64Array(0);
+  /** A^-1 b once `solution` has been asked for since the last evaluation. */
+  private solved = new Float64Array(0);
+  /** Whether the last evaluation's back substitution is still to do (solution then makes it). */
+  private solutionPending = false;
   private readonly constantTerm: number;
 
   /** `data` and `inverseVariance` at the N pixels fix the first two terms. */
@@ -105,14 +107,30 @@ export class LinearEvidence {
     this.used = this.choose(normal);
     const logDetA = this.used === 'envelope' ? this.factorEnvelope(normal, lastCount)
       : this.used === 'dense' ? this.dense.factor(normal) : this.factorMultifrontal(normal, lastCount, points);
+    this.solutionPending = false;
     if (Number.isNaN(logDetA)) return Number.NaN;
-    this.solution = ensureFloat64Capacity(this.solution, size);
-    if (this.used === 'envelope') this.envelope.solve(normal.rhs, this.solution);
-    else if (this.used === 'dense') this.dense.solve(normal.rhs, this.solution);
-    else this.multifrontal.solve(normal.rhs, this.solution);
-    let quadratic = 0;
-    for (let i = 0; i < size; i++) quadratic += normal.rhs[i] * this.solution[i];
+    // b^T A^-1 b = y^T y with L y = P b: the forward half of the solve is all ln Z needs; the
+    // back half, A^-1 b itself, waits until `solution` is read (reports, model images).
+    const quadratic = this.used === 'envelope' ? this.envelope.forwardSolve(normal.rhs)
+      : this.used === 'dense' ? this.dense.forwardSolve(normal.rhs) : this.multifrontal.forwardSolve(normal.rhs);
+    this.solutionPending = true;
     return this.constantTerm + 0.5 * quadratic - 0.5 * logDetA + 0.5 * logDetPrior;
+  }
+
+  /**
+   * A^-1 b of the last evaluation when it succeeded (the posterior mean of the unknowns), made by
+   * the back substitution on the first reading after it; read it before the next evaluation.
+   */
+  get solution(): Float64Array {
+    if (this.solutionPending) {
+      const size = this.size;
+      this.solved = ensureFloat64Capacity(this.solved, size);
+      if (this.used === 'envelope') this.envelope.backSolve(this.solved);
+      else if (this.used === 'dense') this.dense.backSolve(this.solved);
+      else this.multifrontal.backSolve(this.solved);
+      this.solutionPending = false;
+    }
+    return this.solved;
   }
 
   /**

@@ -109,6 +109,16 @@ function dataSpaceEvidence(p: Problem): number {
   return -0.5 * (p.n * Math.log(2 * Math.PI) + logDet(symmetric) + quadratic);
 }
 
+/** The dense A of a normal matrix, from its stored lower triangle. */
+function denseOfNormal(normal: NormalMatrix): Matrix {
+  const a = new Matrix(normal.size, normal.size);
+  for (let i = 0; i < normal.size; i++) for (let k = normal.rowStart[i]; k < normal.rowStart[i + 1]; k++) {
+    a.set(i, normal.column[k], normal.value[k]);
+    a.set(normal.column[k], i, normal.value[k]);
+  }
+  return a;
+}
+
 describe('the evidence of a regularised linear inversion', () => {
   it('equals the marginal likelihood in data space (ml-matrix) to 1e-9 relative', () => {
     // Two routes to one Gaussian integral: A = P + R^T W R in the unknowns' space (the code) and
@@ -173,11 +183,7 @@ describe('the evidence of a regularised linear inversion', () => {
     const p = problem(400, 150, 2, 21);
     const { normal, logDetPrior } = normalOf(p);
     const size = normal.size;
-    const a = new Matrix(size, size);
-    for (let i = 0; i < size; i++) for (let k = normal.rowStart[i]; k < normal.rowStart[i + 1]; k++) {
-      a.set(i, normal.column[k], normal.value[k]);
-      a.set(normal.column[k], i, normal.value[k]);
-    }
+    const a = denseOfNormal(normal);
     const expected = inverse(a);
     for (const factorisation of ['nestedDissection', 'profileChain', 'envelope', 'dense'] as const) {
       const evidence = new LinearEvidence(p.d, p.w, factorisation);
@@ -186,6 +192,27 @@ describe('the evidence of a regularised linear inversion', () => {
       const variance = new Float64Array(size);
       evidence.inverseDiagonal(variance);
       for (let i = 0; i < size; i++) expect(Math.abs(variance[i] - expected.get(i, i))).toBeLessThan(1e-10 * expected.get(i, i));
+    }
+  });
+
+  it('gives the posterior mean A^-1 b of ml-matrix with every factorisation, read before or after the variances', () => {
+    // ln Z takes b^T A^-1 b from the forward substitution alone; the back substitution runs when
+    // `solution` is first read, from the forward half's vector kept in the factorisation, which
+    // inverseDiagonal in between must leave alone. Reference: ml-matrix's solve of the dense A.
+    const p = problem(400, 150, 2, 23);
+    const { normal, logDetPrior } = normalOf(p);
+    const size = normal.size;
+    const a = denseOfNormal(normal);
+    const expected = new CholeskyDecomposition(a).solve(Matrix.columnVector(Array.from(normal.rhs.subarray(0, size)))).getColumn(0);
+    const scale = Math.max(...expected.map(Math.abs));
+    for (const factorisation of ['nestedDissection', 'profileChain', 'envelope', 'dense'] as const) {
+      for (const variancesFirst of [false, true]) {
+        const evidence = new LinearEvidence(p.d, p.w, factorisation);
+        evidence.evaluate(normal, p.extras, logDetPrior, linePoints(p.cells));
+        if (variancesFirst) evidence.inverseDiagonal(new Float64Array(size));
+        const mean = evidence.solution;
+        for (let i = 0; i < size; i++) expect(Math.abs(mean[i] - expected[i]), `${factorisation}, variances first ${variancesFirst}: ${i}`).toBeLessThan(1e-10 * scale);
+      }
     }
   });
 

@@ -1,3 +1,5 @@
+import { dot } from './dot.js';
+import { ensureFloat64Capacity } from './ensureCapacity.js';
 import { partialCholesky } from './partialCholesky.js';
 import { ensureSimdFloat64Capacity } from './simdTileKernels.js';
 import type { SymmetricCsr } from './symmetricCsr.js';
@@ -15,6 +17,8 @@ export class DenseCholesky {
   private a = new Float64Array(0);
   private n = 0;
   private factored = false;
+  /** y = L^-1 b of the last forwardSolve. */
+  private y = new Float64Array(0);
 
   /** Order of the last factorisation. */
   get size(): number {
@@ -48,15 +52,34 @@ export class DenseCholesky {
    * substitution (Golub & Van Loan 2013, Algorithms 3.1.3 and 3.1.4); x may alias b.
    */
   solve(b: ArrayLike<number>, x: Float64Array): void {
+    this.forwardSolve(b);
+    this.backSolve(x);
+  }
+
+  /**
+   * The first half of solve: y = L^-1 b (L y = b, column by column), kept for backSolve; returns
+   * y^T y, which is b^T A^-1 b, all a Gaussian integral's exponent needs.
+   */
+  forwardSolve(b: ArrayLike<number>): number {
     if (!this.factored) throw new RangeError('DenseCholesky.solve: no successful factorisation');
     const n = this.n, a = this.a;
-    for (let i = 0; i < n; i++) x[i] = b[i];
+    this.y = ensureFloat64Capacity(this.y, n);
+    const y = this.y;
+    for (let i = 0; i < n; i++) y[i] = b[i];
     for (let j = 0; j < n; j++) {
       const c = j * n;
-      const yj = x[j] / a[c + j];
-      x[j] = yj;
-      for (let i = j + 1; i < n; i++) x[i] -= a[c + i] * yj;
+      const yj = y[j] / a[c + j];
+      y[j] = yj;
+      for (let i = j + 1; i < n; i++) y[i] -= a[c + i] * yj;
     }
+    return dot(y, 0, y, 0, n);
+  }
+
+  /** The second half of solve: x = A^-1 b (L^T x = y, column dot products) from the y of the last forwardSolve. */
+  backSolve(x: Float64Array): void {
+    if (!this.factored) throw new RangeError('DenseCholesky.solve: no successful factorisation');
+    const n = this.n, a = this.a, y = this.y;
+    for (let i = 0; i < n; i++) x[i] = y[i];
     for (let j = n - 1; j >= 0; j--) {
       const c = j * n;
       let s = x[j];

@@ -112,12 +112,26 @@ export class EnvelopeCholesky {
    * be the same array). Throws Error when there is no valid factor.
    */
   solve(b: Float64Array, x: Float64Array): void {
+    this.forwardSolve(b);
+    this.backSolve(x);
+  }
+
+  /**
+   * The first half of solve: y = L^-1 P b, kept for backSolve; returns y^T y, which is
+   * b^T A^-1 b (A = P^T L L^T P), all a Gaussian integral's exponent needs.
+   */
+  forwardSolve(b: Float64Array): number {
     if (!this.factored) throw new Error('envelope Cholesky: solve needs a successful factor first');
-    const { n, work } = this;
-    gather(b, this.orderBuffer, n, work);
+    gather(b, this.orderBuffer, this.n, this.work);
     this.forwardSubstitution();
+    return dot(this.work, 0, this.work, 0, this.n);
+  }
+
+  /** The second half of solve: x = A^-1 b from the y of the last forwardSolve (no factor since). */
+  backSolve(x: Float64Array): void {
+    if (!this.factored) throw new Error('envelope Cholesky: solve needs a successful factor first');
     this.backSubstitution();
-    scatter(work, this.orderBuffer, n, x);
+    scatter(this.work, this.orderBuffer, this.n, x);
   }
 
   /** Rows of L in turn; stops with NaN at the first pivot that is not positive. */

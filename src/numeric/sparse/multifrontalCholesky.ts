@@ -1,4 +1,5 @@
 import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js';
+import { dot } from './dot.js';
 import { FrontMemory, type FrontEngine } from './frontMemory.js';
 import { assembleEntries, pushUpdate, relativeRuns, zeroLower } from './frontOperations.js';
 import { invertPermutation } from './invertPermutation.js';
@@ -204,9 +205,24 @@ export class MultifrontalCholesky implements SupernodalFactor {
    * be the same array). Throws Error when there is no valid factor.
    */
   solve(b: Float64Array, x: Float64Array): void {
+    this.forwardSolve(b);
+    this.backSolve(x);
+  }
+
+  /**
+   * The first half of solve: y = L^-1 P b, kept for backSolve; returns y^T y, which is
+   * b^T A^-1 b (A = P^T L L^T P), all a Gaussian integral's exponent needs.
+   */
+  forwardSolve(b: Float64Array): number {
     if (!this.factored) throw new Error('multifrontal Cholesky: solve needs a successful factor first');
     gather(b, this.orderBuffer, this.n, this.work);
     this.forwardSubstitution();
+    return dot(this.work, 0, this.work, 0, this.n);
+  }
+
+  /** The second half of solve: x = A^-1 b from the y of the last forwardSolve (no factor since). */
+  backSolve(x: Float64Array): void {
+    if (!this.factored) throw new Error('multifrontal Cholesky: solve needs a successful factor first');
     this.backSubstitution();
     scatter(this.work, this.orderBuffer, this.n, x);
   }
