@@ -6,6 +6,7 @@ import { TriangulationStatus, type TriangulationStatusCode } from '../numeric/ge
 import { VertexAdjacency } from '../numeric/geometry/vertexAdjacency.js';
 import { ensureFloat64Capacity } from '../numeric/sparse/ensureCapacity.js';
 import { addDifferenceRow, type DifferenceRows, type SourceMesh } from './sourceMesh.js';
+import type { SparseRows } from './sparseRows.js';
 
 /**
  * A source mesh whose vertices are the traced source-plane positions of fixed image pixels, so its
@@ -79,6 +80,19 @@ export class AdaptiveMesh implements SourceMesh {
     }
     this.lastWeigher = this.natural;
     return this.natural.weigh(this.triangulation, bx, by, n, cells, weights);
+  }
+
+  /**
+   * The kernel merges the weights in its memory (NaturalNeighbourKernel.mappingRows) when they
+   * are its own and every cell and ray fits it; `out` then views its rows.
+   */
+  mappingRows(cells: Int32Array, weights: Float64Array, pixelCount: number, raysPerPixel: number, factor: number, out: SparseRows): boolean {
+    const kernel = this.kernel;
+    if (kernel === null || cells !== kernel.vertices || weights !== kernel.weights) return false;
+    if (this.cellCount > kernel.vertexCapacity || pixelCount * raysPerPixel > kernel.queryCapacity) return false;
+    kernel.mappingRows(pixelCount, raysPerPixel, factor);
+    out.viewOf(kernel.rowStart, kernel.rowColumn, kernel.rowValue, pixelCount);
+    return true;
   }
 
   get interpolationFallbacks(): number {

@@ -1,4 +1,5 @@
 import { ensureInt32Capacity } from '../numeric/sparse/ensureCapacity.js';
+import type { SourceMesh } from './sourceMesh.js';
 import type { SparseRows } from './sparseRows.js';
 
 /**
@@ -14,8 +15,10 @@ export class MappingMatrix {
 
   build(
     cells: Int32Array, weights: Float64Array, pixelCount: number, raysPerPixel: number, entriesPerRay: number,
-    cellCount: number, scale: number, out: SparseRows,
+    cellCount: number, scale: number, out: SparseRows, mesh?: Pick<SourceMesh, 'mappingRows'>,
   ): void {
+    // The mesh's own merge where it has one for these arrays (the same rows); here otherwise.
+    if (mesh?.mappingRows?.(cells, weights, pixelCount, raysPerPixel, scale / raysPerPixel, out) === true) return;
     if (this.slot.length < cellCount) {
       this.slot = ensureInt32Capacity(this.slot, cellCount);
       this.slot.fill(-1);

@@ -196,7 +196,7 @@ export class SourceInversion {
     this.raysOutside = this.mesh.interpolate(rays.betaX, rays.betaY, rays.count, this.cells, this.weights);
     this.rejections.triangleFallbacks += this.mesh.interpolationFallbacks;
     const area = setup.grid.pixelScaleArcsec * setup.grid.pixelScaleArcsec;
-    this.mapping.build(this.cells, this.weights, setup.computed.length, rays.raysPerPixel, perRay, cellCount, area, this.m);
+    this.mapping.build(this.cells, this.weights, setup.computed.length, rays.raysPerPixel, perRay, cellCount, area, this.m, this.mesh);
     this.lap(2);
     this.blurred.build(this.m, cellCount, this.b, null);
     this.lap(3);

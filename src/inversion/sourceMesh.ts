@@ -1,3 +1,5 @@
+import type { SparseRows } from './sparseRows.js';
+
 /** Why a mesh could not be built for a call (0: it was). */
 export const MESH_OK = 0;
 
@@ -33,6 +35,13 @@ export interface SourceMesh {
    * kernel's memory, which its interpolation then fills in place; other arrays still work.
    */
   rayBuffers(rayCount: number, cellCount: number): { cells: Int32Array; weights: Float64Array };
+  /**
+   * Optional: the mapping matrix's rows (MappingMatrix.build's, to the bit) from the `cells` and
+   * `weights` of the last interpolate(), made where they lie: the adaptive mesh merges them in
+   * its kernel's memory and hands `out` views of it. False when it cannot (other arrays, a mesh
+   * larger than the kernel); the caller then builds the rows itself.
+   */
+  mappingRows?(cells: Int32Array, weights: Float64Array, pixelCount: number, raysPerPixel: number, factor: number, out: SparseRows): boolean;
   /**
    * Rays of the last interpolate() that took a simpler rule than the mesh's own because their
    * neighbourhood was degenerate (the adaptive mesh: the holding triangle's barycentric weights

@@ -18,8 +18,11 @@ import { MAX_NATURAL_NEIGHBOURS } from './naturalNeighbourWeights.js';
 const HEADER = Object.freeze({
   qx: 0, qy: 1, vertices: 2, weights: 3, coords: 4, triangles: 5, halfedges: 6, transforms: 7,
   circles: 8, seen: 9, ring: 10, stack: 11, outside: 12, fallbacks: 13, generation: 14, hint: 15,
+  rowStart: 16, rowColumn: 17, rowValue: 18, slot: 19,
 });
-const HEADER_FIELDS = 16;
+const HEADER_FIELDS = 20;
+/** The regions after the header, in the order of the header's addresses (qx .. stack, then rows). */
+const ROW_REGIONS_FROM = 12;
 
 const PER = MAX_NATURAL_NEIGHBOURS;
 /** Half-edges the dig's stack holds (NaturalNeighbourWeights' stack length). */
@@ -39,7 +42,7 @@ const { plus, increment } = integer;
 const times = (a: number[], k: number): number[] => [...a, ...constant(k), ...op.i32Mul];
 
 // Function indices, in the order of `functions` below.
-const [WRITE_CIRCLES, WALK_TO, WEIGH_ONE, DIG_RING, LAPLACE_WEIGHTS, TRIANGLE_WEIGHTS, WEIGH_QUERIES] = [0, 1, 2, 3, 4, 5, 6];
+const [WRITE_CIRCLES, WALK_TO, WEIGH_ONE, DIG_RING, LAPLACE_WEIGHTS, TRIANGLE_WEIGHTS, WEIGH_QUERIES, MAPPING_ROWS] = [0, 1, 2, 3, 4, 5, 6, 7];
 
 /** writeCircles(triangleCount): each triangle's circumcentre and squared radius (NaturalNeighbourWeights.writeCircles). */
 function circlesBody(): number[] {
@@ -292,6 +295,49 @@ function queriesBody(): number[] {
   return body;
 }
 
+/**
+ * mappingRows(pixels, raysPerPixel, factor): MappingMatrix.fillRows on the weights in this
+ * memory, the same operations in the same order: pixel q's row merges the entries of its rays
+ * q raysPerPixel .. (q + 1) raysPerPixel - 1 (each ray's up to its first vertex -1), a cell met
+ * again adding weight times factor to its entry, a new one appending (cell, weight times factor)
+ * through `slot` (the entry of each cell in the row being built, -1 otherwise, and -1 again
+ * after the row). Writes rowStart[1 .. pixels] (rowStart[0] is 0) and returns the entries.
+ */
+function mappingRowsBody(): number[] {
+  const [pixels, raysPerPixel, factor] = [0, 1, 2];
+  const [vertex, weight, rowStart, column, value, slot, q, end, start, k, kEnd, ray, rayEnd, c, entry] = Array.from({ length: 15 }, (_, n) => 3 + n);
+  const body: number[] = [];
+  const emit = emitter(body);
+  emit(header(HEADER.vertices), set(vertex), header(HEADER.weights), set(weight), header(HEADER.rowStart), set(rowStart));
+  emit(header(HEADER.rowColumn), set(column), header(HEADER.rowValue), set(value), header(HEADER.slot), set(slot));
+  emit(constant(0), set(end), constant(0), set(q));
+  emit(op.block, op.loop, get(q), get(pixels), op.i32GeS, op.brIf(1));
+  emit(get(end), set(start), get(q), get(raysPerPixel), op.i32Mul, set(ray), plus(get(ray), get(raysPerPixel)), set(rayEnd));
+  // The pixel's rays.
+  emit(op.block, op.loop, get(ray), get(rayEnd), op.i32GeS, op.brIf(1));
+  emit(times(get(ray), PER), set(k), plus(get(k), constant(PER)), set(kEnd));
+  // The ray's cells, up to its first -1.
+  emit(op.block, op.loop, get(k), get(kEnd), op.i32GeS, op.brIf(1));
+  emit(i32At(vertex, get(k)), set(c), get(c), constant(0), op.i32LtS, op.brIf(1));
+  emit(i32At(slot, get(c)), set(entry));
+  emit(get(entry), constant(0), op.i32GeS, op.if);
+  emit(at(value, get(entry), 3), at(value, get(entry), 3), op.f64Load(0), f64At(weight, get(k)), get(factor), op.f64Mul, op.f64Add, op.f64Store(0));
+  emit(op.else);
+  emit(at(slot, get(c), 2), get(end), op.i32Store(0), at(column, get(end), 2), get(c), op.i32Store(0));
+  emit(at(value, get(end), 3), f64At(weight, get(k)), get(factor), op.f64Mul, op.f64Store(0), increment(end));
+  emit(op.end);
+  emit(increment(k), op.br(0), op.end, op.end);
+  emit(increment(ray), op.br(0), op.end, op.end);
+  // Free the row's slots.
+  emit(get(start), set(k));
+  emit(op.block, op.loop, get(k), get(end), op.i32GeS, op.brIf(1));
+  emit(at(slot, i32At(column, get(k)), 2), constant(-1), op.i32Store(0), increment(k), op.br(0), op.end, op.end);
+  emit(at(rowStart, plus(get(q), constant(1)), 2), get(end), op.i32Store(0));
+  emit(increment(q), op.br(0), op.end, op.end);
+  emit(get(end));
+  return body;
+}
+
 /** The compiled module, or null where the engine has no WebAssembly (NaturalNeighbourWeights then runs alone). */
 export const naturalNeighbourModule = compileWasmModule({
   types: [
@@ -300,6 +346,7 @@ export const naturalNeighbourModule = compileWasmModule({
     [[f64, f64, i32], [i32]],
     [[f64, f64, i32, i32], []],
     [[i32, i32, i32, i32], [i32]],
+    [[i32, i32, f64], [i32]],
   ],
   functions: [
     { type: 0, locals: [[8, i32], [11, f64]], body: circlesBody() },
@@ -309,19 +356,22 @@ export const naturalNeighbourModule = compileWasmModule({
     { type: 1, locals: [[8, i32], [9, f64]], body: laplaceBody() },
     { type: 3, locals: [[4, i32], [4, f64]], body: triangleBody() },
     { type: 4, locals: [[13, i32], [2, f64]], body: queriesBody() },
+    { type: 5, locals: [[15, i32]], body: mappingRowsBody() },
   ],
-  exports: [['writeCircles', WRITE_CIRCLES], ['weighQueries', WEIGH_QUERIES]],
+  exports: [['writeCircles', WRITE_CIRCLES], ['weighQueries', WEIGH_QUERIES], ['mappingRows', MAPPING_ROWS]],
 });
 
 type WriteCircles = (triangleCount: number) => void;
 type WeighQueries = (from: number, count: number, triangleCount: number, located: number) => number;
+type MappingRows = (pixels: number, raysPerPixel: number, factor: number) => number;
 
 /**
  * Natural-neighbour weights of up to `queryCapacity` queries on triangulations of up to
  * `vertexCapacity` vertices, in one WebAssembly memory sized once: its output `vertices` and
- * `weights` are views that a caller keeps as its own arrays (the mapping reads them in place),
- * and the memory never grows, so no view goes stale. The queries and the triangulation are
- * copied in at each call.
+ * `weights` are views that a caller keeps as its own arrays, and the memory never grows, so no
+ * view goes stale. The queries and the triangulation are copied in at each call. The same
+ * memory holds the mapping matrix's rows that mappingRows merges from the weights in place
+ * (MappingMatrix.fillRows' twin), so neither is copied out.
  */
 export class NaturalNeighbourKernel {
   readonly queryCapacity: number;
@@ -343,6 +393,11 @@ export class NaturalNeighbourKernel {
   private readonly seen: Int32Array;
   private readonly writeCircles: WriteCircles;
   private readonly weighQueries: WeighQueries;
+  private readonly mappingRowsOf: MappingRows;
+  /** The rows mappingRows writes (views of this memory, valid until its next call). */
+  readonly rowStart: Int32Array<ArrayBuffer>;
+  readonly rowColumn: Int32Array<ArrayBuffer>;
+  readonly rowValue: Float64Array<ArrayBuffer>;
 
   private constructor(module: WebAssembly.Module, queryCapacity: number, vertexCapacity: number) {
     const q = queryCapacity, v = vertexCapacity, t = Math.max(2 * vertexCapacity - 5, 0);
@@ -351,10 +406,12 @@ export class NaturalNeighbourKernel {
     this.triangleCapacity = t;
     const { memory, starts } = memoryWithRegions([
       4 * HEADER_FIELDS, 8 * q, 8 * q, 4 * PER * q, 8 * PER * q, 16 * v, 12 * t, 12 * t, 48 * t, 24 * t, 4 * t, 4 * PER, 4 * STACK,
+      4 * (q + 1), 4 * PER * q, 8 * PER * q, 4 * v,
     ]);
     const buffer = memory.buffer;
     this.header = new Int32Array(buffer, starts[0], HEADER_FIELDS);
-    this.header.set(starts.slice(1), HEADER.qx);
+    this.header.set(starts.slice(1, ROW_REGIONS_FROM + 1), HEADER.qx);
+    this.header.set(starts.slice(ROW_REGIONS_FROM + 1), HEADER.rowStart);
     this.qx = new Float64Array(buffer, starts[1], q);
     this.qy = new Float64Array(buffer, starts[2], q);
     this.vertices = new Int32Array(buffer, starts[3], PER * q);
@@ -364,9 +421,14 @@ export class NaturalNeighbourKernel {
     this.halfedges = new Int32Array(buffer, starts[7], 3 * t);
     this.transforms = new Float64Array(buffer, starts[8], 6 * t);
     this.seen = new Int32Array(buffer, starts[10], t);
+    this.rowStart = new Int32Array(buffer, starts[13], q + 1);
+    this.rowColumn = new Int32Array(buffer, starts[14], PER * q);
+    this.rowValue = new Float64Array(buffer, starts[15], PER * q);
+    new Int32Array(buffer, starts[16], v).fill(-1);
     const exports = new WebAssembly.Instance(module, { env: { memory } }).exports;
     this.writeCircles = exports.writeCircles as WriteCircles;
     this.weighQueries = exports.weighQueries as WeighQueries;
+    this.mappingRowsOf = exports.mappingRows as MappingRows;
   }
 
   /** A kernel with room for the given counts, or null where the engine has no WebAssembly. */
@@ -414,5 +476,18 @@ export class NaturalNeighbourKernel {
     }
     this.fallbacks = header[HEADER.fallbacks];
     return header[HEADER.outside];
+  }
+
+  /**
+   * MappingMatrix's rows from this memory's weights (its `fillRows`, the same entries to the
+   * bit): pixel q merges rays q raysPerPixel .. (q + 1) raysPerPixel - 1 of the last weigh,
+   * each weight times `factor`, into rowStart / rowColumn / rowValue. Returns the entries.
+   */
+  mappingRows(pixelCount: number, raysPerPixel: number, factor: number): number {
+    if (!(pixelCount >= 0 && raysPerPixel >= 1 && pixelCount * raysPerPixel <= this.queryCapacity)) {
+      throw new RangeError(`NaturalNeighbourKernel: ${pixelCount} pixels of ${raysPerPixel} rays do not fit ${this.queryCapacity} queries`);
+    }
+    this.rowStart[0] = 0;
+    return this.mappingRowsOf(pixelCount, raysPerPixel, factor);
   }
 }
