@@ -17,12 +17,10 @@ import { MAX_NATURAL_NEIGHBOURS } from './naturalNeighbourWeights.js';
  */
 const HEADER = Object.freeze({
   qx: 0, qy: 1, vertices: 2, weights: 3, coords: 4, triangles: 5, halfedges: 6, transforms: 7,
-  circles: 8, seen: 9, ring: 10, stack: 11, outside: 12, fallbacks: 13, generation: 14, hint: 15,
-  rowStart: 16, rowColumn: 17, rowValue: 18, slot: 19,
+  circles: 8, seen: 9, ring: 10, stack: 11, rowStart: 12, rowColumn: 13, rowValue: 14, slot: 15,
+  outside: 16, fallbacks: 17, generation: 18, hint: 19,
 });
 const HEADER_FIELDS = 20;
-/** The regions after the header, in the order of the header's addresses (qx .. stack, then rows). */
-const ROW_REGIONS_FROM = 12;
 
 const PER = MAX_NATURAL_NEIGHBOURS;
 /** Half-edges the dig's stack holds (NaturalNeighbourWeights' stack length). */
@@ -410,8 +408,7 @@ export class NaturalNeighbourKernel {
     ]);
     const buffer = memory.buffer;
     this.header = new Int32Array(buffer, starts[0], HEADER_FIELDS);
-    this.header.set(starts.slice(1, ROW_REGIONS_FROM + 1), HEADER.qx);
-    this.header.set(starts.slice(ROW_REGIONS_FROM + 1), HEADER.rowStart);
+    this.header.set(starts.slice(1), HEADER.qx);
     this.qx = new Float64Array(buffer, starts[1], q);
     this.qy = new Float64Array(buffer, starts[2], q);
     this.vertices = new Int32Array(buffer, starts[3], PER * q);
