@@ -1,5 +1,5 @@
 import { WASM_TYPE, compileWasmModule, element, emitter, integer, op } from '../wasm/wasmModuleBytes.js';
-import { memoryWithRegions } from '../wasm/wasmMemory.js';
+import { memoryWithRegions, withHeadroom } from '../wasm/wasmMemory.js';
 import { ensureFloat64Capacity, ensureInt32Capacity } from './ensureCapacity.js';
 import { extendAdd } from './frontOperations.js';
 import { bindSimdTileKernels } from './simdTileKernels.js';
@@ -91,9 +91,9 @@ export class FrontMemory {
 
   /** A fresh memory with a quarter more room than asked, its views and its kernels. */
   private reserve(frontEntries: number, stackEntries: number, structureEntries: number): void {
-    const fronts = Math.ceil(1.25 * Math.max(frontEntries, 1));
-    const stacked = Math.ceil(1.25 * Math.max(stackEntries, 1));
-    const rows = Math.ceil(1.25 * Math.max(structureEntries, 1));
+    const fronts = withHeadroom(frontEntries);
+    const stacked = withHeadroom(stackEntries);
+    const rows = withHeadroom(structureEntries);
     const { memory, starts } = memoryWithRegions([8 * fronts, 8 * fronts, 8 * stacked, 4 * rows, 4 * rows]);
     if (!bindSimdTileKernels(memory)) throw new Error('front memory: the SIMD tile kernels could not be bound');
     this.kernel = new WebAssembly.Instance(compiled!, { env: { memory } }).exports.extendAdd as ExtendAddKernel;

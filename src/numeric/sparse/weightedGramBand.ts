@@ -1,5 +1,5 @@
 import { WASM_TYPE, compileWasmModule, element, emitter, integer, op } from '../wasm/wasmModuleBytes.js';
-import { memoryWithRegions } from '../wasm/wasmMemory.js';
+import { memoryWithRegions, withHeadroom } from '../wasm/wasmMemory.js';
 import { ensureFloat64Capacity } from './ensureCapacity.js';
 import type { SymmetricCsr } from './symmetricCsr.js';
 
@@ -313,12 +313,11 @@ export class WeightedGramBand {
 
   /** A fresh (zeroed) memory with a quarter more room than asked, and its views. */
   private reserve(cells: number, band: number, rows: number, entries: number, hEntries: number, projections: number): void {
-    const more = (n: number): number => Math.ceil(1.25 * Math.max(n, 1));
-    const chunk = Math.max(COMPACT_CHUNK, more(band));
+    const chunk = Math.max(COMPACT_CHUNK, withHeadroom(band));
     const sizes = [
-      8 * more(cells * band), 4 * (rows + 1), 4 * more(entries), 8 * more(entries), 8 * rows,
-      4 * (cells + 1), 4 * more(hEntries), 8 * more(hEntries), 4 * (cells + 1), 4 * chunk, 8 * chunk,
-      8 * projections * rows, 8 * more(projections * cells),
+      8 * withHeadroom(cells * band), 4 * (rows + 1), 4 * withHeadroom(entries), 8 * withHeadroom(entries), 8 * rows,
+      4 * (cells + 1), 4 * withHeadroom(hEntries), 8 * withHeadroom(hEntries), 4 * (cells + 1), 4 * chunk, 8 * chunk,
+      8 * projections * rows, 8 * withHeadroom(projections * cells),
     ];
     const { memory, starts } = memoryWithRegions(sizes);
     const exports = new WebAssembly.Instance(compiled!, { env: { memory } }).exports;

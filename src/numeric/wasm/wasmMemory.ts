@@ -15,3 +15,11 @@ export function memoryWithRegions(byteLengths: readonly number[]): { memory: Web
   }
   return { memory: new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(bytes / WASM_PAGE_BYTES)) }), starts };
 }
+
+/**
+ * Entries to reserve for `n` in a memory that is replaced, not grown, when a call needs more: a
+ * quarter more than asked (at least 1), so that slowly growing sizes replace it rarely.
+ */
+export function withHeadroom(n: number): number {
+  return Math.ceil(1.25 * Math.max(n, 1));
+}
